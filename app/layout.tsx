@@ -1,0 +1,21 @@
+import type { Metadata, Viewport } from "next";
+import "@fontsource-variable/inter";
+import "./globals.css";
+import { Providers } from "@/components/providers";
+
+export const metadata: Metadata = {
+  title: { default: "Benchwarden", template: "%s · Benchwarden" },
+  description: "Plan a laser bench, predict the beam and its diffraction, assess the hazard, and get it signed off.",
+};
+
+export const viewport: Viewport = { themeColor: "#0e1316", width: "device-width", initialScale: 1 };
+
+export default function RootLayout({ children }: { children: React.ReactNode }) {
+  return (
+    <html lang="en">
+      <body className="antialiased">
+        <Providers>{children}</Providers>
+      </body>
+    </html>
+  );
+}

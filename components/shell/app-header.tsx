@@ -1,0 +1,47 @@
+import Link from "next/link";
+import { BrandMark } from "@/components/ui/brand-mark";
+import { ROLE_LABELS, rolesAllow, type Permission, type RoleName } from "@/lib/auth/permissions";
+import { SignOutButton } from "./sign-out-button";
+
+type NavItem = { href: string; label: string; needs?: Permission; external?: boolean };
+
+export function AppHeader({ name, roles, mailCatcherUrl }: { name: string; roles: RoleName[]; mailCatcherUrl?: string }) {
+  const items: NavItem[] = [
+    { href: "/", label: "Home" },
+    { href: "/benches", label: "Benches", needs: { bench: ["read"] } },
+    { href: "/admin/people", label: "People", needs: { user: ["list"] } },
+    { href: "/admin/labs", label: "Labs", needs: { lab: ["manage"] } },
+  ];
+  if (mailCatcherUrl) items.push({ href: mailCatcherUrl, label: "Caught mail", needs: { mail: ["read"] }, external: true });
+  const visible = items.filter((i) => !i.needs || rolesAllow(roles, i.needs));
+  return (
+    <header className="border-b border-line bg-panel">
+      <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
+        <Link href="/" className="flex items-center gap-2 text-accent no-underline">
+          <BrandMark />
+          <span className="text-lg font-semibold text-text">Benchwarden</span>
+        </Link>
+        <nav aria-label="Main" className="flex flex-1 flex-wrap gap-1">
+          {visible.map((i) =>
+            i.external ? (
+              <a key={i.href} href={i.href} className="rounded-md px-3 py-2 text-text no-underline hover:bg-raised" target="_blank" rel="noreferrer">
+                {i.label} ↗
+              </a>
+            ) : (
+              <Link key={i.href} href={i.href} className="rounded-md px-3 py-2 text-text no-underline hover:bg-raised">
+                {i.label}
+              </Link>
+            ),
+          )}
+        </nav>
+        <div className="flex items-center gap-3">
+          <div className="text-right leading-tight">
+            <p className="text-sm font-medium" data-testid="signed-in-name">{name}</p>
+            <p className="text-xs text-muted">{roles.map((r) => ROLE_LABELS[r]).join(" · ")}</p>
+          </div>
+          <SignOutButton />
+        </div>
+      </div>
+    </header>
+  );
+}

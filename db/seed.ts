@@ -1,0 +1,123 @@
+// Demo data, loaded once by `npm start` (skipped when the demo labs already exist). An invented
+// scenario: the Department of Applied Optics at Northmere University; no real people or places.
+import { randomUUID } from "node:crypto";
+import { hashPassword } from "better-auth/crypto";
+import { eq } from "drizzle-orm";
+import type { Database } from "@/db";
+import { account, bench, benchRevision, lab, labMember, user, type ReviewState } from "@/db/schema";
+import { contentHash } from "@/lib/bench/canonical";
+import type { BenchDocument } from "@/lib/bench/schema";
+import type { RoleName } from "@/lib/auth/permissions";
+
+export const DEMO_PASSWORD = "northmere-demo-2026";
+
+export const DEMO_LABS = [
+  { key: "imaging", name: "Coherent Imaging Lab", room: "Harbour Building B214" },
+  { key: "spectro", name: "Spectroscopy Teaching Lab", room: "Harbour Building C108" },
+] as const;
+
+type LabKey = (typeof DEMO_LABS)[number]["key"];
+
+export const DEMO_USERS: { email: string; name: string; roles: RoleName[]; labs: LabKey[] }[] = [
+  { email: "researcher@northmere.example.edu", name: "Dr. Alba Quennell", roles: ["researcher"], labs: ["imaging"] },
+  { email: "officer@northmere.example.edu", name: "Rafe Dunmore", roles: ["officer"], labs: [] },
+  { email: "technician@northmere.example.edu", name: "Kit Varga-Lind", roles: ["technician"], labs: ["imaging"] },
+  { email: "auditor@northmere.example.edu", name: "Maren Ashcombe", roles: ["auditor"], labs: [] },
+  { email: "admin@northmere.example.edu", name: "Oren Castellane", roles: ["admin"], labs: [] },
+  { email: "student@northmere.example.edu", name: "Jonah Pellworth", roles: ["researcher"], labs: ["spectro"] },
+];
+
+const heNeZones: BenchDocument = {
+  version: 1,
+  title: "HeNe through a 2 mm iris, diverging lens",
+  elements: [
+    { id: "laser-1", kind: "laser", positionMm: 0, wavelengthNm: 632.8, powerMw: 1, beamDiameterMm: 0.8 },
+    { id: "lens-1", kind: "lens", positionMm: 100, focalLengthMm: -25 },
+    { id: "iris-1", kind: "aperture", positionMm: 400, diameterMm: 2 },
+    { id: "screen-1", kind: "screen", positionMm: 1400 },
+  ],
+};
+
+const expander: BenchDocument = {
+  version: 1,
+  title: "5× expander for the interferometer arm",
+  elements: [
+    { id: "laser-1", kind: "laser", positionMm: 0, wavelengthNm: 532, powerMw: 20, beamDiameterMm: 1.0, m2: 1.1 },
+    { id: "nd-1", kind: "filter", positionMm: 60, opticalDensity: 1 },
+    { id: "lens-1", kind: "lens", positionMm: 150, focalLengthMm: 25 },
+    { id: "lens-2", kind: "lens", positionMm: 275, focalLengthMm: 125 },
+    { id: "iris-1", kind: "aperture", positionMm: 500, diameterMm: 4 },
+    { id: "screen-1", kind: "screen", positionMm: 1500 },
+    { id: "block-1", kind: "beam-block", positionMm: 1550 },
+  ],
+};
+
+const violetDiode: BenchDocument = {
+  version: 1,
+  title: "405 nm diode alignment",
+  elements: [
+    { id: "laser-1", kind: "laser", positionMm: 0, wavelengthNm: 405, powerMw: 4.5, beamDiameterMm: 1.2, m2: 1.3 },
+    { id: "iris-1", kind: "aperture", positionMm: 300, diameterMm: 1 },
+    { id: "screen-1", kind: "screen", positionMm: 900 },
+  ],
+};
+
+const teachingBench: BenchDocument = {
+  version: 1,
+  title: "Fresnel zones teaching bench",
+  elements: [
+    { id: "laser-1", kind: "laser", positionMm: 0, wavelengthNm: 635, powerMw: 0.9, beamDiameterMm: 1.5 },
+    { id: "lens-1", kind: "lens", positionMm: 80, focalLengthMm: -15 },
+    { id: "iris-1", kind: "aperture", positionMm: 350, diameterMm: 1.5 },
+    { id: "screen-1", kind: "screen", positionMm: 1100 },
+  ],
+};
+
+const DEMO_BENCHES: { lab: LabKey; author: string; doc: BenchDocument; states: ReviewState[] }[] = [
+  { lab: "imaging", author: "researcher@northmere.example.edu", doc: heNeZones, states: ["approved", "draft"] },
+  { lab: "imaging", author: "researcher@northmere.example.edu", doc: expander, states: ["submitted"] },
+  { lab: "imaging", author: "researcher@northmere.example.edu", doc: violetDiode, states: ["draft"] },
+  { lab: "spectro", author: "student@northmere.example.edu", doc: teachingBench, states: ["changes-requested", "draft"] },
+];
+
+/** Loads the demo data unless it is already there. Returns true when it loaded something. */
+export async function seedDemo(db: Database): Promise<boolean> {
+  const existing = await db.select({ id: lab.id }).from(lab).where(eq(lab.name, DEMO_LABS[0].name));
+  if (existing.length > 0) return false;
+
+  await db.transaction(async (tx) => {
+    const labIds = new Map<LabKey, string>();
+    for (const l of DEMO_LABS) {
+      const [row] = await tx.insert(lab).values({ name: l.name, room: l.room }).returning({ id: lab.id });
+      labIds.set(l.key, row.id);
+    }
+    const passwordHash = await hashPassword(DEMO_PASSWORD);
+    const userIds = new Map<string, string>();
+    for (const u of DEMO_USERS) {
+      const id = randomUUID();
+      userIds.set(u.email, id);
+      await tx.insert(user).values({ id, name: u.name, email: u.email, emailVerified: true, role: u.roles.join(",") });
+      await tx.insert(account).values({ id: randomUUID(), accountId: id, providerId: "credential", userId: id, password: passwordHash });
+      for (const key of u.labs) await tx.insert(labMember).values({ labId: labIds.get(key)!, userId: id });
+    }
+    for (const b of DEMO_BENCHES) {
+      const authorId = userIds.get(b.author)!;
+      const [row] = await tx
+        .insert(bench)
+        .values({ labId: labIds.get(b.lab)!, title: b.doc.title ?? "Untitled bench", authorId })
+        .returning({ id: bench.id });
+      let number = 1;
+      for (const state of b.states) {
+        await tx.insert(benchRevision).values({
+          benchId: row.id,
+          number: number++,
+          document: b.doc,
+          contentHash: contentHash(b.doc),
+          state,
+          createdBy: authorId,
+        });
+      }
+    }
+  });
+  return true;
+}

@@ -1,0 +1,79 @@
+// better-auth on the server: e-mail + password sign-in, sessions in PostgreSQL (Drizzle adapter),
+// roles from lib/auth/permissions.ts through the admin plugin. Accounts come only from invitations.
+import "server-only";
+import { betterAuth } from "better-auth";
+import { drizzleAdapter } from "better-auth/adapters/drizzle";
+import { nextCookies } from "better-auth/next-js";
+import { admin } from "better-auth/plugins";
+import { getDb, schema } from "@/db";
+import { env } from "@/lib/env";
+import { recordAudit } from "@/lib/server/audit";
+import { enqueueMail } from "@/lib/mail/outbox";
+import { passwordResetMail } from "@/lib/mail/templates";
+import { ac, roles } from "./permissions";
+
+function createAuth() {
+  const e = env();
+  const origin = new URL(e.APP_URL);
+  const alternates = [e.APP_URL, `${origin.protocol}//127.0.0.1:${origin.port}`, `${origin.protocol}//localhost:${origin.port}`];
+  return betterAuth({
+    appName: "Benchwarden",
+    baseURL: e.APP_URL,
+    secret: e.BETTER_AUTH_SECRET,
+    trustedOrigins: [...new Set(alternates)],
+    database: drizzleAdapter(getDb(), {
+      provider: "pg",
+      schema: { user: schema.user, session: schema.session, account: schema.account, verification: schema.verification },
+    }),
+    emailAndPassword: {
+      enabled: true,
+      disableSignUp: true,
+      minPasswordLength: 10,
+      resetPasswordTokenExpiresIn: 60 * 60,
+      revokeSessionsOnPasswordReset: true,
+      sendResetPassword: async ({ user, url }) => {
+        await enqueueMail(getDb(), passwordResetMail({ to: user.email, name: user.name, url }));
+      },
+    },
+    session: { expiresIn: 60 * 60 * 12, updateAge: 60 * 60 },
+    rateLimit: {
+      enabled: true,
+      window: 60,
+      max: 300,
+      customRules: {
+        "/sign-in/email": { window: 60, max: e.AUTH_RATE_LIMIT_MAX },
+        "/request-password-reset": { window: 60, max: 5 },
+      },
+    },
+    advanced: {
+      ipAddress: { ipAddressHeaders: ["x-forwarded-for", "x-real-ip"] },
+    },
+    databaseHooks: {
+      session: {
+        create: {
+          after: async (s) => {
+            await recordAudit(getDb(), {
+              actorId: s.userId,
+              action: "signed-in",
+              ipAddress: s.ipAddress ?? null,
+              detail: { userAgent: s.userAgent ?? null },
+            });
+          },
+        },
+      },
+    },
+    plugins: [
+      admin({ ac, roles, defaultRole: "researcher", adminRoles: ["admin"] }),
+      nextCookies(), // must stay last
+    ],
+  });
+}
+
+type Auth = ReturnType<typeof createAuth>;
+const globalForAuth = globalThis as unknown as { benchwardenAuth?: Auth };
+
+/** The better-auth instance, built on first use so that `next build` needs no environment. */
+export function getAuth(): Auth {
+  globalForAuth.benchwardenAuth ??= createAuth();
+  return globalForAuth.benchwardenAuth;
+}

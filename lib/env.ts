@@ -1,0 +1,42 @@
+// Environment variables, parsed once with zod on first use. A missing or wrong value stops the
+// server with a sentence naming the variable and what to set; scripts/start.ts sets them all.
+import { z } from "zod";
+
+const envSchema = z.object({
+  DATABASE_URL: z
+    .string({ error: "DATABASE_URL is not set: give the PostgreSQL URL, e.g. postgres://user:pw@127.0.0.1:5433/benchwarden" })
+    .startsWith("postgres", "DATABASE_URL must be a postgres:// URL"),
+  BETTER_AUTH_SECRET: z
+    .string({ error: "BETTER_AUTH_SECRET is not set: give a random string of at least 32 characters" })
+    .min(32, "BETTER_AUTH_SECRET must be at least 32 characters long"),
+  APP_URL: z.url({ error: "APP_URL must be the app's public URL, e.g. http://127.0.0.1:3000" }).default("http://127.0.0.1:3000"),
+  SMTP_HOST: z.string().min(1, "SMTP_HOST must name the SMTP server").default("127.0.0.1"),
+  SMTP_PORT: z.coerce
+    .number({ error: "SMTP_PORT must be a port number" })
+    .int("SMTP_PORT must be a whole number")
+    .min(1, "SMTP_PORT must be between 1 and 65535")
+    .max(65535, "SMTP_PORT must be between 1 and 65535")
+    .default(2525),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  SMTP_SECURE: z.enum(["true", "false"], { error: "SMTP_SECURE must be true or false" }).default("false"),
+  MAIL_FROM: z.string().min(3, "MAIL_FROM must be a sender address").default("Benchwarden <benchwarden@optics.example.edu>"),
+  MAIL_CATCHER_URL: z.url({ error: "MAIL_CATCHER_URL must be a URL" }).optional(),
+  /** Tests lower better-auth's sign-in rate limit window; the product keeps it on. */
+  AUTH_RATE_LIMIT_MAX: z.coerce.number().int().min(1).default(10),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+let cached: Env | null = null;
+
+export function env(): Env {
+  if (cached) return cached;
+  const parsed = envSchema.safeParse(process.env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  - ${i.path.join(".")}: ${i.message}`);
+    throw new Error(`Benchwarden cannot start: the environment is incomplete.\n${lines.join("\n")}`);
+  }
+  cached = parsed.data;
+  return cached;
+}

@@ -1,0 +1,39 @@
+// Typed errors: a code, an HTTP status and a sentence a user can read. Turned into a response in
+// one place (lib/server/api.ts); details for the log stay out of the response.
+export type ErrorCode =
+  | "bad-request"
+  | "unauthenticated"
+  | "forbidden"
+  | "not-found"
+  | "conflict"
+  | "payload-too-large"
+  | "rate-limited"
+  | "internal";
+
+const STATUS: Record<ErrorCode, number> = {
+  "bad-request": 400,
+  unauthenticated: 401,
+  forbidden: 403,
+  "not-found": 404,
+  conflict: 409,
+  "payload-too-large": 413,
+  "rate-limited": 429,
+  internal: 500,
+};
+
+export type FieldProblem = { path: string; message: string };
+
+export class AppError extends Error {
+  readonly status: number;
+  constructor(
+    readonly code: ErrorCode,
+    message: string,
+    readonly fields: FieldProblem[] = [],
+  ) {
+    super(message);
+    this.status = STATUS[code];
+  }
+}
+
+export const notFound = (what: string) => new AppError("not-found", `${what} was not found, or you may not see it.`);
+export const forbidden = (why: string) => new AppError("forbidden", why);

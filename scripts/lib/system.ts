@@ -1,0 +1,70 @@
+// Helpers shared by `npm start` and `npm test`: paths, logging, child processes that stop when we
+// stop. (Debian packages and npm dependencies are installed earlier, by scripts/bootstrap.sh.)
+import { spawn, type ChildProcess, type SpawnOptions } from "node:child_process";
+import { existsSync, readdirSync } from "node:fs";
+import path from "node:path";
+
+export const ROOT = path.resolve(import.meta.dirname, "../..");
+
+export function log(message: string): void {
+  process.stdout.write(`[benchwarden] ${message}\n`);
+}
+
+export function isRoot(): boolean {
+  return typeof process.getuid === "function" && process.getuid() === 0;
+}
+
+export function postgresBinDir(): string | null {
+  const base = "/usr/lib/postgresql";
+  if (!existsSync(base)) return null;
+  const versions = readdirSync(base)
+    .filter((v) => existsSync(path.join(base, v, "bin/initdb")))
+    .sort((a, b) => Number(b) - Number(a));
+  return versions.length ? path.join(base, versions[0], "bin") : null;
+}
+
+const children = new Set<ChildProcess>();
+
+/** Spawns a process that is stopped (SIGTERM, then SIGKILL) when stopChildren runs. */
+export function startChild(name: string, command: string, args: string[], options: SpawnOptions = {}): ChildProcess {
+  const child = spawn(command, args, { cwd: ROOT, stdio: "inherit", ...options });
+  children.add(child);
+  child.on("exit", (code, signal) => {
+    children.delete(child);
+    if (!stopping && code !== 0) log(`${name} exited (${signal ?? code})`);
+  });
+  return child;
+}
+
+let stopping = false;
+
+export async function stopChildren(): Promise<void> {
+  stopping = true;
+  const waits = [...children].map(
+    (child) =>
+      new Promise<void>((resolve) => {
+        if (child.exitCode !== null || child.signalCode !== null) return resolve();
+        const timer = setTimeout(() => child.kill("SIGKILL"), 5000);
+        child.once("exit", () => {
+          clearTimeout(timer);
+          resolve();
+        });
+        child.kill("SIGTERM");
+      }),
+  );
+  await Promise.all(waits);
+}
+
+export async function waitForHttp(url: string, timeoutMs: number): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    try {
+      const res = await fetch(url, { redirect: "manual" });
+      if (res.status < 500) return;
+    } catch {
+      /* not up yet */
+    }
+    if (Date.now() > deadline) throw new Error(`${url} did not answer within ${timeoutMs / 1000} s`);
+    await new Promise((r) => setTimeout(r, 250));
+  }
+}
