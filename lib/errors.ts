@@ -16,7 +16,7 @@ const STATUS: Record<ErrorCode, number> = {
   forbidden: 403,
   "not-found": 404,
   conflict: 409,
-  "payload-too-large": 413,
+  "payload-too-large": 400, // the API contract lists an oversized body among the 400s
   "rate-limited": 429,
   internal: 500,
 };

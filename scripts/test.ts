@@ -1,0 +1,80 @@
+// `npm test`: a throwaway PostgreSQL cluster and mail catcher on their own ports, the production
+// build served on :3100, then every test — vitest (unit, integration, HTTP) and Playwright in
+// Debian's chromium. Ends with one plain line "N passed, N failed"; non-zero exit on any failure.
+import { spawnSync } from "node:child_process";
+import { existsSync, mkdirSync, readFileSync, rmSync } from "node:fs";
+import path from "node:path";
+import { buildIfStale } from "./lib/build";
+import { stopCluster } from "./lib/postgres";
+import { NEXT, provision, TSX } from "./lib/provision";
+import { log, ROOT, startChild, stopChildren, waitForHttp } from "./lib/system";
+
+const ports = { app: 3100, postgres: 5434, smtp: 2526, catcherWeb: 1081 };
+const dataDir = path.join(ROOT, ".data/test");
+const resultsDir = path.join(ROOT, "test-results");
+
+type Counts = { passed: number; failed: number };
+
+function vitestCounts(file: string): Counts {
+  if (!existsSync(file)) return { passed: 0, failed: 1 };
+  const report = JSON.parse(readFileSync(file, "utf8")) as { numPassedTests: number; numFailedTests: number; numTotalTestSuites: number; success: boolean };
+  // A suite that fails to load has no failed test in it; count it so the run cannot look green.
+  const brokenSuites = report.success || report.numFailedTests > 0 ? 0 : 1;
+  return { passed: report.numPassedTests, failed: report.numFailedTests + brokenSuites };
+}
+
+function playwrightCounts(file: string): Counts {
+  if (!existsSync(file)) return { passed: 0, failed: 1 };
+  const report = JSON.parse(readFileSync(file, "utf8")) as { stats: { expected: number; unexpected: number; flaky: number }; errors?: unknown[] };
+  return { passed: report.stats.expected + report.stats.flaky, failed: report.stats.unexpected + (report.errors?.length ?? 0) };
+}
+
+function run(command: string, args: string[], env: NodeJS.ProcessEnv): number {
+  const result = spawnSync(command, args, { cwd: ROOT, stdio: "inherit", env });
+  return result.status ?? 1;
+}
+
+async function main(): Promise<number> {
+  const started = Date.now();
+  rmSync(dataDir, { recursive: true, force: true });
+  mkdirSync(resultsDir, { recursive: true });
+  for (const f of ["vitest.json", "playwright.json"]) rmSync(path.join(resultsDir, f), { force: true });
+
+  const { cluster, env, superUrl } = await provision({ dataDir, ports, dbName: "benchwarden_test", seed: true, rateLimitMax: 30 });
+  const testEnv = { ...env, TEST_SUPERUSER_URL: superUrl, MAIL_WORKER_INTERVAL_MS: "300" };
+  try {
+    startChild("mail catcher", TSX, ["scripts/mail-catcher.ts"], { env: testEnv });
+    buildIfStale();
+    startChild("app", NEXT, ["start", "-H", "127.0.0.1", "-p", String(ports.app)], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
+    startChild("mail worker", TSX, ["scripts/mail-worker.ts"], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
+    await waitForHttp(`${env.APP_URL}/sign-in`, 60_000);
+    await waitForHttp(`${env.MAIL_CATCHER_URL}/api/messages`, 30_000);
+
+    log("vitest: unit, integration and HTTP tests");
+    run(path.join(ROOT, "node_modules/.bin/vitest"), ["run", "--reporter=default", "--reporter=json", `--outputFile.json=${path.join(resultsDir, "vitest.json")}`], testEnv);
+    log("Playwright: end-to-end tests in /usr/bin/chromium");
+    run(path.join(ROOT, "node_modules/.bin/playwright"), ["test"], testEnv);
+  } finally {
+    await stopChildren();
+    stopCluster(cluster);
+    rmSync(dataDir, { recursive: true, force: true });
+    if (cluster.dataDir.startsWith("/var/tmp/benchwarden")) rmSync(cluster.dataDir, { recursive: true, force: true });
+  }
+
+  const v = vitestCounts(path.join(resultsDir, "vitest.json"));
+  const p = playwrightCounts(path.join(resultsDir, "playwright.json"));
+  const passed = v.passed + p.passed;
+  const failed = v.failed + p.failed;
+  log(`vitest ${v.passed} passed, ${v.failed} failed; Playwright ${p.passed} passed, ${p.failed} failed; ${((Date.now() - started) / 1000).toFixed(0)} s`);
+  process.stdout.write(`${passed} passed, ${failed} failed\n`);
+  return failed === 0 && passed > 0 ? 0 : 1;
+}
+
+main()
+  .then((code) => process.exit(code))
+  .catch(async (error: unknown) => {
+    console.error(`[benchwarden] test run failed: ${error instanceof Error ? error.stack : String(error)}`);
+    await stopChildren();
+    process.stdout.write("0 passed, 1 failed\n");
+    process.exit(1);
+  });

@@ -1,0 +1,121 @@
+// The permissions matrix over HTTP: every demo role against every route that exists, through the
+// real server, better-auth sessions and PostgreSQL. Expected statuses come from lib/auth/permissions.ts
+// as the product means it (researchers and technicians see their labs; officers and auditors all labs).
+import { beforeAll, describe, expect, it } from "vitest";
+import { call, DEMO, signIn, type DemoKey } from "../support/http";
+
+const cookies = {} as Record<DemoKey, string>;
+let imagingLabId = "";
+let imagingBenchId = "";
+
+beforeAll(async () => {
+  for (const key of Object.keys(DEMO) as DemoKey[]) {
+    const { status, cookie } = await signIn(DEMO[key]);
+    expect(status, `${key} signs in`).toBe(200);
+    cookies[key] = cookie;
+  }
+  const labs = await call("GET", "/api/labs", cookies.admin);
+  imagingLabId = (labs.json!.labs as { id: string; name: string }[]).find((l) => l.name === "Coherent Imaging Lab")!.id;
+  const benches = await call("GET", "/api/benches", cookies.researcher);
+  imagingBenchId = (benches.json!.benches as { id: string; labId: string }[]).find((b) => b.labId === imagingLabId)!.id;
+});
+
+type Row = { label: string; method: string; path: () => string; body?: () => unknown; expect: Record<DemoKey | "anonymous", number> };
+
+const matrix: Row[] = [
+  { label: "list benches", method: "GET", path: () => "/api/benches", expect: { anonymous: 401, researcher: 200, officer: 200, technician: 200, auditor: 200, admin: 403, student: 200 } },
+  {
+    label: "create a bench in the Coherent Imaging Lab",
+    method: "POST",
+    path: () => "/api/benches",
+    body: () => ({ labId: imagingLabId, title: "Matrix test bench" }),
+    expect: { anonymous: 401, researcher: 201, officer: 403, technician: 403, auditor: 403, admin: 403, student: 403 },
+  },
+  {
+    label: "read a Coherent Imaging Lab bench",
+    method: "GET",
+    path: () => `/api/benches/${imagingBenchId}`,
+    expect: { anonymous: 401, researcher: 200, officer: 200, technician: 200, auditor: 200, admin: 403, student: 404 },
+  },
+  { label: "list labs", method: "GET", path: () => "/api/labs", expect: { anonymous: 401, researcher: 200, officer: 200, technician: 200, auditor: 200, admin: 200, student: 200 } },
+  {
+    label: "add a lab",
+    method: "POST",
+    path: () => "/api/labs",
+    body: () => ({ name: `Matrix lab ${Math.random().toString(36).slice(2, 8)}`, room: "M1" }),
+    expect: { anonymous: 401, researcher: 403, officer: 403, technician: 403, auditor: 403, admin: 201, student: 403 },
+  },
+  { label: "list people", method: "GET", path: () => "/api/people", expect: { anonymous: 401, researcher: 403, officer: 403, technician: 403, auditor: 403, admin: 200, student: 403 } },
+  {
+    label: "invite a person",
+    method: "POST",
+    path: () => "/api/invitations",
+    body: () => ({ email: `matrix-${Math.random().toString(36).slice(2, 8)}@northmere.example.edu`, name: "Matrix Person", roles: ["technician"], labIds: [] }),
+    expect: { anonymous: 401, researcher: 403, officer: 403, technician: 403, auditor: 403, admin: 201, student: 403 },
+  },
+];
+
+describe("permissions matrix", () => {
+  for (const row of matrix) {
+    for (const who of ["anonymous", ...Object.keys(DEMO)] as (DemoKey | "anonymous")[]) {
+      it(`${row.label} (${row.method}) as ${who} → ${row.expect[who]}`, async () => {
+        const res = await call(row.method, row.path(), who === "anonymous" ? undefined : cookies[who], row.body?.());
+        expect(res.status).toBe(row.expect[who]);
+        if (res.status === 403) expect(String((res.json!.error as { message: string }).message)).toMatch(/may not|only create benches in a lab/);
+      });
+    }
+  }
+});
+
+describe("what responses reveal", () => {
+  it("lists people without password hashes or tokens", async () => {
+    const res = await call("GET", "/api/people", cookies.admin);
+    expect(res.text).not.toMatch(/password|scrypt|token/i);
+    expect((res.json!.people as unknown[]).length).toBeGreaterThanOrEqual(6);
+  });
+
+  it("a student of another lab cannot tell whether the bench exists", async () => {
+    const existing = await call("GET", `/api/benches/${imagingBenchId}`, cookies.student);
+    const missing = await call("GET", "/api/benches/00000000-0000-4000-8000-000000000000", cookies.student);
+    expect(existing.status).toBe(404);
+    expect(missing.status).toBe(404);
+    expect(existing.json).toEqual(missing.json);
+  });
+
+  it("a researcher cannot create a bench in a lab they do not belong to", async () => {
+    const labs = await call("GET", "/api/labs", cookies.student);
+    const imaging = (labs.json!.labs as { id: string; name: string }[]).find((l) => l.name === "Coherent Imaging Lab")!;
+    const res = await call("POST", "/api/benches", cookies.student, { labId: imaging.id, title: "Not mine" });
+    expect(res.status).toBe(403);
+    expect((res.json!.error as { message: string }).message).toBe("You can only create benches in a lab you belong to.");
+  });
+});
+
+describe("bad input gets a 400 naming the field", () => {
+  it("malformed JSON", async () => {
+    const res = await call("POST", "/api/benches", cookies.researcher, "{not json");
+    expect(res.status).toBe(400);
+    expect((res.json!.error as { message: string }).message).toMatch(/not valid JSON/);
+  });
+
+  it("missing title and a lab id that is not an id", async () => {
+    const res = await call("POST", "/api/benches", cookies.researcher, { labId: "imaging" });
+    expect(res.status).toBe(400);
+    const fields = (res.json!.error as { fields: { path: string; message: string }[] }).fields;
+    expect(fields.map((f) => f.path).sort()).toEqual(["labId", "title"]);
+  });
+
+  it("a body over 256 kB", async () => {
+    const res = await call("POST", "/api/benches", cookies.researcher, { labId: imagingLabId, title: "x".repeat(300_000) });
+    expect(res.status).toBe(400);
+    expect((res.json!.error as { code: string }).code).toBe("payload-too-large");
+  });
+
+  it("an invitation with a bad e-mail and an unknown role", async () => {
+    const res = await call("POST", "/api/invitations", cookies.admin, { email: "not-an-address", name: "X Y", roles: ["wizard"] });
+    expect(res.status).toBe(400);
+    const fields = (res.json!.error as { fields: { path: string; message: string }[] }).fields;
+    expect(fields.find((f) => f.path === "email")?.message).toBe("Enter a valid e-mail address");
+    expect(fields.find((f) => f.path.startsWith("roles"))?.message).toMatch(/Each role must be one of/);
+  });
+});
