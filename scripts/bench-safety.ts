@@ -1,0 +1,77 @@
+// Benchmark of the bench-level laser hazard assessment (lib/safety assessBench) on a 20-element bench; target median ≤ 0.5 ms.
+// Run directly with `npx tsx scripts/bench-safety.ts`, or import runSafetyBench from the project's bench runner.
+import { pathToFileURL } from "node:url";
+import type { BenchDocument, BenchElement } from "../lib/bench/schema";
+import { assessBench, type BenchBeam } from "../lib/safety/bench";
+
+export type BenchFigure = { name: string; value: number; unit: string; target: string };
+
+/** A 20-element bench: laser, expander, iris, filters, focusing lens, apertures and a screen. */
+function twentyElementBench(): BenchDocument {
+  const els: BenchElement[] = [{ id: "laser", kind: "laser", positionMm: 0, wavelengthNm: 532, powerMw: 200, beamDiameterMm: 1.5, m2: 1.1 }];
+  const kinds: BenchElement["kind"][] = ["lens", "lens", "aperture", "filter", "lens", "aperture", "filter", "lens", "aperture", "lens"];
+  let pos = 0;
+  for (let i = 0; els.length < 19; i++) {
+    pos += 40;
+    const kind = kinds[i % kinds.length];
+    const id = `e${i}`;
+    if (kind === "lens") els.push({ id, kind, positionMm: pos, focalLengthMm: i % 2 === 0 ? 100 : -50 });
+    else if (kind === "aperture") els.push({ id, kind, positionMm: pos, diameterMm: 5 });
+    else els.push({ id, kind: "filter", positionMm: pos, opticalDensity: 0.3 });
+  }
+  els.push({ id: "screen", kind: "screen", positionMm: pos + 200 });
+  return { version: 1, elements: els };
+}
+
+/** The beam at each element from the Gaussian q-parameter, standing in for the optics engine. */
+function gaussianBeam(doc: BenchDocument): BenchBeam {
+  const laser = doc.elements[0];
+  if (laser.kind !== "laser") throw new Error("the first element must be the laser");
+  const λm2 = laser.wavelengthNm * 1e-6 * (laser.m2 ?? 1);
+  const w0 = laser.beamDiameterMm / 2;
+  let re = 0;
+  let im = (Math.PI * w0 * w0) / λm2;
+  let pos = laser.positionMm;
+  let power = laser.powerMw;
+  return {
+    elements: doc.elements.map((e) => {
+      if (e.kind === "laser") return { id: e.id, kind: e.kind, positionMm: e.positionMm, incident: { radiusMm: w0, wavefrontRadiusMm: null, powerMw: power } };
+      re += e.positionMm - pos;
+      pos = e.positionMm;
+      const d = re * re + im * im;
+      let invRe = re / d;
+      const invIm = -im / d;
+      const w = Math.sqrt(-λm2 / (Math.PI * invIm));
+      const incident = { radiusMm: w, wavefrontRadiusMm: invRe === 0 ? null : 1 / invRe, powerMw: power };
+      if (e.kind === "lens") {
+        invRe -= 1 / e.focalLengthMm;
+        const dd = invRe * invRe + invIm * invIm;
+        re = invRe / dd;
+        im = -invIm / dd;
+      } else if (e.kind === "filter") power *= 10 ** -e.opticalDensity;
+      else if (e.kind === "aperture") power *= -Math.expm1((-2 * (e.diameterMm / 2) ** 2) / (w * w));
+      return { id: e.id, kind: e.kind, positionMm: e.positionMm, incident };
+    }),
+  };
+}
+
+export async function runSafetyBench(): Promise<BenchFigure[]> {
+  const doc = twentyElementBench();
+  const beam = gaussianBeam(doc);
+  const batch = 50;
+  const samples: number[] = [];
+  for (let i = 0; i < 200; i++) assessBench(doc, beam); // warm-up
+  for (let s = 0; s < 60; s++) {
+    const start = performance.now();
+    for (let i = 0; i < batch; i++) assessBench(doc, beam);
+    samples.push((performance.now() - start) / batch);
+  }
+  samples.sort((a, b) => a - b);
+  const median = samples[Math.floor(samples.length / 2)];
+  return [{ name: "safety: assessBench, 20-element bench (median)", value: Number(median.toFixed(4)), unit: "ms", target: "≤ 0.5 ms" }];
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  const figures = await runSafetyBench();
+  for (const f of figures) console.log(`${f.name}: ${f.value} ${f.unit} (target ${f.target})`);
+}
