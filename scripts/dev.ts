@@ -14,7 +14,7 @@ const ports = {
 
 async function main() {
   const { cluster, env } = await provision({ dataDir: path.join(ROOT, ".data"), ports, dbName: "benchwarden", seed: true, rateLimitMax: 100 });
-  const devEnv = { ...env, NODE_ENV: "development" };
+  const devEnv: NodeJS.ProcessEnv = { ...env, NODE_ENV: "development" as const };
   const stop = async () => {
     await stopChildren();
     if (process.env.BENCHWARDEN_KEEP_DB !== "1") stopCluster(cluster);

@@ -36,6 +36,7 @@ function run(command: string, args: string[], env: NodeJS.ProcessEnv): number {
 
 async function main(): Promise<number> {
   const started = Date.now();
+  let typecheck: Counts = { passed: 0, failed: 1 };
   rmSync(dataDir, { recursive: true, force: true });
   mkdirSync(resultsDir, { recursive: true });
   for (const f of ["vitest.json", "playwright.json"]) rmSync(path.join(resultsDir, f), { force: true });
@@ -50,6 +51,8 @@ async function main(): Promise<number> {
     await waitForHttp(`${env.APP_URL}/sign-in`, 60_000);
     await waitForHttp(`${env.MAIL_CATCHER_URL}/api/messages`, 30_000);
 
+    log("type check of the whole project (tsc --noEmit)");
+    typecheck = run(path.join(ROOT, "node_modules/.bin/tsc"), ["--noEmit", "-p", "tsconfig.json"], testEnv) === 0 ? { passed: 1, failed: 0 } : { passed: 0, failed: 1 };
     log("vitest: unit, integration and HTTP tests");
     run(path.join(ROOT, "node_modules/.bin/vitest"), ["run", "--reporter=default", "--reporter=json", `--outputFile.json=${path.join(resultsDir, "vitest.json")}`], testEnv);
     log("Playwright: end-to-end tests in /usr/bin/chromium");
@@ -63,9 +66,9 @@ async function main(): Promise<number> {
 
   const v = vitestCounts(path.join(resultsDir, "vitest.json"));
   const p = playwrightCounts(path.join(resultsDir, "playwright.json"));
-  const passed = v.passed + p.passed;
-  const failed = v.failed + p.failed;
-  log(`vitest ${v.passed} passed, ${v.failed} failed; Playwright ${p.passed} passed, ${p.failed} failed; ${((Date.now() - started) / 1000).toFixed(0)} s`);
+  const passed = v.passed + p.passed + typecheck.passed;
+  const failed = v.failed + p.failed + typecheck.failed;
+  log(`type check ${typecheck.failed ? "failed" : "passed"}; vitest ${v.passed} passed, ${v.failed} failed; Playwright ${p.passed} passed, ${p.failed} failed; ${((Date.now() - started) / 1000).toFixed(0)} s`);
   process.stdout.write(`${passed} passed, ${failed} failed\n`);
   return failed === 0 && passed > 0 ? 0 : 1;
 }
