@@ -1,0 +1,75 @@
+// `npm run bench`: the speed figures the README reports. Pure engines are timed in-process; the
+// HTTP figures come from autocannon against the production server on a throwaway database.
+import path from "node:path";
+import { rmSync } from "node:fs";
+import autocannon from "autocannon";
+import { buildIfStale } from "./lib/build";
+import { stopCluster } from "./lib/postgres";
+import { NEXT, provision } from "./lib/provision";
+import { log, ROOT, startChild, stopChildren, waitForHttp } from "./lib/system";
+
+type Figure = { name: string; value: number; unit: string; target: string };
+
+async function httpFigures(): Promise<Figure[]> {
+  const ports = { app: 3300, postgres: 5435, smtp: 2527, catcherWeb: 1082 };
+  const dataDir = path.join(ROOT, ".data/bench");
+  rmSync(dataDir, { recursive: true, force: true });
+  const { cluster, env } = await provision({ dataDir, ports, dbName: "benchwarden_bench", seed: true, rateLimitMax: 1000 });
+  try {
+    buildIfStale();
+    startChild("app", NEXT, ["start", "-H", "127.0.0.1", "-p", String(ports.app)], { env, stdio: ["ignore", "ignore", "inherit"] });
+    await waitForHttp(`${env.APP_URL}/api/health`, 60_000);
+    const signIn = await fetch(`${env.APP_URL}/api/auth/sign-in/email`, {
+      method: "POST",
+      headers: { "content-type": "application/json", origin: env.APP_URL! },
+      body: JSON.stringify({ email: "researcher@northmere.example.edu", password: "northmere-demo-2026" }),
+    });
+    const cookie = signIn.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+    const doc = {
+      version: 1,
+      elements: [
+        { id: "laser", kind: "laser", positionMm: 0, wavelengthNm: 632.8, powerMw: 1, beamDiameterMm: 0.8 },
+        { id: "lens", kind: "lens", positionMm: 100, focalLengthMm: -25 },
+        { id: "iris", kind: "aperture", positionMm: 400, diameterMm: 2 },
+        { id: "screen", kind: "screen", positionMm: 1400 },
+      ],
+    };
+    const measure = (opts: autocannon.Options) => autocannon({ connections: 10, duration: 10, ...opts });
+    await measure({ url: `${env.APP_URL}/api/health`, duration: 3 }); // warm-up
+    const trivial = await measure({ url: `${env.APP_URL}/api/health` });
+    const analyze = await measure({
+      url: `${env.APP_URL}/api/analyze`,
+      method: "POST",
+      headers: { "content-type": "application/json", cookie },
+      body: JSON.stringify(doc),
+    });
+    if (analyze.non2xx > 0) throw new Error(`POST /api/analyze answered ${analyze.non2xx} non-2xx responses`);
+    const ratio = analyze.requests.average / trivial.requests.average;
+    return [
+      { name: "GET /api/health throughput (trivial route)", value: trivial.requests.average, unit: "req/s", target: "reference" },
+      { name: "POST /api/analyze throughput (signed in, 4 elements)", value: analyze.requests.average, unit: "req/s", target: "≥ 70 % of the trivial route" },
+      { name: "POST /api/analyze ÷ trivial route", value: Math.round(ratio * 1000) / 10, unit: "%", target: "≥ 70 %" },
+    ];
+  } finally {
+    await stopChildren();
+    stopCluster(cluster);
+    rmSync(dataDir, { recursive: true, force: true });
+  }
+}
+
+async function main() {
+  const figures: Figure[] = [];
+  const { runOpticsBench } = await import("./bench-optics");
+  figures.push(...(await runOpticsBench()));
+  const { runSafetyBench } = await import("./bench-safety");
+  figures.push(...(await runSafetyBench()));
+  if (!process.argv.includes("--engines-only")) figures.push(...(await httpFigures()));
+  log("benchmark figures");
+  for (const f of figures) process.stdout.write(`  ${f.name}: ${Number(f.value.toPrecision(4))} ${f.unit}   (target ${f.target})\n`);
+}
+
+main().catch(async (error: unknown) => {
+  console.error(error);
+  await stopChildren();
+  process.exit(1);
+});
