@@ -95,9 +95,19 @@ describe("POST /api/analyze/profile and /api/analyze/finder", () => {
   it("finds screen positions for bright and dark centres downstream of the iris", async () => {
     const res = await call("POST", "/api/analyze/finder", cookie, { goal: "screen-positions", document: bench, apertureId: "iris", fromMm: 500, toMm: 3000 });
     expect(res.status).toBe(200);
-    const { candidates } = res.json as { candidates: { positionMm: number; centre: string }[] };
-    expect(candidates.length).toBeGreaterThan(0);
-    for (const c of candidates) expect(c.positionMm).toBeGreaterThanOrEqual(500);
+    const found = res.json as { bright: { positionMm: number; zoneCount: number; centre: string }[]; dark: { positionMm: number; zoneCount: number; centre: string }[] };
+    expect(found.bright.length).toBeGreaterThan(0);
+    expect(found.dark.length).toBeGreaterThan(0);
+    for (const c of found.bright) {
+      expect(c.positionMm).toBeGreaterThanOrEqual(500);
+      expect(c.positionMm).toBeLessThanOrEqual(3000);
+      expect(c.zoneCount % 2).toBe(1); // odd zone count → bright centre
+      expect(c.centre).toBe("bright");
+    }
+    for (const c of found.dark) {
+      expect(c.zoneCount % 2).toBe(0);
+      expect(c.centre).toBe("dark");
+    }
   });
 
   it("400 for an unknown finder goal", async () => {

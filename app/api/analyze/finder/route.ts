@@ -9,7 +9,7 @@ export const POST = apiRoute({ analysis: ["run"] }, async ({ request }) => {
   try {
     switch (input.goal) {
       case "screen-positions":
-        return { candidates: findScreenPositions(input.document, input.apertureId, { fromMm: input.fromMm, toMm: input.toMm, maxResults: input.maxResults }) };
+        return findScreenPositions(input.document, input.apertureId, { fromMm: input.fromMm, toMm: input.toMm, maxResults: input.maxResults });
       case "aperture-diameter":
         return solveApertureDiameter(input.document, input.apertureId, input.zones, { screenPositionMm: input.screenPositionMm });
       case "aperture-position":
