@@ -1,0 +1,26 @@
+import { NextResponse } from "next/server";
+import { getDb } from "@/db";
+import { apiRoute, parseWith, readJson } from "@/lib/server/api";
+import { getDraft, saveDraft, saveDraftInput } from "@/lib/server/drafts";
+
+export const GET = apiRoute<{ benchId: string }>({ bench: ["read"] }, async ({ actor, params }) => ({ draft: await getDraft(getDb(), actor, params.benchId) }));
+
+/** Save the working draft; 409 with the server's current draft when the edit was based on an older version. */
+export const PUT = apiRoute<{ benchId: string }>({ bench: ["edit"] }, async ({ request, actor, params }) => {
+  const input = parseWith(saveDraftInput, await readJson(request), "The draft");
+  const result = await saveDraft(getDb(), actor, params.benchId, input);
+  if (!result.ok) {
+    return NextResponse.json(
+      {
+        error: {
+          code: "conflict",
+          message: `Someone saved this bench after you opened it (now revision ${result.current.revisionNumber}, version ${result.current.version}). Nothing was overwritten.`,
+          fields: [],
+        },
+        current: result.current,
+      },
+      { status: 409 },
+    );
+  }
+  return { draft: result.draft, createdRevision: result.createdRevision };
+});

@@ -1,0 +1,375 @@
+"use client";
+// The bench editor: palette and view controls, the drawing (client-only Konva), the element list and properties,
+// live predictions and the save state. Server data (the draft, the analysis) comes through react-query; the
+// working document is client state with undo/redo (use-editor-state).
+import dynamic from "next/dynamic";
+import { useQuery } from "@tanstack/react-query";
+import { useCallback, useEffect, useMemo, useRef, useState, type DragEvent, type KeyboardEvent } from "react";
+import { draftQuery, type DraftView } from "@/lib/api/bench-queries";
+import { ELEMENT_KINDS, type BenchDocument, type ElementKind } from "@/lib/bench/schema";
+import { StateBadge } from "@/components/ui/state-badge";
+import { ApertureTable } from "./aperture-table";
+import { CANVAS_HEIGHT } from "./canvas-constants";
+import { ConflictDialog } from "./conflict-dialog";
+import { ElementList } from "./element-list";
+import { SNAP_CHOICES, snapMm } from "./element-kinds";
+import { ImportExport } from "./import-export";
+import { KIND_DRAG_TYPE, Palette, placementFor } from "./palette";
+import { ProfilePanel } from "./profile-panel";
+import { PropertiesPanel } from "./properties-panel";
+import { SafetyPanel } from "./safety-panel";
+import { SaveStatus } from "./save-status";
+import { useAnalysis, useProfile } from "./use-analysis";
+import { useAutosave } from "./use-autosave";
+import { useEditorState } from "./use-editor-state";
+import { fitAll, mmAt, zoomAbout, type View } from "./view";
+import { sig } from "./format";
+
+const BenchCanvas = dynamic(() => import("./bench-canvas").then((m) => m.BenchCanvas), {
+  ssr: false,
+  loading: () => <div className="flex h-full items-center justify-center text-muted">Loading the drawing…</div>,
+});
+
+type Props = { benchId: string; labName: string; authorName: string };
+
+export function BenchEditor(props: Props) {
+  const draft = useQuery(draftQuery(props.benchId));
+  if (draft.error) return <p role="alert" className="rounded-lg border border-danger p-4">{draft.error.message}</p>;
+  if (!draft.data) return <p className="text-muted">Loading the bench…</p>;
+  return <EditorBody {...props} initial={draft.data} />;
+}
+
+const BUTTON = "inline-flex min-h-10 min-w-10 items-center justify-center gap-1 rounded-md border border-line px-2.5 text-sm hover:bg-raised disabled:cursor-not-allowed disabled:opacity-40";
+
+function EditorBody({ benchId, labName, authorName, initial }: Props & { initial: DraftView }) {
+  const canEdit = initial.canEdit;
+  const { state, dispatch, selected, canUndo, canRedo } = useEditorState(initial.document);
+  const { doc, selection } = state;
+  const analysis = useAnalysis(doc);
+  const save = useAutosave(benchId, initial, doc, canEdit);
+
+  const [snapStepMm, setSnapStepMm] = useState<number>(1);
+  const [exaggeration, setExaggeration] = useState(40);
+  const [width, setWidth] = useState(0);
+  const [view, setView] = useState<View | null>(null);
+  const frame = useRef<HTMLDivElement>(null);
+
+  useEffect(() => {
+    const el = frame.current;
+    if (!el) return;
+    const observer = new ResizeObserver(([entry]) => setWidth(Math.floor(entry.contentRect.width)));
+    observer.observe(el);
+    return () => observer.disconnect();
+  }, []);
+  useEffect(() => {
+    if (width > 0 && view === null) setView(fitAll(doc.elements, width));
+  }, [width, view, doc.elements]);
+
+  const currentView = view ?? { pxPerMm: 1, panPx: 40 };
+  const fit = useCallback(() => setView(fitAll(doc.elements, width || 800)), [doc.elements, width]);
+
+  const warningsById = useMemo(() => {
+    const m = new Map<string, number>();
+    for (const w of analysis.data?.analysis.warnings ?? []) if (w.elementId) m.set(w.elementId, (m.get(w.elementId) ?? 0) + 1);
+    return m;
+  }, [analysis.data]);
+
+  const hasLaser = doc.elements.some((e) => e.kind === "laser");
+
+  const add = (kind: ElementKind, at?: number) => {
+    if (!canEdit) return;
+    const positionMm = at ?? placementFor(kind, doc.elements);
+    dispatch({ type: "add", kind, positionMm });
+    // keep the new element in sight
+    const x = positionMm * currentView.pxPerMm + currentView.panPx;
+    if (width > 0 && (x < 20 || x > width - 20)) setView(fitAll([...doc.elements, { id: "_", kind: "screen", positionMm }], width));
+  };
+
+  const onDrop = (e: DragEvent<HTMLDivElement>) => {
+    const kind = e.dataTransfer.getData(KIND_DRAG_TYPE) as ElementKind;
+    if (!canEdit || !(ELEMENT_KINDS as readonly string[]).includes(kind)) return;
+    e.preventDefault();
+    const rect = e.currentTarget.getBoundingClientRect();
+    add(kind, snapMm(mmAt(currentView, e.clientX - rect.left), snapStepMm));
+  };
+
+  const onKeyDown = (e: KeyboardEvent<HTMLDivElement>) => {
+    const target = e.target as HTMLElement;
+    if (target.closest("input, textarea, select, [contenteditable=true]")) return;
+    const mod = e.ctrlKey || e.metaKey;
+    const key = e.key.toLowerCase();
+    if (mod && key === "z") {
+      e.preventDefault();
+      if (canEdit) dispatch({ type: e.shiftKey ? "redo" : "undo" });
+    } else if (mod && key === "y") {
+      e.preventDefault();
+      if (canEdit) dispatch({ type: "redo" });
+    } else if (mod && key === "d") {
+      e.preventDefault();
+      if (canEdit) dispatch({ type: "duplicate" });
+    } else if (mod && key === "a" && target.closest("[data-editor-surface]")) {
+      e.preventDefault();
+      dispatch({ type: "select", ids: doc.elements.map((el) => el.id) });
+    } else if ((e.key === "ArrowLeft" || e.key === "ArrowRight") && !mod && selection.length > 0) {
+      e.preventDefault();
+      if (canEdit) dispatch({ type: "nudge", deltaMm: (e.key === "ArrowLeft" ? -1 : 1) * (e.shiftKey ? 10 : 1) });
+    } else if ((e.key === "Delete" || e.key === "Backspace") && selection.length > 0) {
+      e.preventDefault();
+      if (canEdit) dispatch({ type: "remove" });
+    } else if (e.key === "Escape") {
+      dispatch({ type: "select", ids: [] });
+    } else if (!mod && (e.key === "+" || e.key === "=")) {
+      setView(zoomAbout(currentView, 1.25, width / 2));
+    } else if (!mod && e.key === "-") {
+      setView(zoomAbout(currentView, 0.8, width / 2));
+    }
+  };
+
+  const selectedAperture = selected.length === 1 && selected[0].kind === "aperture" ? (analysis.data?.analysis.apertures.find((a) => a.id === selected[0].id) ?? null) : null;
+  const profile = useProfile(analysis.settled, selectedAperture?.id ?? null, selectedAperture?.screenId != null);
+  const staleLook = analysis.stale || (analysis.blockedBy !== null && analysis.data !== undefined);
+  const elementWarnings = selected.length === 1 ? (analysis.data?.analysis.warnings ?? []).filter((w) => w.elementId === selected[0].id) : [];
+  const baseState = save.base.state;
+
+  return (
+    <div onKeyDown={onKeyDown} className="flex flex-col gap-4" data-testid="bench-editor">
+      <header className="flex flex-wrap items-start justify-between gap-3">
+        <div className="min-w-0 flex-1">
+          <p className="text-sm text-muted">
+            {labName} · by {authorName} · revision {save.base.revisionNumber} <StateBadge state={baseState} />
+          </p>
+          {canEdit ? (
+            <label className="mt-1 block">
+              <span className="sr-only">Bench title</span>
+              <input
+                value={doc.title ?? ""}
+                onChange={(e) => dispatch({ type: "set-title", title: e.target.value, coalesce: "title" })}
+                placeholder="Untitled bench"
+                maxLength={200}
+                className="w-full rounded-md border border-transparent bg-transparent px-1 text-2xl font-semibold hover:border-line focus:border-line"
+              />
+            </label>
+          ) : (
+            <h1 className="text-2xl font-semibold">{doc.title ?? "Untitled bench"}</h1>
+          )}
+        </div>
+        <div className="flex items-start gap-3">
+          <ImportExport doc={doc} canEdit={canEdit} onImport={(d: BenchDocument) => dispatch({ type: "replace", doc: d })} />
+          <SaveStatus state={save.state} />
+        </div>
+      </header>
+
+      {!canEdit ? (
+        <p className="rounded-md border border-line bg-panel px-3 py-2 text-sm" data-testid="read-only-note">
+          <span aria-hidden="true">◇ </span>Read only: you can look at the drawing and the predictions, but only researchers of {labName} can change this bench.
+        </p>
+      ) : baseState !== "draft" ? (
+        <p className="rounded-md border border-warn/60 bg-panel px-3 py-2 text-sm">
+          Revision {save.base.revisionNumber} is no longer a draft, so it stays exactly as it is: your first change starts revision {save.base.revisionNumber + 1} as a new draft.
+        </p>
+      ) : null}
+
+      {save.state.kind === "conflict" ? (
+        <ConflictDialog
+          mine={doc}
+          current={save.state.current}
+          message={save.state.message}
+          onKeepMine={save.keepMine}
+          onTakeTheirs={() => {
+            const theirs = save.takeTheirs();
+            if (theirs) dispatch({ type: "replace", doc: theirs });
+          }}
+        />
+      ) : null}
+
+      <div className="flex flex-col gap-2 rounded-lg border border-line bg-panel p-2">
+        <div className="flex flex-wrap items-center justify-between gap-2">
+          {canEdit ? <Palette onAdd={(k) => add(k)} hasLaser={hasLaser} /> : <span className="px-1 text-sm text-muted">Drawing</span>}
+          <div className="flex flex-wrap items-center gap-1.5">
+            {canEdit ? (
+              <>
+                <button type="button" className={BUTTON} onClick={() => dispatch({ type: "undo" })} disabled={!canUndo} aria-keyshortcuts="Control+Z" title="Undo (Ctrl+Z)">
+                  ↶ Undo
+                </button>
+                <button type="button" className={BUTTON} onClick={() => dispatch({ type: "redo" })} disabled={!canRedo} aria-keyshortcuts="Control+Shift+Z" title="Redo (Ctrl+Shift+Z)">
+                  ↷ Redo
+                </button>
+                <button type="button" className={BUTTON} onClick={() => dispatch({ type: "duplicate" })} disabled={selection.length === 0} title="Duplicate the selection (Ctrl+D)">
+                  ⧉ Duplicate
+                </button>
+                <button type="button" className={BUTTON} onClick={() => dispatch({ type: "remove" })} disabled={selection.length === 0} title="Delete the selection (Delete)">
+                  ✕ Delete
+                </button>
+              </>
+            ) : null}
+          </div>
+        </div>
+        <div className="flex flex-wrap items-center gap-x-4 gap-y-2 px-1 text-sm">
+          {canEdit ? (
+            <label className="flex items-center gap-2">
+              <span className="text-muted">Snap</span>
+              <select value={snapStepMm} onChange={(e) => setSnapStepMm(Number(e.target.value))} className="min-h-9 rounded-md border border-line bg-ink px-2">
+                {SNAP_CHOICES.map((c) => (
+                  <option key={c.value} value={c.value}>
+                    {c.label}
+                  </option>
+                ))}
+              </select>
+            </label>
+          ) : null}
+          <div className="flex items-center gap-1" role="group" aria-label="Zoom">
+            <button type="button" className={BUTTON} onClick={() => setView(zoomAbout(currentView, 0.8, width / 2))} aria-label="Zoom out">
+              −
+            </button>
+            <button type="button" className={BUTTON} onClick={() => setView(zoomAbout(currentView, 1.25, width / 2))} aria-label="Zoom in">
+              +
+            </button>
+            <button type="button" className={BUTTON} onClick={fit}>
+              Fit all
+            </button>
+            <span className="ml-1 font-mono text-xs text-muted" aria-live="off">
+              {sig(currentView.pxPerMm * 100, 3)} px per 100 mm
+            </span>
+          </div>
+          <label className="flex items-center gap-2">
+            <span className="text-muted">Beam height ×{exaggeration}</span>
+            <input type="range" min={1} max={400} step={1} value={exaggeration} onChange={(e) => setExaggeration(Number(e.target.value))} aria-label="Vertical exaggeration of the beam radius" />
+          </label>
+        </div>
+        <div
+          ref={frame}
+          tabIndex={0}
+          data-editor-surface
+          role="application"
+          aria-roledescription="bench drawing"
+          aria-label={`Bench drawing, ${doc.elements.length} elements. Select elements in the list below; ← → move the selection by 1 mm, Shift for 10 mm; Delete removes; Ctrl+Z undoes; + and − zoom.`}
+          className="relative overflow-hidden rounded-md border border-line bg-ink focus-visible:outline-3"
+          style={{ height: CANVAS_HEIGHT }}
+          onDragOver={(e) => {
+            if (canEdit && e.dataTransfer.types.includes(KIND_DRAG_TYPE)) {
+              e.preventDefault();
+              e.dataTransfer.dropEffect = "copy";
+            }
+          }}
+          onDrop={onDrop}
+          onMouseDown={(e) => e.currentTarget.focus({ preventScroll: true })}
+          data-testid="bench-canvas"
+          data-px-per-mm={currentView.pxPerMm}
+          data-pan-px={currentView.panPx}
+        >
+          {width > 0 ? (
+            <BenchCanvas
+              doc={doc}
+              selection={selection}
+              analysis={analysis.data}
+              stale={staleLook}
+              canEdit={canEdit}
+              view={currentView}
+              width={width}
+              exaggeration={exaggeration}
+              snapStepMm={snapStepMm}
+              onViewChange={setView}
+              onSelect={(ids) => dispatch({ type: "select", ids })}
+              onToggleSelect={(id) => dispatch({ type: "toggle-select", id })}
+              onMove={(positions, coalesce) => dispatch({ type: "set-positions", positions, coalesce })}
+            />
+          ) : null}
+          <PredictionState analysis={analysis} />
+        </div>
+      </div>
+
+      <div className="grid gap-4 lg:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
+        <div className="flex flex-col gap-4">
+          <ElementList
+            elements={doc.elements}
+            selection={selection}
+            warningsById={warningsById}
+            onSelect={(ids) => dispatch({ type: "select", ids })}
+            onToggle={(id) => dispatch({ type: "toggle-select", id })}
+          />
+          <PropertiesPanel selected={selected} canEdit={canEdit} dispatch={dispatch} warnings={elementWarnings} />
+        </div>
+        <div className="flex flex-col gap-4">
+          <section aria-labelledby="predictions-heading" className={`rounded-lg border border-line bg-panel p-4 ${staleLook ? "opacity-60" : ""}`} data-testid="predictions" data-stale={staleLook}>
+            <h2 id="predictions-heading" className="mb-2 flex items-center justify-between gap-2 text-lg font-semibold">
+              Predictions
+              {staleLook ? <span className="text-sm font-normal text-muted">updating…</span> : null}
+            </h2>
+            {analysis.data ? (
+              <>
+                <ApertureTable apertures={analysis.data.analysis.apertures} selectedId={selectedAperture?.id ?? null} onSelect={(id) => dispatch({ type: "select", ids: [id] })} />
+                {selectedAperture ? (
+                  <div className="mt-4">
+                    <ProfilePanel
+                      aperture={selectedAperture}
+                      profile={profile.data}
+                      loading={profile.isFetching}
+                      error={profile.error ? profile.error.message : null}
+                      stale={staleLook || profile.isPlaceholderData}
+                      wavelengthNm={analysis.data.analysis.wavelengthNm}
+                    />
+                  </div>
+                ) : analysis.data.analysis.apertures.length > 0 ? (
+                  <p className="mt-2 text-sm text-muted">Select an aperture to see its pattern on the screen.</p>
+                ) : null}
+              </>
+            ) : (
+              <p className="text-sm text-muted">{analysis.blockedBy ? `No predictions yet: ${analysis.blockedBy}` : "Computing…"}</p>
+            )}
+          </section>
+          <WarningsList analysis={analysis.data} onSelect={(id) => dispatch({ type: "select", ids: [id] })} />
+          <SafetyPanel safety={analysis.data?.safety} />
+        </div>
+      </div>
+    </div>
+  );
+}
+
+function PredictionState({ analysis }: { analysis: ReturnType<typeof useAnalysis> }) {
+  let text: string | null = null;
+  let tone = "border-line text-muted";
+  if (analysis.blockedBy) {
+    text = `Predictions paused: ${analysis.blockedBy}`;
+    tone = "border-warn text-warn";
+  } else if (analysis.error) {
+    text = `Predictions failed: ${analysis.error}`;
+    tone = "border-danger text-danger";
+  } else if (analysis.stale || (analysis.fetching && !analysis.data)) text = "◌ updating…";
+  const summary = (analysis.data?.analysis.apertures ?? []).map((a) => `${a.id}: ${sig(a.zonesExposed)} zones, ${a.centre} centre`).join("; ");
+  return (
+    <>
+      {text ? (
+        <p className={`pointer-events-none absolute top-2 right-2 rounded-full border bg-panel/90 px-3 py-1 text-sm ${tone}`} data-testid="prediction-state">
+          {text}
+        </p>
+      ) : null}
+      <p className="sr-only" aria-live="polite">
+        {analysis.stale ? "" : summary}
+      </p>
+    </>
+  );
+}
+
+function WarningsList({ analysis, onSelect }: { analysis: ReturnType<typeof useAnalysis>["data"]; onSelect: (id: string) => void }) {
+  const warnings = analysis?.analysis.warnings ?? [];
+  if (warnings.length === 0) return null;
+  return (
+    <section aria-labelledby="warnings-heading" className="rounded-lg border border-warn/60 bg-panel p-4" data-testid="warnings">
+      <h2 id="warnings-heading" className="mb-2 text-lg font-semibold">
+        <span aria-hidden="true">⚠ </span>Warnings ({warnings.length})
+      </h2>
+      <ul className="flex flex-col gap-1.5 text-sm">
+        {warnings.map((w, i) => (
+          <li key={`${w.code}-${w.elementId ?? ""}-${i}`}>
+            {w.elementId ? (
+              <button type="button" className="mr-1 font-mono text-accent underline-offset-2 hover:underline" onClick={() => onSelect(w.elementId!)}>
+                {w.elementId}
+              </button>
+            ) : null}
+            {w.message}
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}

@@ -1,0 +1,118 @@
+// What the editor knows about each element kind: its name, the id prefix, a new element's values and the
+// editable fields with their units. Validation itself is the shared zod schema (lib/bench/schema.ts).
+import {
+  apertureSchema,
+  beamBlockSchema,
+  filterSchema,
+  laserSchema,
+  lensSchema,
+  screenSchema,
+  type BenchElement,
+  type ElementKind,
+} from "@/lib/bench/schema";
+
+export type NumericField = {
+  key: string;
+  label: string;
+  unit: string;
+  hint?: string;
+  optional?: boolean;
+  step?: number;
+};
+
+type KindInfo = {
+  label: string;
+  idPrefix: string;
+  fields: NumericField[];
+  defaults: Record<string, number>;
+};
+
+const position: NumericField = { key: "positionMm", label: "Position on the rail", unit: "mm", step: 1 };
+
+export const KIND_INFO: Record<ElementKind, KindInfo> = {
+  laser: {
+    label: "Laser",
+    idPrefix: "laser",
+    defaults: { wavelengthNm: 632.8, powerMw: 1, beamDiameterMm: 0.8 },
+    fields: [
+      position,
+      { key: "wavelengthNm", label: "Wavelength", unit: "nm", step: 0.1 },
+      { key: "powerMw", label: "Power", unit: "mW", step: 0.1 },
+      { key: "beamDiameterMm", label: "Beam diameter (1/e², at the waist)", unit: "mm", step: 0.1 },
+      { key: "m2", label: "Beam quality M²", unit: "", optional: true, hint: "Leave empty for an ideal beam (M² = 1).", step: 0.1 },
+    ],
+  },
+  lens: {
+    label: "Lens",
+    idPrefix: "lens",
+    defaults: { focalLengthMm: 100 },
+    fields: [position, { key: "focalLengthMm", label: "Focal length", unit: "mm", hint: "Negative for a diverging lens.", step: 1 }],
+  },
+  aperture: {
+    label: "Aperture / iris",
+    idPrefix: "iris",
+    defaults: { diameterMm: 2 },
+    fields: [position, { key: "diameterMm", label: "Diameter", unit: "mm", step: 0.1 }],
+  },
+  filter: {
+    label: "Filter",
+    idPrefix: "filter",
+    defaults: { opticalDensity: 1 },
+    fields: [position, { key: "opticalDensity", label: "Optical density", unit: "OD", hint: "Transmits 10^−OD of the power.", step: 0.1 }],
+  },
+  "beam-block": { label: "Beam block", idPrefix: "block", defaults: {}, fields: [position] },
+  screen: { label: "Screen", idPrefix: "screen", defaults: {}, fields: [position] },
+};
+
+export const ELEMENT_SCHEMAS = {
+  laser: laserSchema,
+  lens: lensSchema,
+  aperture: apertureSchema,
+  filter: filterSchema,
+  "beam-block": beamBlockSchema,
+  screen: screenSchema,
+} as const;
+
+/** A short label for the drawing and lists: the kind and its main value. */
+export function shortLabel(e: BenchElement): string {
+  switch (e.kind) {
+    case "laser":
+      return `${e.wavelengthNm} nm · ${e.powerMw} mW`;
+    case "lens":
+      return `f ${e.focalLengthMm > 0 ? "+" : "−"}${Math.abs(e.focalLengthMm)} mm`;
+    case "aperture":
+      return `⌀ ${e.diameterMm} mm`;
+    case "filter":
+      return `OD ${e.opticalDensity}`;
+    default:
+      return "";
+  }
+}
+
+export function nextId(kind: ElementKind, elements: readonly BenchElement[]): string {
+  const prefix = KIND_INFO[kind].idPrefix;
+  let max = 0;
+  for (const e of elements) {
+    const m = new RegExp(`^${prefix}-(\\d+)$`).exec(e.id);
+    if (m) max = Math.max(max, Number(m[1]));
+  }
+  return `${prefix}-${max + 1}`;
+}
+
+export function newElement(kind: ElementKind, positionMm: number, elements: readonly BenchElement[]): BenchElement {
+  return { id: nextId(kind, elements), kind, positionMm: roundMm(positionMm), ...KIND_INFO[kind].defaults } as BenchElement;
+}
+
+/** Positions are kept to the micrometre so repeated moves do not accumulate float noise. */
+export const roundMm = (mm: number): number => Math.round(mm * 1000) / 1000;
+
+export const SNAP_CHOICES = [
+  { value: 0, label: "Off" },
+  { value: 1, label: "1 mm" },
+  { value: 25, label: "25 mm holes" },
+  { value: 25.4, label: "1 inch (25.4 mm)" },
+] as const;
+
+export const snapMm = (mm: number, stepMm: number): number => (stepMm > 0 ? roundMm(Math.round(mm / stepMm) * stepMm) : roundMm(mm));
+
+export const formatMm = (mm: number): string => `${Number(mm.toFixed(3))} mm`;

@@ -1,0 +1,51 @@
+"use client";
+// The palette of element kinds: click (or Enter) adds one at a sensible place; drag one onto the drawing to place it.
+import { ELEMENT_KINDS, type ElementKind } from "@/lib/bench/schema";
+import { ElementIcon } from "./element-icon";
+import { KIND_INFO } from "./element-kinds";
+
+export const KIND_DRAG_TYPE = "application/x-benchwarden-kind";
+
+export function Palette({ onAdd, hasLaser }: { onAdd: (kind: ElementKind) => void; hasLaser: boolean }) {
+  return (
+    <div role="group" aria-label="Add an element" className="flex flex-wrap items-center gap-1.5">
+      <span className="mr-1 text-sm text-muted">Add</span>
+      {ELEMENT_KINDS.map((kind) => {
+        const disabled = kind === "laser" && hasLaser;
+        return (
+          <button
+            key={kind}
+            type="button"
+            draggable={!disabled}
+            disabled={disabled}
+            title={disabled ? "A bench holds exactly one laser" : `Add a ${KIND_INFO[kind].label.toLowerCase()} (or drag it onto the rail)`}
+            onDragStart={(e) => {
+              e.dataTransfer.setData(KIND_DRAG_TYPE, kind);
+              e.dataTransfer.effectAllowed = "copy";
+            }}
+            onClick={() => onAdd(kind)}
+            className="inline-flex min-h-10 items-center gap-1.5 rounded-md border border-line bg-panel px-2.5 py-1 text-sm hover:bg-raised disabled:cursor-not-allowed disabled:opacity-40"
+            data-testid={`palette-${kind}`}
+          >
+            <ElementIcon kind={kind} size={22} />
+            {KIND_INFO[kind].label}
+          </button>
+        );
+      })}
+    </div>
+  );
+}
+
+/** Where a clicked palette item goes: optics between the last optic and the first stop after it; stops after everything. */
+export function placementFor(kind: ElementKind, positions: { kind: string; positionMm: number }[]): number {
+  if (positions.length === 0) return 0;
+  const sorted = [...positions].sort((a, b) => a.positionMm - b.positionMm);
+  const first = sorted[0].positionMm;
+  const last = sorted[sorted.length - 1].positionMm;
+  if (kind === "laser") return first - 100;
+  if (kind === "screen" || kind === "beam-block") return last + 200;
+  const stopIndex = sorted.findIndex((e) => e.kind === "screen" || e.kind === "beam-block");
+  if (stopIndex <= 0) return last + 100;
+  const before = sorted[stopIndex - 1].positionMm;
+  return Math.round((before + sorted[stopIndex].positionMm) / 2);
+}

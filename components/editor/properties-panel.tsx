@@ -1,0 +1,82 @@
+"use client";
+// Properties of the selected element: one field per number, with its unit, checked against the shared schema.
+import type { BenchElement } from "@/lib/bench/schema";
+import { ElementIcon } from "./element-icon";
+import { ELEMENT_SCHEMAS, KIND_INFO } from "./element-kinds";
+import { NumberField } from "./number-field";
+import type { EditorAction } from "./use-editor-state";
+
+type Props = {
+  selected: BenchElement[];
+  canEdit: boolean;
+  dispatch: (action: EditorAction) => void;
+  warnings: { code: string; message: string }[];
+};
+
+function checkField(element: BenchElement, key: string) {
+  return (value: number | undefined): string | null => {
+    const candidate = { ...element, [key]: value } as Record<string, unknown>;
+    if (value === undefined) delete candidate[key];
+    const result = ELEMENT_SCHEMAS[element.kind].safeParse(candidate);
+    if (result.success) return null;
+    return result.error.issues.find((i) => i.path[0] === key)?.message ?? null;
+  };
+}
+
+export function PropertiesPanel({ selected, canEdit, dispatch, warnings }: Props) {
+  if (selected.length === 0) {
+    return (
+      <section aria-labelledby="props-heading" className="rounded-lg border border-line bg-panel p-4">
+        <h2 id="props-heading" className="mb-1 text-lg font-semibold">Properties</h2>
+        <p className="text-sm text-muted">Select an element on the drawing or in the list to see and change its values.</p>
+      </section>
+    );
+  }
+  if (selected.length > 1) {
+    return (
+      <section aria-labelledby="props-heading" className="rounded-lg border border-line bg-panel p-4">
+        <h2 id="props-heading" className="mb-1 text-lg font-semibold">Properties</h2>
+        <p className="text-sm">{selected.length} elements selected: {selected.map((e) => e.id).join(", ")}.</p>
+        <p className="mt-1 text-sm text-muted">Drag one of them or use ← → (Shift: 10 mm) to move them together.</p>
+      </section>
+    );
+  }
+  const element = selected[0];
+  const info = KIND_INFO[element.kind];
+  const values = element as Record<string, unknown>;
+  return (
+    <section aria-labelledby="props-heading" className="rounded-lg border border-line bg-panel p-4" data-testid="properties">
+      <h2 id="props-heading" className="mb-3 flex items-center gap-2 text-lg font-semibold">
+        <ElementIcon kind={element.kind} size={24} diverging={element.kind === "lens" && element.focalLengthMm < 0} />
+        {info.label} <span className="font-mono text-base font-normal text-muted">{element.id}</span>
+      </h2>
+      <div className="grid gap-3">
+        {info.fields.map((f) => (
+          <NumberField
+            key={`${element.id}-${f.key}`}
+            id={`field-${f.key}`}
+            label={f.label}
+            unit={f.unit}
+            hint={f.hint}
+            optional={f.optional}
+            step={f.step}
+            readOnly={!canEdit}
+            value={values[f.key] as number | undefined}
+            check={checkField(element, f.key)}
+            onCommit={(v) => dispatch({ type: "update", id: element.id, patch: { [f.key]: v }, coalesce: `field-${element.id}-${f.key}` })}
+          />
+        ))}
+      </div>
+      {warnings.length > 0 ? (
+        <ul className="mt-3 flex flex-col gap-1 text-sm text-warn" aria-label={`Warnings about ${element.id}`}>
+          {warnings.map((w, i) => (
+            <li key={`${w.code}-${i}`}>
+              <span aria-hidden="true">⚠ </span>
+              {w.message}
+            </li>
+          ))}
+        </ul>
+      ) : null}
+    </section>
+  );
+}

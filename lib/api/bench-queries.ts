@@ -1,0 +1,91 @@
+// Query options and mutations for benches, their working drafts and the analysis, shared by the server
+// prefetch (same keys, a direct queryFn) and the browser. Keys come from queryKeys in ./client.
+import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
+import type { BenchDocument } from "@/lib/bench/schema";
+import type { BenchAnalysis } from "@/lib/optics";
+import type { BenchSafetyAssessment } from "@/lib/safety";
+import type { DraftView } from "@/lib/server/drafts";
+import { ApiError, apiFetch, queryKeys, type FieldProblem } from "./client";
+
+export type { DraftView };
+
+export type AnalyzeResponse = { analysis: BenchAnalysis; safety?: BenchSafetyAssessment };
+/** An analysis tagged with the document key it was computed for, so the editor can tell current from stale. */
+export type KeyedAnalysis = AnalyzeResponse & { documentKey: string };
+export type ProfileResponse = { radiusMm: number[]; relativeIntensity: number[]; method?: string; shadowRadiusMm?: number };
+
+const json = (body: unknown) => JSON.stringify(body);
+
+export const draftQuery = (benchId: string) =>
+  queryOptions({
+    queryKey: queryKeys.draft(benchId),
+    queryFn: ({ signal }) => apiFetch<{ draft: DraftView }>(`/api/benches/${benchId}/draft`, { signal }).then((r) => r.draft),
+    // The editor owns the working copy; a background refetch must never move the version it is based on.
+    staleTime: Infinity,
+    refetchOnWindowFocus: false,
+  });
+
+export const analysisQuery = (document: BenchDocument, documentKey: string, hash: string) =>
+  queryOptions({
+    queryKey: queryKeys.analysis(hash),
+    queryFn: ({ signal }) =>
+      apiFetch<AnalyzeResponse>("/api/analyze", { method: "POST", body: json(document), signal }).then((r): KeyedAnalysis => ({ ...r, documentKey })),
+    staleTime: Infinity,
+    gcTime: 60_000,
+    retry: false,
+  });
+
+export const profileQuery = (document: BenchDocument, hash: string, apertureId: string) =>
+  queryOptions({
+    queryKey: queryKeys.profile(hash, apertureId),
+    queryFn: ({ signal }) =>
+      apiFetch<ProfileResponse>("/api/analyze/profile", { method: "POST", body: json({ document, apertureId, points: 240 }), signal }),
+    staleTime: Infinity,
+    gcTime: 60_000,
+    retry: false,
+  });
+
+export type SaveDraftRequest = { document: BenchDocument; baseRevision: number; baseVersion: number };
+export type SaveDraftOutcome = { kind: "saved"; draft: DraftView; createdRevision: boolean } | { kind: "conflict"; current: DraftView; message: string };
+
+/** PUT the draft. A 409 is an answer (the server's draft), not an error; other failures throw ApiError (status 0 = offline). */
+export async function putDraft(benchId: string, request: SaveDraftRequest): Promise<SaveDraftOutcome> {
+  let response: Response;
+  try {
+    response = await fetch(`/api/benches/${benchId}/draft`, { method: "PUT", headers: { "content-type": "application/json" }, body: json(request) });
+  } catch {
+    throw new ApiError("The server cannot be reached. Your changes are kept here and saved when it answers.", 0, []);
+  }
+  const body = (await response.json().catch(() => null)) as {
+    draft?: DraftView;
+    createdRevision?: boolean;
+    current?: DraftView;
+    error?: { message: string; fields?: FieldProblem[] };
+  } | null;
+  if (response.status === 409 && body?.current) return { kind: "conflict", current: body.current, message: body.error?.message ?? "Someone else saved first." };
+  if (!response.ok || !body?.draft) throw new ApiError(body?.error?.message ?? `The server answered ${response.status}.`, response.status, body?.error?.fields ?? []);
+  return { kind: "saved", draft: body.draft, createdRevision: Boolean(body.createdRevision) };
+}
+
+export function useSaveDraft(benchId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationKey: ["save-draft", benchId],
+    mutationFn: (request: SaveDraftRequest) => putDraft(benchId, request),
+    onSuccess: (outcome) => {
+      if (outcome.kind === "saved") {
+        queryClient.setQueryData(queryKeys.draft(benchId), outcome.draft);
+        void queryClient.invalidateQueries({ queryKey: queryKeys.benches(), exact: true });
+      }
+    },
+    retry: false,
+  });
+}
+
+export function useCreateBench() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: { labId: string; title: string }) => apiFetch<{ id: string }>("/api/benches", { method: "POST", body: json(input) }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: queryKeys.benches() }),
+  });
+}

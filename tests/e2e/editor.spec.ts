@@ -1,0 +1,207 @@
+// The bench editor in chromium: a researcher starts a bench, places a laser, an aperture and a screen from the
+// palette (click and drag), drags an element on the drawing, types a bad value and sees why beside the field,
+// watches the zone count follow, undoes and redoes, moves by keyboard, reloads and finds it saved. Also: the
+// read-only view for an officer, a conflict between two sessions, and an import with field errors.
+// Screenshots go to test-results/screenshots/editor-*.png.
+import { expect, test, type Browser, type Page } from "@playwright/test";
+
+const PASSWORD = "northmere-demo-2026";
+const RAIL_Y_PX = 190; // the optical axis inside the drawing (components/editor/bench-canvas.tsx)
+
+test.describe.configure({ mode: "serial" });
+test.setTimeout(180_000);
+
+let benchUrl = "";
+
+async function signIn(page: Page, email: string) {
+  await page.goto("/sign-in", { timeout: 120_000 });
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill(PASSWORD);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"), { timeout: 60_000 });
+}
+
+async function canvasPointFor(page: Page, mm: number, dy = 0) {
+  const frame = page.getByTestId("bench-canvas");
+  const box = (await frame.boundingBox())!;
+  const pxPerMm = Number(await frame.getAttribute("data-px-per-mm"));
+  const panPx = Number(await frame.getAttribute("data-pan-px"));
+  return { x: box.x + panPx + mm * pxPerMm, y: box.y + RAIL_Y_PX + dy, pxPerMm };
+}
+
+const row = (page: Page, id: string) => page.locator(`button[data-element-row="${id}"]`);
+
+async function positionOf(page: Page, id: string): Promise<number> {
+  const text = await row(page, id).locator("span.font-mono.text-sm").last().textContent();
+  return Number(text!.replace(" mm", ""));
+}
+
+async function freshPredictions(page: Page) {
+  await expect(page.getByTestId("predictions")).toHaveAttribute("data-stale", "false", { timeout: 20_000 });
+}
+
+test("a researcher draws, tunes and saves a bench", async ({ page }) => {
+  await signIn(page, "researcher@northmere.example.edu");
+  await page.goto("/benches", { timeout: 120_000 });
+  await page.getByRole("link", { name: "New bench" }).click();
+  await page.getByLabel("Title").fill(`Editor e2e ${Date.now()}`);
+  await page.getByRole("button", { name: "Create and open the editor" }).click();
+  await page.waitForURL(/\/benches\/[0-9a-f-]{36}$/, { timeout: 120_000 });
+  benchUrl = page.url();
+  await expect(page.getByTestId("bench-editor")).toBeVisible({ timeout: 60_000 });
+  await expect(page.getByText("The rail is empty")).toBeVisible();
+
+  // Palette: click a laser and an aperture onto the rail, drag a screen onto it.
+  await page.getByTestId("palette-laser").click();
+  await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 15_000 });
+  await page.getByTestId("palette-aperture").click();
+  const dropAt = await canvasPointFor(page, 600);
+  const frameBox = (await page.getByTestId("bench-canvas").boundingBox())!;
+  await page.getByTestId("palette-screen").dragTo(page.getByTestId("bench-canvas"), { targetPosition: { x: dropAt.x - frameBox.x, y: 120 } });
+  await expect(row(page, "screen-1")).toBeVisible();
+  expect(Math.abs((await positionOf(page, "screen-1")) - 600)).toBeLessThanOrEqual(2);
+
+  // Predictions arrive: one aperture with its zone count and centre.
+  await freshPredictions(page);
+  const zones = page.getByTestId("aperture-row-iris-1").getByTestId("zone-count");
+  await expect(zones).toHaveText(/\d/);
+  const zonesBefore = await zones.textContent();
+  await page.screenshot({ path: "test-results/screenshots/editor-placed.png", fullPage: true });
+
+  // Drag the screen 150 px downstream on the drawing (snap 1 mm).
+  const screenBefore = await positionOf(page, "screen-1");
+  const from = await canvasPointFor(page, screenBefore);
+  await page.mouse.move(from.x, from.y);
+  await page.mouse.down();
+  for (let i = 1; i <= 10; i++) await page.mouse.move(from.x + i * 15, from.y);
+  await page.mouse.up();
+  const screenAfter = await positionOf(page, "screen-1");
+  expect(screenAfter - screenBefore).toBeGreaterThan(100 / from.pxPerMm);
+  expect(Number.isInteger(screenAfter)).toBe(true);
+  await freshPredictions(page);
+  await expect(zones).not.toHaveText(zonesBefore!);
+
+  // Properties: a bad value stays in the field with the reason beside it and is not used.
+  await row(page, "iris-1").click();
+  const diameter = page.getByLabel("Diameter");
+  await diameter.fill("-2");
+  await expect(page.locator("#field-diameterMm-error")).toHaveText(/Aperture diameter must be greater than 0 mm/);
+  await expect(diameter).toHaveValue("-2");
+  await expect(diameter).toHaveAttribute("aria-invalid", "true");
+  await expect(row(page, "iris-1")).toContainText("⌀ 2 mm");
+  await page.screenshot({ path: "test-results/screenshots/editor-field-error.png", fullPage: true });
+  await diameter.fill("1");
+  await expect(page.locator("#field-diameterMm-error")).toHaveCount(0);
+  await expect(row(page, "iris-1")).toContainText("⌀ 1 mm");
+  await freshPredictions(page);
+  const zonesAt1mm = await zones.textContent();
+  expect(zonesAt1mm).not.toBe(zonesBefore);
+  await expect(page.getByTestId("ring-image")).toBeVisible({ timeout: 20_000 });
+
+  // Undo brings the 2 mm iris back, redo the 1 mm one (keyboard and button).
+  await row(page, "iris-1").focus();
+  await page.keyboard.press("Control+z");
+  await expect(row(page, "iris-1")).toContainText("⌀ 2 mm");
+  await expect(diameter).toHaveValue("2");
+  await page.getByRole("button", { name: /Redo/ }).click();
+  await expect(row(page, "iris-1")).toContainText("⌀ 1 mm");
+  await freshPredictions(page);
+  await expect(zones).toHaveText(zonesAt1mm!);
+
+  // Keyboard only: move the screen by 10 mm (Shift+→) and 1 mm (→).
+  await row(page, "screen-1").focus();
+  await page.keyboard.press("Enter");
+  await page.keyboard.press("Shift+ArrowRight");
+  await page.keyboard.press("ArrowRight");
+  await expect.poll(() => positionOf(page, "screen-1")).toBe(screenAfter + 11);
+  await freshPredictions(page);
+  const zonesTuned = await zones.textContent();
+  await page.screenshot({ path: "test-results/screenshots/editor-tuned.png", fullPage: true });
+
+  // Saved, and still there after a reload.
+  await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 15_000 });
+  await page.reload();
+  await expect(row(page, "screen-1")).toBeVisible({ timeout: 60_000 });
+  expect(await positionOf(page, "screen-1")).toBe(screenAfter + 11);
+  await expect(row(page, "iris-1")).toContainText("⌀ 1 mm");
+  await freshPredictions(page);
+  await expect(zones).toHaveText(zonesTuned!);
+  await row(page, "iris-1").click();
+  await expect(page.getByTestId("ring-image")).toBeVisible({ timeout: 20_000 });
+  await page.screenshot({ path: "test-results/screenshots/editor-reloaded.png", fullPage: true });
+});
+
+test("an officer sees the drawing and predictions but cannot change them", async ({ page }) => {
+  test.skip(!benchUrl, "needs the bench from the first test");
+  await signIn(page, "officer@northmere.example.edu");
+  await page.goto(benchUrl, { timeout: 120_000 });
+  await expect(page.getByTestId("read-only-note")).toBeVisible({ timeout: 60_000 });
+  await expect(page.getByTestId("palette-lens")).toHaveCount(0);
+  await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "read-only");
+  await freshPredictions(page);
+  await row(page, "iris-1").click();
+  await expect(page.getByLabel("Diameter")).toHaveAttribute("readonly", "");
+  await page.keyboard.press("Delete");
+  await expect(row(page, "iris-1")).toBeVisible();
+  await page.screenshot({ path: "test-results/screenshots/editor-read-only.png", fullPage: true });
+});
+
+async function researcherPage(browser: Browser) {
+  const context = await browser.newContext();
+  const page = await context.newPage();
+  await signIn(page, "researcher@northmere.example.edu");
+  await page.goto(benchUrl, { timeout: 120_000 });
+  await expect(row(page, "iris-1")).toBeVisible({ timeout: 60_000 });
+  return { context, page };
+}
+
+test("two sessions edit the same draft: the second sees a conflict and loses nothing", async ({ browser }) => {
+  test.skip(!benchUrl, "needs the bench from the first test");
+  const a = await researcherPage(browser);
+  const b = await researcherPage(browser);
+
+  await row(a.page, "iris-1").click();
+  await a.page.getByLabel("Diameter").fill("1.5");
+  await expect(a.page.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 15_000 });
+
+  await row(b.page, "screen-1").click();
+  await b.page.keyboard.press("Shift+ArrowRight");
+  await expect(b.page.getByTestId("conflict")).toBeVisible({ timeout: 15_000 });
+  await expect(b.page.getByTestId("save-status")).toHaveAttribute("data-state", "conflict");
+  await expect(b.page.getByTestId("conflict-differences")).toContainText("iris-1: diameter (mm) 1 in yours, 1.5 saved");
+  await expect(b.page.getByTestId("conflict-differences")).toContainText("screen-1: position (mm)");
+  await b.page.screenshot({ path: "test-results/screenshots/editor-conflict.png", fullPage: true });
+
+  const screenB = await positionOf(b.page, "screen-1");
+  await b.page.getByRole("button", { name: /Keep mine/ }).click();
+  await expect(b.page.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 15_000 });
+
+  await a.page.reload();
+  await expect(row(a.page, "screen-1")).toBeVisible({ timeout: 60_000 });
+  expect(await positionOf(a.page, "screen-1")).toBe(screenB);
+  await a.context.close();
+  await b.context.close();
+});
+
+test("an import with mistakes lists them by field and changes nothing", async ({ page }) => {
+  test.skip(!benchUrl, "needs the bench from the first test");
+  await signIn(page, "researcher@northmere.example.edu");
+  await page.goto(benchUrl, { timeout: 120_000 });
+  await expect(row(page, "iris-1")).toBeVisible({ timeout: 60_000 });
+  const bad = {
+    version: 1,
+    elements: [
+      { id: "laser-1", kind: "laser", positionMm: 0, wavelengthNm: 50, powerMw: 1, beamDiameterMm: 1 },
+      { id: "iris-1", kind: "aperture", positionMm: 100, diameterMm: 0 },
+      { id: "x-1", kind: "mirror", positionMm: 200 },
+    ],
+  };
+  await page.getByTestId("import-file").setInputFiles({ name: "bad-bench.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(bad)) });
+  const problems = page.getByTestId("import-problems");
+  await expect(problems).toBeVisible();
+  await expect(problems).toContainText("elements.0.wavelengthNm");
+  await expect(problems).toContainText("elements.1.diameterMm");
+  await expect(problems).toContainText("elements.2.kind");
+  await expect(row(page, "screen-1")).toBeVisible();
+  await page.screenshot({ path: "test-results/screenshots/editor-import-errors.png", fullPage: true });
+});
