@@ -220,3 +220,87 @@ export const mailOutbox = pgTable(
   },
   (t) => [index("mail_outbox_due_idx").on(t.state, t.nextAttemptAt)],
 );
+
+// ── Review: decisions, comments, expiry reminders (append-only: triggers in the migrations) ──
+export const DECISION_OUTCOMES = ["approved", "changes-requested", "rejected"] as const;
+export type DecisionOutcome = (typeof DECISION_OUTCOMES)[number];
+
+/** What the hazard engines said at the moment of signing, kept with the signature. */
+export type HazardSummary = Record<string, unknown>;
+
+/** One safety officer's decision on one submitted revision; at most one per revision. */
+export const reviewDecision = pgTable(
+  "review_decision",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    revisionId: uuid("revision_id")
+      .notNull()
+      .references(() => benchRevision.id),
+    benchId: uuid("bench_id")
+      .notNull()
+      .references(() => bench.id),
+    outcome: text("outcome").$type<DecisionOutcome>().notNull(),
+    signerId: text("signer_id")
+      .notNull()
+      .references(() => user.id),
+    /** Name and role as they were when signing; later renames do not rewrite the record. */
+    signerName: text("signer_name").notNull(),
+    signerRole: text("signer_role").notNull(),
+    /** The sentence the signature means, stored verbatim. */
+    meaning: text("meaning").notNull(),
+    conditions: text("conditions"),
+    /** The officer's reason (turned down) or what to change (changes asked). */
+    reason: text("reason"),
+    validUntil: timestamp("valid_until", { withTimezone: true }),
+    /** The content hash of the revision that was decided on. */
+    contentHash: text("content_hash").notNull(),
+    hazardSummary: jsonb("hazard_summary").$type<HazardSummary>(),
+    /** True when the signer re-entered their password just before signing. */
+    stepUpVerified: boolean("step_up_verified").notNull().default(false),
+    decidedAt: timestamp("decided_at", { withTimezone: true }).notNull().default(sql`clock_timestamp()`),
+  },
+  (t) => [uniqueIndex("review_decision_revision_idx").on(t.revisionId), index("review_decision_bench_idx").on(t.benchId, t.decidedAt)],
+);
+
+/** Comments on a revision, in threads (the first comment's id is the thread id), optionally pinned to an element. */
+export const reviewComment = pgTable(
+  "review_comment",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    revisionId: uuid("revision_id")
+      .notNull()
+      .references(() => benchRevision.id),
+    benchId: uuid("bench_id")
+      .notNull()
+      .references(() => bench.id),
+    threadId: uuid("thread_id").notNull(),
+    parentId: uuid("parent_id"),
+    /** The bench element the thread is about; null for a general comment. */
+    elementId: text("element_id"),
+    authorId: text("author_id")
+      .notNull()
+      .references(() => user.id),
+    authorName: text("author_name").notNull(),
+    authorRole: text("author_role").notNull(),
+    body: text("body").notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().default(sql`clock_timestamp()`),
+  },
+  (t) => [index("review_comment_revision_idx").on(t.revisionId, t.createdAt), index("review_comment_thread_idx").on(t.threadId)],
+);
+
+export const REMINDER_KINDS = ["30-days", "7-days"] as const;
+export type ReminderKind = (typeof REMINDER_KINDS)[number];
+
+/** Expiry reminders already written to the outbox; the unique key keeps each from going out twice. */
+export const reviewReminder = pgTable(
+  "review_reminder",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    decisionId: uuid("decision_id")
+      .notNull()
+      .references(() => reviewDecision.id),
+    kind: text("kind").$type<ReminderKind>().notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().default(sql`clock_timestamp()`),
+  },
+  (t) => [uniqueIndex("review_reminder_once_idx").on(t.decisionId, t.kind)],
+);

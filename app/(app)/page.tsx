@@ -35,7 +35,7 @@ export default async function HomePage() {
     const waiting = await listRevisionsInState(db, actor, "submitted");
     sections.push(
       <Section key="o" title="Waiting for your review" testId="home-officer">
-        <BenchTable rows={waiting.map((w) => ({ ...w, state: "submitted" }))} caption="Revisions waiting for review" empty="Nothing is waiting for review." />
+        <BenchTable rows={waiting.map((w) => ({ ...w, state: "submitted", href: `/reviews/${w.revisionId}` }))} caption="Revisions waiting for review" empty="Nothing is waiting for review." />
       </Section>,
     );
   }
@@ -51,7 +51,7 @@ export default async function HomePage() {
     const approvals = await listRevisionsInState(db, actor, "approved");
     sections.push(
       <Section key="a" title="Sign-offs" testId="home-auditor">
-        <BenchTable rows={approvals.map((a) => ({ ...a, state: "approved" }))} caption="Every signed-off revision" empty="No revision has been signed off yet." />
+        <BenchTable rows={approvals.map((a) => ({ ...a, state: "approved", href: `/reviews/${a.revisionId}` }))} caption="Every signed-off revision" empty="No revision has been signed off yet." />
       </Section>,
     );
   }

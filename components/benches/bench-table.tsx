@@ -2,7 +2,7 @@ import Link from "next/link";
 import type { ReviewState } from "@/db/schema";
 import { StateBadge } from "@/components/ui/state-badge";
 
-export type BenchRow = { benchId: string; title: string; labName: string; authorName: string; number: number; state?: ReviewState; contentHash: string; updatedAt: string };
+export type BenchRow = { href?: string; benchId: string; title: string; labName: string; authorName: string; number: number; state?: ReviewState; contentHash: string; updatedAt: string };
 
 export function BenchTable({ rows, empty, caption }: { rows: BenchRow[]; empty: string; caption: string }) {
   if (rows.length === 0) return <p className="rounded-lg border border-dashed border-line p-4 text-muted">{empty}</p>;
@@ -24,7 +24,7 @@ export function BenchTable({ rows, empty, caption }: { rows: BenchRow[]; empty: 
           {rows.map((r) => (
             <tr key={`${r.benchId}-${r.number}`} className="border-t border-line">
               <td className="px-3 py-3">
-                <Link href={`/benches/${r.benchId}`} className="font-medium">
+                <Link href={r.href ?? `/benches/${r.benchId}`} className="font-medium">
                   {r.title}
                 </Link>
               </td>

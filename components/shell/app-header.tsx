@@ -9,6 +9,7 @@ export function AppHeader({ name, roles, mailCatcherUrl }: { name: string; roles
   const items: NavItem[] = [
     { href: "/", label: "Home" },
     { href: "/benches", label: "Benches", needs: { bench: ["read"] } },
+    { href: "/reviews", label: "Reviews", needs: { review: ["decide"] } },
     { href: "/admin/people", label: "People", needs: { user: ["list"] } },
     { href: "/admin/labs", label: "Labs", needs: { lab: ["manage"] } },
   ];

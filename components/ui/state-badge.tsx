@@ -8,7 +8,7 @@ const LOOK: Record<ReviewState, { label: string; shape: string; className: strin
   "changes-requested": { label: "Changes asked", shape: "◑", className: "border-warn text-warn" },
   rejected: { label: "Turned down", shape: "✕", className: "border-danger text-danger" },
   withdrawn: { label: "Withdrawn", shape: "↩", className: "border-line text-muted" },
-  expired: { label: "Sign-off expired", shape: "⌛", className: "border-danger text-danger" },
+  expired: { label: "Sign-off expired", shape: "⊘", className: "border-danger text-danger" },
   superseded: { label: "Replaced by a newer sign-off", shape: "⇢", className: "border-line text-muted" },
 };
 

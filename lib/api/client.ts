@@ -34,6 +34,7 @@ export const queryKeys = {
   benches: () => ["benches"] as const,
   bench: (id: string) => ["benches", id] as const,
   analysis: (hash: string) => ["analysis", hash] as const,
+  revision: (revisionId: string) => ["revisions", revisionId] as const,
   draft: (benchId: string) => ["benches", benchId, "draft"] as const,
   profile: (hash: string, apertureId: string) => ["analysis", hash, "profile", apertureId] as const,
 };

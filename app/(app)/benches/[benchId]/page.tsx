@@ -2,6 +2,7 @@ import { dehydrate, HydrationBoundary, QueryClient } from "@tanstack/react-query
 import { notFound } from "next/navigation";
 import { getDb } from "@/db";
 import { BenchEditor } from "@/components/editor/bench-editor";
+import { SubmitForReview } from "@/components/review/submit-for-review";
 import { Refused } from "@/components/shell/refused";
 import { StateBadge } from "@/components/ui/state-badge";
 import { draftQuery } from "@/lib/api/bench-queries";
@@ -30,12 +31,19 @@ export default async function BenchPage({ params }: { params: Promise<{ benchId:
       <HydrationBoundary state={dehydrate(queryClient)}>
         <BenchEditor benchId={benchId} labName={detail.labName} authorName={detail.authorName} />
       </HydrationBoundary>
+      {detail.revisions[0] ? <SubmitForReview revisionId={detail.revisions[0].id} /> : null}
       <section aria-labelledby="revisions-heading">
         <h2 id="revisions-heading" className="mb-2 text-lg font-semibold">Revisions</h2>
         <ul className="flex flex-col gap-2">
           {detail.revisions.map((r) => (
             <li key={r.id} className="flex flex-wrap items-center gap-3 rounded-lg border border-line bg-panel px-4 py-2">
-              <span className="font-semibold">Revision {r.number}</span>
+              {r.state === "draft" ? (
+                <span className="font-semibold">Revision {r.number}</span>
+              ) : (
+                <a href={`/reviews/${r.id}`} className="font-semibold">
+                  Revision {r.number}
+                </a>
+              )}
               <StateBadge state={r.state} />
               <span className="font-mono text-xs text-muted" title="Content hash (SHA-256 of the canonical bench document)">
                 {r.contentHash}

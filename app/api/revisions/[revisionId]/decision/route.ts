@@ -1,0 +1,8 @@
+import { getDb } from "@/db";
+import { apiRoute, parseWith, readJson } from "@/lib/server/api";
+import { decideRevision, decisionInput } from "@/lib/server/reviews";
+
+export const POST = apiRoute<{ revisionId: string }>({ review: ["decide"] }, async ({ request, actor, params }) => {
+  const input = parseWith(decisionInput, await readJson(request), "The decision");
+  return Response.json(await decideRevision(getDb(), actor, params.revisionId, input), { status: 201 });
+});

@@ -1,0 +1,692 @@
+// The review workflow of a bench revision: submit, withdraw, decide (sign off, ask for changes, turn
+// down), comment, and the later expiry or replacement of a sign-off. Each state change, its e-mails
+// and its audit row commit in one transaction; illegal moves get a 409 with a sentence.
+import "server-only";
+import { and, asc, desc, eq, gt, inArray, lt, ne, sql } from "drizzle-orm";
+import { verifyPassword } from "better-auth/crypto";
+import { z } from "zod";
+import type { Database, DbOrTx } from "@/db";
+import {
+  account,
+  auditEvent,
+  bench,
+  benchRevision,
+  lab,
+  labMember,
+  reviewComment,
+  reviewDecision,
+  user,
+  type DecisionOutcome,
+  type HazardSummary,
+  type ReviewState,
+} from "@/db/schema";
+import { ROLE_LABELS, parseRoles, rolesAllow } from "@/lib/auth/permissions";
+import { contentHash } from "@/lib/bench/canonical";
+import { diffBenches, type BenchDiff } from "@/lib/bench/diff";
+import { benchDocumentSchema, describeIssues, type BenchDocument } from "@/lib/bench/schema";
+import { AppError, notFound } from "@/lib/errors";
+import { enqueueMail } from "@/lib/mail/outbox";
+import {
+  reviewCommentMail,
+  reviewDecisionMail,
+  reviewSubmittedMail,
+  type Recipient,
+  type RevisionMailContext,
+} from "@/lib/mail/review-mail";
+import { recordAudit } from "./audit";
+import { authorize, authorizeLab, type Actor } from "./authorize";
+import { hazardSummary } from "./review-hazard";
+
+export { expireApprovals, runReviewClock, sendExpiryReminders } from "./review-clock";
+
+export const SIGN_OFF_MEANING = "Approved for operation as drawn, with the conditions listed.";
+const MEANING: Record<DecisionOutcome, string> = {
+  approved: SIGN_OFF_MEANING,
+  "changes-requested": "Not approved: changes are asked for before this bench may be operated.",
+  rejected: "Not approved: this bench must not be operated as drawn.",
+};
+export const DEFAULT_VALIDITY_MONTHS = 12;
+export const MAX_VALIDITY_MONTHS = 60;
+
+/** States in which a revision has been signed off at some time. */
+const ONCE_APPROVED: ReviewState[] = ["approved", "expired", "superseded"];
+
+// ── Inputs (the one contract for routes and client forms) ─────────────────────────────────────
+const hashField = z.string({ error: "Send the content hash of the revision you reviewed" }).regex(/^[0-9a-f]{64}$/, "The content hash must be 64 hexadecimal characters");
+
+export const submitInput = z.object({ contentHash: hashField.optional() });
+export const withdrawInput = z.object({});
+
+export const decisionInput = z.discriminatedUnion(
+  "outcome",
+  [
+    z.object({
+      outcome: z.literal("approve"),
+      contentHash: hashField,
+      password: z.string({ error: "Enter your password to sign" }).min(1, "Enter your password to sign"),
+      conditions: z.string().trim().max(4000, "Conditions must be at most 4000 characters").optional(),
+      /** The last day the sign-off holds (YYYY-MM-DD); 12 months from today when left out. */
+      validUntil: z.iso.date({ error: "Valid until must be a date (YYYY-MM-DD)" }).optional(),
+    }),
+    z.object({
+      outcome: z.literal("request-changes"),
+      contentHash: hashField,
+      comment: z.string({ error: "Say what has to change" }).trim().min(1, "Say what has to change").max(4000, "The comment must be at most 4000 characters"),
+    }),
+    z.object({
+      outcome: z.literal("reject"),
+      contentHash: hashField,
+      reason: z.string({ error: "Give the reason for turning it down" }).trim().min(1, "Give the reason for turning it down").max(4000, "The reason must be at most 4000 characters"),
+    }),
+  ],
+  { error: "Choose approve, request-changes or reject" },
+);
+export type DecisionInput = z.infer<typeof decisionInput>;
+
+export const commentInput = z.object({
+  body: z.string({ error: "Write the comment" }).trim().min(1, "Write the comment").max(4000, "A comment must be at most 4000 characters"),
+  elementId: z.string().min(1).max(64).optional(),
+  parentId: z.uuid({ error: "The comment to answer is not a valid id" }).optional(),
+});
+export type CommentInput = z.infer<typeof commentInput>;
+
+// ── Loading ───────────────────────────────────────────────────────────────────────────────────
+type RevisionRow = {
+  id: string;
+  benchId: string;
+  number: number;
+  state: ReviewState;
+  contentHash: string;
+  document: BenchDocument;
+  createdBy: string;
+  updatedAt: Date;
+  benchTitle: string;
+  labId: string;
+  labName: string;
+  authorId: string;
+  authorName: string;
+  authorEmail: string;
+};
+
+async function loadRevision(db: DbOrTx, actor: Actor, revisionId: string, lock = false): Promise<RevisionRow> {
+  if (!z.uuid().safeParse(revisionId).success) throw notFound("The revision");
+  const query = db
+    .select({
+      id: benchRevision.id,
+      benchId: benchRevision.benchId,
+      number: benchRevision.number,
+      state: benchRevision.state,
+      contentHash: benchRevision.contentHash,
+      document: benchRevision.document,
+      createdBy: benchRevision.createdBy,
+      updatedAt: benchRevision.updatedAt,
+      benchTitle: bench.title,
+      labId: bench.labId,
+      labName: lab.name,
+      authorId: bench.authorId,
+      authorName: user.name,
+      authorEmail: user.email,
+    })
+    .from(benchRevision)
+    .innerJoin(bench, eq(bench.id, benchRevision.benchId))
+    .innerJoin(lab, eq(lab.id, bench.labId))
+    .innerJoin(user, eq(user.id, bench.authorId))
+    .where(eq(benchRevision.id, revisionId));
+  const [row] = lock ? await query.for("update", { of: benchRevision }) : await query;
+  if (!row) throw notFound("The revision");
+  try {
+    authorizeLab(actor, row.labId);
+  } catch {
+    throw notFound("The revision");
+  }
+  return { ...row, document: row.document as BenchDocument };
+}
+
+function mailContext(r: RevisionRow): RevisionMailContext {
+  return { benchTitle: r.benchTitle, labName: r.labName, revisionId: r.id, revisionNumber: r.number, contentHash: r.contentHash, authorName: r.authorName };
+}
+
+function actorRoleText(actor: Actor): string {
+  return actor.roles.join(",");
+}
+
+function isAuthor(actor: Actor, r: Pick<RevisionRow, "authorId" | "createdBy">): boolean {
+  return r.authorId === actor.userId || r.createdBy === actor.userId;
+}
+
+/** Why a state does not allow the move, in a sentence. */
+function stateSentence(r: Pick<RevisionRow, "number" | "state">): string {
+  const n = `Revision ${r.number}`;
+  switch (r.state) {
+    case "draft":
+      return `${n} is still a draft; it has not been sent for review.`;
+    case "submitted":
+      return `${n} is already waiting for review.`;
+    case "approved":
+      return `${n} has already been signed off.`;
+    case "changes-requested":
+      return `${n} has already been sent back with changes asked for; a changed drawing makes a new revision.`;
+    case "rejected":
+      return `${n} has already been turned down; a changed drawing makes a new revision.`;
+    case "withdrawn":
+      return `${n} was withdrawn by its author.`;
+    case "expired":
+      return `${n} had a sign-off that has expired.`;
+    case "superseded":
+      return `${n} had a sign-off that a newer revision has replaced.`;
+  }
+}
+
+async function usersWithRole(db: DbOrTx, role: "officer" | "technician", labId?: string): Promise<(Recipient & { id: string })[]> {
+  const rows = labId
+    ? await db
+        .select({ id: user.id, email: user.email, name: user.name, role: user.role, banned: user.banned })
+        .from(user)
+        .innerJoin(labMember, and(eq(labMember.userId, user.id), eq(labMember.labId, labId)))
+    : await db.select({ id: user.id, email: user.email, name: user.name, role: user.role, banned: user.banned }).from(user).where(sql`${user.role} like ${`%${role}%`}`);
+  return rows.filter((r) => !r.banned && parseRoles(r.role).includes(role)).map(({ id, email, name }) => ({ id, email, name }));
+}
+
+// ── Submit and withdraw (the author) ──────────────────────────────────────────────────────────
+export async function submitRevision(db: Database, actor: Actor, revisionId: string, input: z.infer<typeof submitInput>): Promise<{ state: ReviewState }> {
+  authorize(actor, { bench: ["submit"] });
+  return db.transaction(async (tx) => {
+    const r = await loadRevision(tx, actor, revisionId, true);
+    if (r.authorId !== actor.userId) throw new AppError("forbidden", `Only the bench's author, ${r.authorName}, can send it for review.`);
+    if (r.state !== "draft" && r.state !== "withdrawn") throw new AppError("conflict", `${stateSentence(r)} Only a draft or a withdrawn revision can be sent for review.`);
+    if (input.contentHash && input.contentHash !== r.contentHash) {
+      throw new AppError("conflict", `Revision ${r.number} has changed since you opened it; look at it again before sending it for review.`);
+    }
+    const [newer] = await tx
+      .select({ number: benchRevision.number })
+      .from(benchRevision)
+      .where(and(eq(benchRevision.benchId, r.benchId), gt(benchRevision.number, r.number)))
+      .limit(1);
+    if (newer) throw new AppError("conflict", `Revision ${newer.number} of this bench is newer than revision ${r.number}; send the newest one for review.`);
+    const [waiting] = await tx
+      .select({ number: benchRevision.number })
+      .from(benchRevision)
+      .where(and(eq(benchRevision.benchId, r.benchId), eq(benchRevision.state, "submitted"), ne(benchRevision.id, r.id)))
+      .limit(1);
+    if (waiting) throw new AppError("conflict", `Revision ${waiting.number} of this bench is still waiting for review; withdraw it first.`);
+
+    const parsed = benchDocumentSchema.safeParse(r.document);
+    if (!parsed.success) {
+      const fields = describeIssues(parsed.error);
+      throw new AppError("bad-request", `The bench cannot be sent for review yet: ${fields[0]?.message ?? "the drawing is incomplete"}.`, fields);
+    }
+    if (contentHash(parsed.data) !== r.contentHash) {
+      throw new AppError("conflict", `Revision ${r.number}'s stored content hash does not match its drawing; save the bench again before sending it.`);
+    }
+
+    // Bumping the draft counter makes any save still holding the old one get a conflict.
+    await tx
+      .update(benchRevision)
+      .set({ state: "submitted", version: sql`${benchRevision.version} + 1`, updatedAt: new Date() })
+      .where(eq(benchRevision.id, r.id));
+    await recordAudit(tx, {
+      actorId: actor.userId,
+      actorRole: actorRoleText(actor),
+      action: "review-submitted",
+      benchId: r.benchId,
+      revisionId: r.id,
+      contentHash: r.contentHash,
+      ipAddress: actor.ipAddress,
+      detail: { from: r.state, to: "submitted", number: r.number },
+    });
+    const ctx = mailContext(r);
+    for (const officer of await usersWithRole(tx, "officer")) {
+      if (officer.id === r.authorId) continue;
+      await enqueueMail(tx, reviewSubmittedMail(officer, ctx));
+    }
+    return { state: "submitted" as const };
+  });
+}
+
+export async function withdrawRevision(db: Database, actor: Actor, revisionId: string): Promise<{ state: ReviewState }> {
+  authorize(actor, { bench: ["submit"] });
+  return db.transaction(async (tx) => {
+    const r = await loadRevision(tx, actor, revisionId, true);
+    if (r.authorId !== actor.userId) throw new AppError("forbidden", `Only the bench's author, ${r.authorName}, can withdraw it from review.`);
+    if (r.state !== "submitted") throw new AppError("conflict", `${stateSentence(r)} Only a revision waiting for review can be withdrawn.`);
+    await tx.update(benchRevision).set({ state: "withdrawn", updatedAt: new Date() }).where(eq(benchRevision.id, r.id));
+    await recordAudit(tx, {
+      actorId: actor.userId,
+      actorRole: actorRoleText(actor),
+      action: "review-withdrawn",
+      benchId: r.benchId,
+      revisionId: r.id,
+      contentHash: r.contentHash,
+      ipAddress: actor.ipAddress,
+      detail: { from: "submitted", to: "withdrawn", number: r.number },
+    });
+    return { state: "withdrawn" as const };
+  });
+}
+
+// ── Decide (a safety officer who did not draw the bench) ──────────────────────────────────────
+async function checkPassword(db: DbOrTx, userId: string, password: string): Promise<boolean> {
+  const [row] = await db
+    .select({ hash: account.password })
+    .from(account)
+    .where(and(eq(account.userId, userId), eq(account.providerId, "credential")));
+  if (!row?.hash) return false;
+  return verifyPassword({ hash: row.hash, password });
+}
+
+function addMonths(date: Date, months: number): Date {
+  const d = new Date(date);
+  d.setUTCMonth(d.getUTCMonth() + months);
+  return d;
+}
+
+/** The end of the given day (UTC), checked to lie in the future and within the longest validity. */
+function validityEnd(now: Date, day: string | undefined): Date {
+  if (!day) return addMonths(now, DEFAULT_VALIDITY_MONTHS);
+  const end = new Date(`${day}T23:59:59.999Z`);
+  if (Number.isNaN(end.getTime()) || end.getTime() <= now.getTime()) {
+    throw new AppError("bad-request", "The sign-off must hold until a day after today.", [{ path: "validUntil", message: "Choose a day after today" }]);
+  }
+  if (end.getTime() > addMonths(now, MAX_VALIDITY_MONTHS).getTime()) {
+    throw new AppError("bad-request", `A sign-off may hold for at most ${MAX_VALIDITY_MONTHS / 12} years.`, [{ path: "validUntil", message: `At most ${MAX_VALIDITY_MONTHS / 12} years from today` }]);
+  }
+  return end;
+}
+
+export type DecisionView = {
+  id: string;
+  outcome: DecisionOutcome;
+  signerName: string;
+  signerRole: string;
+  meaning: string;
+  conditions: string | null;
+  reason: string | null;
+  validUntil: string | null;
+  contentHash: string;
+  hazardSummary: HazardSummary | null;
+  decidedAt: string;
+};
+
+function decisionView(row: typeof reviewDecision.$inferSelect): DecisionView {
+  return {
+    id: row.id,
+    outcome: row.outcome,
+    signerName: row.signerName,
+    signerRole: row.signerRole,
+    meaning: row.meaning,
+    conditions: row.conditions,
+    reason: row.reason,
+    validUntil: row.validUntil?.toISOString() ?? null,
+    contentHash: row.contentHash,
+    hazardSummary: row.hazardSummary ?? null,
+    decidedAt: row.decidedAt.toISOString(),
+  };
+}
+
+/** The 409 for deciding on a revision that is not waiting, naming who decided on it if someone did. */
+async function notWaiting(db: DbOrTx, r: RevisionRow): Promise<AppError> {
+  const [existing] = await db.select().from(reviewDecision).where(eq(reviewDecision.revisionId, r.id));
+  const by = existing ? ` ${existing.signerName} decided on it at ${existing.decidedAt.toISOString().slice(0, 16).replace("T", " ")} UTC.` : "";
+  return new AppError("conflict", `${stateSentence(r)}${by} Only a revision waiting for review can be decided.`);
+}
+
+export async function decideRevision(db: Database, actor: Actor, revisionId: string, input: DecisionInput): Promise<{ state: ReviewState; decision: DecisionView }> {
+  authorize(actor, { review: ["decide"] });
+  // Authorship and state are checked before the password, so the answer never depends on guessing it.
+  const first = await loadRevision(db, actor, revisionId);
+  if (isAuthor(actor, first)) {
+    throw new AppError("forbidden", "You drew this bench, so another safety officer has to review it; nobody signs off their own work.");
+  }
+  if (first.state !== "submitted") throw await notWaiting(db, first);
+  if (input.outcome === "approve") {
+    if (!(await checkPassword(db, actor.userId, input.password))) {
+      await recordAudit(db, {
+        actorId: actor.userId,
+        actorRole: actorRoleText(actor),
+        action: "sign-off-password-refused",
+        benchId: first.benchId,
+        revisionId: first.id,
+        contentHash: first.contentHash,
+        ipAddress: actor.ipAddress,
+      });
+      throw new AppError("forbidden", "That password is not right, so nothing was signed. Enter your own Benchwarden password again.", [
+        { path: "password", message: "The password is not right" },
+      ]);
+    }
+  }
+
+  try {
+    return await db.transaction(async (tx) => {
+      const r = await loadRevision(tx, actor, revisionId, true);
+      if (r.state !== "submitted") throw await notWaiting(tx, r);
+      if (input.contentHash !== r.contentHash) {
+        throw new AppError("conflict", `Revision ${r.number} is not the one you reviewed (its content hash differs); open it again before deciding.`);
+      }
+      const parsed = benchDocumentSchema.safeParse(r.document);
+      if (!parsed.success || contentHash(parsed.data) !== r.contentHash) {
+        throw new AppError("conflict", `Revision ${r.number}'s drawing does not match its content hash, so it cannot be signed; ask the author to save it again.`);
+      }
+
+      const now = new Date();
+      const outcome: DecisionOutcome = input.outcome === "approve" ? "approved" : input.outcome === "reject" ? "rejected" : "changes-requested";
+      const supersede: { id: string; number: number; contentHash: string }[] = [];
+      let validUntil: Date | null = null;
+      let summary: HazardSummary | null = null;
+      if (input.outcome === "approve") {
+        validUntil = validityEnd(now, input.validUntil);
+        const [newerApproved] = await tx
+          .select({ number: benchRevision.number })
+          .from(benchRevision)
+          .where(and(eq(benchRevision.benchId, r.benchId), eq(benchRevision.state, "approved"), gt(benchRevision.number, r.number)))
+          .limit(1);
+        if (newerApproved) throw new AppError("conflict", `Revision ${newerApproved.number} of this bench is already signed off and is newer than revision ${r.number}.`);
+        supersede.push(
+          ...(await tx
+            .select({ id: benchRevision.id, number: benchRevision.number, contentHash: benchRevision.contentHash })
+            .from(benchRevision)
+            .where(and(eq(benchRevision.benchId, r.benchId), eq(benchRevision.state, "approved"), lt(benchRevision.number, r.number)))
+            .for("update")),
+        );
+        summary = hazardSummary(parsed.data);
+      }
+      const signerRole = ROLE_LABELS.officer;
+      const [decision] = await tx
+        .insert(reviewDecision)
+        .values({
+          revisionId: r.id,
+          benchId: r.benchId,
+          outcome,
+          signerId: actor.userId,
+          signerName: actor.name,
+          signerRole,
+          meaning: MEANING[outcome],
+          conditions: input.outcome === "approve" ? input.conditions || null : null,
+          reason: input.outcome === "reject" ? input.reason : input.outcome === "request-changes" ? input.comment : null,
+          validUntil,
+          contentHash: r.contentHash,
+          hazardSummary: summary,
+          stepUpVerified: input.outcome === "approve",
+        })
+        .returning();
+      await tx.update(benchRevision).set({ state: outcome, updatedAt: now }).where(eq(benchRevision.id, r.id));
+      await recordAudit(tx, {
+        actorId: actor.userId,
+        actorRole: actorRoleText(actor),
+        action: `review-${outcome}`,
+        benchId: r.benchId,
+        revisionId: r.id,
+        contentHash: r.contentHash,
+        ipAddress: actor.ipAddress,
+        detail: {
+          from: "submitted",
+          to: outcome,
+          number: r.number,
+          decisionId: decision.id,
+          meaning: decision.meaning,
+          conditions: decision.conditions,
+          reason: decision.reason,
+          validUntil: validUntil?.toISOString() ?? null,
+          stepUpVerified: decision.stepUpVerified,
+        },
+      });
+      if (input.outcome === "request-changes") {
+        // The officer's words open a thread the author can answer.
+        const id = crypto.randomUUID();
+        await tx.insert(reviewComment).values({
+          id,
+          revisionId: r.id,
+          benchId: r.benchId,
+          threadId: id,
+          authorId: actor.userId,
+          authorName: actor.name,
+          authorRole: signerRole,
+          body: input.comment,
+        });
+      }
+      for (const old of supersede) {
+        await tx.update(benchRevision).set({ state: "superseded", updatedAt: now }).where(eq(benchRevision.id, old.id));
+        await recordAudit(tx, {
+          actorId: actor.userId,
+          actorRole: actorRoleText(actor),
+          action: "review-superseded",
+          benchId: r.benchId,
+          revisionId: old.id,
+          contentHash: old.contentHash,
+          ipAddress: actor.ipAddress,
+          detail: { from: "approved", to: "superseded", number: old.number, replacedBy: { revisionId: r.id, number: r.number } },
+        });
+      }
+
+      const ctx = mailContext(r);
+      const recipients = new Map<string, Recipient>([[r.authorEmail, { email: r.authorEmail, name: r.authorName }]]);
+      for (const t of await usersWithRole(tx, "technician", r.labId)) recipients.set(t.email, t);
+      for (const to of recipients.values()) {
+        await enqueueMail(
+          tx,
+          reviewDecisionMail(to, ctx, {
+            outcome,
+            signerName: actor.name,
+            signerRole,
+            decidedAt: decision.decidedAt,
+            meaning: decision.meaning,
+            conditions: decision.conditions,
+            reason: decision.reason,
+            validUntil,
+            supersededNumbers: supersede.map((s) => s.number),
+          }),
+        );
+      }
+      return { state: outcome as ReviewState, decision: decisionView(decision) };
+    });
+  } catch (error) {
+    // The unique index is the last guard against two officers deciding at the same instant.
+    if (error instanceof Error && /review_decision_revision_idx/.test(`${error.message} ${String((error as { cause?: unknown }).cause ?? "")}`)) {
+      throw new AppError("conflict", `Another safety officer decided on revision ${first.number} a moment ago.`);
+    }
+    throw error;
+  }
+}
+
+// ── Comments ──────────────────────────────────────────────────────────────────────────────────
+export type CommentView = {
+  id: string;
+  threadId: string;
+  parentId: string | null;
+  elementId: string | null;
+  authorName: string;
+  authorRole: string;
+  body: string;
+  createdAt: string;
+};
+export type CommentThread = { id: string; elementId: string | null; comments: CommentView[] };
+
+export async function addComment(db: Database, actor: Actor, revisionId: string, input: CommentInput): Promise<CommentView> {
+  authorize(actor, { review: ["comment"] });
+  return db.transaction(async (tx) => {
+    const r = await loadRevision(tx, actor, revisionId);
+    if (r.state === "draft") throw new AppError("conflict", `Revision ${r.number} is still a draft; comments open once it is sent for review.`);
+    let threadId: string | null = null;
+    let elementId = input.elementId ?? null;
+    if (input.parentId) {
+      const [parent] = await tx.select().from(reviewComment).where(and(eq(reviewComment.id, input.parentId), eq(reviewComment.revisionId, r.id)));
+      if (!parent) throw new AppError("bad-request", "The comment you are answering is not on this revision.", [{ path: "parentId", message: "Not a comment on this revision" }]);
+      threadId = parent.threadId;
+      elementId = parent.elementId;
+    }
+    if (elementId && !r.document.elements.some((e) => e.id === elementId)) {
+      throw new AppError("bad-request", `There is no element "${elementId}" on revision ${r.number}.`, [{ path: "elementId", message: "No such element on this revision" }]);
+    }
+    const id = crypto.randomUUID();
+    const role = rolesAllow(actor.roles, { review: ["decide"] }) && !isAuthor(actor, r) ? ROLE_LABELS.officer : actor.roles.map((x) => ROLE_LABELS[x]).join(", ");
+    const [row] = await tx
+      .insert(reviewComment)
+      .values({ id, revisionId: r.id, benchId: r.benchId, threadId: threadId ?? id, parentId: input.parentId ?? null, elementId, authorId: actor.userId, authorName: actor.name, authorRole: role, body: input.body })
+      .returning();
+    await recordAudit(tx, {
+      actorId: actor.userId,
+      actorRole: actorRoleText(actor),
+      action: "review-comment",
+      benchId: r.benchId,
+      revisionId: r.id,
+      contentHash: r.contentHash,
+      ipAddress: actor.ipAddress,
+      detail: { commentId: row.id, threadId: row.threadId, elementId, length: input.body.length },
+    });
+
+    // The other party: the author hears from reviewers; reviewers (or, before any, every officer) hear from the author.
+    const recipients = new Map<string, Recipient>();
+    if (actor.userId !== r.authorId) recipients.set(r.authorEmail, { email: r.authorEmail, name: r.authorName });
+    else {
+      const involved = await tx
+        .selectDistinct({ email: user.email, name: user.name, id: user.id })
+        .from(user)
+        .where(
+          sql`${user.id} in (select ${reviewComment.authorId} from ${reviewComment} where ${reviewComment.revisionId} = ${r.id}
+              union select ${reviewDecision.signerId} from ${reviewDecision} where ${reviewDecision.revisionId} = ${r.id})`,
+        );
+      const others = involved.filter((u) => u.id !== actor.userId);
+      for (const u of others.length ? others : await usersWithRole(tx, "officer")) if (u.id !== actor.userId) recipients.set(u.email, u);
+    }
+    const ctx = mailContext(r);
+    for (const to of recipients.values()) {
+      await enqueueMail(tx, reviewCommentMail(to, ctx, { commenterName: actor.name, commenterRole: role, body: input.body, elementId }));
+    }
+    return commentView(row);
+  });
+}
+
+function commentView(row: typeof reviewComment.$inferSelect): CommentView {
+  return {
+    id: row.id,
+    threadId: row.threadId,
+    parentId: row.parentId,
+    elementId: row.elementId,
+    authorName: row.authorName,
+    authorRole: row.authorRole,
+    body: row.body,
+    createdAt: row.createdAt.toISOString(),
+  };
+}
+
+async function threadsOf(db: DbOrTx, revisionId: string): Promise<CommentThread[]> {
+  const rows = await db.select().from(reviewComment).where(eq(reviewComment.revisionId, revisionId)).orderBy(asc(reviewComment.createdAt));
+  const threads = new Map<string, CommentThread>();
+  for (const row of rows) {
+    const thread = threads.get(row.threadId) ?? { id: row.threadId, elementId: row.elementId, comments: [] };
+    thread.comments.push(commentView(row));
+    threads.set(row.threadId, thread);
+  }
+  return [...threads.values()];
+}
+
+export async function listComments(db: Database, actor: Actor, revisionId: string): Promise<CommentThread[]> {
+  authorize(actor, { review: ["read"] });
+  const r = await loadRevision(db, actor, revisionId);
+  return threadsOf(db, r.id);
+}
+
+// ── Reading: the review screen and the queue ──────────────────────────────────────────────────
+export type ReviewDetail = {
+  revision: { id: string; number: number; state: ReviewState; contentHash: string; document: BenchDocument; updatedAt: string };
+  bench: { id: string; title: string; labName: string; authorName: string; authorId: string };
+  decision: DecisionView | null;
+  /** The newest earlier revision that was ever signed off, and what changed since. */
+  lastApproved: { id: string; number: number; state: ReviewState; contentHash: string; diff: BenchDiff } | null;
+  threads: CommentThread[];
+  trail: { at: string; action: string; actorName: string | null; detail: Record<string, unknown> }[];
+  may: { decide: boolean; comment: boolean; submit: boolean; withdraw: boolean; whyNotDecide: string | null };
+};
+
+export async function getReview(db: Database, actor: Actor, revisionId: string): Promise<ReviewDetail> {
+  authorize(actor, { bench: ["read"] });
+  const r = await loadRevision(db, actor, revisionId);
+  const [decisionRow] = await db.select().from(reviewDecision).where(eq(reviewDecision.revisionId, r.id));
+  const [approvedRow] = await db
+    .select({ id: benchRevision.id, number: benchRevision.number, state: benchRevision.state, contentHash: benchRevision.contentHash, document: benchRevision.document })
+    .from(benchRevision)
+    .where(and(eq(benchRevision.benchId, r.benchId), lt(benchRevision.number, r.number), inArray(benchRevision.state, ONCE_APPROVED)))
+    .orderBy(desc(benchRevision.number))
+    .limit(1);
+  const canReadReview = rolesAllow(actor.roles, { review: ["read"] });
+  const threads = canReadReview ? await threadsOf(db, r.id) : [];
+  const trailRows = await db
+    .select({ at: auditEvent.at, action: auditEvent.action, actorName: user.name, detail: auditEvent.detail })
+    .from(auditEvent)
+    .leftJoin(user, eq(user.id, auditEvent.actorId))
+    .where(and(eq(auditEvent.revisionId, r.id), sql`${auditEvent.action} like 'review-%'`))
+    .orderBy(asc(auditEvent.at));
+
+  const officer = rolesAllow(actor.roles, { review: ["decide"] });
+  let whyNotDecide: string | null = null;
+  if (!officer) whyNotDecide = "Only a laser safety officer can decide on a revision.";
+  else if (isAuthor(actor, r)) whyNotDecide = "You drew this bench, so another safety officer has to review it.";
+  else if (r.state !== "submitted") whyNotDecide = stateSentence(r);
+
+  return {
+    revision: { id: r.id, number: r.number, state: r.state, contentHash: r.contentHash, document: r.document, updatedAt: r.updatedAt.toISOString() },
+    bench: { id: r.benchId, title: r.benchTitle, labName: r.labName, authorName: r.authorName, authorId: r.authorId },
+    decision: decisionRow ? decisionView(decisionRow) : null,
+    lastApproved: approvedRow
+      ? { id: approvedRow.id, number: approvedRow.number, state: approvedRow.state, contentHash: approvedRow.contentHash, diff: diffBenches(approvedRow.document as BenchDocument, r.document) }
+      : null,
+    threads,
+    trail: trailRows.map((t) => ({ at: t.at.toISOString(), action: t.action, actorName: t.actorName, detail: t.detail })),
+    may: {
+      decide: whyNotDecide === null,
+      comment: rolesAllow(actor.roles, { review: ["comment"] }) && r.state !== "draft",
+      submit: r.authorId === actor.userId && rolesAllow(actor.roles, { bench: ["submit"] }) && (r.state === "draft" || r.state === "withdrawn"),
+      withdraw: r.authorId === actor.userId && rolesAllow(actor.roles, { bench: ["submit"] }) && r.state === "submitted",
+      whyNotDecide,
+    },
+  };
+}
+
+export type QueueRow = { revisionId: string; benchId: string; title: string; labName: string; authorName: string; number: number; contentHash: string; submittedAt: string; mine: boolean };
+export type DecidedRow = { revisionId: string; title: string; labName: string; number: number; state: ReviewState; outcome: DecisionOutcome; signerName: string; decidedAt: string; validUntil: string | null };
+
+/** The officer's queue (oldest waiting first) and the latest decisions. */
+export async function reviewQueue(db: Database, actor: Actor): Promise<{ waiting: QueueRow[]; decided: DecidedRow[] }> {
+  authorize(actor, { review: ["read"] });
+  const scope = actor.allLabs ? undefined : actor.labIds.length ? inArray(bench.labId, actor.labIds) : sql`false`;
+  const waiting = await db
+    .select({
+      revisionId: benchRevision.id,
+      benchId: bench.id,
+      title: bench.title,
+      labName: lab.name,
+      authorName: user.name,
+      authorId: bench.authorId,
+      number: benchRevision.number,
+      contentHash: benchRevision.contentHash,
+      submittedAt: benchRevision.updatedAt,
+    })
+    .from(benchRevision)
+    .innerJoin(bench, eq(bench.id, benchRevision.benchId))
+    .innerJoin(lab, eq(lab.id, bench.labId))
+    .innerJoin(user, eq(user.id, bench.authorId))
+    .where(and(scope, eq(benchRevision.state, "submitted")))
+    .orderBy(asc(benchRevision.updatedAt));
+  const decided = await db
+    .select({
+      revisionId: benchRevision.id,
+      title: bench.title,
+      labName: lab.name,
+      number: benchRevision.number,
+      state: benchRevision.state,
+      outcome: reviewDecision.outcome,
+      signerName: reviewDecision.signerName,
+      decidedAt: reviewDecision.decidedAt,
+      validUntil: reviewDecision.validUntil,
+    })
+    .from(reviewDecision)
+    .innerJoin(benchRevision, eq(benchRevision.id, reviewDecision.revisionId))
+    .innerJoin(bench, eq(bench.id, benchRevision.benchId))
+    .innerJoin(lab, eq(lab.id, bench.labId))
+    .where(scope)
+    .orderBy(desc(reviewDecision.decidedAt))
+    .limit(20);
+  return {
+    waiting: waiting.map(({ authorId, submittedAt, ...w }) => ({ ...w, submittedAt: submittedAt.toISOString(), mine: authorId === actor.userId })),
+    decided: decided.map((d) => ({ ...d, decidedAt: d.decidedAt.toISOString(), validUntil: d.validUntil?.toISOString() ?? null })),
+  };
+}

@@ -1,0 +1,115 @@
+// The sign-off cycle in chromium: a researcher sends a bench for review, the officer's e-mail arrives
+// in the mail catcher, the officer finds it in the queue, reads the review screen and signs off with a
+// condition and the password; the researcher then sees it signed off, the technician sees it to build.
+import { expect as baseExpect, test, type Browser, type Page } from "@playwright/test";
+import pg from "pg";
+import { call, DEMO, DEMO_PASSWORD, signIn, waitForMail } from "../support/http";
+import { createDrawnBench, databaseUrl, labIdByName, sampleBench } from "../support/review-fixtures";
+
+// The dev server compiles a route on its first request; allow for that after each action.
+const expect = baseExpect.configure({ timeout: 15_000 });
+
+const title = `E2E iris bench ${Date.now().toString(36)}`;
+const shots = "test-results/screenshots";
+let revisionId = "";
+let contentHash = "";
+
+test.beforeAll(async () => {
+  const pool = new pg.Pool({ connectionString: databaseUrl(), max: 1 });
+  try {
+    const researcher = await signIn(DEMO.researcher);
+    const labId = await labIdByName(researcher.cookie, "Coherent Imaging Lab");
+    const created = await createDrawnBench(pool, researcher.cookie, labId, sampleBench(title, { powerMw: 4 }));
+    revisionId = created.revisionId;
+    contentHash = created.contentHash;
+  } finally {
+    await pool.end();
+  }
+});
+
+async function signedIn(browser: Browser, email: string): Promise<Page> {
+  const context = await browser.newContext();
+  const page = await context.newPage();
+  await page.goto("/sign-in");
+  await page.waitForLoadState("networkidle"); // the dev server hydrates late; a click before that would be lost
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill(DEMO_PASSWORD);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page.getByTestId("signed-in-name")).toBeVisible();
+  return page;
+}
+
+test("a bench goes from draft to signed off in the browser", async ({ browser }) => {
+  // The researcher sends the drawing for review.
+  const researcher = await signedIn(browser, DEMO.researcher);
+  await researcher.goto(`/reviews/${revisionId}`);
+  await researcher.waitForLoadState("networkidle");
+  await expect(researcher.getByRole("heading", { name: title })).toBeVisible();
+  const control = researcher.getByTestId("submit-for-review");
+  await expect(control.getByText("Draft")).toBeVisible();
+  await control.getByRole("button", { name: "Send for review" }).click();
+  await expect(control.getByText("Waiting for review")).toBeVisible();
+  await expect(control.getByRole("button", { name: "Withdraw from review" })).toBeVisible();
+  await researcher.screenshot({ path: `${shots}/review-1-researcher-sent.png`, fullPage: true });
+
+  // The officer's e-mail names the bench and hash and links to this exact revision.
+  const mail = await waitForMail(DEMO.officer, new RegExp(`Waiting for your review: ${title}`));
+  expect(mail.text).toContain(contentHash);
+  const link = mail.text.match(/https?:\/\/\S+\/reviews\/[0-9a-f-]+/)![0];
+  expect(new URL(link).pathname).toBe(`/reviews/${revisionId}`);
+
+  // The officer finds it in the queue and opens the review screen.
+  const officer = await signedIn(browser, DEMO.officer);
+  await officer.goto("/reviews");
+  const queue = officer.getByTestId("review-queue");
+  await expect(queue.getByRole("link", { name: title })).toBeVisible();
+  await officer.screenshot({ path: `${shots}/review-2-queue.png`, fullPage: true });
+  await queue.getByRole("link", { name: title }).click();
+  await expect(officer).toHaveURL(new RegExp(`/reviews/${revisionId}$`));
+  await expect(officer.getByRole("heading", { name: "Laser hazard" })).toBeVisible();
+  await expect(officer.getByTestId("hazard-panel").getByText(/^Class (1|1M|2|2M|3R|3B|4)$/)).toBeVisible();
+  await expect(officer.getByText("Eyewear OD needed (highest on the bench)")).toBeVisible();
+  await expect(officer.getByRole("img", { name: /Side view of the bench/ })).toBeVisible();
+  await expect(officer.getByText(/No earlier revision of this bench was signed off/)).toBeVisible();
+  await officer.screenshot({ path: `${shots}/review-3-review-screen.png`, fullPage: true });
+
+  // A comment pinned to the iris, then the sign-off: a wrong password signs nothing.
+  await officer.waitForLoadState("networkidle");
+  await officer.getByLabel("New comment").fill("Please confirm the iris is on a lockable mount.");
+  await officer.getByLabel("About").selectOption("iris-1");
+  await expect(officer.getByRole("button", { name: "Add the comment" })).toBeEnabled();
+  await Promise.all([
+    officer.waitForResponse((r) => r.url().endsWith(`/api/revisions/${revisionId}/comments`) && r.request().method() === "POST"),
+    officer.getByRole("button", { name: "Add the comment" }).click(),
+  ]);
+  await expect(officer.getByTestId("comment-threads").getByText("◎ About iris-1")).toBeVisible();
+
+  await expect(officer.getByRole("radio", { name: /Sign off/ })).toBeChecked();
+  await officer.getByLabel("Conditions (optional)").fill("Eyewear OD 2 at 633 nm for everyone in the room; door interlock on.");
+  await officer.getByLabel("Your password, to sign").fill("not-the-password");
+  await officer.getByRole("button", { name: "Sign off this revision" }).click();
+  await expect(officer.getByText("The password is not right")).toBeVisible();
+  await officer.screenshot({ path: `${shots}/review-4-wrong-password.png` });
+  await officer.getByLabel("Your password, to sign").fill(DEMO_PASSWORD);
+  await officer.getByRole("button", { name: "Sign off this revision" }).click();
+  const record = officer.getByTestId("decision-record");
+  await expect(record.getByRole("heading", { name: "● Signed off" })).toBeVisible();
+  await expect(record.getByText("Rafe Dunmore, Laser safety officer")).toBeVisible();
+  await expect(record.getByTestId("decision-conditions")).toHaveText(/Eyewear OD 2 at 633 nm/);
+  await expect(officer.getByRole("button", { name: "Sign off this revision" })).toHaveCount(0);
+  await officer.screenshot({ path: `${shots}/review-5-signed-off.png`, fullPage: true });
+
+  // The researcher sees it signed off with the condition; the e-mail says the same.
+  await researcher.reload();
+  await expect(researcher.locator("header").getByText("Signed off")).toBeVisible();
+  await expect(researcher.getByTestId("decision-conditions")).toHaveText(/door interlock on/);
+  await researcher.screenshot({ path: `${shots}/review-6-researcher-sees.png`, fullPage: true });
+  const decided = await waitForMail(DEMO.researcher, new RegExp(`Signed off: ${title}`));
+  expect(decided.html).toContain("door interlock on");
+
+  // The technician of the lab sees it among the benches to build.
+  const technician = await signedIn(browser, DEMO.technician);
+  await expect(technician.getByTestId("home-technician").getByRole("link", { name: title })).toBeVisible();
+  const res = await call("GET", `/api/revisions/${revisionId}`, (await signIn(DEMO.technician)).cookie);
+  expect((res.json!.revision as { state: string }).state).toBe("approved");
+});
