@@ -3,6 +3,7 @@
 import { sql } from "drizzle-orm";
 import {
   boolean,
+  doublePrecision,
   index,
   integer,
   jsonb,
@@ -303,4 +304,158 @@ export const reviewReminder = pgTable(
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().default(sql`clock_timestamp()`),
   },
   (t) => [uniqueIndex("review_reminder_once_idx").on(t.decisionId, t.kind)],
+);
+
+// ── Laser register: the institution's inventory of lasers, kept by the safety officers ────────
+export const LASER_STATUSES = ["in-service", "out-of-service", "disposed"] as const;
+export type LaserStatus = (typeof LASER_STATUSES)[number];
+
+export const laserRegister = pgTable(
+  "laser_register",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    labId: uuid("lab_id")
+      .notNull()
+      .references(() => lab.id),
+    /** The class printed on the laser's label ("1", "1M", "2", "2M", "3R", "3B", "4"). */
+    labelClass: text("label_class").notNull(),
+    /** Emission wavelengths in nm; most lasers have one. */
+    wavelengthsNm: jsonb("wavelengths_nm").$type<number[]>().notNull(),
+    maxPowerMw: doublePrecision("max_power_mw").notNull(),
+    pulseEnergyMj: doublePrecision("pulse_energy_mj"),
+    pulseDurationS: doublePrecision("pulse_duration_s"),
+    pulseRepetitionRateHz: doublePrecision("pulse_repetition_rate_hz"),
+    /** 1/e² diameter at the exit, as datasheets give it. */
+    beamDiameterMm: doublePrecision("beam_diameter_mm").notNull(),
+    /** 1/e² full-angle divergence, as datasheets give it. */
+    divergenceMrad: doublePrecision("divergence_mrad").notNull(),
+    model: text("model").notNull(),
+    serialNumber: text("serial_number"),
+    location: text("location"),
+    status: text("status").$type<LaserStatus>().notNull().default("in-service"),
+    responsibleUserId: text("responsible_user_id").references(() => user.id),
+    /** Optimistic-concurrency counter. */
+    version: integer("version").notNull().default(1),
+    ...timestamps,
+  },
+  (t) => [index("laser_register_lab_idx").on(t.labId), index("laser_register_status_idx").on(t.status)],
+);
+
+// ── Build sheets and the technician's as-built record ─────────────────────────────────────
+export const SHEET_STATES = ["queued", "rendering", "ready", "failed"] as const;
+export type SheetState = (typeof SHEET_STATES)[number];
+
+/** One PDF build sheet per signed-off revision and paper size, cached by the revision's content hash. */
+export const buildSheet = pgTable(
+  "build_sheet",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    revisionId: uuid("revision_id")
+      .notNull()
+      .references(() => benchRevision.id),
+    contentHash: text("content_hash").notNull(),
+    paper: text("paper").$type<"A4" | "Letter">().notNull().default("A4"),
+    state: text("state").$type<SheetState>().notNull().default("queued"),
+    progressPercent: integer("progress_percent").notNull().default(0),
+    storageKey: text("storage_key"),
+    sizeBytes: integer("size_bytes"),
+    error: text("error"),
+    requestedBy: text("requested_by").references(() => user.id),
+    ...timestamps,
+  },
+  (t) => [uniqueIndex("build_sheet_revision_paper_idx").on(t.revisionId, t.paper), index("build_sheet_state_idx").on(t.state)],
+);
+
+export const BUILD_STATES = ["in-progress", "completed"] as const;
+export type BuildState = (typeof BUILD_STATES)[number];
+
+/** A technician's rebuild of one signed-off revision. */
+export const buildRecord = pgTable(
+  "build_record",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    revisionId: uuid("revision_id")
+      .notNull()
+      .references(() => benchRevision.id),
+    benchId: uuid("bench_id")
+      .notNull()
+      .references(() => bench.id),
+    contentHash: text("content_hash").notNull(),
+    technicianId: text("technician_id")
+      .notNull()
+      .references(() => user.id),
+    state: text("state").$type<BuildState>().notNull().default("in-progress"),
+    signedOffAt: timestamp("signed_off_at", { withTimezone: true }),
+    ...timestamps,
+  },
+  (t) => [index("build_record_revision_idx").on(t.revisionId)],
+);
+
+/** One line of the as-built checklist: an element placed, a control in place, eyewear available. */
+export const buildCheck = pgTable(
+  "build_check",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    buildId: uuid("build_id")
+      .notNull()
+      .references(() => buildRecord.id, { onDelete: "cascade" }),
+    /** Stable key from the bench: "element:<id>", "control:<caution id>", "eyewear". */
+    itemKey: text("item_key").notNull(),
+    done: boolean("done").notNull().default(false),
+    measuredPositionMm: doublePrecision("measured_position_mm"),
+    withinTolerance: boolean("within_tolerance"),
+    note: text("note"),
+    recordedBy: text("recorded_by").references(() => user.id),
+    ...timestamps,
+  },
+  (t) => [uniqueIndex("build_check_item_idx").on(t.buildId, t.itemKey)],
+);
+
+/** What the technician saw, beside what was predicted. */
+export const buildObservation = pgTable(
+  "build_observation",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    buildId: uuid("build_id")
+      .notNull()
+      .references(() => buildRecord.id, { onDelete: "cascade" }),
+    apertureId: text("aperture_id"),
+    centreSeen: text("centre_seen").$type<"bright" | "dark" | "unclear">(),
+    centrePredicted: text("centre_predicted"),
+    spotDiameterMm: doublePrecision("spot_diameter_mm"),
+    screenPowerMw: doublePrecision("screen_power_mw"),
+    predictedScreenPowerMw: doublePrecision("predicted_screen_power_mw"),
+    mismatch: boolean("mismatch").notNull().default(false),
+    note: text("note"),
+    recordedBy: text("recorded_by")
+      .notNull()
+      .references(() => user.id),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("build_observation_build_idx").on(t.buildId)],
+);
+
+export const UPLOAD_KINDS = ["bench-photo", "screen-photo", "datasheet"] as const;
+export type UploadKind = (typeof UPLOAD_KINDS)[number];
+
+/** A file kept by the storage module (local disk or S3-compatible); the row holds its key. */
+export const upload = pgTable(
+  "upload",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    buildId: uuid("build_id")
+      .notNull()
+      .references(() => buildRecord.id, { onDelete: "cascade" }),
+    kind: text("kind").$type<UploadKind>().notNull(),
+    fileName: text("file_name").notNull(),
+    contentType: text("content_type").notNull(),
+    sizeBytes: integer("size_bytes").notNull(),
+    sha256: text("sha256").notNull(),
+    storageKey: text("storage_key").notNull(),
+    uploadedBy: text("uploaded_by")
+      .notNull()
+      .references(() => user.id),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("upload_build_idx").on(t.buildId)],
 );
