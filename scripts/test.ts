@@ -41,7 +41,7 @@ async function main(): Promise<number> {
   mkdirSync(resultsDir, { recursive: true });
   for (const f of ["vitest.json", "playwright.json"]) rmSync(path.join(resultsDir, f), { force: true });
 
-  const { cluster, env, superUrl } = await provision({ dataDir, ports, dbName: "benchwarden_test", seed: true, rateLimitMax: 30 });
+  const { cluster, env, superUrl } = await provision({ dataDir, ports, dbName: "benchwarden_test", seed: true, rateLimitMax: 60 });
   const testEnv = { ...env, TEST_SUPERUSER_URL: superUrl, MAIL_WORKER_INTERVAL_MS: "300" };
   try {
     startChild("mail catcher", TSX, ["scripts/mail-catcher.ts"], { env: testEnv });

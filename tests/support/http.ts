@@ -14,11 +14,20 @@ export const DEMO = {
 
 export type DemoKey = keyof typeof DEMO;
 
+let testClientCounter = 0;
+
+/** A distinct documentation-range client address (RFC 5737) per sign-in, so the sign-in rate
+ *  limit (per client address) counts each test's attempts on their own. */
+function nextTestClientAddress(): string {
+  testClientCounter += 1;
+  return `198.51.100.${(process.pid + testClientCounter) % 250 + 1}`;
+}
+
 /** Signs in through better-auth's endpoint and returns the session cookie. */
-export async function signIn(email: string, password = DEMO_PASSWORD, forwardedFor?: string): Promise<{ status: number; cookie: string }> {
+export async function signIn(email: string, password = DEMO_PASSWORD, forwardedFor = nextTestClientAddress()): Promise<{ status: number; cookie: string }> {
   const res = await fetch(`${APP_URL}/api/auth/sign-in/email`, {
     method: "POST",
-    headers: { "content-type": "application/json", origin: APP_URL, ...(forwardedFor ? { "x-forwarded-for": forwardedFor } : {}) },
+    headers: { "content-type": "application/json", origin: APP_URL, "x-forwarded-for": forwardedFor },
     body: JSON.stringify({ email, password }),
   });
   const cookie = res.headers
