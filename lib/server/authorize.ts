@@ -21,19 +21,39 @@ export type Actor = {
   ipAddress: string | null;
 };
 
+// Lab memberships change rarely (an admin's action); keeping them for a few seconds per process
+// saves a query on every request. Admin changes call forgetMemberships() at once.
+const MEMBERSHIP_TTL_MS = 10_000;
+const membershipCache = new Map<string, { labIds: string[]; at: number }>();
+
+async function labIdsOf(userId: string): Promise<string[]> {
+  const cached = membershipCache.get(userId);
+  if (cached && Date.now() - cached.at < MEMBERSHIP_TTL_MS) return cached.labIds;
+  const rows = await getDb().select({ labId: labMember.labId }).from(labMember).where(eq(labMember.userId, userId));
+  const labIds = rows.map((m) => m.labId);
+  membershipCache.set(userId, { labIds, at: Date.now() });
+  return labIds;
+}
+
+/** Drops cached lab memberships (all, or one person's) after they change. */
+export function forgetMemberships(userId?: string): void {
+  if (userId) membershipCache.delete(userId);
+  else membershipCache.clear();
+}
+
 export async function actorFromHeaders(requestHeaders: Headers): Promise<Actor | null> {
   const result = await getAuth().api.getSession({ headers: requestHeaders });
   if (!result) return null;
   const { user } = result;
   const userRoles = parseRoles((user as { role?: string | null }).role);
-  const memberships = await getDb().select({ labId: labMember.labId }).from(labMember).where(eq(labMember.userId, user.id));
+  const labIds = await labIdsOf(user.id);
   const forwarded = requestHeaders.get("x-forwarded-for");
   return {
     userId: user.id,
     name: user.name,
     email: user.email,
     roles: userRoles,
-    labIds: memberships.map((m) => m.labId),
+    labIds,
     allLabs: userRoles.some((r) => ALL_LABS_ROLES.includes(r)),
     ipAddress: forwarded ? forwarded.split(",")[0].trim() : null,
   };
