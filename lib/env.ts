@@ -24,6 +24,14 @@ const envSchema = z.object({
   MAIL_CATCHER_URL: z.url({ error: "MAIL_CATCHER_URL must be a URL" }).optional(),
   /** Tests lower better-auth's sign-in rate limit window; the product keeps it on. */
   AUTH_RATE_LIMIT_MAX: z.coerce.number().int().min(1).default(10),
+  /** Where uploads and build sheets are kept: "local" (STORAGE_DIR) or "s3" (the S3_* settings). */
+  STORAGE_DRIVER: z.enum(["local", "s3"], { error: "STORAGE_DRIVER must be local or s3" }).default("local"),
+  STORAGE_DIR: z.string().min(1, "STORAGE_DIR must name a directory, e.g. .data/uploads").optional(),
+  S3_ENDPOINT: z.url({ error: "S3_ENDPOINT must be a URL, e.g. http://127.0.0.1:9000 (leave it out for AWS S3)" }).optional(),
+  S3_BUCKET: z.string().min(3, "S3_BUCKET must name a bucket (at least 3 characters)").optional(),
+  S3_ACCESS_KEY_ID: z.string().min(1, "S3_ACCESS_KEY_ID must not be empty").optional(),
+  S3_SECRET_ACCESS_KEY: z.string().min(1, "S3_SECRET_ACCESS_KEY must not be empty").optional(),
+  S3_REGION: z.string().min(1, "S3_REGION must name a region, e.g. us-east-1").optional(),
 });
 
 export type Env = z.infer<typeof envSchema>;

@@ -1,0 +1,355 @@
+import { fmt } from "@/components/review/format";
+import type { SheetContent } from "@/lib/server/build-sheets";
+import { statedOd } from "@/lib/safety/cautions";
+import { ProfilePlot } from "./profile-plot";
+import { ScaleDrawing } from "./scale-drawing";
+
+// The printed build sheet: black on white, big type for reading at the bench with gloves on, every figure
+// with its unit. Page 1 identity, drawing and parts; then build order, predictions, safety and approval.
+const CSS = `
+@page { margin: 16mm 15mm 18mm 15mm; }
+html, body { background: #fff !important; color: #000 !important; }
+body { font-size: 12.5pt; line-height: 1.35; -webkit-print-color-adjust: exact; print-color-adjust: exact; }
+.sheet { max-width: 186mm; margin: 0 auto; color: #000; }
+.sheet a { color: #000; }
+.sheet h1 { font-size: 22pt; font-weight: 800; margin: 0; line-height: 1.15; }
+.sheet h2 { font-size: 16pt; font-weight: 800; margin: 0 0 3mm; border-bottom: 0.6mm solid #000; padding-bottom: 1mm; }
+.sheet h3 { font-size: 13.5pt; font-weight: 700; margin: 3mm 0 1.5mm; }
+.sheet section { margin-bottom: 6mm; }
+.sheet .page { break-before: page; }
+.sheet table { width: 100%; border-collapse: collapse; font-size: 11.5pt; }
+.sheet th, .sheet td { border: 0.3mm solid #000; padding: 1.4mm 2mm; text-align: left; vertical-align: top; }
+.sheet th { background: #e8e8e8; font-weight: 700; }
+.sheet tr { break-inside: avoid; }
+.sheet .num { font-variant-numeric: tabular-nums; white-space: nowrap; }
+.sheet .big { font-size: 15pt; font-weight: 800; }
+.sheet .mono { font-family: ui-monospace, "DejaVu Sans Mono", monospace; font-size: 10.5pt; word-break: break-all; }
+.sheet .box { border: 0.5mm solid #000; padding: 3mm; border-radius: 1.5mm; break-inside: avoid; }
+.sheet .warn { border: 0.8mm solid #000; background: #f2f2f2; padding: 3mm; font-weight: 700; }
+.sheet .grid2 { display: grid; grid-template-columns: 1fr 1fr; gap: 4mm; }
+.sheet .head { display: grid; grid-template-columns: 1fr 36mm; gap: 5mm; align-items: start; margin-bottom: 4mm; }
+.sheet .qr svg { width: 36mm; height: 36mm; display: block; }
+.sheet .steps { list-style: none; padding: 0; margin: 0; counter-reset: step; }
+.sheet .steps > li { counter-increment: step; position: relative; padding: 1.5mm 0 2mm 13mm; border-bottom: 0.2mm solid #999; break-inside: avoid; }
+.sheet .steps > li::before { content: counter(step); position: absolute; left: 0; top: 1mm; width: 9mm; height: 9mm; border: 0.6mm solid #000; border-radius: 50%; text-align: center; font-weight: 800; font-size: 13pt; line-height: 8.2mm; }
+.sheet .steps p { margin: 0.5mm 0 0; }
+.sheet .tick { display: inline-block; width: 7mm; height: 7mm; border: 0.5mm solid #000; }
+.sheet .write { display: inline-block; min-width: 26mm; border-bottom: 0.3mm solid #000; height: 6mm; }
+.sheet .aperture { break-inside: avoid; margin-bottom: 5mm; }
+.sheet .aperture-figs { display: grid; grid-template-columns: 58mm 1fr; gap: 4mm; align-items: start; }
+.sheet .ring { width: 58mm; height: 58mm; border-radius: 50%; display: block; border: 0.4mm solid #000; image-rendering: auto; }
+.sheet .profile-plot { width: 100%; height: auto; }
+.sheet .scale-drawing { margin: 0 0 3mm; }
+.sheet .scale-drawing figcaption { font-size: 11pt; margin-top: 1mm; }
+.sheet dl.facts { display: grid; grid-template-columns: 45mm 1fr; gap: 1.2mm 3mm; margin: 0; }
+.sheet dl.facts dt { font-weight: 700; }
+.sheet dl.facts dd { margin: 0; }
+.sheet .cautions li { margin-bottom: 2mm; break-inside: avoid; }
+@media screen { body { padding: 10mm; } }
+`;
+
+const CENTRE_WORDS = { bright: "BRIGHT centre", dark: "DARK centre", between: "centre neither clearly bright nor dark" } as const;
+
+function RegisterLine({ register }: { register: SheetContent["register"] }) {
+  if (!register) return <div style={{ fontSize: "10.5pt", marginTop: "1mm" }}>Laser register: not linked — ask the laser safety officer which registered laser this is.</div>;
+  const e = register.entry;
+  if (!e) return <div style={{ fontSize: "10.5pt", marginTop: "1mm", fontWeight: 700 }}>Laser register entry {register.registerId} was not found — ask the laser safety officer before using any laser.</div>;
+  return (
+    <div style={{ fontSize: "10.5pt", marginTop: "1mm" }}>
+      <strong>Laser register:</strong> {e.model}
+      {e.serialNumber ? `, S/N ${e.serialNumber}` : ""}, label Class {e.labelClass}, {e.wavelengthsNm.join("/")} nm, max {e.maxPowerMw} mW{e.location ? `, ${e.location}` : ""} ({e.status})
+    </div>
+  );
+}
+
+function day(d: Date | string | null | undefined): string {
+  if (!d) return "—";
+  return (typeof d === "string" ? d : d.toISOString()).slice(0, 10);
+}
+
+export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" | "Letter" }) {
+  const { revision, decision, safety, analysis } = sheet;
+  const governing = safety?.governing ?? null;
+  const od = governing?.opticalDensityRequired ?? 0;
+  const wavelength = sheet.laser?.wavelengthNm;
+  return (
+    <div className="sheet" data-print-ready="" data-paper={paper}>
+      <style dangerouslySetInnerHTML={{ __html: CSS }} />
+
+      {/* ── Page 1: identity, drawing, parts ───────────────────────────────────────────── */}
+      <header className="head">
+        <div>
+          <p style={{ margin: 0, fontSize: "12pt" }}>Build sheet · {revision.labName}</p>
+          <h1>{revision.benchTitle}</h1>
+          <p className="big" style={{ margin: "2mm 0" }}>
+            Revision {revision.number} · {revision.status === "valid" ? "SIGNED OFF" : revision.status === "expired" ? "SIGN-OFF EXPIRED — DO NOT BUILD" : "REPLACED — DO NOT BUILD"}
+          </p>
+          <p style={{ margin: 0 }}>
+            Signed off by <strong>{decision?.signerName ?? "—"}</strong> on <strong>{day(decision?.decidedAt)}</strong>
+            {decision?.validUntil ? (
+              <>
+                {" "}
+                · valid until <strong>{day(decision.validUntil)}</strong>
+              </>
+            ) : null}{" "}
+            · drawn by {revision.authorName}
+          </p>
+          <p style={{ margin: "2mm 0 0" }}>
+            Content hash (SHA-256):
+            <br />
+            <span className="mono" data-testid="sheet-hash">
+              {revision.contentHash}
+            </span>
+          </p>
+        </div>
+        <div className="qr" aria-label="QR code linking to the online record">
+          <div dangerouslySetInnerHTML={{ __html: sheet.qrSvg }} />
+          <p style={{ fontSize: "9pt", margin: "1mm 0 0", textAlign: "center" }}>Scan to check the online record</p>
+        </div>
+      </header>
+      {decision?.conditions ? (
+        <p className="warn">Conditions of the sign-off: {decision.conditions}</p>
+      ) : null}
+      {revision.status !== "valid" ? <p className="warn">{revision.statusSentence}</p> : null}
+
+      <section>
+        <h2>The bench, at scale</h2>
+        <ScaleDrawing doc={sheet.document} />
+      </section>
+
+      <section>
+        <h2>Parts list</h2>
+        <table>
+          <thead>
+            <tr>
+              <th>Element</th>
+              <th>Position</th>
+              <th>From laser</th>
+              <th>Settings</th>
+            </tr>
+          </thead>
+          <tbody>
+            {sheet.parts.map((p) => (
+              <tr key={p.id}>
+                <td>
+                  <strong>{p.id}</strong>
+                  <br />
+                  {p.kindWord}
+                </td>
+                <td className="num big">{p.positionMm} mm</td>
+                <td className="num">{Number(p.fromLaserMm.toFixed(2))} mm</td>
+                <td>
+                  {p.settings}
+                  {p.kind === "laser" ? <RegisterLine register={sheet.register} /> : null}
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        <p style={{ margin: "2mm 0 0" }}>
+          Place every element within <strong>±{sheet.toleranceMm} mm</strong> of its position.
+        </p>
+      </section>
+
+      {/* ── Build order and the paper checklist ────────────────────────────────────────── */}
+      <section className="page">
+        <h2>Build order</h2>
+        <ol className="steps">
+          {sheet.steps.map((s, i) => (
+            <li key={i}>
+              <strong style={{ fontSize: "13.5pt" }}>{s.title}</strong>
+              {s.lines.map((l, j) => (
+                <p key={j}>{l}</p>
+              ))}
+            </li>
+          ))}
+        </ol>
+      </section>
+
+      <section>
+        <h2>As-built checklist (also in Benchwarden)</h2>
+        <p style={{ margin: "0 0 2mm" }}>Each element within ±{sheet.toleranceMm} mm of its position; each control as described on the safety page.</p>
+        <table>
+          <thead>
+            <tr>
+              <th style={{ width: "11mm" }}>Done</th>
+              <th>Item</th>
+              <th style={{ width: "36mm" }}>Measured position</th>
+            </tr>
+          </thead>
+          <tbody>
+            {sheet.checklist.map((c) => (
+              <tr key={c.itemKey}>
+                <td>
+                  <span className="tick" />
+                </td>
+                <td>
+                  <strong>{c.label}</strong>
+                  {c.group === "eyewear" ? <div style={{ fontSize: "10.5pt" }}>{c.detail}</div> : null}
+                </td>
+                <td>{c.expectedPositionMm !== null ? <span className="write" /> : "—"} {c.expectedPositionMm !== null ? "mm" : ""}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </section>
+
+      {/* ── Predictions ─────────────────────────────────────────────────────────────────── */}
+      <section className="page">
+        <h2>What you should see</h2>
+        {sheet.problem ? <p className="warn">The predictions cannot be computed for this drawing: {sheet.problem}</p> : null}
+        {sheet.screen && !sheet.apertures.some((a) => a.screenId === sheet.screen?.screenId) ? (
+          <p>
+            On <strong>{sheet.screen.screenId}</strong> ({sheet.screen.positionMm} mm): beam diameter <strong className="num">{fmt(sheet.screen.beamDiameterMm)} mm</strong> (1/e²), power arriving{" "}
+            <strong className="num">{fmt(sheet.screen.powerMw)} mW</strong>.
+          </p>
+        ) : null}
+        {sheet.apertures.length === 0 ? <p>There is no aperture that the light reaches, so no diffraction pattern is predicted.</p> : null}
+        {sheet.apertures.map((a) => (
+          <div className="aperture" key={a.id}>
+            <h3>
+              Aperture {a.id} (⌀ {a.diameterMm} mm at {a.positionMm} mm){a.screenId ? ` seen on ${a.screenId}, ${fmt(a.observationDistanceMm)} mm away` : " — no screen (far field)"}
+            </h3>
+            <p className="big" style={{ margin: "0 0 2mm" }}>
+              Expect a {CENTRE_WORDS[a.centre]} — {fmt(a.fresnelNumber)} half-period zones (Fresnel number)
+            </p>
+            <table style={{ marginBottom: "3mm" }}>
+              <tbody>
+                <tr>
+                  <th>Centre intensity</th>
+                  <td className="num">×{fmt(a.centreIntensityRatio)} of the open beam there</td>
+                  <th>Light through</th>
+                  <td className="num">{fmt(a.transmittedFraction * 100)} %</td>
+                </tr>
+                <tr>
+                  <th>Pattern diameter</th>
+                  <td className="num">{a.spotDiameterMm !== null ? `${fmt(a.spotDiameterMm)} mm` : "—"}</td>
+                  <th>Power at the screen</th>
+                  <td className="num">{a.screenPowerMw !== null ? `${fmt(a.screenPowerMw)} mW` : "—"}</td>
+                </tr>
+              </tbody>
+            </table>
+            {a.profile ? (
+              <div className="aperture-figs">
+                <figure style={{ margin: 0 }}>
+                  {a.ringPng ? <img className="ring" src={a.ringPng} alt={`Expected ring pattern behind ${a.id}`} /> : null}
+                  <figcaption style={{ fontSize: "10pt", textAlign: "center" }}>
+                    Expected pattern, {fmt(2 * (a.ringMaxRadiusMm ?? 0))} mm across (bright = light)
+                  </figcaption>
+                </figure>
+                <figure style={{ margin: 0 }}>
+                  <ProfilePlot radiusMm={a.profile.radiusMm} relativeIntensity={a.profile.relativeIntensity} shadowRadiusMm={a.profile.shadowRadiusMm} label={`Radial intensity behind ${a.id}`} />
+                  <figcaption style={{ fontSize: "10pt" }}>Intensity across the screen relative to the open beam; dotted: the aperture&apos;s geometric shadow edge.</figcaption>
+                </figure>
+              </div>
+            ) : null}
+          </div>
+        ))}
+        {analysis?.warnings.length ? (
+          <div className="box">
+            <h3 style={{ marginTop: 0 }}>Notes from the optics engine</h3>
+            <ul>
+              {analysis.warnings.map((w, i) => (
+                <li key={i}>{w.message}</li>
+              ))}
+            </ul>
+          </div>
+        ) : null}
+      </section>
+
+      {/* ── Safety and approval ─────────────────────────────────────────────────────────── */}
+      <section className="page">
+        <h2>Laser safety</h2>
+        {safety ? (
+          <>
+            <div className="grid2" style={{ marginBottom: "3mm" }}>
+              <div className="box">
+                <p style={{ margin: 0 }}>Laser class (estimated)</p>
+                <p className="big" style={{ fontSize: "20pt", margin: 0 }}>
+                  Class {safety.laser.hazardClass}
+                </p>
+                <p style={{ margin: 0, fontSize: "9.5pt" }}>{safety.laser.figures.hazardClass.source}</p>
+              </div>
+              <div className="box">
+                <p style={{ margin: 0 }}>Eyewear needed (highest on the bench)</p>
+                <p className="big" style={{ fontSize: "20pt", margin: 0 }}>
+                  {od > 0 ? `OD ${statedOd(od)} at ${wavelength} nm` : "OD 0 — none by the estimate"}
+                </p>
+                <p style={{ margin: 0, fontSize: "9.5pt" }}>{governing ? `${governing.where === "element" ? "at" : "at the focus after"} ${governing.elementId}, ${fmt(governing.positionMm)} mm. ${governing.source}` : "No light reaches anything."}</p>
+              </div>
+            </div>
+            <table style={{ marginBottom: "3mm" }}>
+              <tbody>
+                <tr>
+                  <th>MPE (eye, {fmt(safety.laser.exposureS)} s)</th>
+                  <td className="num">
+                    {fmt(safety.mpe.value)} {safety.mpe.unit}
+                  </td>
+                  <td style={{ fontSize: "9.5pt" }}>{safety.mpe.source}</td>
+                </tr>
+                <tr>
+                  <th>NOHD of the free beam</th>
+                  <td className="num">{fmt(safety.laser.nohdM)} m</td>
+                  <td style={{ fontSize: "9.5pt" }}>{safety.laser.figures.nohd.source}</td>
+                </tr>
+                {safety.laser.labelCheck ? (
+                  <tr>
+                    <th>Label class</th>
+                    <td>Class {safety.laser.labelCheck.labelClass}</td>
+                    <td>{safety.laser.labelCheck.matches ? "matches the estimate" : safety.laser.labelCheck.warning}</td>
+                  </tr>
+                ) : null}
+              </tbody>
+            </table>
+            <h3>Controls and cautions</h3>
+            <ul className="cautions">
+              {safety.cautions.map((c) => (
+                <li key={c.id}>
+                  <strong>{c.title}.</strong> {c.text} <span style={{ fontSize: "9.5pt" }}>({c.reference})</span>
+                </li>
+              ))}
+            </ul>
+            {safety.warnings.length ? (
+              <ul>
+                {safety.warnings.map((w, i) => (
+                  <li key={i}>{w.message}</li>
+                ))}
+              </ul>
+            ) : null}
+          </>
+        ) : (
+          <p className="warn">The hazard figures cannot be computed for this drawing: {sheet.problem}. Ask the laser safety officer before switching on.</p>
+        )}
+        <p className="warn">The institution&apos;s laser safety officer and local regulations decide. This sheet advises; it never authorises work on its own.</p>
+      </section>
+
+      <section className="box">
+        <h2>Approval</h2>
+        <dl className="facts">
+          <dt>Officer</dt>
+          <dd>
+            {decision?.signerName ?? "—"}
+            {decision ? `, ${decision.signerRole}` : ""}
+          </dd>
+          <dt>Signed on</dt>
+          <dd>{decision ? `${decision.decidedAt.toISOString().slice(0, 16).replace("T", " ")} UTC` : "—"}</dd>
+          <dt>Meaning</dt>
+          <dd>{decision?.meaning ?? "—"}</dd>
+          <dt>Conditions</dt>
+          <dd>{decision?.conditions || "None"}</dd>
+          <dt>Valid until</dt>
+          <dd>{decision?.validUntil ? day(decision.validUntil) : "No end date"}</dd>
+          <dt>Revision</dt>
+          <dd>
+            {revision.number} of “{revision.benchTitle}”, {revision.labName}
+          </dd>
+          <dt>Content hash</dt>
+          <dd className="mono">{revision.contentHash}</dd>
+          <dt>Check online</dt>
+          <dd className="mono">{sheet.verifyUrl}</dd>
+        </dl>
+        <p style={{ margin: "3mm 0 0", fontWeight: 700 }}>Uncontrolled when printed — check the online record before use (scan the QR code on page 1).</p>
+      </section>
+    </div>
+  );
+}

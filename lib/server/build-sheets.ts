@@ -1,0 +1,460 @@
+// Build sheets: the PDF of a signed-off revision, made as a job (queued → rendering → ready | failed) by
+// printing the app's own print route in the shared chromium (lib/pdf), kept by the storage module and
+// reused while the revision's content hash is unchanged. Also the sheet's content (parts, build order, predictions).
+import "server-only";
+import { and, eq } from "drizzle-orm";
+import QRCode from "qrcode";
+import { z } from "zod";
+import type { Database } from "@/db";
+import { getDb } from "@/db";
+import { buildSheet, laserRegister, type SheetState } from "@/db/schema";
+import { rolesAllow } from "@/lib/auth/permissions";
+import type { BenchDocument, LaserElement } from "@/lib/bench/schema";
+import { env } from "@/lib/env";
+import { AppError, notFound } from "@/lib/errors";
+import { ringImage, screenProfile, type ApertureAnalysis, type BenchAnalysis } from "@/lib/optics";
+import { greyPng, pngDataUrl } from "@/lib/pdf/png";
+import { renderPdf, PdfRenderError, PdfTimeoutError, type Paper } from "@/lib/pdf";
+import type { BenchSafetyAssessment } from "@/lib/safety";
+import { statedOd } from "@/lib/safety/cautions";
+import { storage } from "@/lib/storage";
+import { recordAudit } from "./audit";
+import { authorize, type Actor } from "./authorize";
+import {
+  checklistFor,
+  ELEMENT_KIND_WORDS,
+  elementSettings,
+  loadSignedRevision,
+  POSITION_TOLERANCE_MM,
+  predictionsFor,
+  signOffSentence,
+  signOffStatus,
+  type ChecklistItem,
+  type SignedRevision,
+  type SignOffStatus,
+} from "./builds";
+import { assessRevision } from "./review-hazard";
+
+export const PAPERS = ["A4", "Letter"] as const;
+export const SHEET_TIMEOUT_MS = 90_000;
+/** Sheets rendered at once in this process; the browser pool bounds pages as well. */
+const PARALLEL_JOBS = 1;
+
+export type SheetView = {
+  id: string;
+  revisionId: string;
+  contentHash: string;
+  paper: Paper;
+  state: SheetState;
+  progressPercent: number;
+  error: string | null;
+  sizeBytes: number | null;
+  updatedAt: string;
+  downloadUrl: string | null;
+};
+
+function sheetView(row: typeof buildSheet.$inferSelect): SheetView {
+  return {
+    id: row.id,
+    revisionId: row.revisionId,
+    contentHash: row.contentHash,
+    paper: row.paper,
+    state: row.state,
+    progressPercent: row.progressPercent,
+    error: row.error,
+    sizeBytes: row.sizeBytes,
+    updatedAt: row.updatedAt.toISOString(),
+    downloadUrl: row.state === "ready" ? `/api/sheets/${row.id}/download` : null,
+  };
+}
+
+export const sheetRequestInput = z.object({
+  paper: z.enum(PAPERS, { error: "Paper must be A4 or Letter" }).default("A4"),
+});
+
+export function verifyUrl(hash: string): string {
+  return `${env().APP_URL.replace(/\/$/, "")}/verify?hash=${hash}`;
+}
+
+function printUrl(revisionId: string, paper: Paper): string {
+  return `${env().APP_URL.replace(/\/$/, "")}/print/sheets/${revisionId}?paper=${paper}`;
+}
+
+// ── The job queue (one per server process; kept on globalThis across hot reloads) ─────────────
+type Job = { sheetId: string; revisionId: string; paper: Paper; cookie: string; headerText: string; storageKey: string };
+type Queue = { pending: Job[]; active: number; known: Set<string> };
+const globalForSheets = globalThis as unknown as { benchwardenSheetQueue?: Queue };
+const queue: Queue = (globalForSheets.benchwardenSheetQueue ??= { pending: [], active: 0, known: new Set() });
+
+function enqueue(job: Job): void {
+  queue.known.add(job.sheetId);
+  queue.pending.push(job);
+  pump();
+}
+
+function pump(): void {
+  while (queue.active < PARALLEL_JOBS && queue.pending.length) {
+    const job = queue.pending.shift()!;
+    queue.active += 1;
+    void run(job).finally(() => {
+      queue.active -= 1;
+      queue.known.delete(job.sheetId);
+      pump();
+    });
+  }
+}
+
+function failureSentence(error: unknown): string {
+  if (error instanceof PdfTimeoutError) return `The build sheet could not be made: the page took longer than ${Math.round(error.deadlineMs / 1000)} seconds to print. Try again in a minute; if it keeps failing, tell your administrator.`;
+  if (error instanceof PdfRenderError) return "The build sheet could not be made: the print page could not be opened with your session. Sign in again and ask for the sheet again.";
+  if (error instanceof Error && /Failed to launch|ENOENT|spawn/.test(error.message)) return "The build sheet could not be made: the PDF printer (chromium) could not be started on the server. Tell your administrator.";
+  return "The build sheet could not be made because of a problem on the server. Try again; if it keeps failing, tell your administrator.";
+}
+
+async function run(job: Job): Promise<void> {
+  const db = getDb();
+  const progress = async (percent: number) => {
+    // Only while rendering: a late progress report never overwrites the final state.
+    await db
+      .update(buildSheet)
+      .set({ progressPercent: percent, updatedAt: new Date() })
+      .where(and(eq(buildSheet.id, job.sheetId), eq(buildSheet.state, "rendering")))
+      .catch(() => undefined);
+  };
+  try {
+    await db.update(buildSheet).set({ state: "rendering", progressPercent: 10, error: null, updatedAt: new Date() }).where(eq(buildSheet.id, job.sheetId));
+    const pdf = await renderPdf(printUrl(job.revisionId, job.paper), {
+      cookie: job.cookie,
+      paper: job.paper,
+      timeoutMs: SHEET_TIMEOUT_MS,
+      headerText: job.headerText,
+      onProgress: (percent) => void progress(percent),
+    });
+    await progress(95);
+    await storage().put(job.storageKey, pdf, "application/pdf");
+    await db
+      .update(buildSheet)
+      .set({ state: "ready", progressPercent: 100, storageKey: job.storageKey, sizeBytes: pdf.length, error: null, updatedAt: new Date() })
+      .where(eq(buildSheet.id, job.sheetId));
+  } catch (error) {
+    console.error("[benchwarden] build sheet failed", job.sheetId, error);
+    await db
+      .update(buildSheet)
+      .set({ state: "failed", error: failureSentence(error), updatedAt: new Date() })
+      .where(eq(buildSheet.id, job.sheetId))
+      .catch(() => undefined);
+  }
+}
+
+function storageKeyFor(r: SignedRevision, paper: Paper): string {
+  return `sheets/${r.id}/${r.contentHash}-${paper}.pdf`;
+}
+
+/** Whether this actor may have a sheet of the revision now: only while its sign-off holds (auditors may export the record later too). */
+function assertSheetAllowed(actor: Actor, r: SignedRevision, status: SignOffStatus): void {
+  if (status === "valid") return;
+  if (status !== "not-signed-off" && rolesAllow(actor.roles, { audit: ["read"] })) return;
+  throw new AppError("conflict", `No build sheet: ${signOffSentence(r, status)}`);
+}
+
+/** Asks for the sheet of a revision on the given paper: the ready one when its content hash still matches, else a new job. */
+export async function requestSheet(db: Database, actor: Actor, revisionId: string, input: z.infer<typeof sheetRequestInput>, cookie: string): Promise<{ sheet: SheetView; reused: boolean }> {
+  authorize(actor, { bench: ["read"] });
+  const r = await loadSignedRevision(db, actor, revisionId);
+  assertSheetAllowed(actor, r, signOffStatus(r));
+  const paper = input.paper;
+  const headerText = `${r.benchTitle} — revision ${r.number} — ${paper}`;
+  const storageKey = storageKeyFor(r, paper);
+  const [existing] = await db.select().from(buildSheet).where(and(eq(buildSheet.revisionId, r.id), eq(buildSheet.paper, paper)));
+  let row = existing;
+  let reused = false;
+  if (row && row.state === "ready" && row.contentHash === r.contentHash && row.storageKey && (await storage().exists(row.storageKey))) {
+    reused = true;
+  } else if (row && (row.state === "queued" || row.state === "rendering") && queue.known.has(row.id)) {
+    // already on its way in this process
+  } else if (row) {
+    [row] = await db
+      .update(buildSheet)
+      .set({ state: "queued", progressPercent: 0, error: null, storageKey: null, sizeBytes: null, contentHash: r.contentHash, requestedBy: actor.userId, updatedAt: new Date() })
+      .where(eq(buildSheet.id, row.id))
+      .returning();
+    enqueue({ sheetId: row.id, revisionId: r.id, paper, cookie, headerText, storageKey });
+  } else {
+    const [inserted] = await db
+      .insert(buildSheet)
+      .values({ revisionId: r.id, contentHash: r.contentHash, paper, requestedBy: actor.userId })
+      .onConflictDoNothing({ target: [buildSheet.revisionId, buildSheet.paper] })
+      .returning();
+    if (inserted) {
+      row = inserted;
+      enqueue({ sheetId: row.id, revisionId: r.id, paper, cookie, headerText, storageKey });
+    } else {
+      // someone asked at the same moment: theirs is the job
+      [row] = await db.select().from(buildSheet).where(and(eq(buildSheet.revisionId, r.id), eq(buildSheet.paper, paper)));
+    }
+  }
+  await recordAudit(db, {
+    actorId: actor.userId,
+    actorRole: actor.roles.join(","),
+    action: "build-sheet-requested",
+    benchId: r.benchId,
+    revisionId: r.id,
+    contentHash: r.contentHash,
+    ipAddress: actor.ipAddress,
+    detail: { sheetId: row.id, paper, reused },
+  });
+  return { sheet: sheetView(row), reused };
+}
+
+/** The sheet job of a revision on the given paper, or null when none was asked for. */
+export async function getSheetStatus(db: Database, actor: Actor, revisionId: string, paper: Paper): Promise<SheetView | null> {
+  authorize(actor, { bench: ["read"] });
+  const r = await loadSignedRevision(db, actor, revisionId);
+  const [row] = await db.select().from(buildSheet).where(and(eq(buildSheet.revisionId, r.id), eq(buildSheet.paper, paper)));
+  return row ? sheetView(row) : null;
+}
+
+function slug(text: string): string {
+  return text.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "").slice(0, 40) || "bench";
+}
+
+/** The PDF bytes of a ready sheet; the export is audited. */
+export async function downloadSheet(db: Database, actor: Actor, sheetId: string): Promise<{ bytes: Buffer; fileName: string }> {
+  authorize(actor, { bench: ["read"] });
+  if (!z.uuid().safeParse(sheetId).success) throw notFound("The build sheet");
+  const [row] = await db.select().from(buildSheet).where(eq(buildSheet.id, sheetId));
+  if (!row) throw notFound("The build sheet");
+  let r: SignedRevision;
+  try {
+    r = await loadSignedRevision(db, actor, row.revisionId);
+  } catch {
+    throw notFound("The build sheet");
+  }
+  assertSheetAllowed(actor, r, signOffStatus(r));
+  if (row.state !== "ready" || !row.storageKey) {
+    throw new AppError("conflict", row.state === "failed" ? (row.error ?? "The build sheet could not be made; ask for it again.") : `The build sheet is not ready yet (${row.progressPercent} %).`);
+  }
+  if (row.contentHash !== r.contentHash) throw new AppError("conflict", "This sheet was made for a different version of the drawing; ask for the sheet again.");
+  const bytes = await storage().get(row.storageKey);
+  if (!bytes) throw new AppError("conflict", "The stored PDF is missing; ask for the build sheet again and it will be made anew.");
+  await recordAudit(db, {
+    actorId: actor.userId,
+    actorRole: actor.roles.join(","),
+    action: "build-sheet-exported",
+    benchId: r.benchId,
+    revisionId: r.id,
+    contentHash: r.contentHash,
+    ipAddress: actor.ipAddress,
+    detail: { sheetId: row.id, paper: row.paper, sizeBytes: bytes.length },
+  });
+  return { bytes, fileName: `build-sheet-${slug(r.benchTitle)}-rev${r.number}-${r.contentHash.slice(0, 8)}-${row.paper}.pdf` };
+}
+
+// ── The sheet's content, for the print route ──────────────────────────────────────────────────
+export type RegisterEntry = {
+  id: string;
+  model: string;
+  serialNumber: string | null;
+  labelClass: string;
+  wavelengthsNm: number[];
+  maxPowerMw: number;
+  beamDiameterMm: number;
+  divergenceMrad: number;
+  location: string | null;
+  status: string;
+};
+
+export type SheetPart = { id: string; kind: string; kindWord: string; positionMm: number; fromLaserMm: number; settings: string };
+export type SheetStep = { title: string; lines: string[] };
+export type SheetAperture = ApertureAnalysis & {
+  spotDiameterMm: number | null;
+  screenPowerMw: number | null;
+  profile: { radiusMm: number[]; relativeIntensity: number[]; shadowRadiusMm: number } | null;
+  ringPng: string | null;
+  ringMaxRadiusMm: number | null;
+};
+
+export type SheetContent = {
+  revision: { id: string; number: number; contentHash: string; benchTitle: string; labName: string; authorName: string; status: SignOffStatus; statusSentence: string };
+  decision: SignedRevision["decision"];
+  document: BenchDocument;
+  laser: LaserElement | null;
+  register: { registerId: string; entry: RegisterEntry | null } | null;
+  parts: SheetPart[];
+  checklist: ChecklistItem[];
+  steps: SheetStep[];
+  analysis: BenchAnalysis | null;
+  safety: BenchSafetyAssessment | null;
+  problem: string | null;
+  apertures: SheetAperture[];
+  screen: { screenId: string; positionMm: number; beamDiameterMm: number; powerMw: number } | null;
+  toleranceMm: number;
+  verifyUrl: string;
+  qrSvg: string;
+};
+
+const RING_PX = 220;
+const RING_GAMMA = 0.6;
+
+function ringPngFor(doc: BenchDocument, apertureId: string, maxRadiusMm: number): string | null {
+  try {
+    const image = ringImage(doc, apertureId, { sizePx: RING_PX, maxRadiusMm });
+    const levels = Float32Array.from(image.intensity, (v) => Math.pow(Math.max(0, v), RING_GAMMA));
+    return pngDataUrl(greyPng(image.widthPx, image.heightPx, levels));
+  } catch {
+    return null;
+  }
+}
+
+/** The numbered build order: prepare, mount in beam order, align at the lowest practical power with blocks in place, then open up. */
+export function buildSteps(doc: BenchDocument, safety: BenchSafetyAssessment | null): SheetStep[] {
+  const elements = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm || a.id.localeCompare(b.id));
+  const laser = elements.find((e): e is LaserElement => e.kind === "laser");
+  const od = safety?.governing?.opticalDensityRequired ?? 0;
+  const eyewear = od > 0 ? `eyewear of OD ${statedOd(od)} or more at ${laser?.wavelengthNm} nm` : "the eyewear your local rules ask for (the estimate needs none)";
+  const cautionIds = new Set(safety?.cautions.map((c) => c.id) ?? []);
+  const prep = safety?.cautions.filter((c) => ["sign-caution", "sign-warning", "no-reflective-items", "engineering-controls", "sop-and-approval", "local-rules-sop", "beam-height"].includes(c.id)).map((c) => c.title) ?? [];
+  const stops = elements.filter((e) => e.kind === "beam-block" || e.kind === "screen");
+  const steps: SheetStep[] = [
+    {
+      title: "Prepare the area, laser off",
+      lines: [`Laser switched off${cautionIds.has("engineering-controls") ? ", key removed" : ""}. Have ${eyewear} ready for everyone present.`, ...prep],
+    },
+  ];
+  for (const e of elements) {
+    const at = `at ${e.positionMm} mm (±${POSITION_TOLERANCE_MM} mm)`;
+    const settings = elementSettings(e);
+    const lines =
+      e.kind === "laser"
+        ? [`${settings}. Leave it off.`, "Every position on this sheet is measured along the beam on the same scale as the laser's position."]
+        : e.kind === "screen"
+          ? [settings, ...(cautionIds.has("screen-backstop") ? ["Mount a beam block directly behind the screen."] : [])]
+          : [settings];
+    steps.push({ title: `Mount ${ELEMENT_KIND_WORDS[e.kind]?.toLowerCase() ?? e.kind} ${e.id} ${at}`, lines });
+  }
+  const first = elements.find((e) => e.kind !== "laser");
+  steps.push({
+    title: "Switch on at the lowest practical power, beam blocked",
+    lines: [
+      `Put on ${eyewear}.`,
+      `Put a temporary beam block right after the laser${first ? `, before ${first.id}` : ""}.`,
+      "Switch the laser on at the lowest power that still lets you see the beam on a viewing card (or use a low-power alignment laser).",
+    ],
+  });
+  steps.push({
+    title: "Align in beam order",
+    lines: [
+      "For each element from the laser onward: move the temporary block to just behind it, centre the beam on it at the working height, lock the mount.",
+      `Order: ${elements.map((e) => e.id).join(" → ")}.`,
+    ],
+  });
+  steps.push({
+    title: "Open up",
+    lines: [
+      `Take the temporary block away. Check that the beam ends on ${stops.length ? stops.map((s) => s.id).join(" / ") : "a beam block (this bench has an open end — add one first)"}.`,
+      laser ? `Raise the power to the drawn ${laser.powerMw} mW only now.` : "Raise the power to the drawn value only now.",
+      "Compare the screen with the predictions page.",
+    ],
+  });
+  steps.push({
+    title: "Record what was built and seen",
+    lines: ["Enter the measured positions, the ticks, the observations and photos in the build record in Benchwarden."],
+  });
+  return steps;
+}
+
+async function registerEntry(db: Database, registerId: string): Promise<RegisterEntry | null> {
+  if (!z.uuid().safeParse(registerId).success) return null;
+  const [row] = await db.select().from(laserRegister).where(eq(laserRegister.id, registerId));
+  if (!row) return null;
+  return {
+    id: row.id,
+    model: row.model,
+    serialNumber: row.serialNumber,
+    labelClass: row.labelClass,
+    wavelengthsNm: row.wavelengthsNm,
+    maxPowerMw: row.maxPowerMw,
+    beamDiameterMm: row.beamDiameterMm,
+    divergenceMrad: row.divergenceMrad,
+    location: row.location,
+    status: row.status,
+  };
+}
+
+/** Everything the printed sheet shows, for a revision that was signed off. */
+export async function sheetContent(db: Database, actor: Actor, revisionId: string): Promise<SheetContent> {
+  authorize(actor, { bench: ["read"] });
+  const r = await loadSignedRevision(db, actor, revisionId);
+  const status = signOffStatus(r);
+  if (status === "not-signed-off") throw new AppError("conflict", signOffSentence(r, status));
+  const doc = r.document;
+  const assessed = assessRevision(doc);
+  const safety = assessed.ok ? assessed.safety : null;
+  const analysis = assessed.ok ? assessed.analysis : null;
+  const laser = doc.elements.find((e): e is LaserElement => e.kind === "laser") ?? null;
+  const origin = laser?.positionMm ?? 0;
+  const parts = [...doc.elements]
+    .sort((a, b) => a.positionMm - b.positionMm || a.id.localeCompare(b.id))
+    .map((e) => ({ id: e.id, kind: e.kind, kindWord: ELEMENT_KIND_WORDS[e.kind] ?? e.kind, positionMm: e.positionMm, fromLaserMm: e.positionMm - origin, settings: elementSettings(e) }));
+  const predictions = predictionsFor(doc);
+  const apertures: SheetAperture[] = (analysis?.apertures ?? []).map((a) => {
+    const p = predictions.apertures.find((x) => x.apertureId === a.id);
+    let profile: SheetAperture["profile"] = null;
+    let ringMaxRadiusMm: number | null = null;
+    if (a.screenId) {
+      try {
+        const s = screenProfile(doc, a.id, { points: 240 });
+        profile = { radiusMm: s.radiusMm, relativeIntensity: s.relativeIntensity, shadowRadiusMm: s.shadowRadiusMm };
+        ringMaxRadiusMm = s.radiusMm[s.radiusMm.length - 1];
+      } catch {
+        profile = null;
+      }
+    }
+    return {
+      ...a,
+      spotDiameterMm: p?.spotDiameterMm ?? null,
+      screenPowerMw: p?.screenPowerMw ?? null,
+      profile,
+      ringPng: ringMaxRadiusMm ? ringPngFor(doc, a.id, ringMaxRadiusMm) : null,
+      ringMaxRadiusMm,
+    };
+  });
+  const url = verifyUrl(r.contentHash);
+  const qrSvg = await QRCode.toString(url, { type: "svg", margin: 1, errorCorrectionLevel: "M" });
+  return {
+    revision: { id: r.id, number: r.number, contentHash: r.contentHash, benchTitle: r.benchTitle, labName: r.labName, authorName: r.authorName, status, statusSentence: signOffSentence(r, status) },
+    decision: r.decision,
+    document: doc,
+    laser,
+    register: laser?.registerId ? { registerId: laser.registerId, entry: await registerEntry(db, laser.registerId) } : null,
+    parts,
+    checklist: checklistFor(doc, safety),
+    steps: buildSteps(doc, safety),
+    analysis,
+    safety,
+    problem: assessed.ok ? null : assessed.problem,
+    apertures,
+    screen: predictions.screen,
+    toleranceMm: POSITION_TOLERANCE_MM,
+    verifyUrl: url,
+    qrSvg,
+  };
+}
+
+/** The expected ring image (PNG data URL) and radial profile of every aperture with a screen, for the build page. */
+export function predictionImages(doc: BenchDocument): Record<string, { ringPng: string | null; profile: { radiusMm: number[]; relativeIntensity: number[]; shadowRadiusMm: number } | null; acrossMm: number | null }> {
+  const assessed = assessRevision(doc);
+  if (!assessed.ok) return {};
+  const out: ReturnType<typeof predictionImages> = {};
+  for (const a of assessed.analysis.apertures) {
+    if (!a.screenId) continue;
+    try {
+      const s = screenProfile(doc, a.id, { points: 200 });
+      const maxMm = s.radiusMm[s.radiusMm.length - 1];
+      out[a.id] = { ringPng: ringPngFor(doc, a.id, maxMm), profile: { radiusMm: s.radiusMm, relativeIntensity: s.relativeIntensity, shadowRadiusMm: s.shadowRadiusMm }, acrossMm: 2 * maxMm };
+    } catch {
+      out[a.id] = { ringPng: null, profile: null, acrossMm: null };
+    }
+  }
+  return out;
+}

@@ -1,0 +1,803 @@
+// The technician's as-built record of a signed-off revision: the list of benches to build, starting a
+// build, the checklist generated from the bench, observations against the predictions, uploads, sign-off.
+// Predictions come from lib/optics (analyzeBench, screenProfile) and lib/safety (assessBench), which name their sources.
+import "server-only";
+import { createHash, randomUUID } from "node:crypto";
+import { and, asc, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { z } from "zod";
+import type { Database, DbOrTx } from "@/db";
+import {
+  bench,
+  benchRevision,
+  buildCheck,
+  buildObservation,
+  buildRecord,
+  lab,
+  reviewDecision,
+  upload,
+  user,
+  UPLOAD_KINDS,
+  type BuildState,
+  type ReviewState,
+  type UploadKind,
+} from "@/db/schema";
+import type { BenchDocument } from "@/lib/bench/schema";
+import { AppError, notFound } from "@/lib/errors";
+import { observationMismatchMail } from "@/lib/mail/build-mail";
+import { enqueueMail } from "@/lib/mail/outbox";
+import { screenProfile } from "@/lib/optics";
+import type { BenchSafetyAssessment } from "@/lib/safety";
+import { statedOd } from "@/lib/safety/cautions";
+import { storage } from "@/lib/storage";
+import { recordAudit } from "./audit";
+import { authorize, authorizeLab, type Actor } from "./authorize";
+import { assessRevision } from "./review-hazard";
+
+/** How far a mount may sit from its drawn position and still count as placed (measured along the rail). */
+export const POSITION_TOLERANCE_MM = 2;
+/** A spot or ring diameter within this fraction of the prediction matches. */
+export const SPOT_TOLERANCE_FRACTION = 0.25;
+/** A power reading at the screen within this fraction of the prediction matches (meters and losses vary). */
+export const POWER_TOLERANCE_FRACTION = 0.2;
+export const UPLOAD_MAX_BYTES = 10 * 1024 * 1024;
+
+const KIND_WORDS: Record<string, string> = {
+  laser: "Laser",
+  lens: "Lens",
+  aperture: "Aperture (iris)",
+  filter: "Filter",
+  "beam-block": "Beam block",
+  screen: "Screen",
+};
+
+// ── Signed-off revisions ──────────────────────────────────────────────────────────────────────
+export type SignOffStatus = "valid" | "expired" | "superseded" | "not-signed-off";
+
+export type SignedRevision = {
+  id: string;
+  benchId: string;
+  number: number;
+  state: ReviewState;
+  contentHash: string;
+  document: BenchDocument;
+  benchTitle: string;
+  labId: string;
+  labName: string;
+  authorId: string;
+  authorName: string;
+  authorEmail: string;
+  decision: {
+    signerName: string;
+    signerRole: string;
+    meaning: string;
+    conditions: string | null;
+    validUntil: Date | null;
+    decidedAt: Date;
+    contentHash: string;
+  } | null;
+};
+
+/** One revision with its sign-off, as the actor may see it (outside their labs it does not exist). */
+export async function loadSignedRevision(db: DbOrTx, actor: Actor, revisionId: string): Promise<SignedRevision> {
+  if (!z.uuid().safeParse(revisionId).success) throw notFound("The revision");
+  const [row] = await db
+    .select({
+      id: benchRevision.id,
+      benchId: benchRevision.benchId,
+      number: benchRevision.number,
+      state: benchRevision.state,
+      contentHash: benchRevision.contentHash,
+      document: benchRevision.document,
+      benchTitle: bench.title,
+      labId: bench.labId,
+      labName: lab.name,
+      authorId: bench.authorId,
+      authorName: user.name,
+      authorEmail: user.email,
+    })
+    .from(benchRevision)
+    .innerJoin(bench, eq(bench.id, benchRevision.benchId))
+    .innerJoin(lab, eq(lab.id, bench.labId))
+    .innerJoin(user, eq(user.id, bench.authorId))
+    .where(eq(benchRevision.id, revisionId));
+  if (!row) throw notFound("The revision");
+  try {
+    authorizeLab(actor, row.labId);
+  } catch {
+    throw notFound("The revision");
+  }
+  const [d] = await db
+    .select()
+    .from(reviewDecision)
+    .where(and(eq(reviewDecision.revisionId, row.id), eq(reviewDecision.outcome, "approved")));
+  return {
+    ...row,
+    document: row.document as BenchDocument,
+    decision: d
+      ? { signerName: d.signerName, signerRole: d.signerRole, meaning: d.meaning, conditions: d.conditions, validUntil: d.validUntil, decidedAt: d.decidedAt, contentHash: d.contentHash }
+      : null,
+  };
+}
+
+/** Whether the sign-off holds now. The review clock marks expiry in the database; the date is checked too, so a late clock never lets a build start. */
+export function signOffStatus(r: { state: ReviewState; decision: { validUntil: Date | null } | null }, now = new Date()): SignOffStatus {
+  if (r.state === "superseded") return "superseded";
+  if (r.state === "expired") return "expired";
+  if (r.state !== "approved" || !r.decision) return "not-signed-off";
+  if (r.decision.validUntil && r.decision.validUntil.getTime() <= now.getTime()) return "expired";
+  return "valid";
+}
+
+export function signOffSentence(r: { number: number; decision: { validUntil: Date | null } | null }, status: SignOffStatus): string {
+  const until = r.decision?.validUntil ? r.decision.validUntil.toISOString().slice(0, 10) : null;
+  switch (status) {
+    case "valid":
+      return until ? `Signed off, valid until ${until}.` : "Signed off.";
+    case "expired":
+      return `The sign-off of revision ${r.number} has expired${until ? ` (it held until ${until})` : ""}: do not build or switch on this setup until a revision is signed off again.`;
+    case "superseded":
+      return `Revision ${r.number} has been replaced by a newer signed-off revision: build the newer one instead.`;
+    case "not-signed-off":
+      return `Revision ${r.number} is not signed off, so it cannot be built.`;
+  }
+}
+
+function labScope(actor: Actor): SQL | undefined {
+  if (actor.allLabs) return undefined;
+  if (actor.labIds.length === 0) return sql`false`;
+  return inArray(bench.labId, actor.labIds);
+}
+
+// ── The list of benches to build ──────────────────────────────────────────────────────────────
+export type BuildSummary = { id: string; state: BuildState; technicianName: string; startedAt: string; signedOffAt: string | null };
+export type BuildableRow = {
+  revisionId: string;
+  benchId: string;
+  title: string;
+  labName: string;
+  authorName: string;
+  number: number;
+  contentHash: string;
+  state: ReviewState;
+  status: SignOffStatus;
+  statusSentence: string;
+  signerName: string;
+  decidedAt: string;
+  validUntil: string | null;
+  builds: BuildSummary[];
+};
+
+/** Every once-signed-off revision of the actor's labs, valid ones first; expired and replaced ones are marked. */
+export async function listBuildable(db: Database, actor: Actor): Promise<BuildableRow[]> {
+  authorize(actor, { build: ["read"] });
+  const rows = await db
+    .select({
+      revisionId: benchRevision.id,
+      benchId: bench.id,
+      title: bench.title,
+      labName: lab.name,
+      authorName: user.name,
+      number: benchRevision.number,
+      contentHash: benchRevision.contentHash,
+      state: benchRevision.state,
+      signerName: reviewDecision.signerName,
+      decidedAt: reviewDecision.decidedAt,
+      validUntil: reviewDecision.validUntil,
+    })
+    .from(benchRevision)
+    .innerJoin(bench, eq(bench.id, benchRevision.benchId))
+    .innerJoin(lab, eq(lab.id, bench.labId))
+    .innerJoin(user, eq(user.id, bench.authorId))
+    .innerJoin(reviewDecision, and(eq(reviewDecision.revisionId, benchRevision.id), eq(reviewDecision.outcome, "approved")))
+    .where(and(labScope(actor), inArray(benchRevision.state, ["approved", "expired", "superseded"])))
+    .orderBy(desc(reviewDecision.decidedAt))
+    .limit(500);
+  const ids = rows.map((r) => r.revisionId);
+  const builds = ids.length
+    ? await db
+        .select({ id: buildRecord.id, revisionId: buildRecord.revisionId, state: buildRecord.state, technicianName: user.name, createdAt: buildRecord.createdAt, signedOffAt: buildRecord.signedOffAt })
+        .from(buildRecord)
+        .innerJoin(user, eq(user.id, buildRecord.technicianId))
+        .where(inArray(buildRecord.revisionId, ids))
+        .orderBy(desc(buildRecord.createdAt))
+    : [];
+  const now = new Date();
+  const order: Record<SignOffStatus, number> = { valid: 0, expired: 1, superseded: 2, "not-signed-off": 3 };
+  return rows
+    .map((r) => {
+      const status = signOffStatus({ state: r.state, decision: { validUntil: r.validUntil } }, now);
+      return {
+        ...r,
+        status,
+        statusSentence: signOffSentence({ number: r.number, decision: { validUntil: r.validUntil } }, status),
+        decidedAt: r.decidedAt.toISOString(),
+        validUntil: r.validUntil?.toISOString() ?? null,
+        builds: builds
+          .filter((b) => b.revisionId === r.revisionId)
+          .map((b) => ({ id: b.id, state: b.state, technicianName: b.technicianName, startedAt: b.createdAt.toISOString(), signedOffAt: b.signedOffAt?.toISOString() ?? null })),
+      };
+    })
+    .sort((a, b) => order[a.status] - order[b.status]);
+}
+
+// ── The checklist, generated from the bench ───────────────────────────────────────────────────
+export type ChecklistItem = {
+  itemKey: string;
+  group: "element" | "control" | "eyewear";
+  label: string;
+  detail: string;
+  elementId: string | null;
+  expectedPositionMm: number | null;
+};
+
+function elementSettings(e: BenchDocument["elements"][number]): string {
+  switch (e.kind) {
+    case "laser":
+      return `${e.wavelengthNm} nm, ${e.powerMw} mW, beam ⌀ ${e.beamDiameterMm} mm${e.m2 && e.m2 !== 1 ? `, M² ${e.m2}` : ""}`;
+    case "lens":
+      return `focal length ${e.focalLengthMm} mm (${e.focalLengthMm > 0 ? "converging" : "diverging"})`;
+    case "aperture":
+      return `opening ⌀ ${e.diameterMm} mm, centred on the beam`;
+    case "filter":
+      return `optical density ${e.opticalDensity} (passes ${Number((100 * 10 ** -e.opticalDensity).toPrecision(3))} %)`;
+    case "beam-block":
+      return "stops the beam";
+    case "screen":
+      return "observation plane";
+    default:
+      return "";
+  }
+}
+
+export { elementSettings, KIND_WORDS as ELEMENT_KIND_WORDS };
+
+/** The items to tick: each element at its position (±POSITION_TOLERANCE_MM), each control the cautions call for, the eyewear. */
+export function checklistFor(doc: BenchDocument, safety: BenchSafetyAssessment | null): ChecklistItem[] {
+  const elements = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm || a.id.localeCompare(b.id));
+  const items: ChecklistItem[] = elements.map((e) => ({
+    itemKey: `element:${e.id}`,
+    group: "element",
+    label: `${KIND_WORDS[e.kind] ?? e.kind} ${e.id} at ${e.positionMm} mm`,
+    detail: `${elementSettings(e)}; within ±${POSITION_TOLERANCE_MM} mm of ${e.positionMm} mm`,
+    elementId: e.id,
+    expectedPositionMm: e.positionMm,
+  }));
+  for (const c of safety?.cautions ?? []) {
+    if (c.id === "eyewear-od") continue; // the eyewear line below covers it, with the figure
+    items.push({ itemKey: `control:${c.id}`, group: "control", label: c.title, detail: c.text, elementId: null, expectedPositionMm: null });
+  }
+  const od = safety?.governing?.opticalDensityRequired ?? 0;
+  const wavelength = safety?.wavelengthNm ?? doc.elements.find((e) => e.kind === "laser")?.wavelengthNm;
+  items.push({
+    itemKey: "eyewear",
+    group: "eyewear",
+    label: od > 0 ? `Eyewear of OD ${statedOd(od)} or more at ${wavelength} nm, for everyone present` : "Eyewear: none needed by the estimate",
+    detail:
+      od > 0
+        ? `Check the marking on each pair for ${wavelength} nm; eyewear made for another laser may not protect at all.`
+        : "The estimate needs no eyewear (OD 0); follow local rules, which may ask for it anyway.",
+    elementId: null,
+    expectedPositionMm: null,
+  });
+  return items;
+}
+
+// ── Predictions the observations are compared with ────────────────────────────────────────────
+export type AperturePrediction = {
+  apertureId: string;
+  diameterMm: number;
+  screenId: string | null;
+  observationDistanceMm: number | null;
+  fresnelNumber: number;
+  centre: "bright" | "dark" | "between";
+  centreIntensityRatio: number;
+  transmittedFraction: number;
+  /** The lit pattern's diameter: the larger of the aperture's shadow and the first dark ring of the far-field pattern. */
+  spotDiameterMm: number | null;
+  screenPowerMw: number | null;
+};
+export type ScreenPrediction = { screenId: string; positionMm: number; beamDiameterMm: number; powerMw: number };
+export type Predictions = { apertures: AperturePrediction[]; screen: ScreenPrediction | null; problem: string | null };
+
+export function predictionsFor(doc: BenchDocument): Predictions {
+  const assessed = assessRevision(doc);
+  if (!assessed.ok) return { apertures: [], screen: null, problem: assessed.problem };
+  const { analysis } = assessed;
+  const lambdaMm = (analysis.wavelengthNm ?? 0) * 1e-6;
+  const powerAt = (id: string | null) => (id ? (analysis.elements.find((e) => e.id === id)?.incident.powerMw ?? null) : null);
+  const apertures = analysis.apertures.map((a): AperturePrediction => {
+    let spotDiameterMm: number | null = null;
+    if (a.screenId) {
+      try {
+        const shadow = screenProfile(doc, a.id, { radiiMm: [0] }).shadowRadiusMm;
+        const airy = a.observationDistanceMm ? (2 * 1.22 * lambdaMm * a.observationDistanceMm) / a.diameterMm : 0;
+        spotDiameterMm = Math.max(2 * shadow, airy);
+      } catch {
+        spotDiameterMm = null;
+      }
+    }
+    return {
+      apertureId: a.id,
+      diameterMm: a.diameterMm,
+      screenId: a.screenId,
+      observationDistanceMm: a.observationDistanceMm,
+      fresnelNumber: a.fresnelNumber,
+      centre: a.centre,
+      centreIntensityRatio: a.centreIntensityRatio,
+      transmittedFraction: a.transmittedFraction,
+      spotDiameterMm,
+      screenPowerMw: powerAt(a.screenId),
+    };
+  });
+  const lit = analysis.elements.find((e) => e.kind === "screen" && e.status === "lit" && e.incident.powerMw > 0);
+  const screen = lit ? { screenId: lit.id, positionMm: lit.positionMm, beamDiameterMm: 2 * lit.incident.radiusMm, powerMw: lit.incident.powerMw } : null;
+  return { apertures, screen, problem: null };
+}
+
+const round3 = (v: number) => Number(v.toPrecision(3));
+
+/** Compares what was seen with what was predicted; each difference becomes one sentence. */
+export function compareObservation(
+  predictions: Predictions,
+  seen: { apertureId?: string | null; centreSeen?: "bright" | "dark" | "unclear" | null; spotDiameterMm?: number | null; screenPowerMw?: number | null },
+): { centrePredicted: string | null; predictedSpotDiameterMm: number | null; predictedScreenPowerMw: number | null; reasons: string[] } {
+  const aperture = seen.apertureId ? predictions.apertures.find((a) => a.apertureId === seen.apertureId) : undefined;
+  const centrePredicted = aperture?.centre ?? null;
+  const predictedSpot = aperture ? aperture.spotDiameterMm : (predictions.screen?.beamDiameterMm ?? null);
+  const predictedPower = aperture ? aperture.screenPowerMw : (predictions.screen?.powerMw ?? null);
+  const reasons: string[] = [];
+  if (seen.centreSeen && centrePredicted && seen.centreSeen !== "unclear" && centrePredicted !== "between" && seen.centreSeen !== centrePredicted) {
+    reasons.push(`Centre: predicted ${centrePredicted}, seen ${seen.centreSeen}.`);
+  }
+  if (seen.spotDiameterMm != null && predictedSpot != null && predictedSpot > 0 && Math.abs(seen.spotDiameterMm - predictedSpot) > SPOT_TOLERANCE_FRACTION * predictedSpot) {
+    reasons.push(`Spot or ring diameter: predicted ${round3(predictedSpot)} mm, measured ${seen.spotDiameterMm} mm (more than ${SPOT_TOLERANCE_FRACTION * 100} % apart).`);
+  }
+  if (seen.screenPowerMw != null && predictedPower != null && Math.abs(seen.screenPowerMw - predictedPower) > POWER_TOLERANCE_FRACTION * predictedPower) {
+    reasons.push(`Power at the screen: predicted ${round3(predictedPower)} mW, measured ${seen.screenPowerMw} mW (more than ${POWER_TOLERANCE_FRACTION * 100} % apart).`);
+  }
+  return { centrePredicted, predictedSpotDiameterMm: predictedSpot, predictedScreenPowerMw: predictedPower, reasons };
+}
+
+// ── One build ─────────────────────────────────────────────────────────────────────────────────
+export type CheckView = ChecklistItem & { done: boolean; measuredPositionMm: number | null; withinTolerance: boolean | null; note: string | null; recordedAt: string | null };
+export type ObservationView = {
+  id: string;
+  apertureId: string | null;
+  centreSeen: "bright" | "dark" | "unclear" | null;
+  centrePredicted: string | null;
+  spotDiameterMm: number | null;
+  predictedSpotDiameterMm: number | null;
+  screenPowerMw: number | null;
+  predictedScreenPowerMw: number | null;
+  mismatch: boolean;
+  reasons: string[];
+  note: string | null;
+  recordedByName: string;
+  createdAt: string;
+};
+export type UploadView = { id: string; kind: UploadKind; fileName: string; contentType: string; sizeBytes: number; sha256: string; uploadedByName: string; createdAt: string; url: string };
+export type BuildView = {
+  id: string;
+  state: BuildState;
+  startedAt: string;
+  signedOffAt: string | null;
+  technicianName: string;
+  contentHash: string;
+  revision: {
+    id: string;
+    number: number;
+    benchId: string;
+    benchTitle: string;
+    labName: string;
+    authorName: string;
+    status: SignOffStatus;
+    statusSentence: string;
+    signerName: string | null;
+    decidedAt: string | null;
+    validUntil: string | null;
+    conditions: string | null;
+  };
+  tolerance: { positionMm: number; spotPercent: number; powerPercent: number };
+  checklist: CheckView[];
+  observations: ObservationView[];
+  uploads: UploadView[];
+  predictions: Predictions;
+  may: { record: boolean; signOff: boolean; whyNotSignOff: string | null };
+};
+
+type BuildRow = typeof buildRecord.$inferSelect;
+
+async function loadBuild(db: DbOrTx, actor: Actor, buildId: string, lock = false): Promise<{ build: BuildRow; revision: SignedRevision }> {
+  if (!z.uuid().safeParse(buildId).success) throw notFound("The build record");
+  const query = db.select().from(buildRecord).where(eq(buildRecord.id, buildId));
+  const [build] = lock ? await query.for("update") : await query;
+  if (!build) throw notFound("The build record");
+  let revision: SignedRevision;
+  try {
+    revision = await loadSignedRevision(db, actor, build.revisionId);
+  } catch {
+    throw notFound("The build record");
+  }
+  return { build, revision };
+}
+
+function observationView(row: typeof buildObservation.$inferSelect, name: string, predictions: Predictions): ObservationView {
+  const compared = compareObservation(predictions, row);
+  return {
+    id: row.id,
+    apertureId: row.apertureId,
+    centreSeen: row.centreSeen,
+    centrePredicted: row.centrePredicted,
+    spotDiameterMm: row.spotDiameterMm,
+    predictedSpotDiameterMm: compared.predictedSpotDiameterMm,
+    screenPowerMw: row.screenPowerMw,
+    predictedScreenPowerMw: row.predictedScreenPowerMw,
+    mismatch: row.mismatch,
+    reasons: compared.reasons,
+    note: row.note,
+    recordedByName: name,
+    createdAt: row.createdAt.toISOString(),
+  };
+}
+
+function whyNotSignOff(build: BuildRow, revision: SignedRevision, checklist: CheckView[], actor: Actor): string | null {
+  if (build.state === "completed") return "This build is already signed off.";
+  if (build.technicianId !== actor.userId) return "Only the technician who started this build can sign it off.";
+  const status = signOffStatus(revision);
+  if (status !== "valid") return signOffSentence(revision, status);
+  const open = checklist.filter((c) => !c.done);
+  if (open.length) return `${open.length} checklist item${open.length === 1 ? " is" : "s are"} not ticked yet.`;
+  const off = checklist.filter((c) => c.group === "element" && c.withinTolerance !== true);
+  if (off.length) return `${off.map((c) => c.elementId).join(", ")} ${off.length === 1 ? "is" : "are"} not measured within ±${POSITION_TOLERANCE_MM} mm of the drawn position.`;
+  return null;
+}
+
+async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revision: SignedRevision): Promise<BuildView> {
+  const assessed = assessRevision(revision.document);
+  const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null);
+  const checks = await db.select().from(buildCheck).where(eq(buildCheck.buildId, build.id));
+  const byKey = new Map(checks.map((c) => [c.itemKey, c]));
+  const checklist: CheckView[] = items.map((i) => {
+    const c = byKey.get(i.itemKey);
+    return {
+      ...i,
+      done: c?.done ?? false,
+      measuredPositionMm: c?.measuredPositionMm ?? null,
+      withinTolerance: c?.withinTolerance ?? null,
+      note: c?.note ?? null,
+      recordedAt: c && c.recordedBy ? c.updatedAt.toISOString() : null,
+    };
+  });
+  const predictions = predictionsFor(revision.document);
+  const observations = await db
+    .select({ o: buildObservation, name: user.name })
+    .from(buildObservation)
+    .innerJoin(user, eq(user.id, buildObservation.recordedBy))
+    .where(eq(buildObservation.buildId, build.id))
+    .orderBy(asc(buildObservation.createdAt));
+  const uploads = await db
+    .select({ u: upload, name: user.name })
+    .from(upload)
+    .innerJoin(user, eq(user.id, upload.uploadedBy))
+    .where(eq(upload.buildId, build.id))
+    .orderBy(asc(upload.createdAt));
+  const [technician] = await db.select({ name: user.name }).from(user).where(eq(user.id, build.technicianId));
+  const status = signOffStatus(revision);
+  const mayRecord = build.state === "in-progress" && status === "valid" && canRecord(actor);
+  const why = canRecord(actor) ? whyNotSignOff(build, revision, checklist, actor) : "Only a technician can sign off a build.";
+  return {
+    id: build.id,
+    state: build.state,
+    startedAt: build.createdAt.toISOString(),
+    signedOffAt: build.signedOffAt?.toISOString() ?? null,
+    technicianName: technician?.name ?? "—",
+    contentHash: build.contentHash,
+    revision: {
+      id: revision.id,
+      number: revision.number,
+      benchId: revision.benchId,
+      benchTitle: revision.benchTitle,
+      labName: revision.labName,
+      authorName: revision.authorName,
+      status,
+      statusSentence: signOffSentence(revision, status),
+      signerName: revision.decision?.signerName ?? null,
+      decidedAt: revision.decision?.decidedAt.toISOString() ?? null,
+      validUntil: revision.decision?.validUntil?.toISOString() ?? null,
+      conditions: revision.decision?.conditions ?? null,
+    },
+    tolerance: { positionMm: POSITION_TOLERANCE_MM, spotPercent: SPOT_TOLERANCE_FRACTION * 100, powerPercent: POWER_TOLERANCE_FRACTION * 100 },
+    checklist,
+    observations: observations.map(({ o, name }) => observationView(o, name, predictions)),
+    uploads: uploads.map(({ u, name }) => ({
+      id: u.id,
+      kind: u.kind,
+      fileName: u.fileName,
+      contentType: u.contentType,
+      sizeBytes: u.sizeBytes,
+      sha256: u.sha256,
+      uploadedByName: name,
+      createdAt: u.createdAt.toISOString(),
+      url: `/api/builds/${build.id}/uploads/${u.id}`,
+    })),
+    predictions,
+    may: { record: mayRecord, signOff: why === null, whyNotSignOff: why },
+  };
+}
+
+function canRecord(actor: Actor): boolean {
+  try {
+    authorize(actor, { build: ["record"] });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+export async function getBuild(db: Database, actor: Actor, buildId: string): Promise<BuildView> {
+  authorize(actor, { build: ["read"] });
+  const { build, revision } = await loadBuild(db, actor, buildId);
+  return buildView(db, actor, build, revision);
+}
+
+function auditBase(actor: Actor, revision: SignedRevision) {
+  return { actorId: actor.userId, actorRole: actor.roles.join(","), benchId: revision.benchId, revisionId: revision.id, contentHash: revision.contentHash, ipAddress: actor.ipAddress };
+}
+
+export const startBuildInput = z.object({ revisionId: z.uuid({ error: "Choose the signed-off revision to build" }) });
+
+/** Starts a build of a valid sign-off; a technician's unfinished build of the same revision is returned instead of a second one. */
+export async function startBuild(db: Database, actor: Actor, input: z.infer<typeof startBuildInput>): Promise<{ build: BuildView; created: boolean }> {
+  authorize(actor, { build: ["record"] });
+  return db.transaction(async (tx) => {
+    const revision = await loadSignedRevision(tx, actor, input.revisionId);
+    await tx.select({ id: benchRevision.id }).from(benchRevision).where(eq(benchRevision.id, revision.id)).for("share");
+    const status = signOffStatus(revision);
+    if (status !== "valid") throw new AppError("conflict", signOffSentence(revision, status));
+    const [open] = await tx
+      .select()
+      .from(buildRecord)
+      .where(and(eq(buildRecord.revisionId, revision.id), eq(buildRecord.technicianId, actor.userId), eq(buildRecord.state, "in-progress")))
+      .limit(1);
+    if (open) return { build: await buildView(tx, actor, open, revision), created: false };
+    const [build] = await tx
+      .insert(buildRecord)
+      .values({ revisionId: revision.id, benchId: revision.benchId, contentHash: revision.contentHash, technicianId: actor.userId })
+      .returning();
+    const assessed = assessRevision(revision.document);
+    const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null);
+    await tx.insert(buildCheck).values(items.map((i) => ({ buildId: build.id, itemKey: i.itemKey })));
+    await recordAudit(tx, { ...auditBase(actor, revision), action: "build-started", detail: { buildId: build.id, number: revision.number, items: items.length } });
+    return { build: await buildView(tx, actor, build, revision), created: true };
+  });
+}
+
+function assertRecordable(build: BuildRow, revision: SignedRevision): void {
+  if (build.state === "completed") throw new AppError("conflict", "This build is already signed off; its record can no longer be changed.");
+  const status = signOffStatus(revision);
+  if (status !== "valid") throw new AppError("conflict", signOffSentence(revision, status));
+}
+
+export const checkInput = z
+  .object({
+    itemKey: z.string({ error: "Say which checklist item" }).min(1, "Say which checklist item").max(200, "The item key is too long"),
+    done: z.boolean({ error: "Done must be true or false" }).optional(),
+    measuredPositionMm: z
+      .number({ error: "The measured position must be a number of millimetres" })
+      .refine(Number.isFinite, "The measured position must be a finite number")
+      .refine((v) => Math.abs(v) <= 100_000, "The measured position must lie within ±100000 mm")
+      .nullable()
+      .optional(),
+    note: z.string().trim().max(2000, "A note must be at most 2000 characters").nullable().optional(),
+  })
+  .refine((v) => v.done !== undefined || v.measuredPositionMm !== undefined || v.note !== undefined, { message: "Send done, a measured position or a note" });
+
+export async function updateCheck(db: Database, actor: Actor, buildId: string, input: z.infer<typeof checkInput>): Promise<BuildView> {
+  authorize(actor, { build: ["record"] });
+  return db.transaction(async (tx) => {
+    const { build, revision } = await loadBuild(tx, actor, buildId, true);
+    assertRecordable(build, revision);
+    const assessed = assessRevision(revision.document);
+    const item = checklistFor(revision.document, assessed.ok ? assessed.safety : null).find((i) => i.itemKey === input.itemKey);
+    if (!item) throw new AppError("bad-request", `There is no checklist item "${input.itemKey}" on this build.`, [{ path: "itemKey", message: "No such item" }]);
+    if (input.measuredPositionMm !== undefined && item.expectedPositionMm === null) {
+      throw new AppError("bad-request", `"${item.label}" has no position to measure.`, [{ path: "measuredPositionMm", message: "This item has no position" }]);
+    }
+    const [current] = await tx.select().from(buildCheck).where(and(eq(buildCheck.buildId, build.id), eq(buildCheck.itemKey, item.itemKey)));
+    const measured = input.measuredPositionMm !== undefined ? input.measuredPositionMm : (current?.measuredPositionMm ?? null);
+    const withinTolerance = item.expectedPositionMm === null || measured === null ? null : Math.abs(measured - item.expectedPositionMm) <= POSITION_TOLERANCE_MM + 1e-9;
+    const values = {
+      done: input.done ?? current?.done ?? false,
+      measuredPositionMm: measured,
+      withinTolerance,
+      note: input.note !== undefined ? input.note || null : (current?.note ?? null),
+      recordedBy: actor.userId,
+      updatedAt: new Date(),
+    };
+    await tx
+      .insert(buildCheck)
+      .values({ buildId: build.id, itemKey: item.itemKey, ...values })
+      .onConflictDoUpdate({ target: [buildCheck.buildId, buildCheck.itemKey], set: values });
+    await recordAudit(tx, {
+      ...auditBase(actor, revision),
+      action: "build-check-recorded",
+      detail: { buildId: build.id, itemKey: item.itemKey, done: values.done, measuredPositionMm: measured, expectedPositionMm: item.expectedPositionMm, withinTolerance, note: values.note },
+    });
+    return buildView(tx, actor, build, revision);
+  });
+}
+
+export const observationInput = z
+  .object({
+    apertureId: z.string().min(1).max(64).nullable().optional(),
+    centreSeen: z.enum(["bright", "dark", "unclear"], { error: "The centre is bright, dark or unclear" }).nullable().optional(),
+    spotDiameterMm: z
+      .number({ error: "The spot or ring diameter must be a number of millimetres" })
+      .refine((v) => Number.isFinite(v) && v > 0 && v <= 10_000, "The spot or ring diameter must be between 0 and 10000 mm")
+      .nullable()
+      .optional(),
+    screenPowerMw: z
+      .number({ error: "The power must be a number of milliwatts" })
+      .refine((v) => Number.isFinite(v) && v >= 0 && v <= 1e9, "The power must be between 0 and 10⁹ mW")
+      .nullable()
+      .optional(),
+    note: z.string().trim().max(2000, "A note must be at most 2000 characters").nullable().optional(),
+  })
+  .refine((v) => v.centreSeen != null || v.spotDiameterMm != null || v.screenPowerMw != null, { message: "Record at least one of: the centre, the spot or ring size, the power at the screen" });
+
+export async function addObservation(db: Database, actor: Actor, buildId: string, input: z.infer<typeof observationInput>): Promise<{ observation: ObservationView; build: BuildView }> {
+  authorize(actor, { build: ["record"] });
+  return db.transaction(async (tx) => {
+    const { build, revision } = await loadBuild(tx, actor, buildId, true);
+    assertRecordable(build, revision);
+    const predictions = predictionsFor(revision.document);
+    const apertureId = input.apertureId ?? null;
+    if (apertureId && !predictions.apertures.some((a) => a.apertureId === apertureId)) {
+      throw new AppError("bad-request", `No light reaches an aperture "${apertureId}" on this bench, so there is no prediction to compare with.`, [{ path: "apertureId", message: "Not a lit aperture of this bench" }]);
+    }
+    if (input.centreSeen && !apertureId) {
+      throw new AppError("bad-request", "Say which aperture's pattern the centre belongs to.", [{ path: "apertureId", message: "Choose the aperture" }]);
+    }
+    const compared = compareObservation(predictions, { ...input, apertureId });
+    const mismatch = compared.reasons.length > 0;
+    const [row] = await tx
+      .insert(buildObservation)
+      .values({
+        buildId: build.id,
+        apertureId,
+        centreSeen: input.centreSeen ?? null,
+        centrePredicted: compared.centrePredicted,
+        spotDiameterMm: input.spotDiameterMm ?? null,
+        screenPowerMw: input.screenPowerMw ?? null,
+        predictedScreenPowerMw: compared.predictedScreenPowerMw,
+        mismatch,
+        note: input.note || null,
+        recordedBy: actor.userId,
+      })
+      .returning();
+    await recordAudit(tx, {
+      ...auditBase(actor, revision),
+      action: "build-observation-recorded",
+      detail: { buildId: build.id, observationId: row.id, apertureId, centreSeen: row.centreSeen, centrePredicted: row.centrePredicted, spotDiameterMm: row.spotDiameterMm, screenPowerMw: row.screenPowerMw, mismatch, reasons: compared.reasons },
+    });
+    if (mismatch) {
+      await enqueueMail(
+        tx,
+        observationMismatchMail({
+          to: { email: revision.authorEmail, name: revision.authorName },
+          benchTitle: revision.benchTitle,
+          labName: revision.labName,
+          revisionId: revision.id,
+          revisionNumber: revision.number,
+          contentHash: revision.contentHash,
+          technicianName: actor.name,
+          apertureId,
+          reasons: compared.reasons,
+          note: row.note,
+        }),
+      );
+    }
+    return { observation: observationView(row, actor.name, predictions), build: await buildView(tx, actor, build, revision) };
+  });
+}
+
+// ── Uploads ───────────────────────────────────────────────────────────────────────────────────
+const FILE_TYPES = [
+  { contentType: "image/png", extension: "png", magic: [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a] },
+  { contentType: "image/jpeg", extension: "jpg", magic: [0xff, 0xd8, 0xff] },
+  { contentType: "application/pdf", extension: "pdf", magic: [0x25, 0x50, 0x44, 0x46, 0x2d] }, // %PDF-
+] as const;
+
+/** The file's real type from its first bytes (its name and declared type are not trusted), or null. */
+export function sniffFileType(bytes: Uint8Array): { contentType: string; extension: string } | null {
+  const found = FILE_TYPES.find((t) => bytes.length >= t.magic.length && t.magic.every((b, i) => bytes[i] === b));
+  return found ? { contentType: found.contentType, extension: found.extension } : null;
+}
+
+export const uploadKindInput = z.enum(UPLOAD_KINDS, { error: `Say what the file shows: ${UPLOAD_KINDS.join(", ")}` });
+
+function tooBig(sizeBytes: number): AppError {
+  return new AppError("payload-too-large", `The file is ${(sizeBytes / 1024 / 1024).toFixed(1)} MB; files may be at most ${UPLOAD_MAX_BYTES / 1024 / 1024} MB. Take a smaller photo or export a smaller PDF.`, [
+    { path: "file", message: `At most ${UPLOAD_MAX_BYTES / 1024 / 1024} MB` },
+  ]);
+}
+
+export function assertUploadSize(sizeBytes: number): void {
+  if (sizeBytes > UPLOAD_MAX_BYTES) throw tooBig(sizeBytes);
+}
+
+export async function addUpload(
+  db: Database,
+  actor: Actor,
+  buildId: string,
+  input: { kind: UploadKind; fileName: string; bytes: Buffer },
+): Promise<{ upload: UploadView; build: BuildView }> {
+  authorize(actor, { build: ["record"] });
+  const { build, revision } = await loadBuild(db, actor, buildId);
+  assertRecordable(build, revision);
+  if (input.bytes.length === 0) throw new AppError("bad-request", "The file is empty.", [{ path: "file", message: "Choose a file" }]);
+  assertUploadSize(input.bytes.length);
+  const type = sniffFileType(input.bytes);
+  if (!type) {
+    throw new AppError("bad-request", `"${input.fileName}" is not a PNG, JPEG or PDF file (its content says otherwise, whatever its name). Only PNG and JPEG photos and PDF datasheets can be kept.`, [
+      { path: "file", message: "Only PNG, JPEG or PDF" },
+    ]);
+  }
+  const id = randomUUID();
+  const sha256 = createHash("sha256").update(input.bytes).digest("hex");
+  const key = `uploads/${build.id}/${id}.${type.extension}`;
+  const fileName = input.fileName.replace(/[\u0000-\u001f\u007f/\\]/g, "_").slice(0, 200) || `upload.${type.extension}`;
+  const store = storage();
+  await store.put(key, input.bytes, type.contentType);
+  try {
+    return await db.transaction(async (tx) => {
+      const { build: locked } = await loadBuild(tx, actor, buildId, true);
+      assertRecordable(locked, revision);
+      const [row] = await tx
+        .insert(upload)
+        .values({ id, buildId: build.id, kind: input.kind, fileName, contentType: type.contentType, sizeBytes: input.bytes.length, sha256, storageKey: key, uploadedBy: actor.userId })
+        .returning();
+      await recordAudit(tx, {
+        ...auditBase(actor, revision),
+        action: "build-upload-stored",
+        detail: { buildId: build.id, uploadId: id, kind: input.kind, fileName, contentType: type.contentType, sizeBytes: input.bytes.length, sha256 },
+      });
+      const view = await buildView(tx, actor, locked, revision);
+      return { upload: view.uploads.find((u) => u.id === row.id)!, build: view };
+    });
+  } catch (error) {
+    await store.delete(key).catch(() => undefined); // nothing is kept without its row
+    throw error;
+  }
+}
+
+/** The stored bytes of one upload, for showing beside the prediction. */
+export async function readUpload(db: Database, actor: Actor, buildId: string, uploadId: string): Promise<{ bytes: Buffer; contentType: string; fileName: string; sha256: string }> {
+  authorize(actor, { build: ["read"] });
+  const { build } = await loadBuild(db, actor, buildId);
+  if (!z.uuid().safeParse(uploadId).success) throw notFound("The file");
+  const [row] = await db.select().from(upload).where(and(eq(upload.id, uploadId), eq(upload.buildId, build.id)));
+  if (!row) throw notFound("The file");
+  const bytes = await storage().get(row.storageKey);
+  if (!bytes) throw new AppError("not-found", "The file's record exists but its content is missing from storage; tell your administrator.");
+  return { bytes, contentType: row.contentType, fileName: row.fileName, sha256: row.sha256 };
+}
+
+// ── Sign-off ──────────────────────────────────────────────────────────────────────────────────
+export async function signOffBuild(db: Database, actor: Actor, buildId: string): Promise<BuildView> {
+  authorize(actor, { build: ["record"] });
+  return db.transaction(async (tx) => {
+    const { build, revision } = await loadBuild(tx, actor, buildId, true);
+    const view = await buildView(tx, actor, build, revision);
+    const why = whyNotSignOff(build, revision, view.checklist, actor);
+    if (why) throw new AppError("conflict", `The build cannot be signed off yet: ${why}`);
+    const now = new Date();
+    const [done] = await tx.update(buildRecord).set({ state: "completed", signedOffAt: now, updatedAt: now }).where(eq(buildRecord.id, build.id)).returning();
+    await recordAudit(tx, {
+      ...auditBase(actor, revision),
+      action: "build-signed-off",
+      detail: { buildId: build.id, items: view.checklist.length, observations: view.observations.length, mismatches: view.observations.filter((o) => o.mismatch).length, uploads: view.uploads.length },
+    });
+    return buildView(tx, actor, done, revision);
+  });
+}
