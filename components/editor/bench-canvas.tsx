@@ -1,17 +1,24 @@
 "use client";
 // The bench drawing (react-konva, loaded in the browser only): the rail at true scale with a millimetre ruler,
-// dimension lines between neighbours, the elements to drag (with snapping), the beam envelope and, per aperture,
-// the zone badge. The view (scale and pan) belongs to the editor; this component reports gestures.
-import type Konva from "konva";
+// dimension lines between neighbours, the elements to drag (with snapping), the beam envelope patterned by the
+// required eyewear OD, per aperture the zone badge, and the finder's screen positions as ticks on the ruler.
+// The view (scale and pan) belongs to the editor; this component reports gestures (wheel, drag, two-finger pinch).
+import Konva from "konva";
 import { useMemo, useRef } from "react";
-import { Group, Layer, Line, Rect, Stage, Text, Circle, Wedge } from "react-konva";
+import { Group, Layer, Line, Rect, Shape, Stage, Text, Circle, Wedge } from "react-konva";
 import type { BenchDocument, BenchElement } from "@/lib/bench/schema";
 import type { KeyedAnalysis } from "@/lib/api/bench-queries";
 import { CANVAS_HEIGHT } from "./canvas-constants";
 import { CanvasSymbol, SYMBOL_HALF_HEIGHT } from "./canvas-symbol";
+import { dragPositions, dragStart } from "./drag";
 import { shortLabel, snapMm } from "./element-kinds";
-import { THEME } from "./palette-colours";
-import { clampScale, type View } from "./view";
+import { envelopeSlice, type HazardSegment } from "./hazard-bands";
+import { BAND_STYLES, THEME, type HatchKind } from "./palette-colours";
+import { CENTRE_SYMBOL, type FinderTick } from "./screen-finder";
+import { clampScale, pinchZoom, touchPair, type View } from "./view";
+
+// Touch moves must reach the stage while it is being dragged, or a second finger could never start a pinch.
+Konva.hitOnDragEnabled = true;
 
 const DIM_Y = 26;
 const RAIL_Y = 190;
@@ -19,18 +26,25 @@ const RAIL_BAR_Y = RAIL_Y + SYMBOL_HALF_HEIGHT + 12;
 const LABEL_Y = RAIL_BAR_Y + 16;
 const RULER_Y = CANVAS_HEIGHT - 44;
 const BADGE_Y = RAIL_Y - SYMBOL_HALF_HEIGHT - 52;
-const MAX_BEAM_PX = RAIL_Y - DIM_Y - 20;
+// The beam stays above the rail bar (and so off the labels and the ruler below it), the same height up and down.
+const MAX_BEAM_PX = Math.min(RAIL_Y - DIM_Y - 20, RAIL_BAR_Y - RAIL_Y - 4);
+const TICK_LABEL_Y = RULER_Y - 34;
 
 export type BenchCanvasProps = {
   doc: BenchDocument;
   selection: string[];
   analysis: KeyedAnalysis | undefined;
+  /** The beam's stretches by required eyewear OD (hazard-bands.ts); empty when there is no safety assessment. */
+  hazardSegments: HazardSegment[];
   stale: boolean;
   canEdit: boolean;
   view: View;
   width: number;
   exaggeration: number;
   snapStepMm: number;
+  /** The finder's best screen positions for the selected aperture (empty when none is selected). */
+  finderTicks: FinderTick[];
+  finderStale: boolean;
   onViewChange: (view: View) => void;
   onSelect: (ids: string[]) => void;
   onToggleSelect: (id: string) => void;
@@ -46,9 +60,10 @@ function stepFor(pxPerMm: number, minPx: number): number {
 const fmt = (mm: number) => `${Number(mm.toFixed(2))}`;
 
 export function BenchCanvas(props: BenchCanvasProps) {
-  const { doc, selection, analysis, stale, canEdit, view, width, exaggeration, snapStepMm } = props;
+  const { doc, selection, analysis, hazardSegments, stale, canEdit, view, width, exaggeration, snapStepMm, finderTicks, finderStale } = props;
   const { pxPerMm, panPx } = view;
   const drag = useRef<{ session: string; start: Record<string, number> } | null>(null);
+  const pinch = useRef<{ start: View; distancePx: number; centrePx: number } | null>(null);
 
   const visibleMm = { from: -panPx / pxPerMm, to: (width - panPx) / pxPerMm };
   const sorted = useMemo(() => [...doc.elements].sort((a, b) => a.positionMm - b.positionMm), [doc.elements]);
@@ -86,6 +101,39 @@ export function BenchCanvas(props: BenchCanvasProps) {
     return { outline, upper, lower };
   }, [analysis, pxPerMm, exaggeration]);
 
+  // The beam in stretches by required eyewear OD (when the safety engine could assess the bench).
+  const hazard = useMemo(() => {
+    const env = analysis?.analysis.envelope ?? [];
+    if (env.length < 2) return [];
+    return hazardSegments.map((segment) => {
+      const slice = envelopeSlice(env, segment.fromMm, segment.toMm);
+      const upper: number[] = [];
+      const lower: number[] = [];
+      let widestPx = 0;
+      for (const p of slice) {
+        const r = Math.min(p.radiusMm * pxPerMm * exaggeration, MAX_BEAM_PX);
+        widestPx = Math.max(widestPx, r);
+        upper.push(p.positionMm * pxPerMm, RAIL_Y - r);
+        lower.push(p.positionMm * pxPerMm, RAIL_Y + r);
+      }
+      const outline = [...upper];
+      for (let i = lower.length - 2; i >= 0; i -= 2) outline.push(lower[i], lower[i + 1]);
+      return { segment, upper, lower, outline, widestPx };
+    });
+  }, [analysis, hazardSegments, pxPerMm, exaggeration]);
+
+  // Finder ticks: labels that would overlap the previous one are lifted a row.
+  const ticks = useMemo(() => {
+    let lastX = -Infinity;
+    let lifted = false;
+    return finderTicks.map((t) => {
+      const x = t.positionMm * pxPerMm;
+      lifted = x - lastX < 46 ? !lifted : false;
+      lastX = x;
+      return { tick: t, x, labelY: TICK_LABEL_Y - (lifted ? 16 : 0) };
+    });
+  }, [finderTicks, pxPerMm]);
+
   const onWheel = (e: Konva.KonvaEventObject<WheelEvent>) => {
     e.evt.preventDefault();
     const stage = e.target.getStage();
@@ -97,20 +145,39 @@ export function BenchCanvas(props: BenchCanvasProps) {
   };
 
   const startDrag = (element: BenchElement) => {
-    const moving = selection.includes(element.id) ? selection : [element.id];
     if (!selection.includes(element.id)) props.onSelect([element.id]);
-    const start: Record<string, number> = {};
-    for (const e of doc.elements) if (moving.includes(e.id)) start[e.id] = e.positionMm;
-    drag.current = { session: `drag-${Date.now()}-${Math.random().toString(36).slice(2, 7)}`, start };
+    drag.current = { session: `drag-${Date.now()}-${Math.random().toString(36).slice(2, 7)}`, start: dragStart(doc.elements, selection, element.id) };
   };
 
   const moveDrag = (element: BenchElement, node: Konva.Node) => {
     const d = drag.current;
     if (!d) return;
-    const deltaMm = node.x() / pxPerMm - d.start[element.id];
-    const positions: Record<string, number> = {};
-    for (const [id, mm] of Object.entries(d.start)) positions[id] = id === element.id ? node.x() / pxPerMm : mm + deltaMm;
-    props.onMove(positions, d.session);
+    props.onMove(dragPositions(d.start, element.id, node.x() / pxPerMm), d.session);
+  };
+
+  // Two fingers: stop any drag (stage pan or element move) and zoom about the fingers' midpoint.
+  const touchesOf = (e: Konva.KonvaEventObject<TouchEvent>) => {
+    const stage = e.target.getStage();
+    if (!stage) return null;
+    const rect = stage.container().getBoundingClientRect();
+    const list = Array.from(e.evt.touches).slice(0, 2).map((t) => ({ x: t.clientX - rect.left, y: t.clientY - rect.top }));
+    return { stage, list };
+  };
+  const onTouchMove = (e: Konva.KonvaEventObject<TouchEvent>) => {
+    const t = touchesOf(e);
+    if (!t || t.list.length < 2) return;
+    e.evt.preventDefault();
+    if (t.stage.isDragging()) t.stage.stopDrag();
+    for (const node of t.stage.find(".element")) if (node.isDragging()) node.stopDrag();
+    const pair = touchPair(t.list[0], t.list[1]);
+    if (!pinch.current) {
+      pinch.current = { start: view, ...pair };
+      return;
+    }
+    props.onViewChange(pinchZoom(pinch.current.start, pinch.current.distancePx, pinch.current.centrePx, pair.distancePx, pair.centrePx));
+  };
+  const onTouchEnd = (e: Konva.KonvaEventObject<TouchEvent>) => {
+    if (e.evt.touches.length < 2) pinch.current = null;
   };
 
   return (
@@ -124,6 +191,9 @@ export function BenchCanvas(props: BenchCanvasProps) {
         if (e.target === e.target.getStage()) props.onViewChange({ pxPerMm, panPx: e.target.x() });
       }}
       onWheel={onWheel}
+      onTouchMove={onTouchMove}
+      onTouchEnd={onTouchEnd}
+      onTouchCancel={onTouchEnd}
       onClick={(e) => {
         if (e.target === e.target.getStage() || e.target.name() === "background") props.onSelect([]);
       }}
@@ -161,13 +231,41 @@ export function BenchCanvas(props: BenchCanvasProps) {
         })}
       </Layer>
       <Layer listening={false} opacity={stale ? 0.35 : 1}>
-        {envelope ? (
+        {envelope && hazard.length === 0 ? (
           <>
             <Line points={envelope.outline} closed fill="rgba(111, 214, 200, 0.16)" strokeEnabled={false} />
             <Line points={envelope.upper} stroke={THEME.accent} strokeWidth={1.5} dash={stale ? [4, 4] : undefined} />
             <Line points={envelope.lower} stroke={THEME.accent} strokeWidth={1.5} dash={stale ? [4, 4] : undefined} />
           </>
         ) : null}
+        {hazard.map(({ segment, upper, lower, outline, widestPx }) => {
+          const style = BAND_STYLES[segment.band.id];
+          const x1 = segment.fromMm * pxPerMm;
+          const x2 = segment.toMm * pxPerMm;
+          const labelY = Math.min(RAIL_Y + widestPx + 6, RAIL_BAR_Y - 18);
+          return (
+            <Group key={`hazard-${segment.fromMm}-${segment.toMm}`}>
+              <Line points={outline} closed fill={style.fill} strokeEnabled={false} />
+              {style.hatch !== "none" ? (
+                <Group
+                  clipFunc={(ctx) => {
+                    ctx.beginPath();
+                    ctx.moveTo(outline[0], outline[1]);
+                    for (let i = 2; i < outline.length; i += 2) ctx.lineTo(outline[i], outline[i + 1]);
+                    ctx.closePath();
+                  }}
+                >
+                  <Hatching x1={x1} x2={x2} top={RAIL_Y - widestPx} bottom={RAIL_Y + widestPx} kind={style.hatch} stroke={style.edge} />
+                </Group>
+              ) : null}
+              <Line points={upper} stroke={style.edge} strokeWidth={style.edgeWidth} dash={stale ? [4, 4] : style.dash} />
+              <Line points={lower} stroke={style.edge} strokeWidth={style.edgeWidth} dash={stale ? [4, 4] : style.dash} />
+              {x2 - x1 > 120 ? (
+                <Text x={(x1 + x2) / 2 - 60} y={labelY} width={120} align="center" text={segment.opticalDensity > 0 ? `OD ${segment.opticalDensity.toFixed(1)}` : "below MPE"} fontSize={12} fontStyle={segment.band.id === "high" ? "bold" : "normal"} fill={THEME.text} />
+              ) : null}
+            </Group>
+          );
+        })}
         {(analysis?.analysis.apertures ?? []).map((a) => {
           const x = a.positionMm * pxPerMm;
           const word = a.centre;
@@ -190,6 +288,14 @@ export function BenchCanvas(props: BenchCanvasProps) {
           );
         })}
       </Layer>
+      <Layer listening={false} opacity={finderStale ? 0.4 : 1}>
+        {ticks.map(({ tick, x, labelY }) => (
+          <Group key={`tick-${tick.goal}-${tick.rank}`} x={x}>
+            <Line points={[0, labelY + 16, 0, RULER_Y + 12]} stroke={THEME.accentStrong} strokeWidth={2} dash={finderStale ? [3, 3] : undefined} />
+            <Text x={-30} y={labelY} width={60} align="center" text={`${CENTRE_SYMBOL[tick.centre]}${tick.zoneCount}`} fontSize={15} fontStyle="bold" fill={THEME.accentStrong} />
+          </Group>
+        ))}
+      </Layer>
       <Layer>
         {doc.elements.map((e) => {
           const selected = selection.includes(e.id);
@@ -197,6 +303,7 @@ export function BenchCanvas(props: BenchCanvasProps) {
           return (
             <Group
               key={e.id}
+              name="element"
               x={e.positionMm * pxPerMm}
               y={RAIL_Y}
               draggable={canEdit}
@@ -243,3 +350,30 @@ export function BenchCanvas(props: BenchCanvasProps) {
     </Stage>
   );
 }
+
+/** Diagonal hatching (one direction or crossed) over a box; the caller clips it to the beam. */
+function Hatching({ x1, x2, top, bottom, kind, stroke }: { x1: number; x2: number; top: number; bottom: number; kind: Exclude<HatchKind, "none">; stroke: string }) {
+  const spacing = kind === "cross" ? 7 : 8;
+  const h = bottom - top;
+  return (
+    <Shape
+      listening={false}
+      stroke={stroke}
+      strokeWidth={1}
+      opacity={0.5}
+      sceneFunc={(ctx, shape) => {
+        ctx.beginPath();
+        for (let x = x1 - h; x <= x2 + h; x += spacing) {
+          ctx.moveTo(x, bottom);
+          ctx.lineTo(x + h, top);
+          if (kind === "cross") {
+            ctx.moveTo(x, top);
+            ctx.lineTo(x + h, bottom);
+          }
+        }
+        ctx.strokeShape(shape);
+      }}
+    />
+  );
+}
+

@@ -10,11 +10,16 @@ import { ELEMENT_KINDS, type BenchDocument, type ElementKind } from "@/lib/bench
 import { StateBadge } from "@/components/ui/state-badge";
 import { ApertureTable } from "./aperture-table";
 import { CANVAS_HEIGHT } from "./canvas-constants";
+import { ChangesSinceReview } from "./changes-since-review";
 import { ConflictDialog } from "./conflict-dialog";
 import { ElementList } from "./element-list";
 import { SNAP_CHOICES, snapMm } from "./element-kinds";
+import { FinderPanel } from "./finder-panel";
+import { hazardSegments } from "./hazard-bands";
+import { HazardLegend } from "./hazard-legend";
 import { ImportExport } from "./import-export";
-import { KIND_DRAG_TYPE, Palette, placementFor } from "./palette";
+import { KIND_DRAG_TYPE, Palette } from "./palette";
+import { placementFor } from "./placement";
 import { ProfilePanel } from "./profile-panel";
 import { PropertiesPanel } from "./properties-panel";
 import { SafetyPanel } from "./safety-panel";
@@ -22,6 +27,7 @@ import { SaveStatus } from "./save-status";
 import { useAnalysis, useProfile } from "./use-analysis";
 import { useAutosave } from "./use-autosave";
 import { useEditorState } from "./use-editor-state";
+import { useScreenFinder } from "./use-screen-finder";
 import { fitAll, mmAt, zoomAbout, type View } from "./view";
 import { sig } from "./format";
 
@@ -76,6 +82,13 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
 
   const hasLaser = doc.elements.some((e) => e.kind === "laser");
 
+  // The beam by required eyewear OD; the filters' OD comes from the drawing (while stale the beam is dimmed anyway).
+  const hazard = useMemo(() => {
+    const points = analysis.data?.safety?.points;
+    const envelope = analysis.data?.analysis.envelope ?? [];
+    return points && envelope.length > 1 ? hazardSegments(points, doc, envelope[envelope.length - 1].positionMm) : [];
+  }, [analysis.data, doc]);
+
   const add = (kind: ElementKind, at?: number) => {
     if (!canEdit) return;
     const positionMm = at ?? placementFor(kind, doc.elements);
@@ -127,6 +140,15 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
 
   const selectedAperture = selected.length === 1 && selected[0].kind === "aperture" ? (analysis.data?.analysis.apertures.find((a) => a.id === selected[0].id) ?? null) : null;
   const profile = useProfile(analysis.settled, selectedAperture?.id ?? null, selectedAperture?.screenId != null);
+  const selectedApertureId = selected.length === 1 && selected[0].kind === "aperture" ? selected[0].id : null;
+  const finder = useScreenFinder(analysis.settled, selectedApertureId);
+  const moveScreenTo = (positionMm: number) => {
+    if (!canEdit || !finder.range) return;
+    if (finder.range.screenId) dispatch({ type: "update", id: finder.range.screenId, patch: { positionMm } });
+    else add("screen", positionMm);
+    // keep the aperture selected, so its pattern and the finder stay in view
+    if (selectedApertureId) dispatch({ type: "select", ids: [selectedApertureId] });
+  };
   const staleLook = analysis.stale || (analysis.blockedBy !== null && analysis.data !== undefined);
   const elementWarnings = selected.length === 1 ? (analysis.data?.analysis.warnings ?? []).filter((w) => w.elementId === selected[0].id) : [];
   const baseState = save.base.state;
@@ -244,7 +266,8 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
           aria-roledescription="bench drawing"
           aria-label={`Bench drawing, ${doc.elements.length} elements. Select elements in the list below; ← → move the selection by 1 mm, Shift for 10 mm; Delete removes; Ctrl+Z undoes; + and − zoom.`}
           className="relative overflow-hidden rounded-md border border-line bg-ink focus-visible:outline-3"
-          style={{ height: CANVAS_HEIGHT }}
+          // one finger may still scroll the page up and down; sideways drags and two-finger pinches belong to the drawing
+          style={{ height: CANVAS_HEIGHT, touchAction: "pan-y" }}
           onDragOver={(e) => {
             if (canEdit && e.dataTransfer.types.includes(KIND_DRAG_TYPE)) {
               e.preventDefault();
@@ -256,18 +279,22 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
           data-testid="bench-canvas"
           data-px-per-mm={currentView.pxPerMm}
           data-pan-px={currentView.panPx}
+          data-finder-ticks={finder.ticks.map((t) => `${t.centre}-${t.zoneCount}@${t.positionMm.toFixed(1)}`).join(" ")}
         >
           {width > 0 ? (
             <BenchCanvas
               doc={doc}
               selection={selection}
               analysis={analysis.data}
+              hazardSegments={hazard}
               stale={staleLook}
               canEdit={canEdit}
               view={currentView}
               width={width}
               exaggeration={exaggeration}
               snapStepMm={snapStepMm}
+              finderTicks={finder.ticks}
+              finderStale={finder.stale || staleLook}
               onViewChange={setView}
               onSelect={(ids) => dispatch({ type: "select", ids })}
               onToggleSelect={(id) => dispatch({ type: "toggle-select", id })}
@@ -276,6 +303,7 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
           ) : null}
           <PredictionState analysis={analysis} />
         </div>
+        <HazardLegend assessed={hazard.length > 0} shown={hazard} finderFor={finder.ticks.length > 0 ? selectedApertureId : null} />
       </div>
 
       <div className="grid gap-4 lg:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
@@ -288,6 +316,7 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
             onToggle={(id) => dispatch({ type: "toggle-select", id })}
           />
           <PropertiesPanel selected={selected} canEdit={canEdit} dispatch={dispatch} warnings={elementWarnings} />
+          <ChangesSinceReview benchId={benchId} doc={doc} />
         </div>
         <div className="flex flex-col gap-4">
           <section aria-labelledby="predictions-heading" className={`rounded-lg border border-line bg-panel p-4 ${staleLook ? "opacity-60" : ""}`} data-testid="predictions" data-stale={staleLook}>
@@ -309,6 +338,18 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
                       wavelengthNm={analysis.data.analysis.wavelengthNm}
                     />
                   </div>
+                ) : null}
+                {selectedApertureId ? (
+                  <FinderPanel
+                    apertureId={selectedApertureId}
+                    range={finder.range}
+                    data={finder.data}
+                    stale={finder.stale || staleLook}
+                    loading={finder.loading}
+                    error={finder.error}
+                    canEdit={canEdit}
+                    onMoveScreen={moveScreenTo}
+                  />
                 ) : analysis.data.analysis.apertures.length > 0 ? (
                   <p className="mt-2 text-sm text-muted">Select an aperture to see its pattern on the screen.</p>
                 ) : null}

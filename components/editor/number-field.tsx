@@ -1,7 +1,11 @@
 "use client";
 // A number input with its unit, checked as the user types. A value that fails the check stays in the field with
 // the reason beside it and is never committed; the field follows outside changes (drag, undo) when they differ.
-import { useState } from "react";
+import { useRef, useState } from "react";
+import { parseNumber } from "./number-parse";
+
+// Each visit to a field (focus) is one editing session: typing within it is one undo step, a later visit another.
+let sessions = 0;
 
 type Props = {
   id: string;
@@ -14,24 +18,17 @@ type Props = {
   readOnly?: boolean;
   /** The schema's sentence for this value, or null when it is acceptable. */
   check: (value: number | undefined) => string | null;
-  onCommit: (value: number | undefined) => void;
+  /** editSession names the visit to the field, for coalescing the typing into one undo step. */
+  onCommit: (value: number | undefined, editSession: number) => void;
 };
 
 const show = (v: number | undefined) => (v === undefined ? "" : String(v));
-
-/** Text → number: undefined for an empty optional field; a sentence when it is not a number. */
-export function parseNumber(text: string, optional: boolean): { value: number | undefined } | { error: string } {
-  const t = text.trim().replace(/\u2212/g, "-").replace(",", ".");
-  if (t === "") return optional ? { value: undefined } : { error: "Enter a number." };
-  const n = Number(t);
-  if (!Number.isFinite(n)) return { error: `“${text.trim()}” is not a number; write it like 2.5 or -25.` };
-  return { value: n };
-}
 
 export function NumberField({ id, label, unit, hint, optional = false, value, step, readOnly, check, onCommit }: Props) {
   const [text, setText] = useState(show(value));
   const [shown, setShown] = useState(value);
   const [error, setError] = useState<string | null>(null);
+  const session = useRef(0);
 
   // An outside change (drag, undo, import) replaces the text unless the text already says that value.
   if (value !== shown) {
@@ -49,7 +46,7 @@ export function NumberField({ id, label, unit, hint, optional = false, value, st
     if ("error" in parsed) return setError(parsed.error);
     const problem = check(parsed.value);
     setError(problem);
-    if (problem === null && parsed.value !== value) onCommit(parsed.value);
+    if (problem === null && parsed.value !== value) onCommit(parsed.value, session.current);
   };
 
   const describedBy = [error ? `${id}-error` : null, hint ? `${id}-hint` : null].filter(Boolean).join(" ") || undefined;
@@ -70,6 +67,9 @@ export function NumberField({ id, label, unit, hint, optional = false, value, st
           step={step}
           aria-invalid={error ? true : undefined}
           aria-describedby={describedBy}
+          onFocus={() => {
+            session.current = ++sessions;
+          }}
           onChange={(e) => change(e.target.value)}
           className={`min-h-10 w-full min-w-0 rounded-md border bg-ink px-3 py-1.5 font-mono text-base text-text read-only:opacity-70 ${error ? "border-danger" : "border-line"}`}
         />

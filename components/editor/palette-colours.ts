@@ -1,5 +1,7 @@
 // Colours of the drawing, from the theme tokens in app/globals.css (canvas code cannot read CSS variables cheaply).
 // Colour only reinforces: every kind also has its own outline and a written label.
+import type { HazardBandId } from "./hazard-bands";
+
 export const THEME = {
   ink: "#0e1316",
   panel: "#161e23",
@@ -26,3 +28,16 @@ export const SYMBOL_COLOURS = {
   blockMark: THEME.ink,
   screen: THEME.text,
 } as const;
+
+export type HatchKind = "none" | "single" | "cross";
+export type BandStyle = { fill: string; edge: string; edgeWidth: number; dash?: number[]; hatch: HatchKind };
+
+/**
+ * The beam by required eyewear OD (hazard-bands.ts): fill, hatching and edge dash differ per band, so the band
+ * reads without colour; colour (calm teal → amber → coral) only reinforces it.
+ */
+export const BAND_STYLES: Record<HazardBandId, BandStyle> = {
+  low: { fill: "rgba(111, 214, 200, 0.16)", edge: THEME.accent, edgeWidth: 1.5, hatch: "none" },
+  medium: { fill: "rgba(255, 207, 92, 0.18)", edge: THEME.warn, edgeWidth: 2, dash: [9, 4], hatch: "single" },
+  high: { fill: "rgba(255, 138, 122, 0.24)", edge: THEME.danger, edgeWidth: 3, dash: [2, 3], hatch: "cross" },
+};

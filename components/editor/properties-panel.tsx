@@ -4,7 +4,7 @@ import type { BenchElement } from "@/lib/bench/schema";
 import { ElementIcon } from "./element-icon";
 import { ELEMENT_SCHEMAS, KIND_INFO } from "./element-kinds";
 import { NumberField } from "./number-field";
-import type { EditorAction } from "./use-editor-state";
+import type { EditorAction } from "./editor-reducer";
 
 type Props = {
   selected: BenchElement[];
@@ -63,7 +63,7 @@ export function PropertiesPanel({ selected, canEdit, dispatch, warnings }: Props
             readOnly={!canEdit}
             value={values[f.key] as number | undefined}
             check={checkField(element, f.key)}
-            onCommit={(v) => dispatch({ type: "update", id: element.id, patch: { [f.key]: v }, coalesce: `field-${element.id}-${f.key}` })}
+            onCommit={(v, editSession) => dispatch({ type: "update", id: element.id, patch: { [f.key]: v }, coalesce: `field-${element.id}-${f.key}-${editSession}` })}
           />
         ))}
       </div>

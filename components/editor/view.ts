@@ -32,3 +32,19 @@ export function zoomAbout(view: View, factor: number, anchorPx: number): View {
 
 /** The millimetre under a canvas x coordinate. */
 export const mmAt = (view: View, xPx: number): number => (xPx - view.panPx) / view.pxPerMm;
+
+/**
+ * Two-finger pinch: the scale follows the ratio of the finger distances since the pinch began, and the millimetre
+ * that was under the fingers' midpoint stays under it (so moving both fingers also pans).
+ */
+export function pinchZoom(start: View, startDistancePx: number, startCentrePx: number, distancePx: number, centrePx: number): View {
+  if (!(startDistancePx > 0) || !(distancePx > 0)) return start;
+  const next = clampScale(start.pxPerMm * (distancePx / startDistancePx));
+  const mm = mmAt(start, startCentrePx);
+  return { pxPerMm: next, panPx: centrePx - mm * next };
+}
+
+/** Distance and horizontal midpoint of two touch points (px, relative to the same origin). */
+export function touchPair(a: { x: number; y: number }, b: { x: number; y: number }): { distancePx: number; centrePx: number } {
+  return { distancePx: Math.hypot(a.x - b.x, a.y - b.y), centrePx: (a.x + b.x) / 2 };
+}

@@ -29,6 +29,8 @@ export function SubmitForReview({ revisionId, initial }: { revisionId: string; i
       }),
     onSettled: async () => {
       await queryClient.invalidateQueries({ queryKey: revisionQueryKey(revisionId) });
+      // The editor reads the bench (its revisions) and the draft under the "benches" keys.
+      await queryClient.invalidateQueries({ queryKey: queryKeys.benches() });
       router.refresh();
     },
   });

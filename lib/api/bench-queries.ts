@@ -2,12 +2,13 @@
 // prefetch (same keys, a direct queryFn) and the browser. Keys come from queryKeys in ./client.
 import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
 import type { BenchDocument } from "@/lib/bench/schema";
-import type { BenchAnalysis } from "@/lib/optics";
+import type { BenchAnalysis, ScreenSearch } from "@/lib/optics";
 import type { BenchSafetyAssessment } from "@/lib/safety";
+import type { BenchDetail } from "@/lib/server/benches";
 import type { DraftView } from "@/lib/server/drafts";
 import { ApiError, apiFetch, queryKeys, type FieldProblem } from "./client";
 
-export type { DraftView };
+export type { BenchDetail, DraftView };
 
 export type AnalyzeResponse = { analysis: BenchAnalysis; safety?: BenchSafetyAssessment };
 /** An analysis tagged with the document key it was computed for, so the editor can tell current from stale. */
@@ -40,6 +41,35 @@ export const profileQuery = (document: BenchDocument, hash: string, apertureId: 
     queryKey: queryKeys.profile(hash, apertureId),
     queryFn: ({ signal }) =>
       apiFetch<ProfileResponse>("/api/analyze/profile", { method: "POST", body: json({ document, apertureId, points: 240 }), signal }),
+    staleTime: Infinity,
+    gcTime: 60_000,
+    retry: false,
+  });
+
+/** The bench with every revision (state, hash, document), e.g. to compare the drawing with the last one sent for review. */
+export const benchQuery = (benchId: string) =>
+  queryOptions({
+    queryKey: queryKeys.bench(benchId),
+    queryFn: ({ signal }) => apiFetch<BenchDetail>(`/api/benches/${benchId}`, { signal }),
+    staleTime: 30_000,
+  });
+
+/** A finder answer tagged with the aperture it is for. */
+export type KeyedScreenSearch = ScreenSearch & { apertureId: string };
+
+export type FinderScreenRequest = { apertureId: string; fromMm: number; toMm: number; maxResults?: number };
+
+/**
+ * Screen positions behind an aperture giving a bright or a dark centre (POST /api/analyze/finder). Keyed under the
+ * analysis of the same document (its hash), so it is cached, superseded and cancelled the same way.
+ */
+export const screenFinderQuery = (document: BenchDocument, hash: string, request: FinderScreenRequest) =>
+  queryOptions({
+    queryKey: [...queryKeys.analysis(hash), "finder", request.apertureId, request.fromMm, request.toMm, request.maxResults ?? null] as const,
+    queryFn: ({ signal }) =>
+      apiFetch<ScreenSearch>("/api/analyze/finder", { method: "POST", body: json({ goal: "screen-positions", document, ...request }), signal }).then(
+        (r): KeyedScreenSearch => ({ ...r, apertureId: request.apertureId }),
+      ),
     staleTime: Infinity,
     gcTime: 60_000,
     retry: false,

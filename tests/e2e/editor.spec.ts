@@ -1,7 +1,9 @@
 // The bench editor in chromium: a researcher starts a bench, places a laser, an aperture and a screen from the
 // palette (click and drag), drags an element on the drawing, types a bad value and sees why beside the field,
 // watches the zone count follow, undoes and redoes, moves by keyboard, reloads and finds it saved. Also: the
-// read-only view for an officer, a conflict between two sessions, and an import with field errors.
+// read-only view for an officer, a conflict between two sessions, an import with field errors, the finder's ticks
+// (move the screen to a dark, then a bright centre), the beam patterned by required eyewear OD with its legend,
+// what changed since the last review, and a two-finger pinch on a touch screen.
 // Screenshots go to test-results/screenshots/editor-*.png.
 import { expect, test, type Browser, type Page } from "@playwright/test";
 
@@ -204,4 +206,85 @@ test("an import with mistakes lists them by field and changes nothing", async ({
   await expect(problems).toContainText("elements.2.kind");
   await expect(row(page, "screen-1")).toBeVisible();
   await page.screenshot({ path: "test-results/screenshots/editor-import-errors.png", fullPage: true });
+});
+
+test("the finder's ticks move the screen to a dark or bright centre; the beam shows the eyewear OD it needs", async ({ page }) => {
+  test.skip(!benchUrl, "needs the bench from the first test");
+  await page.setViewportSize({ width: 1180, height: 820 }); // a 11" tablet in landscape
+  await signIn(page, "researcher@northmere.example.edu");
+  await page.goto(benchUrl, { timeout: 120_000 });
+  await expect(row(page, "iris-1")).toBeVisible({ timeout: 60_000 });
+
+  // A wide beam on a small iris, so the centre is truly bright or dark; 50 mW of green needs eyewear.
+  await row(page, "laser-1").click();
+  await page.getByLabel("Wavelength").fill("532");
+  await page.getByLabel("Power").fill("50");
+  await page.getByLabel("Beam diameter (1/e², at the waist)").fill("5");
+  await freshPredictions(page);
+  const legend = page.getByTestId("hazard-legend");
+  await expect(legend).toContainText("OD under 1");
+  await expect(legend).toContainText("OD 1 to under 3");
+  await expect(legend).toContainText("OD 3 or more");
+  await expect(legend).toHaveAttribute("data-bands-shown", /medium/);
+
+  // The finder for the selected aperture: ticks on the rail and candidates in the panel.
+  await row(page, "iris-1").click();
+  const finder = page.getByTestId("finder");
+  await expect(finder).toHaveAttribute("data-stale", "false", { timeout: 20_000 });
+  await expect(page.getByTestId("finder-candidate").first()).toBeVisible({ timeout: 20_000 });
+  await expect(page.getByTestId("bench-canvas")).toHaveAttribute("data-finder-ticks", /dark-\d+@/);
+  await expect(legend).toContainText("Ruler ticks for iris-1");
+  const centre = page.getByTestId("aperture-row-iris-1").getByTestId("centre");
+
+  for (const goal of ["dark", "bright"] as const) {
+    const candidate = page.getByTestId(`finder-${goal}`).getByTestId("finder-candidate").first();
+    await expect(candidate).toHaveAttribute("data-centre", goal);
+    const target = Number(await candidate.getAttribute("data-position-mm"));
+    await candidate.getByRole("button", { name: /Move the screen here/ }).click();
+    await expect.poll(() => positionOf(page, "screen-1")).toBe(target);
+    await freshPredictions(page);
+    await expect(centre).toHaveText(goal);
+    await expect(finder).toHaveAttribute("data-stale", "false", { timeout: 20_000 });
+    if (goal === "dark") await page.screenshot({ path: "test-results/screenshots/editor-finder-dark.png", fullPage: true });
+  }
+  await page.getByTestId("bench-canvas").screenshot({ path: "test-results/screenshots/editor-finder-ticks.png" });
+
+  // One undo puts the screen back where the last move found it.
+  await row(page, "iris-1").focus();
+  await page.keyboard.press("Control+z");
+  await freshPredictions(page);
+  await expect(centre).toHaveText("dark");
+
+  // What changed since the last revision sent for review (none was sent on this bench yet).
+  await expect(page.getByTestId("changes-since-review")).toContainText(/sent for review yet|Changes since revision/);
+  await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 15_000 });
+  await page.screenshot({ path: "test-results/screenshots/editor-hazard.png", fullPage: true });
+});
+
+test("two fingers pinch the drawing on a touch screen", async ({ browser }) => {
+  test.skip(!benchUrl, "needs the bench from the first test");
+  const context = await browser.newContext({ hasTouch: true, viewport: { width: 1024, height: 768 } });
+  const page = await context.newPage();
+  await signIn(page, "researcher@northmere.example.edu");
+  await page.goto(benchUrl, { timeout: 120_000 });
+  await expect(row(page, "iris-1")).toBeVisible({ timeout: 60_000 });
+  const frame = page.getByTestId("bench-canvas");
+  await expect(frame.locator("canvas").first()).toBeVisible({ timeout: 30_000 }); // the drawing (loaded in the browser only) is up
+  await freshPredictions(page);
+  const before = Number(await frame.getAttribute("data-px-per-mm"));
+  const box = (await frame.boundingBox())!;
+  const y = box.y + 120; // above the rail, on the open drawing
+  const cx = box.x + box.width / 2;
+  const cdp = await context.newCDPSession(page);
+  const touch = (type: "touchStart" | "touchMove" | "touchEnd", spreadPx: number) =>
+    cdp.send("Input.dispatchTouchEvent", {
+      type,
+      touchPoints: type === "touchEnd" ? [] : [{ x: cx - spreadPx, y, id: 1 }, { x: cx + spreadPx, y, id: 2 }],
+    });
+  await touch("touchStart", 50);
+  for (let spread = 55; spread <= 150; spread += 5) await touch("touchMove", spread);
+  await touch("touchEnd", 150);
+  await expect.poll(async () => Number(await frame.getAttribute("data-px-per-mm"))).toBeGreaterThan(before * 2.2);
+  await page.screenshot({ path: "test-results/screenshots/editor-tablet-pinched.png", fullPage: false });
+  await context.close();
 });
