@@ -153,7 +153,13 @@ export const bench = pgTable(
       .references(() => user.id),
     ...timestamps,
   },
-  (t) => [index("bench_lab_idx").on(t.labId), index("bench_author_idx").on(t.authorId)],
+  (t) => [
+    index("bench_lab_idx").on(t.labId),
+    index("bench_author_idx").on(t.authorId),
+    // The auditor's desk: sort by title, search inside titles (pg_trgm, created in the same migration).
+    index("bench_title_idx").on(t.title),
+    index("bench_title_trgm_idx").using("gin", t.title.op("gin_trgm_ops")),
+  ],
 );
 
 export const benchRevision = pgTable(
@@ -260,7 +266,17 @@ export const reviewDecision = pgTable(
     stepUpVerified: boolean("step_up_verified").notNull().default(false),
     decidedAt: timestamp("decided_at", { withTimezone: true }).notNull().default(sql`clock_timestamp()`),
   },
-  (t) => [uniqueIndex("review_decision_revision_idx").on(t.revisionId), index("review_decision_bench_idx").on(t.benchId, t.decidedAt)],
+  (t) => [
+    uniqueIndex("review_decision_revision_idx").on(t.revisionId),
+    index("review_decision_bench_idx").on(t.benchId, t.decidedAt),
+    // The auditor's desk lists sign-offs newest first, filtered by officer, class, or expiry.
+    index("review_decision_outcome_decided_idx").on(t.outcome, t.decidedAt, t.id),
+    index("review_decision_signer_idx").on(t.signerId, t.decidedAt),
+    index("review_decision_class_idx").on(sql`(${t.hazardSummary} -> 'hazardClass' ->> 'value')`, t.decidedAt),
+    index("review_decision_valid_until_idx").on(t.validUntil).where(sql`${t.outcome} = 'approved'`),
+    // Narrow join keys of every sign-off, so counts filtered on the bench or revision side stay on an index.
+    index("review_decision_approved_keys_idx").on(t.benchId, t.revisionId).where(sql`${t.outcome} = 'approved'`),
+  ],
 );
 
 /** Comments on a revision, in threads (the first comment's id is the thread id), optionally pinned to an element. */
@@ -286,7 +302,11 @@ export const reviewComment = pgTable(
     body: text("body").notNull(),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().default(sql`clock_timestamp()`),
   },
-  (t) => [index("review_comment_revision_idx").on(t.revisionId, t.createdAt), index("review_comment_thread_idx").on(t.threadId)],
+  (t) => [
+    index("review_comment_revision_idx").on(t.revisionId, t.createdAt),
+    index("review_comment_thread_idx").on(t.threadId),
+    index("review_comment_bench_idx").on(t.benchId, t.createdAt),
+  ],
 );
 
 export const REMINDER_KINDS = ["30-days", "7-days"] as const;

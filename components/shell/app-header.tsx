@@ -10,6 +10,10 @@ export function AppHeader({ name, roles, mailCatcherUrl }: { name: string; roles
     { href: "/", label: "Home" },
     { href: "/benches", label: "Benches", needs: { bench: ["read"] } },
     { href: "/reviews", label: "Reviews", needs: { review: ["decide"] } },
+    { href: "/builds", label: "Builds", needs: { build: ["record"] } },
+    { href: "/lasers", label: "Lasers", needs: { register: ["read"] } },
+    { href: "/desk", label: "Sign-off desk", needs: { audit: ["read"] } },
+    { href: "/verify", label: "Check a sheet", needs: { bench: ["read"] } },
     { href: "/admin/people", label: "People", needs: { user: ["list"] } },
     { href: "/admin/labs", label: "Labs", needs: { lab: ["manage"] } },
   ];

@@ -24,7 +24,9 @@ export type Actor = {
 // Lab memberships change rarely (an admin's action); keeping them for a few seconds per process
 // saves a query on every request. Admin changes call forgetMemberships() at once.
 const MEMBERSHIP_TTL_MS = 10_000;
-const membershipCache = new Map<string, { labIds: string[]; at: number }>();
+// On globalThis so that every route bundle of the server process shares one cache.
+const globalForMemberships = globalThis as unknown as { benchwardenMemberships?: Map<string, { labIds: string[]; at: number }> };
+const membershipCache = (globalForMemberships.benchwardenMemberships ??= new Map());
 
 async function labIdsOf(userId: string): Promise<string[]> {
   const cached = membershipCache.get(userId);

@@ -2,6 +2,7 @@
 // down), comment, and the later expiry or replacement of a sign-off. Each state change, its e-mails
 // and its audit row commit in one transaction; illegal moves get a 409 with a sentence.
 import "server-only";
+import { assertRegisterAllowsSubmission } from "./register";
 import { and, asc, desc, eq, gt, inArray, lt, ne, sql } from "drizzle-orm";
 import { verifyPassword } from "better-auth/crypto";
 import { z } from "zod";
@@ -218,6 +219,8 @@ export async function submitRevision(db: Database, actor: Actor, revisionId: str
     if (contentHash(parsed.data) !== r.contentHash) {
       throw new AppError("conflict", `Revision ${r.number}'s stored content hash does not match its drawing; save the bench again before sending it.`);
     }
+    // A laser listed as out of service or disposed of in the register cannot be used in a new submission.
+    await assertRegisterAllowsSubmission(tx, actor, parsed.data);
 
     // Bumping the draft counter makes any save still holding the old one get a conflict.
     await tx

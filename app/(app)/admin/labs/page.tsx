@@ -1,7 +1,9 @@
 import { getDb } from "@/db";
 import { LabForm } from "@/components/admin/lab-form";
+import { LabMembers } from "@/components/admin/lab-members";
 import { Refused } from "@/components/shell/refused";
-import { listLabs } from "@/lib/server/people";
+import { rolesAllow } from "@/lib/auth/permissions";
+import { listAdminPeople, listLabsWithMembers } from "@/lib/server/admin";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 
 export const metadata = { title: "Labs" };
@@ -10,16 +12,21 @@ export default async function LabsPage() {
   const actor = await pageActor();
   const refused = refusal(actor, { lab: ["manage"] });
   if (refused) return <Refused reason={refused} />;
-  const labs = await listLabs(getDb(), actor);
+  const [labs, people] = await Promise.all([listLabsWithMembers(getDb(), actor), rolesAllow(actor.roles, { user: ["list"] }) ? listAdminPeople(getDb(), actor) : Promise.resolve([])]);
+  const choosable = people.filter((p) => p.active).map((p) => ({ id: p.id, name: p.name }));
   return (
     <div className="flex flex-col gap-8">
       <div>
-        <h1 className="mb-4 text-2xl font-semibold">Labs</h1>
+        <h1 className="mb-1 text-2xl font-semibold">Labs</h1>
+        <p className="mb-4 text-muted">Researchers and technicians see the benches and lasers of the labs they belong to; officers and auditors see every lab.</p>
         <ul className="grid gap-3 sm:grid-cols-2">
           {labs.map((l) => (
-            <li key={l.id} className="rounded-xl border border-line bg-panel p-4">
-              <p className="font-semibold">{l.name}</p>
-              <p className="text-muted">{l.room ?? "No room recorded"}</p>
+            <li key={l.id} className="flex flex-col gap-3 rounded-xl border border-line bg-panel p-4" data-testid="lab-card">
+              <div>
+                <p className="font-semibold">{l.name}</p>
+                <p className="text-muted">{l.room ?? "No room recorded"}</p>
+              </div>
+              <LabMembers labId={l.id} labName={l.name} members={l.members} people={choosable} />
             </li>
           ))}
         </ul>

@@ -1,0 +1,159 @@
+import type { TrailEntry } from "@/lib/server/desk";
+
+const utc = (iso: string) => `${iso.slice(0, 19).replace("T", " ")} UTC`;
+
+export const ACTION_WORDS: Record<string, string> = {
+  "bench-created": "Bench created",
+  "draft-saved": "Draft saved",
+  "draft-revision-started": "New draft revision started",
+  "review-submitted": "Sent for review",
+  "review-withdrawn": "Withdrawn from review",
+  "review-approved": "Signed off",
+  "review-changes-requested": "Changes asked for",
+  "review-rejected": "Turned down",
+  "review-superseded": "Sign-off replaced by a newer one",
+  "review-expired": "Sign-off expired",
+  "review-comment": "Comment written",
+  "sign-off-password-refused": "Signing refused: wrong password",
+  "build-sheet-requested": "Build sheet requested",
+  "build-sheet-exported": "Build sheet downloaded",
+  "sheet-verified": "Printed sheet checked against its hash",
+  "build-started": "Rebuild started",
+  "build-check-recorded": "Checklist line recorded",
+  "build-observation-recorded": "Observation recorded",
+  "build-upload-stored": "Photo or file uploaded",
+  "build-signed-off": "Rebuild completed",
+  "desk-exported-trail": "Trail exported",
+};
+
+const OUTCOME_WORDS: Record<string, { label: string; shape: string; className: string }> = {
+  approved: { label: "Signed off", shape: "●", className: "border-ok text-ok" },
+  "changes-requested": { label: "Changes asked for", shape: "◑", className: "border-warn text-warn" },
+  rejected: { label: "Turned down", shape: "✕", className: "border-danger text-danger" },
+};
+
+type Shown = TrailEntry | { kind: "saves"; at: string; lastAt: string; count: number; revisionNumber: number | null; by: string | null };
+
+/** Autosaves come in dozens; consecutive ones on one revision are shown as one line with their count. */
+function collapse(entries: TrailEntry[]): Shown[] {
+  const out: Shown[] = [];
+  for (const e of entries) {
+    const prev = out[out.length - 1];
+    if (e.kind === "event" && e.action === "draft-saved") {
+      if (prev && prev.kind === "saves" && prev.revisionNumber === e.revisionNumber) {
+        prev.count += 1;
+        prev.lastAt = e.at;
+        continue;
+      }
+      out.push({ kind: "saves", at: e.at, lastAt: e.at, count: 1, revisionNumber: e.revisionNumber, by: e.by });
+      continue;
+    }
+    out.push(e);
+  }
+  return out;
+}
+
+function Marker({ kind }: { kind: Shown["kind"] }) {
+  const look = { revision: "◆", decision: "✒", comment: "❝", event: "•", saves: "•" }[kind];
+  return (
+    <span aria-hidden="true" className="absolute -left-[2.25rem] top-0 flex size-6 items-center justify-center rounded-full border border-line bg-panel text-sm text-accent">
+      {look}
+    </span>
+  );
+}
+
+function Body({ e }: { e: Shown }) {
+  switch (e.kind) {
+    case "revision":
+      return (
+        <>
+          <p className="font-semibold">Revision {e.revisionNumber} created{e.by ? ` by ${e.by}` : ""}</p>
+          <p className="break-all font-mono text-sm text-muted">Content hash {e.contentHash}</p>
+        </>
+      );
+    case "decision": {
+      const look = OUTCOME_WORDS[e.outcome] ?? { label: e.outcome, shape: "•", className: "border-line text-text" };
+      return (
+        <div className="rounded-lg border border-line bg-panel p-3" data-testid="trail-decision">
+          <p className="flex flex-wrap items-center gap-2">
+            <span className={`inline-flex items-center gap-1 rounded-full border px-2 py-0.5 text-sm ${look.className}`}>
+              <span aria-hidden="true">{look.shape}</span>
+              {look.label}
+            </span>
+            <span className="font-semibold">
+              revision {e.revisionNumber} by {e.by}, {e.role}
+            </span>
+          </p>
+          <p className="mt-2">
+            <span className="text-sm text-muted">What the signature means: </span>“{e.meaning}”
+          </p>
+          {e.conditions ? (
+            <p className="mt-1">
+              <span className="text-sm text-muted">Conditions: </span>
+              {e.conditions}
+            </p>
+          ) : null}
+          {e.reason ? (
+            <p className="mt-1">
+              <span className="text-sm text-muted">{e.outcome === "rejected" ? "Reason: " : "What to change: "}</span>
+              {e.reason}
+            </p>
+          ) : null}
+          <p className="mt-1 text-sm text-muted">
+            {e.validUntil ? `Valid until ${e.validUntil.slice(0, 10)} · ` : ""}
+            {e.hazardClass ? `Class ${e.hazardClass} at signing · ` : ""}
+            {e.stepUpVerified ? "password re-entered to sign" : "signed without re-entering the password"}
+          </p>
+          <p className="break-all font-mono text-sm text-muted">Signed hash {e.contentHash}</p>
+        </div>
+      );
+    }
+    case "comment":
+      return (
+        <>
+          <p className="font-semibold">
+            {e.by} ({e.role}) commented on revision {e.revisionNumber}
+            {e.elementId ? `, about ${e.elementId}` : ""}
+          </p>
+          <p className="whitespace-pre-wrap text-muted">{e.body}</p>
+        </>
+      );
+    case "saves":
+      return (
+        <p>
+          Draft{e.revisionNumber ? ` of revision ${e.revisionNumber}` : ""} saved {e.count === 1 ? "once" : `${e.count} times`}
+          {e.by ? ` by ${e.by}` : ""}
+          {e.count > 1 ? <span className="text-sm text-muted"> (last at {utc(e.lastAt)})</span> : null}
+        </p>
+      );
+    case "event":
+      return (
+        <>
+          <p>
+            {ACTION_WORDS[e.action] ?? e.action}
+            {e.revisionNumber ? ` · revision ${e.revisionNumber}` : ""}
+            {e.by ? ` · ${e.by}` : ""}
+          </p>
+          {e.contentHash ? <p className="break-all font-mono text-xs text-muted">{e.contentHash}</p> : null}
+        </>
+      );
+  }
+}
+
+export function TrailTimeline({ entries }: { entries: TrailEntry[] }) {
+  const shown = collapse(entries);
+  if (shown.length === 0) return <p className="text-muted">Nothing has happened to this bench yet.</p>;
+  return (
+    <ol className="ml-3 flex flex-col gap-4 border-l border-line pl-6" data-testid="trail-timeline">
+      {shown.map((e, i) => (
+        <li key={`${e.kind}-${e.at}-${i}`} className="relative">
+          <Marker kind={e.kind} />
+          <p className="text-sm text-muted">
+            <time dateTime={e.at}>{utc(e.at)}</time>
+          </p>
+          <Body e={e} />
+        </li>
+      ))}
+    </ol>
+  );
+}

@@ -1,0 +1,267 @@
+// The auditor's desk queries: the approvals filter/sort/page SQL, keyset batches and CSV encoding.
+// Kept free of 'server-only' (like review-clock.ts) so scripts/bench-desk.ts times the same SQL; callers pass the lab scope.
+import { and, asc, desc, eq, gte, ilike, inArray, lt, or, sql, type SQL } from "drizzle-orm";
+import { z } from "zod";
+import type { Database } from "@/db";
+import { bench, benchRevision, lab, reviewDecision } from "@/db/schema";
+import { HAZARD_CLASSES, type HazardClass } from "@/lib/safety/types";
+
+/** Which labs the caller may see: everything (officers, auditors) or the listed labs. */
+export type LabScope = { allLabs: boolean; labIds: string[] };
+
+// ── The query (the URL's search params, the API's query string) ───────────────────────────────
+export const APPROVAL_STATES = ["approved", "expired", "superseded"] as const;
+export type ApprovalState = (typeof APPROVAL_STATES)[number];
+export const DESK_SORTS = ["decidedAt", "validUntil", "title", "lab", "officer", "class"] as const;
+export type DeskSort = (typeof DESK_SORTS)[number];
+export const PAGE_SIZES = [10, 25, 50, 100] as const;
+
+const blankToUndefined = (v: unknown) => (v === "" || v === null ? undefined : v);
+const opt = <T extends z.ZodType>(schema: T) => z.preprocess(blankToUndefined, schema.optional());
+
+export const deskQuery = z
+  .object({
+    page: opt(z.coerce.number({ error: "page must be a number" }).int().min(1, "page starts at 1").max(100_000)).transform((v) => v ?? 1),
+    pageSize: opt(z.coerce.number().refine((v) => (PAGE_SIZES as readonly number[]).includes(v), `pageSize must be one of ${PAGE_SIZES.join(", ")}`)).transform((v) => v ?? 25),
+    sort: opt(z.enum(DESK_SORTS, { error: `sort must be one of ${DESK_SORTS.join(", ")}` })).transform((v) => v ?? "decidedAt"),
+    dir: opt(z.enum(["asc", "desc"], { error: "dir must be asc or desc" })).transform((v) => v ?? "desc"),
+    lab: opt(z.uuid({ error: "lab must be a lab id" })),
+    hazardClass: opt(z.enum(HAZARD_CLASSES, { error: `class must be one of ${HAZARD_CLASSES.join(", ")}` })),
+    state: opt(z.enum(APPROVAL_STATES, { error: `state must be one of ${APPROVAL_STATES.join(", ")}` })),
+    officer: opt(z.string().max(64)),
+    from: opt(z.iso.date({ error: "from must be a date (YYYY-MM-DD)" })),
+    to: opt(z.iso.date({ error: "to must be a date (YYYY-MM-DD)" })),
+    expiringDays: opt(z.coerce.number({ error: "expiring must be a number of days" }).int().min(0, "expiring must be 0 days or more").max(3650, "expiring must be at most 3650 days")),
+    q: opt(z.string().trim().max(100, "The search must be at most 100 characters")),
+  })
+  .refine((v) => !v.from || !v.to || v.from <= v.to, { path: ["to"], message: "The end date must not be before the start date" });
+export type DeskQuery = z.infer<typeof deskQuery>;
+
+/** Reads the desk query from URL search params (the names the page's URL uses). */
+export function deskQueryFromParams(params: URLSearchParams | Record<string, string | string[] | undefined>): unknown {
+  const get = (k: string) => {
+    if (params instanceof URLSearchParams) return params.get(k) ?? undefined;
+    const v = params[k];
+    return Array.isArray(v) ? v[0] : v;
+  };
+  return {
+    page: get("page"),
+    pageSize: get("pageSize"),
+    sort: get("sort"),
+    dir: get("dir"),
+    lab: get("lab"),
+    hazardClass: get("class"),
+    state: get("state"),
+    officer: get("officer"),
+    from: get("from"),
+    to: get("to"),
+    expiringDays: get("expiring"),
+    q: get("q"),
+  };
+}
+
+// ── Approvals ─────────────────────────────────────────────────────────────────────────────────
+export type ApprovalRow = {
+  decisionId: string;
+  revisionId: string;
+  benchId: string;
+  title: string;
+  labId: string;
+  labName: string;
+  number: number;
+  contentHash: string;
+  state: ApprovalState;
+  hazardClass: HazardClass | null;
+  signerId: string;
+  signerName: string;
+  signerRole: string;
+  meaning: string;
+  conditions: string | null;
+  stepUpVerified: boolean;
+  decidedAt: string;
+  validUntil: string | null;
+};
+
+export type ApprovalsPage = { rows: ApprovalRow[]; total: number; page: number; pageSize: number; pageCount: number; query: DeskQuery };
+
+/** The class the engine gave when the officer signed (kept in the signature's hazard summary). */
+export const hazardClassExpr = sql<string | null>`(${reviewDecision.hazardSummary} -> 'hazardClass' ->> 'value')`;
+
+const DAY_MS = 86_400_000;
+
+function filters(scope: LabScope, q: DeskQuery, now: Date): SQL[] {
+  const where: SQL[] = [eq(reviewDecision.outcome, "approved")];
+  if (!scope.allLabs) where.push(scope.labIds.length ? inArray(bench.labId, scope.labIds) : sql`false`);
+  if (q.lab) where.push(eq(bench.labId, q.lab));
+  if (q.hazardClass) where.push(sql`${hazardClassExpr} = ${q.hazardClass}`);
+  if (q.state) where.push(eq(benchRevision.state, q.state));
+  if (q.officer) where.push(eq(reviewDecision.signerId, q.officer));
+  if (q.from) where.push(gte(reviewDecision.decidedAt, new Date(`${q.from}T00:00:00.000Z`)));
+  if (q.to) where.push(lt(reviewDecision.decidedAt, new Date(new Date(`${q.to}T00:00:00.000Z`).getTime() + DAY_MS)));
+  if (q.expiringDays !== undefined) {
+    // Still valid now, and its validity ends within the next N days.
+    where.push(eq(benchRevision.state, "approved"), gte(reviewDecision.validUntil, now), lt(reviewDecision.validUntil, new Date(now.getTime() + q.expiringDays * DAY_MS)));
+  }
+  if (q.q) where.push(ilike(bench.title, `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`));
+  return where;
+}
+
+function ordering(q: DeskQuery): SQL[] {
+  const dir = q.dir === "asc" ? asc : desc;
+  const key: Record<DeskSort, SQL> = {
+    decidedAt: dir(reviewDecision.decidedAt),
+    // Every sign-off has a validity end, so the plain order can walk review_decision_valid_until_idx.
+    validUntil: dir(reviewDecision.validUntil),
+    title: dir(bench.title),
+    lab: dir(lab.name),
+    officer: dir(reviewDecision.signerName),
+    // By hazard (1 < 1M < 2 < 2M < 3R < 3B < 4), not by spelling.
+    class: sql`array_position(array['1','1M','2','2M','3R','3B','4']::text[], ${hazardClassExpr}) ${sql.raw(q.dir === "asc" ? "asc" : "desc")} nulls last`,
+  };
+  // The signing time and the id break ties, so pages never overlap.
+  return q.sort === "decidedAt" ? [key.decidedAt, dir(reviewDecision.id)] : [key[q.sort], desc(reviewDecision.decidedAt), desc(reviewDecision.id)];
+}
+
+const approvalColumns = {
+  decisionId: reviewDecision.id,
+  revisionId: reviewDecision.revisionId,
+  benchId: reviewDecision.benchId,
+  title: bench.title,
+  labId: bench.labId,
+  labName: lab.name,
+  number: benchRevision.number,
+  contentHash: reviewDecision.contentHash,
+  state: benchRevision.state,
+  hazardClass: hazardClassExpr,
+  signerId: reviewDecision.signerId,
+  signerName: reviewDecision.signerName,
+  signerRole: reviewDecision.signerRole,
+  meaning: reviewDecision.meaning,
+  conditions: reviewDecision.conditions,
+  stepUpVerified: reviewDecision.stepUpVerified,
+  decidedAt: reviewDecision.decidedAt,
+  validUntil: reviewDecision.validUntil,
+};
+
+function approvalsFrom(db: Database) {
+  return db
+    .select(approvalColumns)
+    .from(reviewDecision)
+    .innerJoin(benchRevision, eq(benchRevision.id, reviewDecision.revisionId))
+    .innerJoin(bench, eq(bench.id, reviewDecision.benchId))
+    .innerJoin(lab, eq(lab.id, bench.labId));
+}
+
+type RawApproval = Awaited<ReturnType<ReturnType<typeof approvalsFrom>["execute"]>>[number];
+
+export function approvalView(r: RawApproval): ApprovalRow {
+  return {
+    ...r,
+    state: r.state as ApprovalState,
+    hazardClass: (HAZARD_CLASSES as readonly string[]).includes(r.hazardClass ?? "") ? (r.hazardClass as HazardClass) : null,
+    decidedAt: r.decidedAt.toISOString(),
+    validUntil: r.validUntil?.toISOString() ?? null,
+  };
+}
+
+/** The SQL of one page, for the benchmark's EXPLAIN check. */
+export function approvalsPageQuery(db: Database, scope: LabScope, q: DeskQuery, now = new Date()) {
+  return approvalsFrom(db)
+    .where(and(...filters(scope, q, now)))
+    .orderBy(...ordering(q))
+    .limit(q.pageSize)
+    .offset((q.page - 1) * q.pageSize);
+}
+
+/** The count for the same filters; joins only the tables the filters use, so the planner can stay on indexes. */
+export function approvalsCountQuery(db: Database, scope: LabScope, q: DeskQuery, now = new Date()) {
+  let query = db.select({ total: sql<number>`count(*)::int` }).from(reviewDecision).$dynamic();
+  if (q.state !== undefined || q.expiringDays !== undefined) query = query.innerJoin(benchRevision, eq(benchRevision.id, reviewDecision.revisionId));
+  if (!scope.allLabs || q.lab !== undefined || q.q !== undefined) query = query.innerJoin(bench, eq(bench.id, reviewDecision.benchId));
+  return query.where(and(...filters(scope, q, now)));
+}
+
+// ── CSV ───────────────────────────────────────────────────────────────────────────────────────
+/** One CSV field: quoted when needed; a leading = + - @ is defused so spreadsheets do not run it. */
+export function csvField(value: unknown): string {
+  if (value === null || value === undefined) return "";
+  let text = value instanceof Date ? value.toISOString() : typeof value === "object" ? JSON.stringify(value) : String(value);
+  if (/^[=+\-@\t\r]/.test(text)) text = `'${text}`;
+  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+}
+export const csvLine = (values: unknown[]) => `${values.map(csvField).join(",")}\r\n`;
+
+const EXPORT_BATCH = 500;
+export const APPROVAL_HEADER = [
+  "signed_at_utc",
+  "bench",
+  "lab",
+  "revision",
+  "content_hash",
+  "state",
+  "hazard_class_at_signing",
+  "signed_by",
+  "signer_role",
+  "signature_meaning",
+  "conditions",
+  "valid_until_utc",
+  "password_reentered",
+  "bench_id",
+  "revision_id",
+  "decision_id",
+];
+
+/** Rows in signing order (newest first), fetched in keyset batches. */
+export async function* approvalBatches(db: Database, scope: LabScope, q: DeskQuery, now = new Date(), batchSize = EXPORT_BATCH): AsyncGenerator<ApprovalRow[]> {
+  let after: { decidedAt: Date; id: string } | null = null;
+  for (;;) {
+    const where = filters(scope, q, now);
+    if (after) {
+      const a: { decidedAt: Date; id: string } = after;
+      where.push(or(lt(reviewDecision.decidedAt, a.decidedAt), and(eq(reviewDecision.decidedAt, a.decidedAt), lt(reviewDecision.id, a.id)))!);
+    }
+    const rows = await approvalsFrom(db)
+      .where(and(...where))
+      .orderBy(desc(reviewDecision.decidedAt), desc(reviewDecision.id))
+      .limit(batchSize);
+    if (rows.length === 0) return;
+    yield rows.map(approvalView);
+    const last = rows[rows.length - 1];
+    after = { decidedAt: last.decidedAt, id: last.decisionId };
+    if (rows.length < batchSize) return;
+  }
+}
+
+export function streamOf(lines: AsyncGenerator<string>): ReadableStream<Uint8Array> {
+  const encoder = new TextEncoder();
+  return new ReadableStream<Uint8Array>({
+    async pull(controller) {
+      try {
+        const next = await lines.next();
+        if (next.done) controller.close();
+        else controller.enqueue(encoder.encode(next.value));
+      } catch (error) {
+        console.error("[benchwarden] CSV export failed part-way", error);
+        controller.error(error);
+      }
+    },
+    async cancel() {
+      await lines.return(undefined);
+    },
+  });
+}
+
+/** Every filtered sign-off as CSV lines, batch by batch (at most one batch of rows held at a time). */
+export function approvalsCsvStream(db: Database, scope: LabScope, q: DeskQuery, now = new Date(), batchSize = EXPORT_BATCH): ReadableStream<Uint8Array> {
+  async function* lines() {
+    yield `\uFEFF${csvLine(APPROVAL_HEADER)}`;
+    for await (const batch of approvalBatches(db, scope, q, now, batchSize)) {
+      yield batch
+        .map((r) =>
+          csvLine([r.decidedAt, r.title, r.labName, r.number, r.contentHash, r.state, r.hazardClass, r.signerName, r.signerRole, r.meaning, r.conditions, r.validUntil, r.stepUpVerified ? "yes" : "no", r.benchId, r.revisionId, r.decisionId]),
+        )
+        .join("");
+    }
+  }
+  return streamOf(lines());
+}

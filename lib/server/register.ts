@@ -1,0 +1,370 @@
+// The laser register: the institution's inventory of lasers, kept by the safety officers and read by
+// everyone in the labs. Computed classes come from lib/safety (IEC 60825-1:2014 class limits); labels are never changed.
+import "server-only";
+import { and, asc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { z } from "zod";
+import type { Database, DbOrTx } from "@/db";
+import { lab, laserRegister, LASER_STATUSES, user, type LaserStatus } from "@/db/schema";
+import type { BenchDocument, LaserElement } from "@/lib/bench/schema";
+import { AppError, notFound } from "@/lib/errors";
+import { classifyBeam, compareLabel, HAZARD_CLASSES, type HazardClass } from "@/lib/safety";
+import { recordAudit } from "./audit";
+import { authorize, authorizeLab, type Actor } from "./authorize";
+
+// ── Inputs (the one contract for the routes and the officer's form) ───────────────────────────
+const num = (field: string) => z.number({ error: `${field} must be a number` }).refine(Number.isFinite, `${field} must be a finite number`);
+const positive = (field: string, unit: string, max: number) =>
+  num(field)
+    .refine((v) => v > 0, `${field} must be greater than 0 ${unit}`)
+    .refine((v) => v <= max, `${field} must be at most ${max} ${unit}`);
+const optionalText = (field: string, max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max, `${field} must be at most ${max} characters`)
+    .nullish()
+    .transform((v) => (v ? v : null));
+
+export const laserInput = z
+  .object({
+    labId: z.uuid({ error: "Choose the lab the laser belongs to" }),
+    labelClass: z.enum(HAZARD_CLASSES, { error: `Label class must be one of: ${HAZARD_CLASSES.join(", ")}` }),
+    wavelengthsNm: z
+      .array(positive("Wavelength", "nm", 1_000_000).refine((v) => v >= 180, "Wavelength must be at least 180 nm"), { error: "Give the wavelengths as a list of numbers" })
+      .min(1, "Give at least one wavelength")
+      .max(16, "At most 16 wavelengths"),
+    maxPowerMw: positive("Maximum power", "mW", 1e9),
+    pulseEnergyMj: positive("Pulse energy", "mJ", 1e6).nullish().transform((v) => v ?? null),
+    pulseDurationS: positive("Pulse duration", "s", 10).nullish().transform((v) => v ?? null),
+    pulseRepetitionRateHz: positive("Repetition rate", "Hz", 1e12).nullish().transform((v) => v ?? null),
+    beamDiameterMm: positive("Beam diameter", "mm", 1000),
+    divergenceMrad: positive("Divergence", "mrad", 1000),
+    model: z.string({ error: "Give the manufacturer and model" }).trim().min(1, "Give the manufacturer and model").max(200, "The model must be at most 200 characters"),
+    serialNumber: optionalText("The serial number", 120),
+    location: optionalText("The location", 200),
+    status: z.enum(LASER_STATUSES, { error: "Status must be in service, out of service or disposed" }).default("in-service"),
+    responsibleUserId: z.string().max(64).nullish().transform((v) => v || null),
+  })
+  .superRefine((v, ctx) => {
+    if (v.pulseRepetitionRateHz !== null && v.pulseDurationS === null) {
+      ctx.addIssue({ code: "custom", path: ["pulseDurationS"], message: "A repetition rate needs a pulse duration" });
+    }
+    if (v.pulseDurationS !== null && v.pulseRepetitionRateHz !== null && v.pulseDurationS * v.pulseRepetitionRateHz >= 1) {
+      ctx.addIssue({ code: "custom", path: ["pulseRepetitionRateHz"], message: "Pulse duration × repetition rate must be below 1; enter the laser as continuous-wave" });
+    }
+  });
+export type LaserInput = z.infer<typeof laserInput>;
+
+export const laserUpdateInput = z.intersection(laserInput, z.object({ version: z.number({ error: "Send the version you edited" }).int().min(1) }));
+export type LaserUpdateInput = z.infer<typeof laserUpdateInput>;
+
+export const laserListQuery = z.object({
+  labId: z.uuid({ error: "labId must be a lab id" }).optional(),
+  status: z.enum(LASER_STATUSES).optional(),
+});
+
+// ── Views ─────────────────────────────────────────────────────────────────────────────────────
+export type ComputedClass = {
+  /** The highest class over the laser's wavelengths at its maximum power; null when the engine cannot say. */
+  hazardClass: HazardClass | null;
+  matchesLabel: boolean | null;
+  /** Present when label and estimate differ; the label is never changed. */
+  warning: string | null;
+  reasons: string[];
+};
+
+export type LaserView = {
+  id: string;
+  labId: string;
+  labName: string;
+  labelClass: HazardClass;
+  wavelengthsNm: number[];
+  maxPowerMw: number;
+  pulseEnergyMj: number | null;
+  pulseDurationS: number | null;
+  pulseRepetitionRateHz: number | null;
+  beamDiameterMm: number;
+  divergenceMrad: number;
+  model: string;
+  serialNumber: string | null;
+  location: string | null;
+  status: LaserStatus;
+  responsibleUserId: string | null;
+  responsibleName: string | null;
+  version: number;
+  updatedAt: string;
+  computed: ComputedClass;
+};
+
+export const STATUS_WORDS: Record<LaserStatus, string> = { "in-service": "In service", "out-of-service": "Out of service", disposed: "Disposed of" };
+
+type LaserFacts = Pick<LaserView, "labelClass" | "wavelengthsNm" | "maxPowerMw" | "pulseDurationS" | "pulseRepetitionRateHz" | "beamDiameterMm" | "divergenceMrad">;
+
+/** Classifies the laser at its maximum power at each wavelength and keeps the highest class. */
+export function computeClass(facts: LaserFacts): ComputedClass {
+  let worst: HazardClass | null = null;
+  const reasons: string[] = [];
+  try {
+    for (const wavelengthNm of facts.wavelengthsNm) {
+      const c = classifyBeam({
+        wavelengthNm,
+        powerMw: facts.maxPowerMw,
+        beamDiameterMm: facts.beamDiameterMm,
+        divergenceMrad: facts.divergenceMrad,
+        ...(facts.pulseDurationS !== null ? { pulseDurationS: facts.pulseDurationS } : {}),
+        ...(facts.pulseDurationS !== null && facts.pulseRepetitionRateHz !== null ? { pulseRepetitionRateHz: facts.pulseRepetitionRateHz } : {}),
+      });
+      reasons.push(`${wavelengthNm} nm: Class ${c.hazardClass}. ${c.reasons.join(" ")}`);
+      if (worst === null || HAZARD_CLASSES.indexOf(c.hazardClass) > HAZARD_CLASSES.indexOf(worst)) worst = c.hazardClass;
+    }
+  } catch (error) {
+    return { hazardClass: null, matchesLabel: null, warning: `The class could not be estimated: ${error instanceof Error ? error.message : "unknown problem"}.`, reasons };
+  }
+  if (worst === null) return { hazardClass: null, matchesLabel: null, warning: null, reasons };
+  const check = compareLabel(facts.labelClass, worst);
+  return { hazardClass: worst, matchesLabel: check.matches, warning: check.warning, reasons };
+}
+
+const columns = {
+  id: laserRegister.id,
+  labId: laserRegister.labId,
+  labName: lab.name,
+  labelClass: laserRegister.labelClass,
+  wavelengthsNm: laserRegister.wavelengthsNm,
+  maxPowerMw: laserRegister.maxPowerMw,
+  pulseEnergyMj: laserRegister.pulseEnergyMj,
+  pulseDurationS: laserRegister.pulseDurationS,
+  pulseRepetitionRateHz: laserRegister.pulseRepetitionRateHz,
+  beamDiameterMm: laserRegister.beamDiameterMm,
+  divergenceMrad: laserRegister.divergenceMrad,
+  model: laserRegister.model,
+  serialNumber: laserRegister.serialNumber,
+  location: laserRegister.location,
+  status: laserRegister.status,
+  responsibleUserId: laserRegister.responsibleUserId,
+  responsibleName: user.name,
+  version: laserRegister.version,
+  updatedAt: laserRegister.updatedAt,
+};
+
+type LaserRow = Awaited<ReturnType<typeof baseQuery>>[number];
+
+function view(row: LaserRow): LaserView {
+  const facts = { ...row, labelClass: row.labelClass as HazardClass };
+  return { ...facts, updatedAt: row.updatedAt.toISOString(), computed: computeClass(facts) };
+}
+
+function baseQuery(db: DbOrTx) {
+  return db.select(columns).from(laserRegister).innerJoin(lab, eq(lab.id, laserRegister.labId)).leftJoin(user, eq(user.id, laserRegister.responsibleUserId));
+}
+
+function scope(actor: Actor): SQL | undefined {
+  if (actor.allLabs) return undefined;
+  if (actor.labIds.length === 0) return sql`false`;
+  return inArray(laserRegister.labId, actor.labIds);
+}
+
+// ── Reading ───────────────────────────────────────────────────────────────────────────────────
+/** The lasers of the labs the actor may see (officers and auditors: all), by lab and model. */
+export async function listLasers(db: DbOrTx, actor: Actor, filter: z.infer<typeof laserListQuery> = {}): Promise<LaserView[]> {
+  authorize(actor, { register: ["read"] });
+  if (filter.labId) authorizeLab(actor, filter.labId);
+  const conditions = [scope(actor), filter.labId ? eq(laserRegister.labId, filter.labId) : undefined, filter.status ? eq(laserRegister.status, filter.status) : undefined];
+  const rows = await baseQuery(db)
+    .where(and(...conditions))
+    .orderBy(asc(lab.name), asc(laserRegister.model), asc(laserRegister.id));
+  return rows.map(view);
+}
+
+/** One laser; outside the actor's labs it does not exist (404). */
+export async function getLaser(db: DbOrTx, actor: Actor, laserId: string): Promise<LaserView> {
+  authorize(actor, { register: ["read"] });
+  if (!z.uuid().safeParse(laserId).success) throw notFound("The laser");
+  const [row] = await baseQuery(db).where(eq(laserRegister.id, laserId));
+  if (!row) throw notFound("The laser");
+  if (!actor.allLabs && !actor.labIds.includes(row.labId)) throw notFound("The laser");
+  return view(row);
+}
+
+/** People an officer may name as responsible for a laser: active accounts, names only. */
+export async function listResponsibleCandidates(db: DbOrTx, actor: Actor): Promise<{ id: string; name: string }[]> {
+  authorize(actor, { register: ["manage"] });
+  return db
+    .select({ id: user.id, name: user.name })
+    .from(user)
+    .where(sql`coalesce(${user.banned}, false) = false`)
+    .orderBy(asc(user.name));
+}
+
+// ── Changing (safety officers) ────────────────────────────────────────────────────────────────
+async function checkReferences(tx: DbOrTx, input: LaserInput) {
+  const [foundLab] = await tx.select({ id: lab.id }).from(lab).where(eq(lab.id, input.labId));
+  if (!foundLab) throw new AppError("bad-request", "The chosen lab does not exist.", [{ path: "labId", message: "Unknown lab" }]);
+  if (input.responsibleUserId) {
+    const [person] = await tx.select({ id: user.id }).from(user).where(eq(user.id, input.responsibleUserId));
+    if (!person) throw new AppError("bad-request", "The responsible person does not have an account.", [{ path: "responsibleUserId", message: "Unknown person" }]);
+  }
+}
+
+function values(input: LaserInput) {
+  return {
+    labId: input.labId,
+    labelClass: input.labelClass,
+    wavelengthsNm: input.wavelengthsNm,
+    maxPowerMw: input.maxPowerMw,
+    pulseEnergyMj: input.pulseEnergyMj,
+    pulseDurationS: input.pulseDurationS,
+    pulseRepetitionRateHz: input.pulseRepetitionRateHz,
+    beamDiameterMm: input.beamDiameterMm,
+    divergenceMrad: input.divergenceMrad,
+    model: input.model,
+    serialNumber: input.serialNumber,
+    location: input.location,
+    status: input.status,
+    responsibleUserId: input.responsibleUserId,
+  };
+}
+
+export async function createLaser(db: Database, actor: Actor, input: LaserInput): Promise<LaserView> {
+  authorize(actor, { register: ["manage"] });
+  return db.transaction(async (tx) => {
+    await checkReferences(tx, input);
+    const [row] = await tx.insert(laserRegister).values(values(input)).returning({ id: laserRegister.id });
+    const created = await getLaser(tx, actor, row.id);
+    await recordAudit(tx, {
+      actorId: actor.userId,
+      actorRole: actor.roles.join(","),
+      action: "laser-registered",
+      ipAddress: actor.ipAddress,
+      detail: { laserId: row.id, labId: input.labId, entry: values(input), computedClass: created.computed.hazardClass },
+    });
+    return created;
+  });
+}
+
+/** Saves the officer's edit if nobody else saved in between (the version counter), else 409. */
+export async function updateLaser(db: Database, actor: Actor, laserId: string, input: LaserUpdateInput): Promise<LaserView> {
+  authorize(actor, { register: ["manage"] });
+  return db.transaction(async (tx) => {
+    const before = await getLaser(tx, actor, laserId);
+    await checkReferences(tx, input);
+    const next = values(input);
+    const [saved] = await tx
+      .update(laserRegister)
+      .set({ ...next, version: sql`${laserRegister.version} + 1`, updatedAt: new Date() })
+      .where(and(eq(laserRegister.id, laserId), eq(laserRegister.version, input.version)))
+      .returning({ id: laserRegister.id });
+    if (!saved) {
+      throw new AppError(
+        "conflict",
+        `Someone else changed this laser's entry after you opened it (it is now at version ${before.version}, you edited version ${input.version}). Reload it, then make your change again.`,
+      );
+    }
+    const changes: Record<string, { from: unknown; to: unknown }> = {};
+    for (const [key, to] of Object.entries(next)) {
+      const from = before[key as keyof LaserView];
+      if (JSON.stringify(from) !== JSON.stringify(to)) changes[key] = { from, to };
+    }
+    await recordAudit(tx, {
+      actorId: actor.userId,
+      actorRole: actor.roles.join(","),
+      action: before.status !== input.status ? "laser-status-changed" : "laser-updated",
+      ipAddress: actor.ipAddress,
+      detail: { laserId, labId: input.labId, fromVersion: input.version, toVersion: input.version + 1, changes },
+    });
+    return getLaser(tx, actor, laserId);
+  });
+}
+
+// ── A bench against the register ──────────────────────────────────────────────────────────────
+export type RegisterWarning = {
+  code: "register-entry-missing" | "power-above-register" | "wavelength-not-registered" | "diameter-differs" | "class-differs-from-label" | "laser-not-in-service";
+  elementId: string;
+  message: string;
+  /** True when a new submission must be refused (the laser is out of service or disposed of). */
+  blocksSubmission: boolean;
+};
+export type RegisterCheck = { laserId: string | null; labelClass: HazardClass | null; computedClass: HazardClass | null; warnings: RegisterWarning[] };
+
+const WAVELENGTH_TOLERANCE_NM = 0.5;
+const DIAMETER_TOLERANCE = 0.1;
+const fmt = (x: number) => Number(x.toPrecision(4)).toString();
+
+/**
+ * Compares the bench's laser with the register entry it names (registerId): power above the entry's
+ * maximum, a wavelength the laser does not emit, a beam diameter differing by more than 10 %, a
+ * computed class that differs from the label, and a laser that is not in service.
+ */
+export async function checkBenchAgainstRegister(db: DbOrTx, actor: Actor, document: BenchDocument): Promise<RegisterCheck> {
+  authorize(actor, { register: ["read"] });
+  const laser = document.elements.find((e): e is LaserElement => e.kind === "laser");
+  if (!laser?.registerId) return { laserId: null, labelClass: null, computedClass: null, warnings: [] };
+  const id = laser.id;
+  const missing: RegisterCheck = {
+    laserId: laser.registerId,
+    labelClass: null,
+    computedClass: null,
+    warnings: [{ code: "register-entry-missing", elementId: id, message: `The laser refers to a register entry (${laser.registerId}) that does not exist or that you may not see; pick the laser from the register again.`, blocksSubmission: false }],
+  };
+  if (!z.uuid().safeParse(laser.registerId).success) return missing;
+  const [row] = await baseQuery(db).where(eq(laserRegister.id, laser.registerId));
+  if (!row || (!actor.allLabs && !actor.labIds.includes(row.labId))) return missing;
+  const entry = view(row);
+  const name = `${entry.model}${entry.serialNumber ? ` (serial ${entry.serialNumber})` : ""}`;
+  const warnings: RegisterWarning[] = [];
+
+  if (entry.status !== "in-service") {
+    warnings.push({
+      code: "laser-not-in-service",
+      elementId: id,
+      message: `The register lists ${name} as ${STATUS_WORDS[entry.status].toLowerCase()}; it cannot be used in a new submission. Ask the laser safety officer.`,
+      blocksSubmission: true,
+    });
+  }
+  if (laser.powerMw > entry.maxPowerMw * (1 + 1e-9)) {
+    warnings.push({ code: "power-above-register", elementId: id, message: `The bench sets ${fmt(laser.powerMw)} mW, above the register's maximum of ${fmt(entry.maxPowerMw)} mW for ${name}.`, blocksSubmission: false });
+  }
+  if (!entry.wavelengthsNm.some((w) => Math.abs(w - laser.wavelengthNm) <= WAVELENGTH_TOLERANCE_NM)) {
+    warnings.push({
+      code: "wavelength-not-registered",
+      elementId: id,
+      message: `The bench uses ${fmt(laser.wavelengthNm)} nm, which is not among the register's wavelengths for ${name} (${entry.wavelengthsNm.map(fmt).join(", ")} nm).`,
+      blocksSubmission: false,
+    });
+  }
+  const ratio = laser.beamDiameterMm / entry.beamDiameterMm;
+  if (Math.abs(ratio - 1) > DIAMETER_TOLERANCE) {
+    const how = ratio < 1 ? "narrower (a more concentrated beam)" : "wider";
+    warnings.push({
+      code: "diameter-differs",
+      elementId: id,
+      message: `The bench's beam diameter ${fmt(laser.beamDiameterMm)} mm is ${how} than the register's ${fmt(entry.beamDiameterMm)} mm (1/e²) for ${name}.`,
+      blocksSubmission: false,
+    });
+  }
+  // The class the bench's own settings give, with the register's divergence (the document has none).
+  let computedClass: HazardClass | null = null;
+  try {
+    computedClass = classifyBeam({
+      wavelengthNm: laser.wavelengthNm,
+      powerMw: laser.powerMw,
+      beamDiameterMm: laser.beamDiameterMm,
+      divergenceMrad: entry.divergenceMrad,
+      ...(laser.pulseDurationS !== undefined ? { pulseDurationS: laser.pulseDurationS, pulseRepetitionRateHz: laser.pulseRepetitionRateHz } : {}),
+    }).hazardClass;
+  } catch {
+    computedClass = null;
+  }
+  if (computedClass && computedClass !== entry.labelClass) {
+    warnings.push({ code: "class-differs-from-label", elementId: id, message: compareLabel(entry.labelClass, computedClass).warning ?? "", blocksSubmission: false });
+  }
+  return { laserId: entry.id, labelClass: entry.labelClass, computedClass, warnings };
+}
+
+/** For the submit path: refuses (409) a submission whose laser the register lists as out of service or disposed of. */
+export async function assertRegisterAllowsSubmission(db: DbOrTx, actor: Actor, document: BenchDocument): Promise<RegisterCheck> {
+  const check = await checkBenchAgainstRegister(db, actor, document);
+  const blocking = check.warnings.find((w) => w.blocksSubmission);
+  if (blocking) throw new AppError("conflict", blocking.message, [{ path: "registerId", message: blocking.message }]);
+  return check;
+}
