@@ -1,7 +1,7 @@
 // `npm run bench`: the speed figures the README reports. Pure engines are timed in-process; the
 // HTTP figures come from autocannon against the production server on a throwaway database.
 import path from "node:path";
-import { rmSync } from "node:fs";
+import { readFileSync, rmSync } from "node:fs";
 import autocannon from "autocannon";
 import { buildIfStale } from "./lib/build";
 import { stopCluster } from "./lib/postgres";
@@ -10,6 +10,17 @@ import { log, ROOT, startChild, stopChildren, waitForHttp } from "./lib/system";
 
 type Figure = { name: string; value: number; unit: string; target: string };
 
+/** Peak resident memory of a process (Linux VmHWM), in kB; 0 when unknown. */
+function peakMemoryKb(pid: number | undefined): number {
+  if (!pid) return 0;
+  try {
+    const status = readFileSync(`/proc/${pid}/status`, "utf8");
+    return Number(status.match(/VmHWM:\s+(\d+) kB/)?.[1] ?? 0);
+  } catch {
+    return 0;
+  }
+}
+
 async function httpFigures(): Promise<Figure[]> {
   const ports = { app: 3300, postgres: 5435, smtp: 2527, catcherWeb: 1082 };
   const dataDir = path.join(ROOT, ".data/bench");
@@ -17,7 +28,7 @@ async function httpFigures(): Promise<Figure[]> {
   const { cluster, env } = await provision({ dataDir, ports, dbName: "benchwarden_bench", seed: true, rateLimitMax: 1000 });
   try {
     buildIfStale();
-    startChild("app", NEXT, ["start", "-H", "127.0.0.1", "-p", String(ports.app)], { env, stdio: ["ignore", "ignore", "inherit"] });
+    const app = startChild("app", NEXT, ["start", "-H", "127.0.0.1", "-p", String(ports.app)], { env, stdio: ["ignore", "ignore", "inherit"] });
     await waitForHttp(`${env.APP_URL}/api/health`, 60_000);
     const signIn = await fetch(`${env.APP_URL}/api/auth/sign-in/email`, {
       method: "POST",
@@ -45,6 +56,7 @@ async function httpFigures(): Promise<Figure[]> {
     });
     if (analyze.non2xx > 0) throw new Error(`POST /api/analyze answered ${analyze.non2xx} non-2xx responses`);
     const ratio = analyze.requests.average / trivial.requests.average;
+    const peakKb = peakMemoryKb(app.pid);
     // The sign-off desk at scale: 10 000 benches and 100 000+ trail rows in this throwaway database.
     const { seedScale } = await import("./seed-scale");
     const { runDeskBench } = await import("./bench-desk");
@@ -55,6 +67,7 @@ async function httpFigures(): Promise<Figure[]> {
       { name: "GET /api/health throughput (trivial route)", value: trivial.requests.average, unit: "req/s", target: "reference" },
       { name: "POST /api/analyze throughput (signed in, 4 elements)", value: analyze.requests.average, unit: "req/s", target: "≥ 70 % of the trivial route" },
       { name: "POST /api/analyze ÷ trivial route", value: Math.round(ratio * 1000) / 10, unit: "%", target: "≥ 70 %" },
+      { name: "app server peak resident memory (VmHWM) after the load above", value: peakKb / 1024, unit: "MB", target: "reference" },
     ];
   } finally {
     await stopChildren();

@@ -8,7 +8,7 @@ import { invitation, lab, labMember, session, user } from "@/db/schema";
 import { parseRoles, ROLE_LABELS, ROLES, type RoleName } from "@/lib/auth/permissions";
 import { AppError, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
-import { authorize, forgetMemberships, type Actor } from "./authorize";
+import { authorize, forgetMemberships, forgetPerson, type Actor } from "./authorize";
 
 export const rolesInput = z.object({
   roles: z.array(z.enum(ROLES, { error: `Each role must be one of: ${ROLES.join(", ")}` })).min(1, "Choose at least one role").max(ROLES.length),
@@ -64,7 +64,7 @@ export async function listPendingInvitations(db: Database, actor: Actor): Promis
   return rows.map((r) => ({ ...r, roles: parseRoles(r.roles), expiresAt: r.expiresAt.toISOString() }));
 }
 
-/** Replaces a person's roles; takes effect on their next request (roles are read per request). */
+/** Replaces a person's roles; takes effect on their next request (the cached caller is dropped). */
 export async function setRoles(db: Database, actor: Actor, userId: string, input: z.infer<typeof rolesInput>): Promise<AdminPerson["roles"]> {
   authorize(actor, { user: ["set-role"] });
   const roles = [...new Set(input.roles)].sort((a, b) => ROLES.indexOf(a) - ROLES.indexOf(b));
@@ -84,7 +84,7 @@ export async function setRoles(db: Database, actor: Actor, userId: string, input
       detail: { userId, email: target.email, from: before, to: roles },
     });
     return roles;
-  });
+  }).finally(() => forgetPerson(userId));
 }
 
 /**
@@ -111,7 +111,7 @@ export async function deactivatePerson(db: Database, actor: Actor, userId: strin
       detail: { userId, email: target.email, reason, sessionsRevoked: revoked.length },
     });
     return { active: false as const, sessionsRevoked: revoked.length };
-  });
+  }).finally(() => forgetPerson(userId));
 }
 
 export async function reactivatePerson(db: Database, actor: Actor, userId: string): Promise<{ active: true }> {
@@ -122,7 +122,7 @@ export async function reactivatePerson(db: Database, actor: Actor, userId: strin
     await tx.update(user).set({ banned: false, banReason: null, banExpires: null, updatedAt: new Date() }).where(eq(user.id, userId));
     await recordAudit(tx, { actorId: actor.userId, actorRole: roleText(actor), action: "person-reactivated", ipAddress: actor.ipAddress, detail: { userId, email: target.email } });
     return { active: true as const };
-  });
+  }).finally(() => forgetPerson(userId));
 }
 
 // ── Labs and their members ────────────────────────────────────────────────────────────────────

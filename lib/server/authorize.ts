@@ -21,44 +21,65 @@ export type Actor = {
   ipAddress: string | null;
 };
 
-// Lab memberships change rarely (an admin's action); keeping them for a few seconds per process
-// saves a query on every request. Admin changes call forgetMemberships() at once.
-const MEMBERSHIP_TTL_MS = 10_000;
-// On globalThis so that every route bundle of the server process shares one cache.
-const globalForMemberships = globalThis as unknown as { benchwardenMemberships?: Map<string, { labIds: string[]; at: number }> };
-const membershipCache = (globalForMemberships.benchwardenMemberships ??= new Map());
+// Resolving the caller costs a session lookup and a membership query. Both are kept for a few
+// seconds per process, keyed by the session cookie, so a burst of requests (the editor analyses
+// every change) does not hit the database each time. Admin changes to a person (roles,
+// deactivation, labs) call forgetPerson() at once; a sign-out elsewhere is honoured within
+// ACTOR_TTL_MS. On globalThis so that every route bundle of the server process shares one cache.
+const ACTOR_TTL_MS = 5_000;
+const MAX_CACHED_ACTORS = 5_000;
+type CachedActor = { actor: Omit<Actor, "ipAddress">; at: number };
+const globalForActors = globalThis as unknown as { benchwardenActors?: Map<string, CachedActor> };
+const actorCache = (globalForActors.benchwardenActors ??= new Map());
 
-async function labIdsOf(userId: string): Promise<string[]> {
-  const cached = membershipCache.get(userId);
-  if (cached && Date.now() - cached.at < MEMBERSHIP_TTL_MS) return cached.labIds;
-  const rows = await getDb().select({ labId: labMember.labId }).from(labMember).where(eq(labMember.userId, userId));
-  const labIds = rows.map((m) => m.labId);
-  membershipCache.set(userId, { labIds, at: Date.now() });
-  return labIds;
+function sessionKey(requestHeaders: Headers): string | null {
+  const cookie = requestHeaders.get("cookie");
+  const token = cookie?.match(/(?:^|;\s*)(?:__Secure-)?better-auth\.session_token=([^;]+)/)?.[1];
+  return token ?? null;
 }
 
-/** Drops cached lab memberships (all, or one person's) after they change. */
-export function forgetMemberships(userId?: string): void {
-  if (userId) membershipCache.delete(userId);
-  else membershipCache.clear();
+/** Drops what is cached about a person (or everyone) after an admin changes them. */
+export function forgetPerson(userId?: string): void {
+  if (!userId) return actorCache.clear();
+  for (const [key, entry] of actorCache) if (entry.actor.userId === userId) actorCache.delete(key);
 }
 
-export async function actorFromHeaders(requestHeaders: Headers): Promise<Actor | null> {
+/** Kept for callers that changed lab memberships. */
+export const forgetMemberships = forgetPerson;
+
+async function resolveActor(requestHeaders: Headers): Promise<Omit<Actor, "ipAddress"> | null> {
   const result = await getAuth().api.getSession({ headers: requestHeaders });
   if (!result) return null;
   const { user } = result;
   const userRoles = parseRoles((user as { role?: string | null }).role);
-  const labIds = await labIdsOf(user.id);
-  const forwarded = requestHeaders.get("x-forwarded-for");
+  const rows = await getDb().select({ labId: labMember.labId }).from(labMember).where(eq(labMember.userId, user.id));
   return {
     userId: user.id,
     name: user.name,
     email: user.email,
     roles: userRoles,
-    labIds,
+    labIds: rows.map((m) => m.labId),
     allLabs: userRoles.some((r) => ALL_LABS_ROLES.includes(r)),
-    ipAddress: forwarded ? forwarded.split(",")[0].trim() : null,
   };
+}
+
+export async function actorFromHeaders(requestHeaders: Headers): Promise<Actor | null> {
+  const key = sessionKey(requestHeaders);
+  const now = Date.now();
+  const cached = key ? actorCache.get(key) : undefined;
+  let actor = cached && now - cached.at < ACTOR_TTL_MS ? cached.actor : null;
+  if (!actor) {
+    actor = await resolveActor(requestHeaders);
+    if (key) {
+      if (actor) {
+        if (actorCache.size >= MAX_CACHED_ACTORS) actorCache.clear();
+        actorCache.set(key, { actor, at: now });
+      } else actorCache.delete(key);
+    }
+  }
+  if (!actor) return null;
+  const forwarded = requestHeaders.get("x-forwarded-for");
+  return { ...actor, ipAddress: forwarded ? forwarded.split(",")[0].trim() : null };
 }
 
 export async function currentActor(): Promise<Actor | null> {
