@@ -2,7 +2,7 @@
 // browser is launched on first use and kept for later jobs, at most MAX_PAGES pages render at once,
 // every job has a deadline, an idle browser is closed after a while, and it dies with the process.
 import { rmSync } from "node:fs";
-import { mkdtemp } from "node:fs/promises";
+import { mkdtemp, rm } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
 import puppeteer, { type Browser } from "puppeteer-core";
@@ -51,6 +51,22 @@ function installExitHook(): void {
   process.once("exit", killNow);
 }
 
+// Removing a chromium profile never throws: chromium may still be writing into it while it closes
+// (ENOTEMPTY), and an error thrown from an event handler would bring the whole server down.
+function removeProfileNow(dir: string): void {
+  try {
+    rmSync(dir, { recursive: true, force: true });
+  } catch {
+    /* the exit hook cannot wait; the OS's temp cleaning takes the rest */
+  }
+}
+
+function removeProfileLater(dir: string): void {
+  rm(dir, { recursive: true, force: true, maxRetries: 5, retryDelay: 100 }).catch((error: unknown) => {
+    console.warn("[benchwarden] could not remove the chromium profile", dir, error instanceof Error ? error.message : error);
+  });
+}
+
 let lastBrowser: Browser | null = null;
 function killNow(): void {
   try {
@@ -58,7 +74,7 @@ function killNow(): void {
   } catch {
     /* already gone */
   }
-  if (state.userDataDir) rmSync(state.userDataDir, { recursive: true, force: true });
+  if (state.userDataDir) removeProfileNow(state.userDataDir);
 }
 
 async function launch(): Promise<Browser> {
@@ -82,7 +98,7 @@ async function launch(): Promise<Browser> {
     if (lastBrowser === browser) {
       state.browser = null;
       lastBrowser = null;
-      rmSync(userDataDir, { recursive: true, force: true });
+      removeProfileLater(userDataDir);
     }
   });
   return browser;

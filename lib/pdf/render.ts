@@ -1,6 +1,6 @@
 // renderPdf: opens a page of the app in the shared chromium with the requesting user's session cookie
 // and prints it to PDF (A4 or Letter) with page numbers and the "uncontrolled when printed" footer.
-import type { Page } from "puppeteer-core";
+import type { Page, PDFOptions } from "puppeteer-core";
 import { PdfTimeoutError, withPage } from "./browser-pool";
 
 export type Paper = "A4" | "Letter";
@@ -50,6 +50,19 @@ async function load(page: Page, url: string, options: RenderOptions, timeoutMs: 
   await page.evaluate(() => document.fonts.ready.then(() => undefined));
 }
 
+/** The print settings of every sheet (paper, margins, running header and footer); the benchmark prints a blank page with the same. */
+export function printOptions(options: RenderOptions, timeoutMs = options.timeoutMs ?? DEFAULT_TIMEOUT_MS): PDFOptions {
+  return {
+    format: options.paper ?? "A4",
+    printBackground: true,
+    displayHeaderFooter: true,
+    headerTemplate: headerTemplate(options.headerText ?? ""),
+    footerTemplate: footerTemplate(options.footerText ?? UNCONTROLLED_FOOTER),
+    margin: { top: "16mm", bottom: "18mm", left: "15mm", right: "15mm" },
+    timeout: timeoutMs,
+  };
+}
+
 /** Renders the page at url to a PDF. Throws PdfTimeoutError past the deadline, PdfRenderError when the page is wrong. */
 export async function renderPdf(url: string, options: RenderOptions = {}): Promise<Buffer> {
   const timeoutMs = options.timeoutMs ?? DEFAULT_TIMEOUT_MS;
@@ -58,15 +71,7 @@ export async function renderPdf(url: string, options: RenderOptions = {}): Promi
     progress(20, "browser ready");
     await load(page, url, options, timeoutMs);
     progress(60, "page loaded");
-    const pdf = await page.pdf({
-      format: options.paper ?? "A4",
-      printBackground: true,
-      displayHeaderFooter: true,
-      headerTemplate: headerTemplate(options.headerText ?? ""),
-      footerTemplate: footerTemplate(options.footerText ?? UNCONTROLLED_FOOTER),
-      margin: { top: "16mm", bottom: "18mm", left: "15mm", right: "15mm" },
-      timeout: timeoutMs,
-    });
+    const pdf = await page.pdf(printOptions(options, timeoutMs));
     progress(90, "printed");
     return Buffer.from(pdf);
   }, timeoutMs);

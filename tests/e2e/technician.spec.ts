@@ -1,6 +1,8 @@
 // The technician in chromium: downloads the build sheet of a signed-off bench (with progress), starts the
-// build, enters a measured position out of tolerance and sees it flagged, records a mismatching observation
-// and sees the flag, uploads a PNG of the screen, and is refused a text file named .png with a sentence.
+// build, enters a measured position out of tolerance and sees it flagged, then measures every element within
+// tolerance and ticks the whole checklist; records a matching and a mismatching observation and sees each
+// judged; uploads a PNG of the screen, is refused a text file named .png with a sentence, signs the build off,
+// and reads it all back in the bench's trail.
 import { readFileSync } from "node:fs";
 import { expect as baseExpect, test, type Page } from "@playwright/test";
 import pg from "pg";
@@ -13,6 +15,9 @@ const expect = baseExpect.configure({ timeout: 30_000 });
 const shots = "test-results/screenshots";
 const title = `E2E build ${Date.now().toString(36)}`;
 let revisionId = "";
+let benchId = "";
+/** Where sampleBench() puts each element, along the beam. */
+const DRAWN_MM: Record<string, number> = { "laser-1": 0, "lens-1": 100, "iris-1": 400, "screen-1": 1400 };
 
 test.beforeAll(async () => {
   const pool = new pg.Pool({ connectionString: databaseUrl(), max: 1 });
@@ -25,6 +30,7 @@ test.beforeAll(async () => {
     const decided = await call("POST", `/api/revisions/${b.revisionId}/decision`, officer.cookie, { outcome: "approve", contentHash: b.contentHash, password: DEMO_PASSWORD, conditions: "Enclosure closed." });
     if (decided.status !== 201) throw new Error(`not approved: ${decided.text}`);
     revisionId = b.revisionId;
+    benchId = b.benchId;
   } finally {
     await pool.end();
   }
@@ -74,16 +80,58 @@ test("a technician builds a signed-off bench from its sheet and records what was
   await expect(page.getByTestId("tolerance-iris-1")).toContainText("allowed ±2 mm");
   await page.getByTestId("check-element:iris-1").screenshot({ path: `${shots}/technician-3-out-of-tolerance.png` });
 
-  // An observation that does not match: three times the predicted power at the screen.
+  // Every element measured within tolerance (iris-1 corrected to +0.5 mm).
+  for (const [id, mm] of Object.entries(DRAWN_MM)) {
+    const input = page.getByLabel(`Measured position of ${id} (mm)`);
+    await input.fill(String(mm + 0.5));
+    await input.press("Enter");
+    await expect(page.getByTestId(`tolerance-${id}`)).toContainText("within ±2 mm (+0.5 mm)");
+  }
+
+  // Tick every line of the checklist: elements, controls, eyewear.
+  const checklist = page.getByTestId("checklist");
+  const boxes = checklist.getByRole("checkbox");
+  const total = await boxes.count();
+  expect(total).toBeGreaterThanOrEqual(Object.keys(DRAWN_MM).length + 2);
+  for (let i = 0; i < total; i++) {
+    const box = boxes.nth(i);
+    await expect(box).toBeEnabled();
+    // The box shows what the server recorded, so it turns checked once the save is back.
+    if (!(await box.isChecked())) await box.click();
+    await expect(box).toBeChecked();
+  }
+  await expect(checklist).toContainText(`${total} of ${total} ticked`);
+  await expect(page.getByRole("button", { name: "Sign off the build" })).toBeEnabled();
+  await checklist.screenshot({ path: `${shots}/technician-3b-checklist-ticked.png` });
+
+  // The prediction behind iris-1, as the card shows it (pattern diameter, power at the screen).
   const card = page.getByTestId("aperture-iris-1");
-  const predictedPower = Number((await card.locator("dd").nth(3).innerText()).replace(/[^0-9.]/g, ""));
+  const shown = async (n: number) => Number((await card.locator("dd").nth(n).innerText()).replace(/[^0-9.]/g, ""));
+  const predictedDiameter = await shown(2);
+  const predictedPower = await shown(3);
+  expect(predictedDiameter).toBeGreaterThan(0);
+  expect(predictedPower).toBeGreaterThan(0);
   const form = page.getByTestId("observation-form-iris-1");
+
+  // An observation that matches: the predicted diameter and power.
+  await form.getByLabel("Ring pattern diameter (mm)").fill(String(predictedDiameter));
+  await form.getByLabel("Power at the screen (mW)").fill(String(predictedPower));
+  await form.getByLabel("Note").fill("As on the sheet.");
+  await form.getByRole("button", { name: "Record the observation" }).click();
+  await expect(form.getByText("Matches the prediction")).toBeVisible();
+  const matching = card.getByTestId("observation").filter({ hasText: "As on the sheet." });
+  await expect(matching).toContainText("✓ Matches");
+  await expect(matching).not.toContainText("Mismatch");
+
+  // An observation that does not match: three times the predicted power at the screen.
   await form.getByLabel("Power at the screen (mW)").fill(String(Number((predictedPower * 3).toPrecision(3))));
   await form.getByLabel("Note").fill("The pattern looks much brighter than the sheet.");
   await form.getByRole("button", { name: "Record the observation" }).click();
   await expect(form.getByText("Does not match the prediction")).toBeVisible();
-  await expect(card.getByTestId("observation").first()).toContainText("Mismatch");
-  await expect(card.getByTestId("observation").first()).toContainText("Power at the screen: predicted");
+  const mismatching = card.getByTestId("observation").filter({ hasText: "much brighter than the sheet" });
+  await expect(mismatching).toContainText("✕ Mismatch");
+  await expect(mismatching).toContainText("Power at the screen: predicted");
+  await expect(card.getByTestId("observation")).toHaveCount(2);
 
   // A real PNG of the screen is kept and shown beside the prediction.
   const upload = page.getByTestId("upload-form-iris-1");
@@ -99,4 +147,16 @@ test("a technician builds a signed-off bench from its sheet and records what was
   await upload.getByRole("button", { name: "Upload", exact: true }).click();
   await expect(upload.getByRole("alert")).toContainText("is not a PNG, JPEG or PDF file");
   await page.screenshot({ path: `${shots}/technician-5-build-page.png`, fullPage: true });
+
+  // Sign off the build: everything is ticked and within tolerance.
+  await page.getByRole("button", { name: "Sign off the build" }).click();
+  await expect(page.getByText(/Signed off by .+ on \d{4}-\d{2}-\d{2}/)).toBeVisible();
+
+  // The bench's trail shows the rebuild to the technician (review comments are not theirs to read).
+  await page.goto(`/benches/${benchId}/trail`);
+  const trail = page.getByTestId("trail-timeline");
+  await expect(page.getByRole("heading", { name: `Trail of ${title}` })).toBeVisible();
+  for (const words of ["Signed off", "Rebuild started", "Observation recorded", "Photo or file uploaded", "Rebuild completed"]) await expect(trail).toContainText(words);
+  await expect(page.getByTestId("trail-comments-hidden")).toBeVisible();
+  await page.screenshot({ path: `${shots}/technician-6-trail.png`, fullPage: true });
 });

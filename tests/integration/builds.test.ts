@@ -1,6 +1,7 @@
 // The technician's as-built record over HTTP against the running server, the real PostgreSQL and the mail
 // catcher: the list (expired/replaced marked, not startable), starting a build, the checklist with the
 // tolerance, observations with the mismatch flag and its e-mail, uploads checked by content, sign-off, audit rows.
+import { readFileSync } from "node:fs";
 import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { APP_URL, call, DEMO, DEMO_PASSWORD, signIn, waitForMail } from "../support/http";
@@ -159,17 +160,28 @@ describe("one build from start to sign-off", () => {
     expect((await fetch(`${APP_URL}${kept.url}`, { headers: { cookie: cookie.auditor } })).status).toBe(200);
     expect((await fetch(`${APP_URL}${kept.url}`, { headers: { cookie: cookie.researcher } })).status).toBe(403);
 
-    const elf = Buffer.concat([Buffer.from([0x7f, 0x45, 0x4c, 0x46, 2, 1, 1, 0]), Buffer.alloc(200)]);
+    // A real executable (the start of /bin/true, an ELF file) renamed photo.png and declared as image/png.
+    const elf = readFileSync("/bin/true").subarray(0, 8192);
+    expect(elf.subarray(0, 4).toString("latin1")).toBe("\x7fELF");
     const renamed = await upload(build.id, "photo.png", "image/png", elf);
     expect(renamed.status).toBe(400);
-    expect(errorOf(renamed).message).toMatch(/is not a PNG, JPEG or PDF file/);
+    expect(errorOf(renamed).message).toBe(
+      '"photo.png" is not a PNG, JPEG or PDF file (its content says otherwise, whatever its name). Only PNG and JPEG photos and PDF datasheets can be kept.',
+    );
+    expect(errorOf(renamed).fields.map((f) => f.path)).toEqual(["file"]);
     const text = await upload(build.id, "fake.png", "image/png", Buffer.from("this is only text pretending to be a PNG"));
     expect(text.status).toBe(400);
 
-    const big = Buffer.concat([PNG, Buffer.alloc(10 * 1024 * 1024 + 10)]);
+    // Just over the limit, with real PNG bytes: refused for its size, in a sentence that names the limit.
+    const big = Buffer.concat([PNG, Buffer.alloc(10 * 1024 * 1024 + 10 - PNG.length)]);
     const oversize = await upload(build.id, "huge.png", "image/png", big);
     expect(oversize.status).toBe(400);
-    expect(errorOf(oversize).message).toMatch(/at most 10 MB/);
+    expect(errorOf(oversize).message).toMatch(/^The file is 10\.0 MB; files may be at most 10 MB\. /);
+    expect(errorOf(oversize).fields.map((f) => f.path)).toEqual(["file"]);
+    // Far over: refused from the declared length, before the body is read.
+    const huge = await upload(build.id, "huge.png", "image/png", Buffer.concat([PNG, Buffer.alloc(25 * 1024 * 1024)]));
+    expect(huge.status).toBe(400);
+    expect(errorOf(huge).message).toMatch(/^The file is 25\.0 MB; files may be at most 10 MB\. Take a smaller photo or export a smaller PDF\.$/);
 
     const { rows } = await pool.query("select detail from audit_event where action = 'build-upload-stored' and revision_id = $1", [b.revisionId]);
     expect(rows.length).toBe(1);

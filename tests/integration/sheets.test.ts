@@ -1,31 +1,68 @@
 // The build sheet over HTTP against the running server: request a sheet of a signed-off revision, poll the
-// job until it is ready, download the PDF (audited), the second request reuses it, pdftoppm renders page 1,
-// the PDF's text holds every part, the hash and the approval; verification by hash; refusals in words.
+// job until it is ready, download the PDF (audited), the second request reuses it; the PDF's text (pdf.js)
+// holds every part at its position, the hash, the approver and the conditions; pdftoppm renders page 1 for
+// people to look at; verification by hash; refusals in words.
 import { execFileSync } from "node:child_process";
 import { existsSync, mkdirSync, statSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import pg from "pg";
+import { getDocument } from "pdfjs-dist/legacy/build/pdf.mjs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { BenchDocument } from "../../lib/bench/schema";
 import { APP_URL, call, DEMO, DEMO_PASSWORD, signIn } from "../support/http";
 import { createDrawnBench, databaseUrl, labIdByName, sampleBench } from "../support/review-fixtures";
 
 const run = Date.now().toString(36);
 const outDir = path.resolve(import.meta.dirname, "../../test-results/sheets");
+const screenshots = path.resolve(import.meta.dirname, "../../test-results/screenshots");
 let pool: pg.Pool;
 const cookie = {} as Record<"researcher" | "officer" | "technician" | "auditor" | "student", string>;
-let approved: { revisionId: string; contentHash: string; benchId: string };
+let approved: { revisionId: string; contentHash: string; benchId: string; signerName: string };
 const title = `Sheet bench ${run}`;
+const CONDITIONS = `Beam enclosure closed during use; interlock ${run} tested weekly.`;
+
+/** Every element kind of version 1, so the parts list is checked for each. */
+function everyKindBench(t: string): BenchDocument {
+  const base = sampleBench(t);
+  return {
+    ...base,
+    elements: [
+      ...base.elements.filter((e) => e.kind !== "screen"),
+      { id: "nd-1", kind: "filter", positionMm: 250, opticalDensity: 0.5 },
+      { id: "screen-1", kind: "screen", positionMm: 1400 },
+      { id: "block-1", kind: "beam-block", positionMm: 1450 },
+    ],
+  };
+}
+
+/** The text of every page, in reading order, extracted with pdf.js (Mozilla's PDF library, legacy build for Node). */
+async function pdfText(bytes: Buffer): Promise<{ pages: string[]; all: string }> {
+  const doc = await getDocument({ data: new Uint8Array(bytes), isEvalSupported: false, useSystemFonts: false }).promise;
+  const pages: string[] = [];
+  try {
+    for (let n = 1; n <= doc.numPages; n++) {
+      const content = await (await doc.getPage(n)).getTextContent();
+      pages.push(content.items.map((item) => ("str" in item ? `${item.str}${item.hasEOL ? "\n" : ""}` : "")).join(""));
+    }
+  } finally {
+    await doc.destroy();
+  }
+  return { pages, all: pages.join("\n") };
+}
+
+const flat = (text: string) => text.replace(/\s+/g, " ");
+const escapeRe = (text: string) => text.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
 
 type Json = Record<string, unknown>;
 type Sheet = { id: string; state: string; progressPercent: number; error: string | null; downloadUrl: string | null };
 
-async function approvedRevision(t: string) {
+async function approvedRevision(t: string, doc: BenchDocument = sampleBench(t)) {
   const labId = await labIdByName(cookie.researcher, "Coherent Imaging Lab");
-  const b = await createDrawnBench(pool, cookie.researcher, labId, sampleBench(t));
+  const b = await createDrawnBench(pool, cookie.researcher, labId, doc);
   expect((await call("POST", `/api/revisions/${b.revisionId}/submit`, cookie.researcher, { contentHash: b.contentHash })).status).toBe(200);
-  const decided = await call("POST", `/api/revisions/${b.revisionId}/decision`, cookie.officer, { outcome: "approve", contentHash: b.contentHash, password: DEMO_PASSWORD, conditions: "Beam enclosure closed during use." });
+  const decided = await call("POST", `/api/revisions/${b.revisionId}/decision`, cookie.officer, { outcome: "approve", contentHash: b.contentHash, password: DEMO_PASSWORD, conditions: CONDITIONS });
   expect(decided.status, decided.text).toBe(201);
-  return b;
+  return { ...b, signerName: String((decided.json!.decision as Json).signerName) };
 }
 
 async function waitReady(revisionId: string, who: string, paper = "A4"): Promise<{ sheet: Sheet; seen: number[] }> {
@@ -49,8 +86,9 @@ beforeAll(async () => {
     expect(s.status, `${key} signs in`).toBe(200);
     cookie[key] = s.cookie;
   }
-  approved = await approvedRevision(title);
+  approved = await approvedRevision(title, everyKindBench(title));
   mkdirSync(outDir, { recursive: true });
+  mkdirSync(screenshots, { recursive: true });
 }, 60_000);
 
 afterAll(async () => {
@@ -95,22 +133,44 @@ describe("the build sheet PDF", () => {
     expect((again.json!.sheet as Sheet).state).toBe("ready");
   });
 
-  it("renders page 1 with pdftoppm, and its text holds every part, the hash and the approval", () => {
+  it("its text holds every part at its position, the content hash, the approver's name and the conditions", async () => {
+    const { pages, all } = await pdfText(pdf);
+    writeFileSync(path.join(outDir, `sheet-${run}.txt`), all);
+    expect(pages.length).toBeGreaterThanOrEqual(2);
+    const text = flat(all);
+    // The parts list: each element's id, then its kind and its position along the beam.
+    const partsList = flat(all.slice(all.indexOf("Parts list"), all.indexOf("Build order")));
+    expect(partsList.length, "a parts list before the build order").toBeGreaterThan(20);
+    for (const e of everyKindBench(title).elements) {
+      expect(partsList, `${e.id} at ${e.positionMm} mm in the parts list`).toMatch(new RegExp(`${escapeRe(e.id)} [^0-9]*?${e.positionMm} mm`));
+      expect(text, `the build order mounts ${e.id} at ${e.positionMm} mm`).toMatch(new RegExp(`${escapeRe(e.id)} at ${e.positionMm} mm \\(±\\d+ mm\\)`));
+    }
+    // The hash may wrap across lines; on page 1 and in the approval block.
+    expect(pages[0].replace(/\s+/g, "")).toContain(approved.contentHash);
+    expect(all.replace(/\s+/g, "")).toContain(`Contenthash${approved.contentHash}`);
+    // The approval: who signed, in which role, what the signature means, the conditions, the validity.
+    expect(approved.signerName.length).toBeGreaterThan(0);
+    expect(text).toContain(`Officer ${approved.signerName}, Laser safety officer`);
+    expect(text).toContain(`Signed off by ${approved.signerName}`);
+    expect(text).toContain("Meaning Approved for operation as drawn, with the conditions listed.");
+    expect(text).toContain(`Conditions ${CONDITIONS}`);
+    expect(text).toMatch(/Valid until \d{4}-\d{2}-\d{2}/);
+    // Every page: the running footer and its page number.
+    pages.forEach((page, i) => {
+      expect(flat(page)).toContain("Uncontrolled when printed — check the online record");
+      expect(flat(page)).toContain(`Page ${i + 1} of ${pages.length}`);
+    });
+    expect(text).toMatch(/laser safety officer and local regulations decide/);
+  });
+
+  it("renders page 1 to PNG with pdftoppm for people to look at", () => {
     const file = path.join(outDir, `sheet-${run}.pdf`);
     writeFileSync(file, pdf);
-    const prefix = path.join(outDir, `sheet-${run}`);
-    execFileSync("pdftoppm", ["-png", "-r", "60", "-f", "1", "-l", "1", file, prefix]);
-    const png = [`${prefix}-1.png`, `${prefix}-01.png`].find((p) => existsSync(p));
-    expect(png, "pdftoppm wrote page 1").toBeTruthy();
-    expect(statSync(png!).size).toBeGreaterThan(1000);
-    const text = execFileSync("pdftotext", ["-layout", file, "-"]).toString();
-    for (const part of ["laser-1", "lens-1", "iris-1", "screen-1"]) expect(text).toContain(part);
-    expect(text.replace(/\s+/g, "")).toContain(approved.contentHash);
-    expect(text).toContain("Beam enclosure closed during use.");
-    expect(text).toMatch(/Officer/);
-    expect(text).toMatch(/Uncontrolled when printed — check the online record/);
-    expect(text).toMatch(/Page 1 of \d/);
-    expect(text).toMatch(/laser safety officer and local regulations decide/);
+    const prefix = path.join(screenshots, "sheet-page-1");
+    execFileSync("pdftoppm", ["-png", "-r", "90", "-f", "1", "-l", "1", "-singlefile", file, prefix]);
+    const png = `${prefix}.png`;
+    expect(existsSync(png), "pdftoppm wrote page 1").toBe(true);
+    expect(statSync(png).size).toBeGreaterThan(10_000);
   });
 
   it("Letter paper is a separate job", async () => {

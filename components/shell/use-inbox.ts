@@ -1,0 +1,26 @@
+"use client";
+// The "waiting for you" counts: one query shared by every badge and the menu, polled every 30 s and on
+// window focus. The key lives here until lib/api/client.ts's factory gains queryKeys.inbox().
+import { useQuery } from "@tanstack/react-query";
+import { apiFetch } from "@/lib/api/client";
+import type { Inbox } from "@/lib/server/inbox";
+
+export const INBOX_POLL_MS = 30_000;
+export const inboxQueryKey = ["inbox"] as const;
+
+export function inboxQuery() {
+  return {
+    queryKey: inboxQueryKey,
+    queryFn: () => apiFetch<Inbox>("/api/inbox"),
+    refetchInterval: INBOX_POLL_MS,
+    refetchOnWindowFocus: "always" as const,
+    staleTime: 5_000,
+  };
+}
+
+export function useInbox() {
+  return useQuery(inboxQuery());
+}
+
+/** "1 waiting", "3 waiting". */
+export const waitingWords = (count: number) => `${count} waiting`;

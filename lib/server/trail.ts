@@ -1,0 +1,122 @@
+// A bench's trail (revisions, decisions, comments, audit events) as one timeline for everyone who may read
+// the bench, within their lab scope; the auditor's desk shows the same entries (TrailEntry from desk.ts).
+import "server-only";
+import { asc, eq } from "drizzle-orm";
+import { z } from "zod";
+import type { Database } from "@/db";
+import { auditEvent, bench, benchRevision, lab, reviewComment, reviewDecision, user } from "@/db/schema";
+import { rolesAllow } from "@/lib/auth/permissions";
+import { notFound } from "@/lib/errors";
+import { authorize, authorizeLab, type Actor } from "./authorize";
+import type { BenchTrail, TrailEntry } from "./desk";
+import type { LabScope } from "./desk-queries";
+
+export type { BenchTrail, TrailEntry };
+
+/** What the reader's roles leave out: review comments need review:read (technicians do not have it). */
+export type ReaderTrail = BenchTrail & { commentsHidden: boolean };
+
+type BenchHead = { id: string; title: string; labId: string; labName: string; authorName: string; createdAt: Date };
+
+async function benchHead(db: Database, benchId: string): Promise<BenchHead> {
+  if (!z.uuid().safeParse(benchId).success) throw notFound("The bench");
+  const [b] = await db
+    .select({ id: bench.id, title: bench.title, labId: bench.labId, labName: lab.name, authorName: user.name, createdAt: bench.createdAt })
+    .from(bench)
+    .innerJoin(lab, eq(lab.id, bench.labId))
+    .innerJoin(user, eq(user.id, bench.authorId))
+    .where(eq(bench.id, benchId));
+  if (!b) throw notFound("The bench");
+  return b;
+}
+
+/**
+ * The trail's rows for one bench inside the given lab scope; the caller checks the permission (the desk:
+ * audit:read, a bench's reader: bench:read). Outside the scope the bench answers 404, like a missing one.
+ */
+export async function loadBenchTrail(db: Database, scope: LabScope, benchId: string): Promise<BenchTrail> {
+  const b = await benchHead(db, benchId);
+  if (!(scope.allLabs || scope.labIds.includes(b.labId))) throw notFound("The bench");
+  return trailOf(db, b);
+}
+
+async function trailOf(db: Database, b: BenchHead): Promise<BenchTrail> {
+  const benchId = b.id;
+  const [revisions, decisions, comments, events] = await Promise.all([
+    db
+      .select({ id: benchRevision.id, number: benchRevision.number, state: benchRevision.state, contentHash: benchRevision.contentHash, createdAt: benchRevision.createdAt, by: user.name })
+      .from(benchRevision)
+      .leftJoin(user, eq(user.id, benchRevision.createdBy))
+      .where(eq(benchRevision.benchId, benchId))
+      .orderBy(asc(benchRevision.number)),
+    db.select().from(reviewDecision).where(eq(reviewDecision.benchId, benchId)).orderBy(asc(reviewDecision.decidedAt)),
+    db.select().from(reviewComment).where(eq(reviewComment.benchId, benchId)).orderBy(asc(reviewComment.createdAt)),
+    db
+      .select({ at: auditEvent.at, action: auditEvent.action, revisionId: auditEvent.revisionId, contentHash: auditEvent.contentHash, by: user.name, role: auditEvent.actorRole, detail: auditEvent.detail })
+      .from(auditEvent)
+      .leftJoin(user, eq(user.id, auditEvent.actorId))
+      .where(eq(auditEvent.benchId, benchId))
+      .orderBy(asc(auditEvent.at)),
+  ]);
+  const numberOf = new Map(revisions.map((r) => [r.id, r.number]));
+  const entries: TrailEntry[] = [
+    ...revisions.map((r): TrailEntry => ({ kind: "revision", at: r.createdAt.toISOString(), revisionNumber: r.number, revisionId: r.id, contentHash: r.contentHash, state: r.state, by: r.by })),
+    ...decisions.map(
+      (d): TrailEntry => ({
+        kind: "decision",
+        at: d.decidedAt.toISOString(),
+        revisionNumber: numberOf.get(d.revisionId) ?? 0,
+        revisionId: d.revisionId,
+        contentHash: d.contentHash,
+        outcome: d.outcome,
+        by: d.signerName,
+        role: d.signerRole,
+        meaning: d.meaning,
+        conditions: d.conditions,
+        reason: d.reason,
+        validUntil: d.validUntil?.toISOString() ?? null,
+        stepUpVerified: d.stepUpVerified,
+        hazardClass: (d.hazardSummary as { hazardClass?: { value?: string } } | null)?.hazardClass?.value ?? null,
+      }),
+    ),
+    ...comments.map(
+      (c): TrailEntry => ({ kind: "comment", at: c.createdAt.toISOString(), revisionNumber: numberOf.get(c.revisionId) ?? 0, revisionId: c.revisionId, by: c.authorName, role: c.authorRole, body: c.body, elementId: c.elementId }),
+    ),
+    ...events.map(
+      (e): TrailEntry => ({
+        kind: "event",
+        at: e.at.toISOString(),
+        revisionNumber: e.revisionId ? (numberOf.get(e.revisionId) ?? null) : null,
+        revisionId: e.revisionId,
+        contentHash: e.contentHash,
+        action: e.action,
+        by: e.by,
+        role: e.role,
+        detail: e.detail,
+      }),
+    ),
+  ];
+  const order = { revision: 0, decision: 1, comment: 2, event: 3 } as const;
+  entries.sort((a, b) => a.at.localeCompare(b.at) || order[a.kind] - order[b.kind]);
+  return {
+    bench: { id: b.id, title: b.title, labName: b.labName, authorName: b.authorName, createdAt: b.createdAt.toISOString() },
+    revisions: revisions.map((r) => ({ id: r.id, number: r.number, state: r.state, contentHash: r.contentHash, createdAt: r.createdAt.toISOString() })),
+    entries,
+  };
+}
+
+/** The trail for anyone who may read the bench (bench: read, and a member of its lab unless they see every lab). */
+export async function getReaderTrail(db: Database, actor: Actor, benchId: string): Promise<ReaderTrail> {
+  authorize(actor, { bench: ["read"] });
+  const b = await benchHead(db, benchId);
+  try {
+    authorizeLab(actor, b.labId);
+  } catch {
+    throw notFound("The bench");
+  }
+  const trail = await trailOf(db, b);
+  const commentsHidden = !rolesAllow(actor.roles, { review: ["read"] });
+  if (!commentsHidden) return { ...trail, commentsHidden };
+  // Without review:read the comment bodies stay out; that a comment was written stays in (its audit row).
+  return { ...trail, entries: trail.entries.filter((e) => e.kind !== "comment"), commentsHidden };
+}
