@@ -4,7 +4,7 @@
 // required eyewear OD, per aperture the zone badge, and the finder's screen positions as ticks on the ruler.
 // The view (scale and pan) belongs to the editor; this component reports gestures (wheel, drag, two-finger pinch).
 import Konva from "konva";
-import { useMemo, useRef } from "react";
+import { memo, useMemo, useRef } from "react";
 import { Group, Layer, Line, Rect, Shape, Stage, Text, Circle, Wedge } from "react-konva";
 import type { BenchDocument, BenchElement } from "@/lib/bench/schema";
 import type { KeyedAnalysis } from "@/lib/api/bench-queries";
@@ -86,6 +86,18 @@ export function BenchCanvas(props: BenchCanvasProps) {
     return ticks;
   }, [pxPerMm, visibleMm.from, visibleMm.to]);
 
+  // The same element objects while the view stands still (e.g. during an element drag), so React skips them.
+  const rulerNodes = useMemo(
+    () =>
+      ruler.map((t) => (
+        <Group key={t.x} listening={false}>
+          <Line points={[t.x, RULER_Y, t.x, RULER_Y + (t.major ? 12 : 5)]} stroke={t.major ? THEME.text : THEME.muted} strokeWidth={1} />
+          {t.label !== undefined ? <Text x={t.x + 3} y={RULER_Y + 15} text={t.label} fontSize={12} fill={THEME.muted} /> : null}
+        </Group>
+      )),
+    [ruler],
+  );
+
   const envelope = useMemo(() => {
     const points = analysis?.analysis.envelope ?? [];
     if (points.length < 2) return null;
@@ -155,6 +167,23 @@ export function BenchCanvas(props: BenchCanvasProps) {
     props.onMove(dragPositions(d.start, element.id, node.x() / pxPerMm), d.session);
   };
 
+  // Stable handlers for the memoised element nodes: they read the latest props through a ref.
+  const latest = useRef({ startDrag, moveDrag, props });
+  latest.current = { startDrag, moveDrag, props };
+  const handlers = useMemo<ElementHandlers>(
+    () => ({
+      dragStart: (e) => latest.current.startDrag(e),
+      dragMove: (e, node) => latest.current.moveDrag(e, node),
+      dragEnd: (e, node) => {
+        latest.current.moveDrag(e, node);
+        drag.current = null;
+      },
+      select: (ids) => latest.current.props.onSelect(ids),
+      toggle: (id) => latest.current.props.onToggleSelect(id),
+    }),
+    [],
+  );
+
   // Two fingers: stop any drag (stage pan or element move) and zoom about the fingers' midpoint.
   const touchesOf = (e: Konva.KonvaEventObject<TouchEvent>) => {
     const stage = e.target.getStage();
@@ -205,12 +234,7 @@ export function BenchCanvas(props: BenchCanvasProps) {
         <Rect x={visibleMm.from * pxPerMm} y={RAIL_BAR_Y} width={width} height={7} fill={THEME.raised} stroke={THEME.line} strokeWidth={1} listening={false} />
         {/* ruler */}
         <Line points={[visibleMm.from * pxPerMm, RULER_Y, visibleMm.to * pxPerMm, RULER_Y]} stroke={THEME.muted} strokeWidth={1} listening={false} />
-        {ruler.map((t) => (
-          <Group key={t.x} listening={false}>
-            <Line points={[t.x, RULER_Y, t.x, RULER_Y + (t.major ? 12 : 5)]} stroke={t.major ? THEME.text : THEME.muted} strokeWidth={1} />
-            {t.label !== undefined ? <Text x={t.x + 3} y={RULER_Y + 15} text={t.label} fontSize={12} fill={THEME.muted} /> : null}
-          </Group>
-        ))}
+        {rulerNodes}
         <Text x={-panPx + 6} y={CANVAS_HEIGHT - 16} text="mm along the rail" fontSize={11} fill={THEME.muted} listening={false} />
         {/* dimension lines between neighbours */}
         {sorted.slice(1).map((e, i) => {
@@ -297,59 +321,89 @@ export function BenchCanvas(props: BenchCanvasProps) {
         ))}
       </Layer>
       <Layer>
-        {doc.elements.map((e) => {
-          const selected = selection.includes(e.id);
-          const warnings = warningsById.get(e.id) ?? 0;
-          return (
-            <Group
-              key={e.id}
-              name="element"
-              x={e.positionMm * pxPerMm}
-              y={RAIL_Y}
-              draggable={canEdit}
-              dragBoundFunc={(pos) => ({ x: snapMm((pos.x - panPx) / pxPerMm, snapStepMm) * pxPerMm + panPx, y: RAIL_Y })}
-              onDragStart={() => startDrag(e)}
-              onDragMove={(ev) => moveDrag(e, ev.target)}
-              onDragEnd={(ev) => {
-                moveDrag(e, ev.target);
-                drag.current = null;
-              }}
-              onClick={(ev) => {
-                ev.cancelBubble = true;
-                if (ev.evt.shiftKey) props.onToggleSelect(e.id);
-                else props.onSelect([e.id]);
-              }}
-              onTap={() => props.onSelect([e.id])}
-              onMouseEnter={(ev) => {
-                const c = ev.target.getStage()?.container();
-                if (c) c.style.cursor = canEdit ? "grab" : "pointer";
-              }}
-              onMouseLeave={(ev) => {
-                const c = ev.target.getStage()?.container();
-                if (c) c.style.cursor = "";
-              }}
-            >
-              <Rect x={-26} y={-SYMBOL_HALF_HEIGHT - 6} width={52} height={SYMBOL_HALF_HEIGHT * 2 + 12} fill="rgba(0,0,0,0.001)" />
-              {selected ? (
-                <Rect x={-30} y={-SYMBOL_HALF_HEIGHT - 8} width={60} height={SYMBOL_HALF_HEIGHT * 2 + 16} stroke={THEME.accentStrong} strokeWidth={2} dash={[5, 4]} cornerRadius={4} />
-              ) : null}
-              <CanvasSymbol element={e} apertureHalfPx={e.kind === "aperture" ? (e.diameterMm / 2) * pxPerMm * exaggeration : undefined} />
-              <Line points={[0, SYMBOL_HALF_HEIGHT, 0, RAIL_BAR_Y - RAIL_Y]} stroke={THEME.line} strokeWidth={2} />
-              <Text x={-60} y={LABEL_Y - RAIL_Y} width={120} align="center" text={e.id} fontSize={13} fontStyle={selected ? "bold" : "normal"} fill={selected ? THEME.accentStrong : THEME.text} />
-              <Text x={-60} y={LABEL_Y - RAIL_Y + 16} width={120} align="center" text={shortLabel(e)} fontSize={12} fill={THEME.muted} />
-              {warnings > 0 ? (
-                <Group x={20} y={-SYMBOL_HALF_HEIGHT - 2}>
-                  <Line points={[0, -10, 9, 6, -9, 6]} closed fill={THEME.warn} />
-                  <Text x={-3} y={-5} text="!" fontSize={11} fontStyle="bold" fill={THEME.ink} />
-                </Group>
-              ) : null}
-            </Group>
-          );
-        })}
+        {doc.elements.map((e) => (
+          <ElementNode
+            key={e.id}
+            element={e}
+            selected={selection.includes(e.id)}
+            warnings={warningsById.get(e.id) ?? 0}
+            canEdit={canEdit}
+            pxPerMm={pxPerMm}
+            panPx={panPx}
+            snapStepMm={snapStepMm}
+            exaggeration={exaggeration}
+            handlers={handlers}
+          />
+        ))}
       </Layer>
     </Stage>
   );
 }
+
+type ElementHandlers = {
+  dragStart: (e: BenchElement) => void;
+  dragMove: (e: BenchElement, node: Konva.Node) => void;
+  dragEnd: (e: BenchElement, node: Konva.Node) => void;
+  select: (ids: string[]) => void;
+  toggle: (id: string) => void;
+};
+
+type ElementNodeProps = {
+  element: BenchElement;
+  selected: boolean;
+  warnings: number;
+  canEdit: boolean;
+  pxPerMm: number;
+  panPx: number;
+  snapStepMm: number;
+  exaggeration: number;
+  handlers: ElementHandlers;
+};
+
+/** One element on the rail; memoised, so a drag re-renders only the elements that moved. */
+const ElementNode = memo(function ElementNode({ element: e, selected, warnings, canEdit, pxPerMm, panPx, snapStepMm, exaggeration, handlers }: ElementNodeProps) {
+  return (
+    <Group
+      name="element"
+      x={e.positionMm * pxPerMm}
+      y={RAIL_Y}
+      draggable={canEdit}
+      dragBoundFunc={(pos) => ({ x: snapMm((pos.x - panPx) / pxPerMm, snapStepMm) * pxPerMm + panPx, y: RAIL_Y })}
+      onDragStart={() => handlers.dragStart(e)}
+      onDragMove={(ev) => handlers.dragMove(e, ev.target)}
+      onDragEnd={(ev) => handlers.dragEnd(e, ev.target)}
+      onClick={(ev) => {
+        ev.cancelBubble = true;
+        if (ev.evt.shiftKey) handlers.toggle(e.id);
+        else handlers.select([e.id]);
+      }}
+      onTap={() => handlers.select([e.id])}
+      onMouseEnter={(ev) => {
+        const c = ev.target.getStage()?.container();
+        if (c) c.style.cursor = canEdit ? "grab" : "pointer";
+      }}
+      onMouseLeave={(ev) => {
+        const c = ev.target.getStage()?.container();
+        if (c) c.style.cursor = "";
+      }}
+    >
+      <Rect x={-26} y={-SYMBOL_HALF_HEIGHT - 6} width={52} height={SYMBOL_HALF_HEIGHT * 2 + 12} fill="rgba(0,0,0,0.001)" />
+      {selected ? (
+        <Rect x={-30} y={-SYMBOL_HALF_HEIGHT - 8} width={60} height={SYMBOL_HALF_HEIGHT * 2 + 16} stroke={THEME.accentStrong} strokeWidth={2} dash={[5, 4]} cornerRadius={4} />
+      ) : null}
+      <CanvasSymbol element={e} apertureHalfPx={e.kind === "aperture" ? (e.diameterMm / 2) * pxPerMm * exaggeration : undefined} />
+      <Line points={[0, SYMBOL_HALF_HEIGHT, 0, RAIL_BAR_Y - RAIL_Y]} stroke={THEME.line} strokeWidth={2} />
+      <Text x={-60} y={LABEL_Y - RAIL_Y} width={120} align="center" text={e.id} fontSize={13} fontStyle={selected ? "bold" : "normal"} fill={selected ? THEME.accentStrong : THEME.text} />
+      <Text x={-60} y={LABEL_Y - RAIL_Y + 16} width={120} align="center" text={shortLabel(e)} fontSize={12} fill={THEME.muted} />
+      {warnings > 0 ? (
+        <Group x={20} y={-SYMBOL_HALF_HEIGHT - 2}>
+          <Line points={[0, -10, 9, 6, -9, 6]} closed fill={THEME.warn} />
+          <Text x={-3} y={-5} text="!" fontSize={11} fontStyle="bold" fill={THEME.ink} />
+        </Group>
+      ) : null}
+    </Group>
+  );
+});
 
 /** Diagonal hatching (one direction or crossed) over a box; the caller clips it to the beam. */
 function Hatching({ x1, x2, top, bottom, kind, stroke }: { x1: number; x2: number; top: number; bottom: number; kind: Exclude<HatchKind, "none">; stroke: string }) {

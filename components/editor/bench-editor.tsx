@@ -3,9 +3,9 @@
 // live predictions and the save state. Server data (the draft, the analysis) comes through react-query; the
 // working document is client state with undo/redo (use-editor-state).
 import dynamic from "next/dynamic";
-import { useQuery } from "@tanstack/react-query";
+import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useCallback, useEffect, useMemo, useRef, useState, type DragEvent, type KeyboardEvent } from "react";
-import { draftQuery, type DraftView } from "@/lib/api/bench-queries";
+import { draftQuery, inServiceLasersQuery, type DraftView } from "@/lib/api/bench-queries";
 import { ELEMENT_KINDS, type BenchDocument, type ElementKind } from "@/lib/bench/schema";
 import { StateBadge } from "@/components/ui/state-badge";
 import { ApertureTable } from "./aperture-table";
@@ -18,10 +18,13 @@ import { FinderPanel } from "./finder-panel";
 import { hazardSegments } from "./hazard-bands";
 import { HazardLegend } from "./hazard-legend";
 import { ImportExport } from "./import-export";
+import { LaserPicker, REGISTER_DRAG_TYPE } from "./laser-picker";
 import { KIND_DRAG_TYPE, Palette } from "./palette";
 import { placementFor } from "./placement";
 import { ProfilePanel } from "./profile-panel";
 import { PropertiesPanel } from "./properties-panel";
+import { laserValuesFrom, type RegisterEntry } from "./register-check";
+import { RevisionsPanel } from "./revisions-panel";
 import { SafetyPanel } from "./safety-panel";
 import { SaveStatus } from "./save-status";
 import { useAnalysis, useProfile } from "./use-analysis";
@@ -29,6 +32,7 @@ import { useAutosave } from "./use-autosave";
 import { useEditorState } from "./use-editor-state";
 import { useScreenFinder } from "./use-screen-finder";
 import { fitAll, mmAt, zoomAbout, type View } from "./view";
+import type { ElementPatch } from "./editor-reducer";
 import { sig } from "./format";
 
 const BenchCanvas = dynamic(() => import("./bench-canvas").then((m) => m.BenchCanvas), {
@@ -58,7 +62,9 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
   const [exaggeration, setExaggeration] = useState(40);
   const [width, setWidth] = useState(0);
   const [view, setView] = useState<View | null>(null);
+  const [laserChooserOpen, setLaserChooserOpen] = useState(false);
   const frame = useRef<HTMLDivElement>(null);
+  const queryClient = useQueryClient();
 
   useEffect(() => {
     const el = frame.current;
@@ -89,10 +95,11 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
     return points && envelope.length > 1 ? hazardSegments(points, doc, envelope[envelope.length - 1].positionMm) : [];
   }, [analysis.data, doc]);
 
-  const add = (kind: ElementKind, at?: number) => {
+  const add = (kind: ElementKind, at?: number, values?: ElementPatch) => {
     if (!canEdit) return;
     const positionMm = at ?? placementFor(kind, doc.elements);
-    dispatch({ type: "add", kind, positionMm });
+    dispatch({ type: "add", kind, positionMm, values });
+    if (kind === "laser") setLaserChooserOpen(false);
     // keep the new element in sight
     const x = positionMm * currentView.pxPerMm + currentView.panPx;
     if (width > 0 && (x < 20 || x > width - 20)) setView(fitAll([...doc.elements, { id: "_", kind: "screen", positionMm }], width));
@@ -103,7 +110,10 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
     if (!canEdit || !(ELEMENT_KINDS as readonly string[]).includes(kind)) return;
     e.preventDefault();
     const rect = e.currentTarget.getBoundingClientRect();
-    add(kind, snapMm(mmAt(currentView, e.clientX - rect.left), snapStepMm));
+    // A laser dragged from the register's list carries its entry's id; its values come from the same cached list.
+    const registerId = kind === "laser" ? e.dataTransfer.getData(REGISTER_DRAG_TYPE) : "";
+    const entry = registerId ? queryClient.getQueryData(inServiceLasersQuery(initial.labId).queryKey)?.find((l) => l.id === registerId) : undefined;
+    add(kind, snapMm(mmAt(currentView, e.clientX - rect.left), snapStepMm), entry ? laserValuesFrom(entry) : undefined);
   };
 
   const onKeyDown = (e: KeyboardEvent<HTMLDivElement>) => {
@@ -206,7 +216,11 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
 
       <div className="flex flex-col gap-2 rounded-lg border border-line bg-panel p-2">
         <div className="flex flex-wrap items-center justify-between gap-2">
-          {canEdit ? <Palette onAdd={(k) => add(k)} hasLaser={hasLaser} /> : <span className="px-1 text-sm text-muted">Drawing</span>}
+          {canEdit ? (
+            <Palette onAdd={(k) => add(k)} hasLaser={hasLaser} onLaser={() => setLaserChooserOpen((o) => !o)} laserChooserOpen={laserChooserOpen && !hasLaser} laserChooserId="laser-chooser" />
+          ) : (
+            <span className="px-1 text-sm text-muted">Drawing</span>
+          )}
           <div className="flex flex-wrap items-center gap-1.5">
             {canEdit ? (
               <>
@@ -217,7 +231,7 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
                   ↷ Redo
                 </button>
                 <button type="button" className={BUTTON} onClick={() => dispatch({ type: "duplicate" })} disabled={selection.length === 0} title="Duplicate the selection (Ctrl+D)">
-                  ⧉ Duplicate
+                  ❐ Duplicate
                 </button>
                 <button type="button" className={BUTTON} onClick={() => dispatch({ type: "remove" })} disabled={selection.length === 0} title="Delete the selection (Delete)">
                   ✕ Delete
@@ -226,6 +240,17 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
             ) : null}
           </div>
         </div>
+        {canEdit && laserChooserOpen && !hasLaser ? (
+          <LaserPicker
+            id="laser-chooser"
+            labId={initial.labId}
+            labName={labName}
+            draggable
+            onPick={(entry: RegisterEntry) => add("laser", undefined, laserValuesFrom(entry))}
+            onAdHoc={() => add("laser")}
+            onClose={() => setLaserChooserOpen(false)}
+          />
+        ) : null}
         <div className="flex flex-wrap items-center gap-x-4 gap-y-2 px-1 text-sm">
           {canEdit ? (
             <label className="flex items-center gap-2">
@@ -315,7 +340,8 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
             onSelect={(ids) => dispatch({ type: "select", ids })}
             onToggle={(id) => dispatch({ type: "toggle-select", id })}
           />
-          <PropertiesPanel selected={selected} canEdit={canEdit} dispatch={dispatch} warnings={elementWarnings} />
+          <PropertiesPanel selected={selected} canEdit={canEdit} dispatch={dispatch} warnings={elementWarnings} labId={initial.labId} labName={labName} />
+          <RevisionsPanel benchId={benchId} canEdit={canEdit} doc={doc} base={save.base} saveState={save.state} onMade={save.adopt} />
           <ChangesSinceReview benchId={benchId} doc={doc} />
         </div>
         <div className="flex flex-col gap-4">

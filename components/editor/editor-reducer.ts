@@ -17,9 +17,22 @@ export type EditorState = {
   lastCoalesce: string | null;
 };
 
+/** Field values to set on an element; undefined removes an optional field (e.g. registerId for an ad hoc laser). */
+export type ElementPatch = Partial<Record<string, number | string | undefined>>;
+
+function applyPatch(element: BenchElement, patch: ElementPatch): BenchElement {
+  const next = { ...element } as Record<string, unknown>;
+  for (const [k, v] of Object.entries(patch)) {
+    if (k === "id" || k === "kind") continue;
+    if (v === undefined) delete next[k];
+    else next[k] = k === "positionMm" && typeof v === "number" ? roundMm(v) : v;
+  }
+  return next as BenchElement;
+}
+
 export type EditorAction =
-  | { type: "add"; kind: ElementKind; positionMm: number }
-  | { type: "update"; id: string; patch: Partial<Record<string, number | undefined>>; coalesce?: string }
+  | { type: "add"; kind: ElementKind; positionMm: number; values?: ElementPatch }
+  | { type: "update"; id: string; patch: ElementPatch; coalesce?: string }
   | { type: "set-positions"; positions: Record<string, number>; coalesce?: string }
   | { type: "nudge"; deltaMm: number }
   | { type: "remove" }
@@ -48,20 +61,13 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
   const { doc } = state;
   switch (action.type) {
     case "add": {
-      const element = newElement(action.kind, action.positionMm, doc.elements);
+      const created = newElement(action.kind, action.positionMm, doc.elements);
+      const element = action.values ? applyPatch(created, action.values) : created;
       return commit(state, withElements(doc, [...doc.elements, element]), null, [element.id]);
     }
     case "update": {
       if (!doc.elements.some((e) => e.id === action.id)) return state;
-      const elements = doc.elements.map((e) => {
-        if (e.id !== action.id) return e;
-        const next = { ...e } as Record<string, unknown>;
-        for (const [k, v] of Object.entries(action.patch)) {
-          if (v === undefined) delete next[k];
-          else next[k] = k === "positionMm" ? roundMm(v) : v;
-        }
-        return next as BenchElement;
-      });
+      const elements = doc.elements.map((e) => (e.id === action.id ? applyPatch(e, action.patch) : e));
       return commit(state, withElements(doc, elements), action.coalesce ?? null);
     }
     case "set-positions": {

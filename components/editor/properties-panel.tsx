@@ -1,9 +1,11 @@
 "use client";
-// Properties of the selected element: one field per number, with its unit, checked against the shared schema.
+// Properties of the selected element: one field per number, with its unit, checked against the shared schema; for the
+// laser also its link to the laser register (register-entry.tsx).
 import type { BenchElement } from "@/lib/bench/schema";
 import { ElementIcon } from "./element-icon";
 import { ELEMENT_SCHEMAS, KIND_INFO } from "./element-kinds";
 import { NumberField } from "./number-field";
+import { RegisterEntryBox } from "./register-entry";
 import type { EditorAction } from "./editor-reducer";
 
 type Props = {
@@ -11,6 +13,8 @@ type Props = {
   canEdit: boolean;
   dispatch: (action: EditorAction) => void;
   warnings: { code: string; message: string }[];
+  labId: string;
+  labName: string;
 };
 
 function checkField(element: BenchElement, key: string) {
@@ -23,7 +27,7 @@ function checkField(element: BenchElement, key: string) {
   };
 }
 
-export function PropertiesPanel({ selected, canEdit, dispatch, warnings }: Props) {
+export function PropertiesPanel({ selected, canEdit, dispatch, warnings, labId, labName }: Props) {
   if (selected.length === 0) {
     return (
       <section aria-labelledby="props-heading" className="rounded-lg border border-line bg-panel p-4">
@@ -50,6 +54,11 @@ export function PropertiesPanel({ selected, canEdit, dispatch, warnings }: Props
         <ElementIcon kind={element.kind} size={24} diverging={element.kind === "lens" && element.focalLengthMm < 0} />
         {info.label} <span className="font-mono text-base font-normal text-muted">{element.id}</span>
       </h2>
+      {element.kind === "laser" ? (
+        <div className="mb-3">
+          <RegisterEntryBox laser={element} labId={labId} labName={labName} canEdit={canEdit} dispatch={dispatch} />
+        </div>
+      ) : null}
       <div className="grid gap-3">
         {info.fields.map((f) => (
           <NumberField

@@ -94,6 +94,16 @@ export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocum
     return conflict.current.document;
   }, [conflict, queryClient, benchId]);
 
+  /** A new working draft made elsewhere in the editor (e.g. "make a revision"): the edit is based on it from now on. */
+  const adopt = useCallback(
+    (draft: DraftView) => {
+      queryClient.setQueryData(queryKeys.draft(benchId), draft);
+      setBase(baseOf(draft));
+      setConflict(null);
+    },
+    [queryClient, benchId],
+  );
+
   let state: SaveState;
   if (!canEdit) state = { kind: "read-only" };
   else if (conflict) state = { kind: "conflict", ...conflict };
@@ -103,5 +113,5 @@ export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocum
   else if (dirty) state = { kind: "pending" };
   else state = { kind: "saved", at: base.updatedAt };
 
-  return { state, base, keepMine, takeTheirs, saveNow };
+  return { state, base, keepMine, takeTheirs, saveNow, adopt };
 }

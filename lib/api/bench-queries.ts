@@ -5,10 +5,11 @@ import type { BenchDocument } from "@/lib/bench/schema";
 import type { BenchAnalysis, ScreenSearch } from "@/lib/optics";
 import type { BenchSafetyAssessment } from "@/lib/safety";
 import type { BenchDetail } from "@/lib/server/benches";
-import type { DraftView } from "@/lib/server/drafts";
+import type { DraftView, FrozenRevision } from "@/lib/server/drafts";
+import type { LaserView } from "@/lib/server/register";
 import { ApiError, apiFetch, queryKeys, type FieldProblem } from "./client";
 
-export type { BenchDetail, DraftView };
+export type { BenchDetail, DraftView, FrozenRevision, LaserView };
 
 export type AnalyzeResponse = { analysis: BenchAnalysis; safety?: BenchSafetyAssessment };
 /** An analysis tagged with the document key it was computed for, so the editor can tell current from stale. */
@@ -119,3 +120,57 @@ export function useCreateBench() {
     onSuccess: () => queryClient.invalidateQueries({ queryKey: queryKeys.benches() }),
   });
 }
+
+export type MakeRevisionRequest = { baseRevision: number; baseVersion: number };
+export type MakeRevisionOutcome = { kind: "made"; draft: DraftView; frozen: FrozenRevision } | { kind: "conflict"; current: DraftView; message: string };
+
+/** POST a "make a revision". A 409 with the server's draft is an answer (stale base); other failures throw ApiError. */
+export async function postRevision(benchId: string, request: MakeRevisionRequest): Promise<MakeRevisionOutcome> {
+  let response: Response;
+  try {
+    response = await fetch(`/api/benches/${benchId}/revisions`, { method: "POST", headers: { "content-type": "application/json" }, body: json(request) });
+  } catch {
+    throw new ApiError("The server cannot be reached; no revision was made. Try again when it answers.", 0, []);
+  }
+  const body = (await response.json().catch(() => null)) as { draft?: DraftView; frozen?: FrozenRevision; current?: DraftView; error?: { message: string; fields?: FieldProblem[] } } | null;
+  if (response.status === 409 && body?.current) return { kind: "conflict", current: body.current, message: body.error?.message ?? "The bench changed after you opened it." };
+  if (!response.ok || !body?.draft || !body.frozen) throw new ApiError(body?.error?.message ?? `The server answered ${response.status}.`, response.status, body?.error?.fields ?? []);
+  return { kind: "made", draft: body.draft, frozen: body.frozen };
+}
+
+export function useMakeRevision(benchId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationKey: ["make-revision", benchId],
+    mutationFn: (request: MakeRevisionRequest) => postRevision(benchId, request),
+    onSuccess: (outcome) => {
+      if (outcome.kind === "made") queryClient.setQueryData(queryKeys.draft(benchId), outcome.draft);
+      void queryClient.invalidateQueries({ queryKey: queryKeys.bench(benchId), exact: true });
+      void queryClient.invalidateQueries({ queryKey: queryKeys.benches(), exact: true });
+    },
+    retry: false,
+  });
+}
+
+// TODO(lead): move these keys into queryKeys in lib/api/client.ts (lasers: (labId, status) => ["lasers", labId, status]).
+const laserKeys = {
+  inService: (labId: string) => ["lasers", labId, "in-service"] as const,
+  one: (laserId: string) => ["lasers", "entry", laserId] as const,
+};
+
+/** The lab's in-service lasers from the register, for the editor's laser picker. */
+export const inServiceLasersQuery = (labId: string) =>
+  queryOptions({
+    queryKey: laserKeys.inService(labId),
+    queryFn: ({ signal }) => apiFetch<{ lasers: LaserView[] }>(`/api/lasers?labId=${encodeURIComponent(labId)}&status=in-service`, { signal }).then((r) => r.lasers),
+    staleTime: 60_000,
+  });
+
+/** One register entry (any status), for the properties of a laser that refers to it. */
+export const laserEntryQuery = (laserId: string) =>
+  queryOptions({
+    queryKey: laserKeys.one(laserId),
+    queryFn: ({ signal }) => apiFetch<LaserView>(`/api/lasers/${encodeURIComponent(laserId)}`, { signal }),
+    staleTime: 60_000,
+    retry: false,
+  });

@@ -1,6 +1,7 @@
-// The working draft of a bench: read it, and save it with optimistic concurrency (revision number + version).
-// A save based on anything but the newest revision's current version is refused with the server's draft; a save
-// on top of a revision that is no longer a draft (submitted, approved, …) starts a new draft revision instead.
+// The working draft of a bench: read it, save it with optimistic concurrency (revision number + version), and make
+// a revision of it. Saves only ever go to the newest revision: a save based on anything but its current version is
+// refused with the server's draft, so an older revision (frozen by "make a revision", or sent for review) can never
+// change; a save on top of a revision that is no longer a draft (submitted, approved, …) starts a new draft revision.
 import "server-only";
 import { desc, eq } from "drizzle-orm";
 import { z } from "zod";
@@ -9,7 +10,7 @@ import { bench, benchRevision, type ReviewState } from "@/db/schema";
 import { rolesAllow } from "@/lib/auth/permissions";
 import { contentHash } from "@/lib/bench/canonical";
 import { benchDocumentSchema, type BenchDocument } from "@/lib/bench/schema";
-import { notFound } from "@/lib/errors";
+import { AppError, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import { authorize, authorizeLab, type Actor } from "./authorize";
 
@@ -36,6 +37,15 @@ export const saveDraftInput = z.object({
   baseVersion: z.number({ error: "baseVersion must be the version the edit started from" }).int().positive(),
 });
 export type SaveDraftInput = z.infer<typeof saveDraftInput>;
+
+export const makeRevisionInput = z.object({
+  baseRevision: z.number({ error: "baseRevision must be the revision number the drawing is based on" }).int().positive(),
+  baseVersion: z.number({ error: "baseVersion must be the version the drawing is based on" }).int().positive(),
+});
+export type MakeRevisionInput = z.infer<typeof makeRevisionInput>;
+
+export type FrozenRevision = { revisionId: string; number: number; contentHash: string };
+export type MakeRevisionResult = { ok: true; draft: DraftView; frozen: FrozenRevision } | { ok: false; current: DraftView };
 
 export type SaveDraftResult = { ok: true; draft: DraftView; createdRevision: boolean } | { ok: false; current: DraftView };
 
@@ -88,6 +98,11 @@ export async function getDraft(db: Database, actor: Actor, benchId: string): Pro
   return view(actor, row, await latestRevision(db, benchId));
 }
 
+/** Only researchers of the bench's lab may change it; officers and auditors see every lab but edit none. */
+function assertMember(actor: Actor, labId: string): void {
+  if (!actor.labIds.includes(labId)) authorizeLab({ ...actor, allLabs: false }, labId);
+}
+
 /**
  * Saves the working draft. Only researchers of the bench's lab may. The bench row is locked for the transaction,
  * so two saves of one bench are serialised and exactly one of two saves based on the same version wins.
@@ -96,11 +111,9 @@ export async function saveDraft(db: Database, actor: Actor, benchId: string, inp
   authorize(actor, { bench: ["edit"] });
   return db.transaction(async (tx) => {
     const row = await visibleBench(tx, actor, benchId, true);
-    if (!actor.labIds.includes(row.labId)) {
-      // Officers and auditors see every lab but edit none; a researcher must belong to the bench's lab.
-      authorizeLab({ ...actor, allLabs: false }, row.labId);
-    }
+    assertMember(actor, row.labId);
     const latest = await latestRevision(tx, benchId);
+    // Only the newest revision takes saves; naming an older (frozen) one is a conflict like any stale version.
     if (latest.number !== input.baseRevision || latest.version !== input.baseVersion) {
       return { ok: false as const, current: view(actor, row, latest) };
     }
@@ -140,5 +153,49 @@ export async function saveDraft(db: Database, actor: Actor, benchId: string, inp
       detail: { number: saved.number, version: saved.version, basedOn: { revision: input.baseRevision, version: input.baseVersion }, elements: document.elements.length },
     });
     return { ok: true as const, draft: view(actor, current, saved), createdRevision };
+  });
+}
+
+/**
+ * "Make a revision": freezes the working draft as it is (it keeps its number, content hash and state "draft", but is
+ * no longer the newest, so no save can reach it) and starts revision n+1 as the new working draft with the same
+ * document. Based on a stale revision or version the answer is the server's draft, as for a save.
+ */
+export async function makeRevision(db: Database, actor: Actor, benchId: string, input: MakeRevisionInput): Promise<MakeRevisionResult> {
+  authorize(actor, { bench: ["edit"] });
+  return db.transaction(async (tx) => {
+    const row = await visibleBench(tx, actor, benchId, true);
+    assertMember(actor, row.labId);
+    const latest = await latestRevision(tx, benchId);
+    if (latest.number !== input.baseRevision || latest.version !== input.baseVersion) {
+      return { ok: false as const, current: view(actor, row, latest) };
+    }
+    if (latest.state !== "draft") {
+      throw new AppError(
+        "conflict",
+        `Revision ${latest.number} is no longer a draft, so it is already fixed as it is; your next change starts revision ${latest.number + 1} on its own.`,
+      );
+    }
+    const document = latest.document as BenchDocument;
+    const complete = benchDocumentSchema.safeParse(document);
+    if (!complete.success) {
+      const first = (complete.error.issues[0]?.message ?? "the drawing is not complete").replace(/\.$/, "");
+      throw new AppError("bad-request", `Revision ${latest.number} cannot be made into a revision yet: ${first}.`);
+    }
+    const [created] = await tx
+      .insert(benchRevision)
+      .values({ benchId, number: latest.number + 1, document, contentHash: latest.contentHash, state: "draft", version: 1, createdBy: actor.userId })
+      .returning();
+    await recordAudit(tx, {
+      actorId: actor.userId,
+      actorRole: actor.roles.join(","),
+      action: "revision-made",
+      benchId,
+      revisionId: latest.id,
+      contentHash: latest.contentHash,
+      ipAddress: actor.ipAddress,
+      detail: { number: latest.number, version: latest.version, newDraft: { number: created.number, revisionId: created.id }, elements: document.elements.length },
+    });
+    return { ok: true as const, draft: view(actor, row, created), frozen: { revisionId: latest.id, number: latest.number, contentHash: latest.contentHash } };
   });
 }

@@ -3,9 +3,11 @@
 // watches the zone count follow, undoes and redoes, moves by keyboard, reloads and finds it saved. Also: the
 // read-only view for an officer, a conflict between two sessions, an import with field errors, the finder's ticks
 // (move the screen to a dark, then a bright centre), the beam patterned by required eyewear OD with its legend,
-// what changed since the last review, and a two-finger pinch on a touch screen.
+// what changed since the last review, and a two-finger pinch on a touch screen. Finally the issue's own bench: a laser
+// from the register, a diverging lens, a 2 mm aperture and a screen, the screen moved until the centre turns from
+// bright to dark, revisions made, a reload, and the compare page marking the moved screen.
 // Screenshots go to test-results/screenshots/editor-*.png.
-import { expect, test, type Browser, type Page } from "@playwright/test";
+import { expect, request as playwrightRequest, test, type Browser, type Page } from "@playwright/test";
 
 const PASSWORD = "northmere-demo-2026";
 const RAIL_Y_PX = 190; // the optical axis inside the drawing (components/editor/bench-canvas.tsx)
@@ -53,8 +55,9 @@ test("a researcher draws, tunes and saves a bench", async ({ page }) => {
   await expect(page.getByTestId("bench-editor")).toBeVisible({ timeout: 60_000 });
   await expect(page.getByText("The rail is empty")).toBeVisible();
 
-  // Palette: click a laser and an aperture onto the rail, drag a screen onto it.
+  // Palette: click a laser (ad hoc, from the laser chooser) and an aperture onto the rail, drag a screen onto it.
   await page.getByTestId("palette-laser").click();
+  await page.getByTestId("laser-ad-hoc").click();
   await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 15_000 });
   await page.getByTestId("palette-aperture").click();
   const dropAt = await canvasPointFor(page, 600);
@@ -287,4 +290,148 @@ test("two fingers pinch the drawing on a touch screen", async ({ browser }) => {
   await expect.poll(async () => Number(await frame.getAttribute("data-px-per-mm"))).toBeGreaterThan(before * 2.2);
   await page.screenshot({ path: "test-results/screenshots/editor-tablet-pinched.png", fullPage: false });
   await context.close();
+});
+
+const REGISTER_MODEL = "Northmere Optics HN-10 (editor e2e)";
+
+/** The Coherent Imaging Lab's in-service HeNe for this test, entered by the officer once (found again on later runs). */
+async function ensureRegisterLaser(baseURL: string): Promise<{ id: string; labId: string }> {
+  const api = await playwrightRequest.newContext({ baseURL, extraHTTPHeaders: { origin: baseURL, "x-forwarded-for": "198.51.100.77" } });
+  try {
+    const signedIn = await api.post("/api/auth/sign-in/email", { data: { email: "officer@northmere.example.edu", password: PASSWORD } });
+    expect(signedIn.status()).toBe(200);
+    const labs = (await (await api.get("/api/labs")).json()) as { labs: { id: string; name: string }[] };
+    const labId = labs.labs.find((l) => l.name === "Coherent Imaging Lab")!.id;
+    const listed = (await (await api.get(`/api/lasers?labId=${labId}&status=in-service`)).json()) as { lasers: { id: string; model: string }[] };
+    const known = listed.lasers.find((l) => l.model === REGISTER_MODEL);
+    if (known) return { id: known.id, labId };
+    const created = await api.post("/api/lasers", {
+      data: { labId, labelClass: "2", wavelengthsNm: [632.8], maxPowerMw: 0.95, beamDiameterMm: 0.8, divergenceMrad: 1.0, model: REGISTER_MODEL, serialNumber: "HN-E2E-1", location: "Harbour Building B214, table 2", status: "in-service" },
+    });
+    expect(created.status(), await created.text()).toBe(201);
+    return { id: ((await created.json()) as { id: string }).id, labId };
+  } finally {
+    await api.dispose();
+  }
+}
+
+async function setField(page: Page, label: string, value: string) {
+  const field = page.getByLabel(label, { exact: true });
+  await field.fill(value);
+  await expect(field).toHaveValue(value);
+}
+
+test("the issue's bench: a register laser, a diverging lens, a 2 mm iris and a screen; bright to dark; revisions; compare", async ({ page, baseURL }) => {
+  const registered = await ensureRegisterLaser(baseURL!);
+  await signIn(page, "researcher@northmere.example.edu");
+  await page.goto("/benches/new", { timeout: 120_000 });
+  await page.getByLabel("Title").fill(`Diverging lens and iris ${Date.now()}`);
+  await page.getByRole("button", { name: "Create and open the editor" }).click();
+  await page.waitForURL(/\/benches\/[0-9a-f-]{36}$/, { timeout: 120_000 });
+  const url = page.url();
+  await expect(page.getByTestId("bench-editor")).toBeVisible({ timeout: 60_000 });
+  const canvas = page.getByTestId("bench-canvas");
+  await expect(canvas.locator("canvas").first()).toBeVisible({ timeout: 30_000 });
+
+  // The laser entry offers the register's in-service lasers (or ad hoc); drag the HeNe onto the rail.
+  await page.getByTestId("palette-laser").click();
+  const entry = page.locator(`[data-testid="register-laser"][data-laser-id="${registered.id}"]`);
+  await expect(entry).toBeVisible({ timeout: 20_000 });
+  await expect(entry).toContainText("632.8 nm");
+  await expect(entry).toContainText("max 0.95 mW");
+  await expect(entry).toContainText("Class 2");
+  await page.screenshot({ path: "test-results/screenshots/editor-laser-chooser.png", fullPage: true });
+  await entry.dragTo(canvas, { targetPosition: { x: 120, y: 120 } });
+  await expect(row(page, "laser-1")).toBeVisible();
+  await expect(page.getByTestId("register-entry-name")).toContainText(REGISTER_MODEL);
+  await expect(page.getByLabel("Wavelength", { exact: true })).toHaveValue("632.8");
+  await expect(page.getByLabel("Power", { exact: true })).toHaveValue("0.95");
+  await expect(page.getByLabel("Beam diameter (1/e², at the waist)")).toHaveValue("0.8");
+  await setField(page, "Position on the rail", "0");
+
+  // More power than the register lists, or a wavelength it does not list: a warning in plain words.
+  await setField(page, "Power", "2");
+  const warnings = page.getByTestId("register-warnings");
+  await expect(warnings.locator('[data-code="power-above-register"]')).toContainText("2 mW is more than this laser can give: the register's maximum");
+  await setField(page, "Wavelength", "532");
+  await expect(warnings.locator('[data-code="wavelength-not-registered"]')).toContainText("532 nm is not a wavelength the register lists");
+  await page.screenshot({ path: "test-results/screenshots/editor-register-warning.png", fullPage: true });
+  await setField(page, "Wavelength", "632.8");
+  await setField(page, "Power", "0.95");
+  await expect(warnings).toHaveCount(0);
+
+  // A diverging lens, a 2 mm aperture and a screen dragged onto the rail, then their values typed in.
+  const frameBox = (await canvas.boundingBox())!;
+  const dropAndSet = async (kind: string, id: string, values: Record<string, string>) => {
+    const at = await canvasPointFor(page, Number(values["Position on the rail"]));
+    const x = Math.min(Math.max(at.x - frameBox.x, 30), frameBox.width - 30);
+    await page.getByTestId(`palette-${kind}`).dragTo(canvas, { targetPosition: { x, y: 120 } });
+    await expect(row(page, id)).toBeVisible();
+    await expect(page.getByTestId("properties")).toContainText(id);
+    for (const [label, value] of Object.entries(values)) await setField(page, label, value);
+  };
+  await dropAndSet("lens", "lens-1", { "Position on the rail": "100", "Focal length": "-50" });
+  await dropAndSet("aperture", "iris-1", { "Position on the rail": "400", Diameter: "2" });
+  await dropAndSet("screen", "screen-1", { "Position on the rail": "1000" });
+  await page.getByRole("button", { name: "Fit all" }).click();
+  await freshPredictions(page);
+  const centre = page.getByTestId("aperture-row-iris-1").getByTestId("centre");
+  await expect(centre).toHaveText("bright");
+  await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 15_000 });
+  await page.screenshot({ path: "test-results/screenshots/editor-issue-bright.png", fullPage: true });
+
+  // Make a revision: revision 1 stays as it is; the drawing goes on in revision 2.
+  await page.getByTestId("make-revision").click();
+  await expect(page.getByTestId("revision-made")).toContainText("Revision 1 is kept as it is");
+  await expect(page.getByTestId("revisions-panel")).toContainText("Revision 2");
+
+  // Drag the screen downstream, a little at a time, until the centre turns dark.
+  let steps = 0;
+  while ((await centre.textContent()) !== "dark") {
+    expect(steps++, "the centre should turn dark within 15 moves").toBeLessThan(15);
+    await canvas.scrollIntoViewIfNeeded();
+    await page.getByRole("button", { name: "Fit all" }).click(); // keep the screen in sight as it goes downstream
+    const from = await canvasPointFor(page, await positionOf(page, "screen-1"));
+    const stepPx = 40 * from.pxPerMm;
+    await page.mouse.move(from.x, from.y);
+    await page.mouse.down();
+    for (let i = 1; i <= 5; i++) await page.mouse.move(from.x + (i * stepPx) / 5, from.y);
+    await page.mouse.up();
+    await freshPredictions(page);
+  }
+  const darkAt = await positionOf(page, "screen-1");
+  expect(darkAt).toBeGreaterThan(1200);
+  await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 15_000 });
+  await page.screenshot({ path: "test-results/screenshots/editor-issue-dark.png", fullPage: true });
+
+  // Make a revision of the dark setup (revision 2 kept; now revision 3), reload: the same drawing and predictions.
+  await page.getByTestId("make-revision").click();
+  await expect(page.getByTestId("revision-made")).toContainText("Revision 2 is kept as it is");
+  await page.reload();
+  await expect(row(page, "screen-1")).toBeVisible({ timeout: 60_000 });
+  await expect(page.getByTestId("revisions-panel")).toContainText("Revision 3");
+  expect(await positionOf(page, "screen-1")).toBe(darkAt);
+  await expect(row(page, "lens-1")).toContainText("f −50 mm");
+  await expect(row(page, "iris-1")).toContainText("⌀ 2 mm");
+  await freshPredictions(page);
+  await expect(centre).toHaveText("dark");
+  await row(page, "laser-1").click();
+  await expect(page.getByTestId("register-entry-name")).toContainText(REGISTER_MODEL);
+  await page.screenshot({ path: "test-results/screenshots/editor-issue-reloaded.png", fullPage: true });
+
+  // Compare revisions 1 and 2 from the editor: the screen is marked as moved, with the distance, in shape and word.
+  await page.getByTestId("compare-from").selectOption("1");
+  await page.getByTestId("compare-to").selectOption("2");
+  await page.getByTestId("compare-link").click();
+  await page.waitForURL(/\/compare\?from=1&to=2$/, { timeout: 60_000 });
+  const after = page.getByTestId("compare-drawing-to");
+  await expect(after.locator('[data-element-id="screen-1"]')).toHaveAttribute("data-mark", "moved");
+  await expect(after.locator('[data-element-id="screen-1"]')).toContainText(`↔ moved +${darkAt - 1000} mm`);
+  await expect(after.locator('[data-ghost-of="screen-1"]')).toHaveCount(1);
+  await expect(page.getByTestId("compare-drawing-from").locator('[data-element-id="screen-1"]')).toContainText("↔ moved");
+  await expect(after.locator('[data-element-id="iris-1"]')).toHaveAttribute("data-mark", "");
+  await expect(page.getByTestId("compare-summary")).toHaveText("1 moved.");
+  await expect(page.getByTestId("revision-diff")).toContainText(`positionMm: 1000 → ${darkAt}`);
+  await page.screenshot({ path: "test-results/screenshots/editor-compare.png", fullPage: true });
+  expect(url).toContain("/benches/");
 });

@@ -1,6 +1,7 @@
 // Saving the working draft over HTTP against the running server: optimistic concurrency (stale save → 409 with
 // the server's draft), who may save (only researchers of the bench's lab), 400 with field paths for a bad
 // document, and a save on top of a submitted revision starting a new draft revision while the old one stays.
+// Making a revision: the draft is frozen (keeps its number and hash, takes no more saves) and revision n+1 starts.
 import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { call, DEMO, signIn, type DemoKey } from "../support/http";
@@ -136,6 +137,105 @@ describe("who may save", () => {
   });
 });
 
+describe("making a revision", () => {
+  let revisionBench = "";
+  const draftOfBench = async (who: DemoKey = "researcher") => {
+    const res = await call("GET", `/api/benches/${revisionBench}/draft`, cookies[who]);
+    expect(res.status).toBe(200);
+    return res.json!.draft as Draft;
+  };
+  const make = (who: DemoKey | undefined, body: unknown, id = revisionBench) => call("POST", `/api/benches/${id}/revisions`, who ? cookies[who] : undefined, body);
+
+  beforeAll(async () => {
+    const created = await call("POST", "/api/benches", cookies.researcher, { labId: imagingLabId, title: `Revision test ${Date.now()}` });
+    expect(created.status).toBe(201);
+    revisionBench = (created.json as { id: string }).id;
+  });
+
+  it("refuses to make a revision of an empty drawing (no laser yet), with a sentence", async () => {
+    const res = await make("researcher", { baseRevision: 1, baseVersion: 1 });
+    expect(res.status).toBe(400);
+    expect((res.json!.error as { message: string }).message).toMatch(/Revision 1 cannot be made into a revision yet: .*laser/);
+    expect((await draftOfBench()).revisionNumber).toBe(1);
+  });
+
+  it("freezes revision 1 and starts revision 2 with the same document", async () => {
+    const saved = await call("PUT", `/api/benches/${revisionBench}/draft`, cookies.researcher, { document: doc(1200), baseRevision: 1, baseVersion: 1 });
+    expect(saved.status).toBe(200);
+    const base = saved.json!.draft as Draft;
+    const res = await make("researcher", { baseRevision: base.revisionNumber, baseVersion: base.version });
+    expect(res.status, res.text).toBe(201);
+    const draft = res.json!.draft as Draft;
+    expect(draft).toMatchObject({ benchId: revisionBench, revisionNumber: 2, version: 1, state: "draft", contentHash: base.contentHash, canEdit: true });
+    expect(draft.document).toEqual(base.document);
+    expect(res.json!.frozen).toMatchObject({ number: 1, contentHash: base.contentHash });
+
+    const bench = await call("GET", `/api/benches/${revisionBench}`, cookies.researcher);
+    const revisions = bench.json!.revisions as { number: number; state: string; contentHash: string; version: number }[];
+    expect(revisions.map((r) => r.number)).toEqual([2, 1]);
+    expect(revisions.find((r) => r.number === 1)).toMatchObject({ state: "draft", contentHash: base.contentHash, version: base.version });
+    expect((await draftOfBench()).revisionNumber).toBe(2);
+  });
+
+  it("refuses saving to the frozen revision's number (409 with the working draft); the frozen one stays as it was", async () => {
+    const frozenBefore = ((await call("GET", `/api/benches/${revisionBench}`, cookies.researcher)).json!.revisions as { number: number; contentHash: string; version: number }[]).find((r) => r.number === 1)!;
+    const res = await call("PUT", `/api/benches/${revisionBench}/draft`, cookies.researcher, { document: doc(777), baseRevision: 1, baseVersion: frozenBefore.version });
+    expect(res.status).toBe(409);
+    expect((res.json!.current as Draft).revisionNumber).toBe(2);
+    const after = ((await call("GET", `/api/benches/${revisionBench}`, cookies.researcher)).json!.revisions as { number: number; contentHash: string; version: number; document: Draft["document"] }[]).find((r) => r.number === 1)!;
+    expect(after).toMatchObject({ contentHash: frozenBefore.contentHash, version: frozenBefore.version });
+    expect(after.document.elements.find((e) => e.id === "screen-1")?.positionMm).toBe(1200);
+
+    // Saves on the new working draft go on as usual, and leave revision 1 alone.
+    const saved = await call("PUT", `/api/benches/${revisionBench}/draft`, cookies.researcher, { document: doc(1350), baseRevision: 2, baseVersion: 1 });
+    expect(saved.status).toBe(200);
+    expect(saved.json!.draft).toMatchObject({ revisionNumber: 2, version: 2 });
+    expect(saved.json!.createdRevision).toBe(false);
+  });
+
+  it("refuses a stale request with 409 and the server's draft, and makes nothing", async () => {
+    const res = await make("researcher", { baseRevision: 2, baseVersion: 1 });
+    expect(res.status).toBe(409);
+    expect((res.json!.error as { code: string }).code).toBe("conflict");
+    expect(res.json!.current).toMatchObject({ revisionNumber: 2, version: 2 });
+    const older = await make("researcher", { baseRevision: 1, baseVersion: 2 });
+    expect(older.status).toBe(409);
+    expect((await draftOfBench()).revisionNumber).toBe(2);
+  });
+
+  it("lets exactly one of two requests based on the same version make a revision", async () => {
+    const base = await draftOfBench();
+    const [a, b] = await Promise.all([
+      make("researcher", { baseRevision: base.revisionNumber, baseVersion: base.version }),
+      make("researcher", { baseRevision: base.revisionNumber, baseVersion: base.version }),
+    ]);
+    expect([a.status, b.status].sort()).toEqual([201, 409]);
+    expect((await draftOfBench()).revisionNumber).toBe(base.revisionNumber + 1);
+  });
+
+  it("answers 400 naming the fields of a bad request", async () => {
+    const res = await make("researcher", { baseRevision: "two" });
+    expect(res.status).toBe(400);
+    const paths = (res.json!.error as { fields: { path: string }[] }).fields.map((f) => f.path);
+    expect(paths).toEqual(expect.arrayContaining(["baseRevision", "baseVersion"]));
+  });
+
+  it("only researchers of the bench's lab may: others get 403, another lab 404, anonymous 401", async () => {
+    const base = await draftOfBench();
+    const body = { baseRevision: base.revisionNumber, baseVersion: base.version };
+    for (const who of ["officer", "auditor", "technician"] as DemoKey[]) {
+      const res = await make(who, body);
+      expect(res.status, who).toBe(403);
+    }
+    const other = await make("student", body);
+    const missing = await make("student", body, "00000000-0000-4000-8000-000000000000");
+    expect(other.status).toBe(404);
+    expect(other.json).toEqual(missing.json);
+    expect((await make(undefined, body)).status).toBe(401);
+    expect((await draftOfBench()).revisionNumber).toBe(base.revisionNumber);
+  });
+});
+
 // Marking a revision submitted needs the database (the review workflow has its own routes); `npm test` sets DATABASE_URL.
 describe.skipIf(!process.env.DATABASE_URL)("saving on top of a submitted revision", () => {
   let pool: pg.Pool;
@@ -164,5 +264,24 @@ describe.skipIf(!process.env.DATABASE_URL)("saving on top of a submitted revisio
 
     const audit = await pool.query("select action from audit_event where bench_id = $1 order by at", [benchId]);
     expect(audit.rows.map((r) => r.action)).toEqual(expect.arrayContaining(["bench-created", "draft-saved", "draft-revision-started"]));
+  });
+
+  it("makes no revision on top of a submitted one (its next save starts it), and records made revisions in the trail", async () => {
+    const current = await draftOf();
+    await pool.query("update bench_revision set state = 'submitted' where bench_id = $1 and number = $2", [benchId, current.revisionNumber]);
+    const submitted = await draftOf();
+    const res = await call("POST", `/api/benches/${benchId}/revisions`, cookies.researcher, { baseRevision: submitted.revisionNumber, baseVersion: submitted.version });
+    expect(res.status).toBe(409);
+    expect((res.json!.error as { message: string }).message).toMatch(/no longer a draft/);
+    expect((await draftOf()).revisionNumber).toBe(submitted.revisionNumber);
+
+    // A save starts the next draft; making a revision of it freezes it and is audited with the frozen hash.
+    const saved = await call("PUT", `/api/benches/${benchId}/draft`, cookies.researcher, { document: doc(1234), baseRevision: submitted.revisionNumber, baseVersion: submitted.version });
+    expect(saved.status).toBe(200);
+    const draft = saved.json!.draft as Draft;
+    const made = await call("POST", `/api/benches/${benchId}/revisions`, cookies.researcher, { baseRevision: draft.revisionNumber, baseVersion: draft.version });
+    expect(made.status).toBe(201);
+    const audit = await pool.query("select action, revision_id, content_hash, detail from audit_event where bench_id = $1 and action = 'revision-made' order by at desc limit 1", [benchId]);
+    expect(audit.rows[0]).toMatchObject({ content_hash: draft.contentHash, detail: expect.objectContaining({ number: draft.revisionNumber, newDraft: expect.objectContaining({ number: draft.revisionNumber + 1 }) }) });
   });
 });
