@@ -57,12 +57,19 @@ async function httpFigures(): Promise<Figure[]> {
     if (analyze.non2xx > 0) throw new Error(`POST /api/analyze answered ${analyze.non2xx} non-2xx responses`);
     const ratio = analyze.requests.average / trivial.requests.average;
     const peakKb = peakMemoryKb(app.pid);
+    // The editor's drag frame time and the build sheet, in chromium against this production server.
+    const { runEditorBench } = await import("./bench-editor");
+    const editor = await runEditorBench(env.APP_URL!, cookie);
+    const { runSheetBench } = await import("./bench-sheet");
+    const sheet = await runSheetBench(env.APP_URL!, cookie);
     // The sign-off desk at scale: 10 000 benches and 100 000+ trail rows in this throwaway database.
     const { seedScale } = await import("./seed-scale");
     const { runDeskBench } = await import("./bench-desk");
     await seedScale(env.DATABASE_URL!);
     const desk = await runDeskBench(env.DATABASE_URL!);
     return [
+      ...editor,
+      ...sheet,
       ...desk,
       { name: "GET /api/health throughput (trivial route)", value: trivial.requests.average, unit: "req/s", target: "reference" },
       { name: "POST /api/analyze throughput (signed in, 4 elements)", value: analyze.requests.average, unit: "req/s", target: "≥ 70 % of the trivial route" },

@@ -6,6 +6,7 @@ export const ACTION_WORDS: Record<string, string> = {
   "bench-created": "Bench created",
   "draft-saved": "Draft saved",
   "draft-revision-started": "New draft revision started",
+  "revision-made": "Revision made",
   "review-submitted": "Sent for review",
   "review-withdrawn": "Withdrawn from review",
   "review-approved": "Signed off",

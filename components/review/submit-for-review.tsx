@@ -31,6 +31,7 @@ export function SubmitForReview({ revisionId, initial }: { revisionId: string; i
       await queryClient.invalidateQueries({ queryKey: revisionQueryKey(revisionId) });
       // The editor reads the bench (its revisions) and the draft under the "benches" keys.
       await queryClient.invalidateQueries({ queryKey: queryKeys.benches() });
+      await queryClient.invalidateQueries({ queryKey: queryKeys.inbox() });
       router.refresh();
     },
   });

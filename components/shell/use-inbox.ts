@@ -1,12 +1,12 @@
 "use client";
 // The "waiting for you" counts: one query shared by every badge and the menu, polled every 30 s and on
-// window focus. The key lives here until lib/api/client.ts's factory gains queryKeys.inbox().
+// window focus. The key comes from the one factory in lib/api/client.ts.
 import { useQuery } from "@tanstack/react-query";
-import { apiFetch } from "@/lib/api/client";
+import { apiFetch, queryKeys } from "@/lib/api/client";
 import type { Inbox } from "@/lib/server/inbox";
 
 export const INBOX_POLL_MS = 30_000;
-export const inboxQueryKey = ["inbox"] as const;
+export const inboxQueryKey = queryKeys.inbox();
 
 export function inboxQuery() {
   return {

@@ -35,6 +35,7 @@ export const queryKeys = {
   bench: (id: string) => ["benches", id] as const,
   analysis: (hash: string) => ["analysis", hash] as const,
   revision: (revisionId: string) => ["revisions", revisionId] as const,
+  inbox: () => ["inbox"] as const,
   draft: (benchId: string) => ["benches", benchId, "draft"] as const,
   profile: (hash: string, apertureId: string) => ["analysis", hash, "profile", apertureId] as const,
 };

@@ -45,6 +45,14 @@ const matrix: Row[] = [
     body: () => ({ name: `Matrix lab ${Math.random().toString(36).slice(2, 8)}`, room: "M1" }),
     expect: { anonymous: 401, researcher: 403, officer: 403, technician: 403, auditor: 403, admin: 201, student: 403 },
   },
+  { label: "what waits for me", method: "GET", path: () => "/api/inbox", expect: { anonymous: 401, researcher: 200, officer: 200, technician: 200, auditor: 200, admin: 200, student: 200 } },
+  {
+    label: "make a revision of a Coherent Imaging Lab bench (stale base: 409 for the author's lab)",
+    method: "POST",
+    path: () => `/api/benches/${imagingBenchId}/revisions`,
+    body: () => ({ baseRevision: 1, baseVersion: 999_999 }),
+    expect: { anonymous: 401, researcher: 409, officer: 403, technician: 403, auditor: 403, admin: 403, student: 404 },
+  },
   { label: "list people", method: "GET", path: () => "/api/people", expect: { anonymous: 401, researcher: 403, officer: 403, technician: 403, auditor: 403, admin: 200, student: 403 } },
   {
     label: "invite a person",

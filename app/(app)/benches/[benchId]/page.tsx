@@ -33,7 +33,15 @@ export default async function BenchPage({ params }: { params: Promise<{ benchId:
       </HydrationBoundary>
       {detail.revisions[0] ? <SubmitForReview revisionId={detail.revisions[0].id} /> : null}
       <section aria-labelledby="revisions-heading">
-        <h2 id="revisions-heading" className="mb-2 text-lg font-semibold">Revisions</h2>
+        <div className="mb-2 flex flex-wrap items-baseline gap-4">
+          <h2 id="revisions-heading" className="text-lg font-semibold">Revisions</h2>
+          <a href={`/benches/${benchId}/trail`}>Full trail of this bench</a>
+          {detail.revisions.length > 1 ? (
+            <a href={`/benches/${benchId}/compare?from=${detail.revisions[1].number}&to=${detail.revisions[0].number}`}>
+              Compare the last two revisions
+            </a>
+          ) : null}
+        </div>
         <ul className="flex flex-col gap-2">
           {detail.revisions.map((r) => (
             <li key={r.id} className="flex flex-wrap items-center gap-3 rounded-lg border border-line bg-panel px-4 py-2">
@@ -45,6 +53,7 @@ export default async function BenchPage({ params }: { params: Promise<{ benchId:
                 </a>
               )}
               <StateBadge state={r.state} />
+              {r.state === "draft" && r.id !== detail.revisions[0].id ? <span className="text-sm text-muted">kept as it was; not the working draft</span> : null}
               <span className="font-mono text-xs text-muted" title="Content hash (SHA-256 of the canonical bench document)">
                 {r.contentHash}
               </span>
