@@ -6,6 +6,7 @@
 //   runEditorBench(appUrl, cookie) → [{ name, value, unit, target }]
 //   CLI: npx tsx scripts/bench-editor.ts [appUrl]   (signs in as the demo researcher)
 import { pathToFileURL } from "node:url";
+import { gzipSync } from "node:zlib";
 import { chromium } from "playwright-core";
 
 type Figure = { name: string; value: number; unit: string; target: string };
@@ -97,7 +98,16 @@ export async function runEditorBench(appUrl: string, cookie: Cookie[] | string):
     const context = await browser.newContext({ viewport: VIEWPORT });
     await context.addCookies(cookies.map((c) => ({ name: c.name, value: c.value, url: base })));
     const page = await context.newPage();
-    await page.goto(`${base}/benches/${benchId}`, { timeout: 180_000 });
+    // First-load JavaScript: every script the route fetches, gzip-compressed here (level 9, as a
+    // server would send it), split into what arrives before the load event and the whole.
+    const scripts: Promise<number>[] = [];
+    let beforeLoad: Promise<number>[] = [];
+    page.on("response", (response) => {
+      if (response.request().resourceType() !== "script") return;
+      scripts.push(response.body().then((body) => gzipSync(body, { level: 9 }).length).catch(() => 0));
+    });
+    await page.goto(`${base}/benches/${benchId}`, { timeout: 180_000, waitUntil: "load" });
+    beforeLoad = [...scripts];
     const frame = page.getByTestId("bench-canvas");
     await frame.locator("canvas").first().waitFor({ timeout: 120_000 });
     await page.locator('button[data-element-row="screen-1"]').waitFor({ timeout: 60_000 });
@@ -105,6 +115,9 @@ export async function runEditorBench(appUrl: string, cookie: Cookie[] | string):
     await page.locator('[data-testid="aperture-row-iris-1"]').waitFor({ timeout: 60_000 });
     await page.locator('[data-testid="predictions"][data-stale="false"]').waitFor({ timeout: 60_000 });
     await frame.scrollIntoViewIfNeeded();
+    const sum = async (list: Promise<number>[]) => (await Promise.all(list)).reduce((a, b) => a + b, 0) / 1024;
+    const firstLoadKb = await sum(beforeLoad);
+    const withCanvasKb = await sum(scripts);
 
     // The element to drag: an iris in the middle of the rail (element 20 of 40).
     const box = (await frame.boundingBox())!;
@@ -147,6 +160,8 @@ export async function runEditorBench(appUrl: string, cookie: Cookie[] | string):
     return [
       { name: `Editor: drag with ${ELEMENTS} elements, p95 frame time (${deltas.length} frames, ${moves} mouse moves)`, value: round2(percentile(sorted, 0.95)), unit: "ms", target: `≤ ${TARGET_MS} ms` },
       { name: `Editor: drag with ${ELEMENTS} elements, median frame time`, value: round2(percentile(sorted, 0.5)), unit: "ms", target: "—" },
+      { name: "Editor route: first-load JavaScript (gzip, scripts before the load event)", value: round2(firstLoadKb), unit: "kB", target: "≤ 350 kB" },
+      { name: "Editor route: all JavaScript once the canvas is drawn (gzip)", value: round2(withCanvasKb), unit: "kB", target: "reference" },
     ];
   } finally {
     await browser.close();
