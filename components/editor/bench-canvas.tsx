@@ -3,8 +3,11 @@
 // dimension lines between neighbours, the elements to drag (with snapping), the beam envelope patterned by the
 // required eyewear OD, per aperture the zone badge, and the finder's screen positions as ticks on the ruler.
 // The view (scale and pan) belongs to the editor; this component reports gestures (wheel, drag, two-finger pinch).
+// An element drag stays inside this component while it lasts (the moving elements' positions as local state, so only
+// the drawing redraws per pointer move: the elements that moved and the dimension lines); the editor hears of it
+// once, on drag end (select the dragged element if needed, then one set-positions: one undo step, one analysis).
 import Konva from "konva";
-import { memo, useMemo, useRef } from "react";
+import { memo, useEffect, useMemo, useRef, useState } from "react";
 import { Group, Layer, Line, Rect, Shape, Stage, Text, Circle, Wedge } from "react-konva";
 import type { BenchDocument, BenchElement } from "@/lib/bench/schema";
 import type { KeyedAnalysis } from "@/lib/api/bench-queries";
@@ -19,6 +22,10 @@ import { clampScale, pinchZoom, touchPair, type View } from "./view";
 
 // Touch moves must reach the stage while it is being dragged, or a second finger could never start a pinch.
 Konva.hitOnDragEnabled = true;
+
+/** A drag started by a finger (which a second finger may turn into a pinch) rather than a mouse or pen. */
+const isTouch = (evt: Event | undefined) =>
+  evt !== undefined && ((typeof TouchEvent !== "undefined" && evt instanceof TouchEvent) || (evt as PointerEvent).pointerType === "touch");
 
 const DIM_Y = 26;
 const RAIL_Y = 190;
@@ -62,11 +69,26 @@ const fmt = (mm: number) => `${Number(mm.toFixed(2))}`;
 export function BenchCanvas(props: BenchCanvasProps) {
   const { doc, selection, analysis, hazardSegments, stale, canEdit, view, width, exaggeration, snapStepMm, finderTicks, finderStale } = props;
   const { pxPerMm, panPx } = view;
-  const drag = useRef<{ session: string; start: Record<string, number> } | null>(null);
+  const drag = useRef<{ session: string; start: Record<string, number>; select: string[] | null; last: Record<string, number> | null } | null>(null);
+  // While an element is dragged: where the moving elements stand now, and the selection the drawing shows (the
+  // dragged element alone when it was not selected; the editor is told on drag end).
+  const [preview, setPreview] = useState<{ positions: Record<string, number> | null; selection: string[] } | null>(null);
+  useEffect(
+    () => () => {
+      Konva.hitOnDragEnabled = true; // should the drawing go away in the middle of a mouse drag
+    },
+    [],
+  );
   const pinch = useRef<{ start: View; distancePx: number; centrePx: number } | null>(null);
 
   const visibleMm = { from: -panPx / pxPerMm, to: (width - panPx) / pxPerMm };
-  const sorted = useMemo(() => [...doc.elements].sort((a, b) => a.positionMm - b.positionMm), [doc.elements]);
+  const previewPositions = preview?.positions ?? null;
+  const shown = useMemo(
+    () => (previewPositions ? doc.elements.map((e) => (e.id in previewPositions ? ({ ...e, positionMm: previewPositions[e.id] } as BenchElement) : e)) : doc.elements),
+    [doc.elements, previewPositions],
+  );
+  const shownSelection = preview?.selection ?? selection;
+  const sorted = useMemo(() => [...shown].sort((a, b) => a.positionMm - b.positionMm), [shown]);
   const warningsById = useMemo(() => {
     const m = new Map<string, number>();
     for (const w of analysis?.analysis.warnings ?? []) if (w.elementId) m.set(w.elementId, (m.get(w.elementId) ?? 0) + 1);
@@ -156,28 +178,49 @@ export function BenchCanvas(props: BenchCanvasProps) {
     props.onViewChange({ pxPerMm: next, panPx: pointer.x - mmAtPointer * next });
   };
 
-  const startDrag = (element: BenchElement) => {
-    if (!selection.includes(element.id)) props.onSelect([element.id]);
-    drag.current = { session: `drag-${Date.now()}-${Math.random().toString(36).slice(2, 7)}`, start: dragStart(doc.elements, selection, element.id) };
+  const startDrag = (element: BenchElement, evt: Event | undefined) => {
+    // A mouse drag needs no pointer events on other shapes while it lasts: Konva then skips redrawing the
+    // elements layer's hit graph every frame (restored on drag end; a touch drag keeps it for the pinch).
+    if (!isTouch(evt)) Konva.hitOnDragEnabled = false;
+    const alreadySelected = selection.includes(element.id);
+    drag.current = {
+      session: `drag-${Date.now()}-${Math.random().toString(36).slice(2, 7)}`,
+      start: dragStart(doc.elements, selection, element.id),
+      select: alreadySelected ? null : [element.id],
+      last: null,
+    };
+    setPreview({ positions: null, selection: alreadySelected ? selection : [element.id] });
   };
 
   const moveDrag = (element: BenchElement, node: Konva.Node) => {
     const d = drag.current;
     if (!d) return;
-    props.onMove(dragPositions(d.start, element.id, node.x() / pxPerMm), d.session);
+    const positions = dragPositions(d.start, element.id, node.x() / pxPerMm);
+    // Snapping reports the same place for many pointer moves: redraw only when something moved.
+    if (d.last && Object.keys(positions).every((id) => d.last![id] === positions[id])) return;
+    d.last = positions;
+    setPreview((p) => ({ positions, selection: p?.selection ?? selection }));
+  };
+
+  const endDrag = (element: BenchElement, node: Konva.Node) => {
+    Konva.hitOnDragEnabled = true;
+    const d = drag.current;
+    if (!d) return;
+    drag.current = null;
+    const positions = dragPositions(d.start, element.id, node.x() / pxPerMm);
+    if (d.select) props.onSelect(d.select);
+    if (Object.keys(positions).some((id) => positions[id] !== d.start[id])) props.onMove(positions, d.session);
+    setPreview(null);
   };
 
   // Stable handlers for the memoised element nodes: they read the latest props through a ref.
-  const latest = useRef({ startDrag, moveDrag, props });
-  latest.current = { startDrag, moveDrag, props };
+  const latest = useRef({ startDrag, moveDrag, endDrag, props });
+  latest.current = { startDrag, moveDrag, endDrag, props };
   const handlers = useMemo<ElementHandlers>(
     () => ({
-      dragStart: (e) => latest.current.startDrag(e),
+      dragStart: (e, evt) => latest.current.startDrag(e, evt),
       dragMove: (e, node) => latest.current.moveDrag(e, node),
-      dragEnd: (e, node) => {
-        latest.current.moveDrag(e, node);
-        drag.current = null;
-      },
+      dragEnd: (e, node) => latest.current.endDrag(e, node),
       select: (ids) => latest.current.props.onSelect(ids),
       toggle: (id) => latest.current.props.onToggleSelect(id),
     }),
@@ -209,52 +252,62 @@ export function BenchCanvas(props: BenchCanvasProps) {
     if (e.evt.touches.length < 2) pinch.current = null;
   };
 
-  return (
-    <Stage
-      width={width}
-      height={CANVAS_HEIGHT}
-      x={panPx}
-      draggable
-      dragBoundFunc={(pos) => ({ x: pos.x, y: 0 })}
-      onDragMove={(e) => {
-        if (e.target === e.target.getStage()) props.onViewChange({ pxPerMm, panPx: e.target.x() });
-      }}
-      onWheel={onWheel}
-      onTouchMove={onTouchMove}
-      onTouchEnd={onTouchEnd}
-      onTouchCancel={onTouchEnd}
-      onClick={(e) => {
-        if (e.target === e.target.getStage() || e.target.name() === "background") props.onSelect([]);
-      }}
-    >
-      <Layer>
+  const onStageDragMove = (e: Konva.KonvaEventObject<DragEvent>) => {
+    if (e.target === e.target.getStage()) props.onViewChange({ pxPerMm, panPx: e.target.x() });
+  };
+  const onStageClick = (e: Konva.KonvaEventObject<MouseEvent>) => {
+    if (e.target === e.target.getStage() || e.target.name() === "background") props.onSelect([]);
+  };
+  // The stage's handlers as stable functions (reading the latest through a ref), so a re-render does not rebind them.
+  const stageLatest = useRef({ onWheel, onTouchMove, onTouchEnd, onStageDragMove, onStageClick });
+  stageLatest.current = { onWheel, onTouchMove, onTouchEnd, onStageDragMove, onStageClick };
+  const stageHandlers = useMemo(
+    () => ({
+      onWheel: (e: Konva.KonvaEventObject<WheelEvent>) => stageLatest.current.onWheel(e),
+      onTouchMove: (e: Konva.KonvaEventObject<TouchEvent>) => stageLatest.current.onTouchMove(e),
+      onTouchEnd: (e: Konva.KonvaEventObject<TouchEvent>) => stageLatest.current.onTouchEnd(e),
+      onDragMove: (e: Konva.KonvaEventObject<DragEvent>) => stageLatest.current.onStageDragMove(e),
+      onClick: (e: Konva.KonvaEventObject<MouseEvent>) => stageLatest.current.onStageClick(e),
+    }),
+    [],
+  );
+
+  // Everything below the elements is built once per change of its own inputs, so an element drag (which changes
+  // only the moving elements and the dimension lines) neither re-renders nor redraws it.
+  const fromPx = visibleMm.from * pxPerMm;
+  const toPx = visibleMm.to * pxPerMm;
+  const backgroundNodes = useMemo(
+    () => (
+      <>
         <Rect name="background" x={-panPx} y={0} width={width} height={CANVAS_HEIGHT} fill={THEME.ink} />
         {/* optical axis and the rail the posts stand on */}
-        <Line points={[visibleMm.from * pxPerMm, RAIL_Y, visibleMm.to * pxPerMm, RAIL_Y]} stroke={THEME.line} strokeWidth={1} dash={[6, 6]} listening={false} />
-        <Rect x={visibleMm.from * pxPerMm} y={RAIL_BAR_Y} width={width} height={7} fill={THEME.raised} stroke={THEME.line} strokeWidth={1} listening={false} />
+        <Line points={[fromPx, RAIL_Y, toPx, RAIL_Y]} stroke={THEME.line} strokeWidth={1} dash={[6, 6]} listening={false} />
+        <Rect x={fromPx} y={RAIL_BAR_Y} width={width} height={7} fill={THEME.raised} stroke={THEME.line} strokeWidth={1} listening={false} />
         {/* ruler */}
-        <Line points={[visibleMm.from * pxPerMm, RULER_Y, visibleMm.to * pxPerMm, RULER_Y]} stroke={THEME.muted} strokeWidth={1} listening={false} />
+        <Line points={[fromPx, RULER_Y, toPx, RULER_Y]} stroke={THEME.muted} strokeWidth={1} listening={false} />
         {rulerNodes}
         <Text x={-panPx + 6} y={CANVAS_HEIGHT - 16} text="mm along the rail" fontSize={11} fill={THEME.muted} listening={false} />
-        {/* dimension lines between neighbours */}
-        {sorted.slice(1).map((e, i) => {
-          const prev = sorted[i];
-          const x1 = prev.positionMm * pxPerMm;
-          const x2 = e.positionMm * pxPerMm;
-          if (x2 - x1 < 2) return null;
-          const label = `${fmt(e.positionMm - prev.positionMm)} mm`;
-          return (
-            <Group key={`dim-${prev.id}-${e.id}`} listening={false}>
-              <Line points={[x1, DIM_Y, x2, DIM_Y]} stroke={THEME.muted} strokeWidth={1} />
-              <Line points={[x1, DIM_Y - 6, x1, DIM_Y + 6]} stroke={THEME.muted} strokeWidth={1} />
-              <Line points={[x2, DIM_Y - 6, x2, DIM_Y + 6]} stroke={THEME.muted} strokeWidth={1} />
-              <Line points={[x1, DIM_Y + 6, x1, RAIL_Y - SYMBOL_HALF_HEIGHT - 4]} stroke={THEME.line} strokeWidth={1} dash={[2, 4]} />
-              {x2 - x1 > 58 ? <Text x={x1} y={DIM_Y - 17} width={x2 - x1} align="center" text={label} fontSize={12} fill={THEME.text} /> : null}
-            </Group>
-          );
-        })}
-      </Layer>
-      <Layer listening={false} opacity={stale ? 0.35 : 1}>
+      </>
+    ),
+    [panPx, width, fromPx, toPx, rulerNodes],
+  );
+
+  // Dimension lines between neighbours: one memoised node per pair, so a drag re-renders only the pairs it changes.
+  const dimensionNodes = useMemo(
+    () =>
+      sorted.slice(1).map((e, i) => {
+        const prev = sorted[i];
+        const x1 = prev.positionMm * pxPerMm;
+        const x2 = e.positionMm * pxPerMm;
+        if (x2 - x1 < 2) return null;
+        return <DimensionLine key={`dim-${prev.id}-${e.id}`} x1={x1} x2={x2} label={`${fmt(e.positionMm - prev.positionMm)} mm`} />;
+      }),
+    [sorted, pxPerMm],
+  );
+
+  const beamNodes = useMemo(
+    () => (
+      <>
         {envelope && hazard.length === 0 ? (
           <>
             <Line points={envelope.outline} closed fill="rgba(111, 214, 200, 0.16)" strokeEnabled={false} />
@@ -311,21 +364,50 @@ export function BenchCanvas(props: BenchCanvasProps) {
             </Group>
           );
         })}
+      </>
+    ),
+    [envelope, hazard, analysis, stale, pxPerMm],
+  );
+
+  const tickNodes = useMemo(
+    () =>
+      ticks.map(({ tick, x, labelY }) => (
+        <Group key={`tick-${tick.goal}-${tick.rank}`} x={x}>
+          <Line points={[0, labelY + 16, 0, RULER_Y + 12]} stroke={THEME.accentStrong} strokeWidth={2} dash={finderStale ? [3, 3] : undefined} />
+          <Text x={-30} y={labelY} width={60} align="center" text={`${CENTRE_SYMBOL[tick.centre]}${tick.zoneCount}`} fontSize={15} fontStyle="bold" fill={THEME.accentStrong} />
+        </Group>
+      )),
+    [ticks, finderStale],
+  );
+
+  return (
+    <Stage
+      width={width}
+      height={CANVAS_HEIGHT}
+      x={panPx}
+      draggable
+      dragBoundFunc={stageDragBound}
+      onDragMove={stageHandlers.onDragMove}
+      onWheel={stageHandlers.onWheel}
+      onTouchMove={stageHandlers.onTouchMove}
+      onTouchEnd={stageHandlers.onTouchEnd}
+      onTouchCancel={stageHandlers.onTouchEnd}
+      onClick={stageHandlers.onClick}
+    >
+      <Layer>{backgroundNodes}</Layer>
+      <Layer listening={false}>{dimensionNodes}</Layer>
+      <Layer listening={false} opacity={stale ? 0.35 : 1}>
+        {beamNodes}
       </Layer>
       <Layer listening={false} opacity={finderStale ? 0.4 : 1}>
-        {ticks.map(({ tick, x, labelY }) => (
-          <Group key={`tick-${tick.goal}-${tick.rank}`} x={x}>
-            <Line points={[0, labelY + 16, 0, RULER_Y + 12]} stroke={THEME.accentStrong} strokeWidth={2} dash={finderStale ? [3, 3] : undefined} />
-            <Text x={-30} y={labelY} width={60} align="center" text={`${CENTRE_SYMBOL[tick.centre]}${tick.zoneCount}`} fontSize={15} fontStyle="bold" fill={THEME.accentStrong} />
-          </Group>
-        ))}
+        {tickNodes}
       </Layer>
       <Layer>
-        {doc.elements.map((e) => (
+        {shown.map((e) => (
           <ElementNode
             key={e.id}
             element={e}
-            selected={selection.includes(e.id)}
+            selected={shownSelection.includes(e.id)}
             warnings={warningsById.get(e.id) ?? 0}
             canEdit={canEdit}
             pxPerMm={pxPerMm}
@@ -340,8 +422,23 @@ export function BenchCanvas(props: BenchCanvasProps) {
   );
 }
 
+const stageDragBound = (pos: { x: number; y: number }) => ({ x: pos.x, y: 0 });
+
+/** A dimension line between two neighbours on the rail, with the distance between them when there is room. */
+const DimensionLine = memo(function DimensionLine({ x1, x2, label }: { x1: number; x2: number; label: string }) {
+  return (
+    <Group listening={false}>
+      <Line points={[x1, DIM_Y, x2, DIM_Y]} stroke={THEME.muted} strokeWidth={1} />
+      <Line points={[x1, DIM_Y - 6, x1, DIM_Y + 6]} stroke={THEME.muted} strokeWidth={1} />
+      <Line points={[x2, DIM_Y - 6, x2, DIM_Y + 6]} stroke={THEME.muted} strokeWidth={1} />
+      <Line points={[x1, DIM_Y + 6, x1, RAIL_Y - SYMBOL_HALF_HEIGHT - 4]} stroke={THEME.line} strokeWidth={1} dash={[2, 4]} />
+      {x2 - x1 > 58 ? <Text x={x1} y={DIM_Y - 17} width={x2 - x1} align="center" text={label} fontSize={12} fill={THEME.text} /> : null}
+    </Group>
+  );
+});
+
 type ElementHandlers = {
-  dragStart: (e: BenchElement) => void;
+  dragStart: (e: BenchElement, evt: Event | undefined) => void;
   dragMove: (e: BenchElement, node: Konva.Node) => void;
   dragEnd: (e: BenchElement, node: Konva.Node) => void;
   select: (ids: string[]) => void;
@@ -369,7 +466,7 @@ const ElementNode = memo(function ElementNode({ element: e, selected, warnings, 
       y={RAIL_Y}
       draggable={canEdit}
       dragBoundFunc={(pos) => ({ x: snapMm((pos.x - panPx) / pxPerMm, snapStepMm) * pxPerMm + panPx, y: RAIL_Y })}
-      onDragStart={() => handlers.dragStart(e)}
+      onDragStart={(ev) => handlers.dragStart(e, ev.evt)}
       onDragMove={(ev) => handlers.dragMove(e, ev.target)}
       onDragEnd={(ev) => handlers.dragEnd(e, ev.target)}
       onClick={(ev) => {
