@@ -124,6 +124,14 @@ export async function runSheetBench(appUrl: string, cookie: string): Promise<Fig
       await page.setContent("<!doctype html><html><head><title>blank</title></head><body></body></html>", { waitUntil: "load" });
       return page.pdf(printOptions({ paper: PAPER, headerText }, TIMEOUT_MS));
     }, TIMEOUT_MS);
+  // For the breakdown only (not part of either figure): the print route's HTML alone, as renderPdf fetches it.
+  const serverRender = async () => {
+    const start = performance.now();
+    const res = await fetch(url, { headers: { cookie }, redirect: "manual" });
+    const html = await res.text();
+    if (!res.ok || !html.includes("data-print-ready")) throw new Error(`The sheet benchmark could not fetch the print route: ${res.status}`);
+    return performance.now() - start;
+  };
   const launchesBefore = poolStats().launches;
   try {
     // Warm-up: launches the browser (if none is running), compiles the print route, fills caches.
@@ -131,10 +139,12 @@ export async function runSheetBench(appUrl: string, cookie: string): Promise<Fig
     await timed(blank);
     const sheetMs: number[] = [];
     const blankMs: number[] = [];
+    const serverMs: number[] = [];
     // Interleaved, so drift in the machine's load falls on both alike.
     for (let i = 0; i < RUNS; i++) {
       blankMs.push(await timed(blank));
       sheetMs.push(await timed(sheet));
+      serverMs.push(await serverRender());
     }
     if (poolStats().launches - launchesBefore > 1) throw new Error("The sheet benchmark's browser was launched more than once; the figures would not be warm.");
     const warm = median(sheetMs);
@@ -144,6 +154,7 @@ export async function runSheetBench(appUrl: string, cookie: string): Promise<Fig
       { name: `build sheet PDF, first render (browser launch + route compile)`, value: coldMs, unit: "ms", target: "reference" },
       { name: `build sheet PDF, warm (median of ${RUNS}, ${PAPER}, 6 elements)`, value: warm, unit: "ms", target: `≤ ${SHEET_TARGET_MS} ms` },
       { name: `blank page PDF, same browser and print settings (median of ${RUNS})`, value: blankMedian, unit: "ms", target: "reference" },
+      { name: `of which: print route server render, HTML alone (median of ${RUNS})`, value: median(serverMs), unit: "ms", target: "reference" },
       { name: "build sheet PDF ÷ blank page PDF", value: Math.round(ratio * 100) / 100, unit: "×", target: `≤ ${RATIO_TARGET}×` },
     ];
   } finally {

@@ -9,6 +9,9 @@ import { ScaleDrawing } from "./scale-drawing";
 const CSS = `
 @page { margin: 16mm 15mm 18mm 15mm; }
 html, body { background: #fff !important; color: #000 !important; }
+/* The app's own font (Inter, shipped from the @fontsource-variable/inter npm package), so the sheet
+   prints the same on every machine whatever fonts the system has. */
+html, body, .sheet svg { font-family: "Inter Variable", sans-serif; }
 body { font-size: 12.5pt; line-height: 1.35; -webkit-print-color-adjust: exact; print-color-adjust: exact; }
 .sheet { max-width: 186mm; margin: 0 auto; color: #000; }
 .sheet a { color: #000; }

@@ -97,6 +97,13 @@ export function ScaleDrawing({ doc }: { doc: BenchDocument }) {
             </g>
           );
         })}
+        {/* extension lines first, so every dimension's label (with its white halo) sits on top of them */}
+        <g stroke="#777" strokeWidth={0.2}>
+          {dims.length ? <line x1={x(datum)} y1={AXIS_Y + 9} x2={x(datum)} y2={dimTop + (dims.length - 1) * ROW_MM + 1.5} /> : null}
+          {dims.map((e, i) => (
+            <line key={`ext-${e.id}`} x1={x(e.positionMm)} y1={AXIS_Y + 9} x2={x(e.positionMm)} y2={dimTop + i * ROW_MM + 1.5} />
+          ))}
+        </g>
         {/* baseline dimensions from the laser */}
         {dims.map((e, i) => {
           const y = dimTop + i * ROW_MM;
@@ -113,8 +120,6 @@ export function ScaleDrawing({ doc }: { doc: BenchDocument }) {
           const anchor = inside ? "middle" : textX > right ? "start" : "end";
           return (
             <g key={`dim-${e.id}`}>
-              <line x1={x1} y1={AXIS_Y + 9} x2={x1} y2={y + 1.5} stroke="#777" strokeWidth={0.2} />
-              <line x1={x0} y1={AXIS_Y + 9} x2={x0} y2={y + 1.5} stroke="#777" strokeWidth={0.2} />
               <line x1={x0} y1={y} x2={x1} y2={y} stroke={TEXT} strokeWidth={0.3} />
               <Arrow x={left} y={y} pointsLeft />
               <Arrow x={right} y={y} pointsLeft={false} />

@@ -1,6 +1,6 @@
 // A minimal PNG encoder (8-bit greyscale, one IDAT, no filtering) for the inline ring images of the build
 // sheet and the build page. Format: PNG specification (W3C, 2nd ed.), chunks with CRC-32 over type+data.
-import { deflateSync } from "node:zlib";
+import zlib, { deflateSync } from "node:zlib";
 
 const CRC_TABLE = (() => {
   const table = new Uint32Array(256);
@@ -13,6 +13,7 @@ const CRC_TABLE = (() => {
 })();
 
 function crc32(bytes: Uint8Array): number {
+  if (typeof zlib.crc32 === "function") return zlib.crc32(bytes) >>> 0; // Node ≥ 20.15: native
   let c = 0xffffffff;
   for (let i = 0; i < bytes.length; i++) c = CRC_TABLE[(c ^ bytes[i]) & 0xff] ^ (c >>> 8);
   return (c ^ 0xffffffff) >>> 0;

@@ -294,6 +294,8 @@ export type SheetContent = {
 };
 
 const RING_PX = 220;
+/** Points of the printed radial profile: a smooth line at 90 mm wide, without a path of a thousand segments. */
+const PROFILE_POINTS = 200;
 const RING_GAMMA = 0.6;
 
 function ringPngFor(doc: BenchDocument, apertureId: string, maxRadiusMm: number): string | null {
@@ -381,13 +383,31 @@ async function registerEntry(db: Database, registerId: string): Promise<Register
   };
 }
 
-/** Everything the printed sheet shows, for a revision that was signed off. */
-export async function sheetContent(db: Database, actor: Actor, revisionId: string): Promise<SheetContent> {
-  authorize(actor, { bench: ["read"] });
-  const r = await loadSignedRevision(db, actor, revisionId);
-  const status = signOffStatus(r);
-  if (status === "not-signed-off") throw new AppError("conflict", signOffSentence(r, status));
-  const doc = r.document;
+// What the sheet shows that follows from the drawing alone (the assessment, parts, build order, the predictions
+// with their ring images, the QR code of the verify link) is computed once per content hash and kept in this
+// process: the hash names the document, so a later print of the same revision (or of a copy with the same
+// content) reuses it. Who may see it, the sign-off's status and the register entry are read on every request.
+type DrawingContent = Pick<SheetContent, "laser" | "parts" | "checklist" | "steps" | "analysis" | "safety" | "problem" | "apertures" | "screen" | "verifyUrl" | "qrSvg">;
+const DRAWING_CACHE_SIZE = 32;
+const drawingCache = new Map<string, Promise<DrawingContent>>();
+
+function drawingContent(doc: BenchDocument, contentHash: string): Promise<DrawingContent> {
+  const url = verifyUrl(contentHash);
+  const key = `${contentHash}\n${url}`;
+  const hit = drawingCache.get(key);
+  if (hit) {
+    drawingCache.delete(key); // most recently used last
+    drawingCache.set(key, hit);
+    return hit;
+  }
+  const made = computeDrawingContent(doc, url);
+  drawingCache.set(key, made);
+  made.catch(() => drawingCache.delete(key));
+  while (drawingCache.size > DRAWING_CACHE_SIZE) drawingCache.delete(drawingCache.keys().next().value!);
+  return made;
+}
+
+async function computeDrawingContent(doc: BenchDocument, url: string): Promise<DrawingContent> {
   const assessed = assessRevision(doc);
   const safety = assessed.ok ? assessed.safety : null;
   const analysis = assessed.ok ? assessed.analysis : null;
@@ -403,7 +423,7 @@ export async function sheetContent(db: Database, actor: Actor, revisionId: strin
     let ringMaxRadiusMm: number | null = null;
     if (a.screenId) {
       try {
-        const s = screenProfile(doc, a.id, { points: 240 });
+        const s = screenProfile(doc, a.id, { points: PROFILE_POINTS });
         profile = { radiusMm: s.radiusMm, relativeIntensity: s.relativeIntensity, shadowRadiusMm: s.shadowRadiusMm };
         ringMaxRadiusMm = s.radiusMm[s.radiusMm.length - 1];
       } catch {
@@ -419,14 +439,9 @@ export async function sheetContent(db: Database, actor: Actor, revisionId: strin
       ringMaxRadiusMm,
     };
   });
-  const url = verifyUrl(r.contentHash);
   const qrSvg = await QRCode.toString(url, { type: "svg", margin: 1, errorCorrectionLevel: "M" });
   return {
-    revision: { id: r.id, number: r.number, contentHash: r.contentHash, benchTitle: r.benchTitle, labName: r.labName, authorName: r.authorName, status, statusSentence: signOffSentence(r, status) },
-    decision: r.decision,
-    document: doc,
     laser,
-    register: laser?.registerId ? { registerId: laser.registerId, entry: await registerEntry(db, laser.registerId) } : null,
     parts,
     checklist: checklistFor(doc, safety),
     steps: buildSteps(doc, safety),
@@ -435,9 +450,27 @@ export async function sheetContent(db: Database, actor: Actor, revisionId: strin
     problem: assessed.ok ? null : assessed.problem,
     apertures,
     screen: predictions.screen,
-    toleranceMm: POSITION_TOLERANCE_MM,
     verifyUrl: url,
     qrSvg,
+  };
+}
+
+/** Everything the printed sheet shows, for a revision that was signed off. */
+export async function sheetContent(db: Database, actor: Actor, revisionId: string): Promise<SheetContent> {
+  authorize(actor, { bench: ["read"] });
+  const r = await loadSignedRevision(db, actor, revisionId);
+  const status = signOffStatus(r);
+  if (status === "not-signed-off") throw new AppError("conflict", signOffSentence(r, status));
+  const doc = r.document;
+  const laser = doc.elements.find((e): e is LaserElement => e.kind === "laser") ?? null;
+  const [drawing, entry] = await Promise.all([drawingContent(doc, r.contentHash), laser?.registerId ? registerEntry(db, laser.registerId) : null]);
+  return {
+    ...drawing,
+    revision: { id: r.id, number: r.number, contentHash: r.contentHash, benchTitle: r.benchTitle, labName: r.labName, authorName: r.authorName, status, statusSentence: signOffSentence(r, status) },
+    decision: r.decision,
+    document: doc,
+    register: laser?.registerId ? { registerId: laser.registerId, entry } : null,
+    toleranceMm: POSITION_TOLERANCE_MM,
   };
 }
 
