@@ -64,6 +64,12 @@ export function zoneRadiiM(wavelengthM: number, zoneCurvaturePerM: number, count
   const k = Math.abs(zoneCurvaturePerM);
   if (!(k > 0) || !Number.isFinite(k)) return [];
   const out: number[] = [];
-  for (let n = 1; n <= count; n++) out.push(Math.sqrt((n * wavelengthM) / k));
+  for (let n = 1; n <= count; n++) {
+    const radiusM = Math.sqrt((n * wavelengthM) / k);
+    // A vanishing net curvature (|k| near the smallest doubles) puts the outer zones at infinity:
+    // list only the zones that have a finite radius.
+    if (!Number.isFinite(radiusM)) break;
+    out.push(radiusM);
+  }
   return out;
 }
