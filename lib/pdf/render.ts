@@ -73,6 +73,10 @@ async function load(page: Page, html: Promise<string>, url: string, options: Ren
   // so "load" is the HTML, its stylesheet and the inline images. puppeteer's own evaluate still works.
   // The session cookie stays in this process: the page's only requests are the app's static files.
   await Promise.all([page.setJavaScriptEnabled(false), page.emulateMediaType("print")]);
+  // The app's font files are fetched in CORS mode: the document must have the app's origin, not
+  // about:blank, or the font shipped with the app is refused and the sheet falls back to a system font.
+  // A same-origin page that costs nothing to serve gives it that origin before the content is set.
+  await page.goto(new URL("/api/health", url).toString(), { waitUntil: "domcontentloaded", timeout: timeoutMs });
   await page.setContent(printableHtml(await html, url), { waitUntil: "load", timeout: timeoutMs });
   // The page marks itself complete; a missing marker means it rendered an error instead.
   const ready = await page.$("[data-print-ready]");
