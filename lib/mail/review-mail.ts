@@ -1,4 +1,4 @@
-// The review workflow's e-mails: submitted, decided, expiry reminders, expired, new comment. Each
+// The review workflow's e-mails: submitted, withdrawn, decided, expiry reminders, expired, new comment. Each
 // has a text and an HTML part, names the bench, the revision and its content hash, and links to it.
 import { env } from "@/lib/env";
 import { escapeHtml, type MailMessage } from "./templates";
@@ -71,6 +71,20 @@ export function reviewSubmittedMail(to: Recipient, ctx: RevisionMailContext): Ma
     paragraphs: [`${ctx.authorName} has sent revision ${ctx.revisionNumber} of "${ctx.benchTitle}" for laser safety review. The laser must stay off until it is signed off.`],
     facts: facts(ctx),
     linkLabel: "Open the review",
+    url: revisionUrl(ctx.revisionId),
+  });
+}
+
+export function reviewWithdrawnMail(to: Recipient, ctx: RevisionMailContext): MailMessage {
+  return compose({
+    to,
+    subject: `No longer waiting for review: ${ctx.benchTitle}, revision ${ctx.revisionNumber}`,
+    title: "A submission was withdrawn",
+    paragraphs: [
+      `${ctx.authorName} has withdrawn revision ${ctx.revisionNumber} of "${ctx.benchTitle}" from review. Nothing is waiting for your decision on it; a new submission will be announced in a new e-mail.`,
+    ],
+    facts: facts(ctx),
+    linkLabel: "Open the revision",
     url: revisionUrl(ctx.revisionId),
   });
 }

@@ -31,6 +31,7 @@ import {
   reviewCommentMail,
   reviewDecisionMail,
   reviewSubmittedMail,
+  reviewWithdrawnMail,
   type Recipient,
   type RevisionMailContext,
 } from "@/lib/mail/review-mail";
@@ -263,6 +264,12 @@ export async function withdrawRevision(db: Database, actor: Actor, revisionId: s
       ipAddress: actor.ipAddress,
       detail: { from: "submitted", to: "withdrawn", number: r.number },
     });
+    // The officers were told it waits; tell them it no longer does, in the same transaction.
+    const ctx = mailContext(r);
+    for (const officer of await usersWithRole(tx, "officer")) {
+      if (officer.id === r.authorId) continue;
+      await enqueueMail(tx, reviewWithdrawnMail(officer, ctx));
+    }
     return { state: "withdrawn" as const };
   });
 }

@@ -200,6 +200,11 @@ describe("illegal moves get 409 with a sentence", () => {
     const w = await call("POST", `/api/revisions/${b.revisionId}/withdraw`, cookie.researcher, {});
     expect(w.status, w.text).toBe(200);
     expect(w.json).toEqual({ state: "withdrawn" });
+    // The officers, told it was waiting, are told it no longer is (text and HTML, the hash, the link).
+    const notice = await waitForMail(DEMO.officer, new RegExp(`No longer waiting for review: Withdraw ${run}`));
+    expect(notice.text).toContain(b.contentHash);
+    expect(notice.text).toContain(`/reviews/${b.revisionId}`);
+    expect(notice.html).toContain("withdrawn");
     const decideWithdrawn = await call("POST", `/api/revisions/${b.revisionId}/decision`, cookie.officer, { outcome: "request-changes", contentHash: b.contentHash, comment: "x" });
     expect(decideWithdrawn.status).toBe(409);
     expect((await call("POST", `/api/revisions/${b.revisionId}/submit`, cookie.researcher, {})).status).toBe(200);
