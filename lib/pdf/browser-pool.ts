@@ -49,6 +49,15 @@ function installExitHook(): void {
   state.exitHookInstalled = true;
   // 'exit' handlers must be synchronous: kill the chromium process and remove its profile.
   process.once("exit", killNow);
+  // A server stopped by a signal may never reach 'exit' (chromium runs in its own process group, so
+  // it would be left behind): stop the browser on the signal too. Where nobody else listens for the
+  // signal, end the process as the default action would have.
+  for (const signal of ["SIGTERM", "SIGINT"] as const) {
+    process.once(signal, () => {
+      killNow();
+      if (process.listenerCount(signal) === 0) process.exit(0);
+    });
+  }
 }
 
 // Removing a chromium profile never throws: chromium may still be writing into it while it closes
