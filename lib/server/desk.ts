@@ -2,12 +2,12 @@
 // bench's whole trail as one timeline, and both as CSV streamed in keyset batches (never built in memory).
 import "server-only";
 import { asc, eq, sql } from "drizzle-orm";
-import { z } from "zod";
 import type { Database } from "@/db";
-import { auditEvent, bench, benchRevision, lab, reviewComment, reviewDecision, user, type ReviewState } from "@/db/schema";
-import { AppError, notFound } from "@/lib/errors";
+import { lab, reviewDecision, type ReviewState } from "@/db/schema";
+import { AppError } from "@/lib/errors";
 import { recordAudit } from "./audit";
-import { authorize, authorizeLab, type Actor } from "./authorize";
+import { authorize, type Actor } from "./authorize";
+import { loadBenchTrail } from "./trail";
 import {
   approvalsCountQuery,
   approvalsCsvStream,
@@ -80,82 +80,10 @@ export type BenchTrail = {
   entries: TrailEntry[];
 };
 
+/** A bench's whole trail for the desk (audit: read; every lab for auditors and officers). */
 export async function getBenchTrail(db: Database, actor: Actor, benchId: string): Promise<BenchTrail> {
   authorize(actor, { audit: ["read"] });
-  if (!z.uuid().safeParse(benchId).success) throw notFound("The bench");
-  const [b] = await db
-    .select({ id: bench.id, title: bench.title, labId: bench.labId, labName: lab.name, authorName: user.name, createdAt: bench.createdAt })
-    .from(bench)
-    .innerJoin(lab, eq(lab.id, bench.labId))
-    .innerJoin(user, eq(user.id, bench.authorId))
-    .where(eq(bench.id, benchId));
-  if (!b) throw notFound("The bench");
-  try {
-    authorizeLab(actor, b.labId);
-  } catch {
-    throw notFound("The bench");
-  }
-  const [revisions, decisions, comments, events] = await Promise.all([
-    db
-      .select({ id: benchRevision.id, number: benchRevision.number, state: benchRevision.state, contentHash: benchRevision.contentHash, createdAt: benchRevision.createdAt, by: user.name })
-      .from(benchRevision)
-      .leftJoin(user, eq(user.id, benchRevision.createdBy))
-      .where(eq(benchRevision.benchId, benchId))
-      .orderBy(asc(benchRevision.number)),
-    db.select().from(reviewDecision).where(eq(reviewDecision.benchId, benchId)).orderBy(asc(reviewDecision.decidedAt)),
-    db.select().from(reviewComment).where(eq(reviewComment.benchId, benchId)).orderBy(asc(reviewComment.createdAt)),
-    db
-      .select({ at: auditEvent.at, action: auditEvent.action, revisionId: auditEvent.revisionId, contentHash: auditEvent.contentHash, by: user.name, role: auditEvent.actorRole, detail: auditEvent.detail })
-      .from(auditEvent)
-      .leftJoin(user, eq(user.id, auditEvent.actorId))
-      .where(eq(auditEvent.benchId, benchId))
-      .orderBy(asc(auditEvent.at)),
-  ]);
-  const numberOf = new Map(revisions.map((r) => [r.id, r.number]));
-  const entries: TrailEntry[] = [
-    ...revisions.map((r): TrailEntry => ({ kind: "revision", at: r.createdAt.toISOString(), revisionNumber: r.number, revisionId: r.id, contentHash: r.contentHash, state: r.state, by: r.by })),
-    ...decisions.map(
-      (d): TrailEntry => ({
-        kind: "decision",
-        at: d.decidedAt.toISOString(),
-        revisionNumber: numberOf.get(d.revisionId) ?? 0,
-        revisionId: d.revisionId,
-        contentHash: d.contentHash,
-        outcome: d.outcome,
-        by: d.signerName,
-        role: d.signerRole,
-        meaning: d.meaning,
-        conditions: d.conditions,
-        reason: d.reason,
-        validUntil: d.validUntil?.toISOString() ?? null,
-        stepUpVerified: d.stepUpVerified,
-        hazardClass: (d.hazardSummary as { hazardClass?: { value?: string } } | null)?.hazardClass?.value ?? null,
-      }),
-    ),
-    ...comments.map(
-      (c): TrailEntry => ({ kind: "comment", at: c.createdAt.toISOString(), revisionNumber: numberOf.get(c.revisionId) ?? 0, revisionId: c.revisionId, by: c.authorName, role: c.authorRole, body: c.body, elementId: c.elementId }),
-    ),
-    ...events.map(
-      (e): TrailEntry => ({
-        kind: "event",
-        at: e.at.toISOString(),
-        revisionNumber: e.revisionId ? (numberOf.get(e.revisionId) ?? null) : null,
-        revisionId: e.revisionId,
-        contentHash: e.contentHash,
-        action: e.action,
-        by: e.by,
-        role: e.role,
-        detail: e.detail,
-      }),
-    ),
-  ];
-  const order = { revision: 0, decision: 1, comment: 2, event: 3 } as const;
-  entries.sort((a, b) => a.at.localeCompare(b.at) || order[a.kind] - order[b.kind]);
-  return {
-    bench: { id: b.id, title: b.title, labName: b.labName, authorName: b.authorName, createdAt: b.createdAt.toISOString() },
-    revisions: revisions.map((r) => ({ id: r.id, number: r.number, state: r.state, contentHash: r.contentHash, createdAt: r.createdAt.toISOString() })),
-    entries,
-  };
+  return loadBenchTrail(db, actor, benchId);
 }
 
 const TRAIL_HEADER = ["at_utc", "kind", "revision", "content_hash", "who", "role", "what", "signature_meaning", "conditions", "valid_until_utc", "detail"];
