@@ -30,8 +30,9 @@ import type { BenchSafetyAssessment } from "@/lib/safety";
 import { statedOd } from "@/lib/safety/cautions";
 import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
-import { authorize, authorizeLab, type Actor } from "./authorize";
+import { authorize, type Actor } from "./authorize";
 import { assessRevision } from "./review-hazard";
+import { loadRevision } from "./reviews";
 
 /** How far a mount may sit from its drawn position and still count as placed (measured along the rail). */
 export const POSITION_TOLERANCE_MM = 2;
@@ -79,40 +80,13 @@ export type SignedRevision = {
 
 /** One revision with its sign-off, as the actor may see it (outside their labs it does not exist). */
 export async function loadSignedRevision(db: DbOrTx, actor: Actor, revisionId: string): Promise<SignedRevision> {
-  if (!z.uuid().safeParse(revisionId).success) throw notFound("The revision");
-  const [row] = await db
-    .select({
-      id: benchRevision.id,
-      benchId: benchRevision.benchId,
-      number: benchRevision.number,
-      state: benchRevision.state,
-      contentHash: benchRevision.contentHash,
-      document: benchRevision.document,
-      benchTitle: bench.title,
-      labId: bench.labId,
-      labName: lab.name,
-      authorId: bench.authorId,
-      authorName: user.name,
-      authorEmail: user.email,
-    })
-    .from(benchRevision)
-    .innerJoin(bench, eq(bench.id, benchRevision.benchId))
-    .innerJoin(lab, eq(lab.id, bench.labId))
-    .innerJoin(user, eq(user.id, bench.authorId))
-    .where(eq(benchRevision.id, revisionId));
-  if (!row) throw notFound("The revision");
-  try {
-    authorizeLab(actor, row.labId);
-  } catch {
-    throw notFound("The revision");
-  }
+  const row = await loadRevision(db, actor, revisionId);
   const [d] = await db
     .select()
     .from(reviewDecision)
     .where(and(eq(reviewDecision.revisionId, row.id), eq(reviewDecision.outcome, "approved")));
   return {
     ...row,
-    document: row.document as BenchDocument,
     decision: d
       ? { signerName: d.signerName, signerRole: d.signerRole, meaning: d.meaning, conditions: d.conditions, validUntil: d.validUntil, decidedAt: d.decidedAt, contentHash: d.contentHash }
       : null,

@@ -110,7 +110,8 @@ type RevisionRow = {
   authorEmail: string;
 };
 
-async function loadRevision(db: DbOrTx, actor: Actor, revisionId: string, lock = false): Promise<RevisionRow> {
+/** One revision with its bench, lab and author; outside the actor's labs it does not exist (404). */
+export async function loadRevision(db: DbOrTx, actor: Actor, revisionId: string, lock = false): Promise<RevisionRow> {
   if (!z.uuid().safeParse(revisionId).success) throw notFound("The revision");
   const query = db
     .select({
