@@ -2,7 +2,7 @@
 // build served on :3100, then every test — vitest (unit, integration, HTTP) and Playwright in
 // Debian's chromium. Ends with one plain line "N passed, N failed"; non-zero exit on any failure.
 import { spawnSync } from "node:child_process";
-import { existsSync, mkdirSync, readFileSync, rmSync } from "node:fs";
+import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { buildIfStale } from "./lib/build";
 import { stopCluster } from "./lib/postgres";
@@ -14,6 +14,12 @@ const dataDir = path.join(ROOT, ".data/test");
 const resultsDir = path.join(ROOT, "test-results");
 
 type Counts = { passed: number; failed: number };
+
+// For working on one area: BW_VITEST_FILTER / BW_PLAYWRIGHT_FILTER hold space-separated file filters
+// passed on to vitest and Playwright ("none" skips Playwright). CI sets neither and runs everything.
+const words = (value: string | undefined): string[] => (value ?? "").split(/\s+/).filter(Boolean);
+const vitestFilter = words(process.env.BW_VITEST_FILTER);
+const playwrightFilter = words(process.env.BW_PLAYWRIGHT_FILTER);
 
 function vitestCounts(file: string): Counts {
   if (!existsSync(file)) return { passed: 0, failed: 1 };
@@ -54,9 +60,14 @@ async function main(): Promise<number> {
     log("type check of the whole project (tsc --noEmit)");
     typecheck = run(path.join(ROOT, "node_modules/.bin/tsc"), ["--noEmit", "-p", "tsconfig.json"], testEnv) === 0 ? { passed: 1, failed: 0 } : { passed: 0, failed: 1 };
     log("vitest: unit, integration and HTTP tests");
-    run(path.join(ROOT, "node_modules/.bin/vitest"), ["run", "--reporter=default", "--reporter=json", `--outputFile.json=${path.join(resultsDir, "vitest.json")}`], testEnv);
-    log("Playwright: end-to-end tests in /usr/bin/chromium");
-    run(path.join(ROOT, "node_modules/.bin/playwright"), ["test"], testEnv);
+    run(path.join(ROOT, "node_modules/.bin/vitest"), ["run", "--reporter=default", "--reporter=json", `--outputFile.json=${path.join(resultsDir, "vitest.json")}`, ...vitestFilter], testEnv);
+    if (playwrightFilter[0] === "none") {
+      log("Playwright skipped (BW_PLAYWRIGHT_FILTER=none)");
+      writeFileSync(path.join(resultsDir, "playwright.json"), JSON.stringify({ stats: { expected: 0, unexpected: 0, flaky: 0 } }));
+    } else {
+      log("Playwright: end-to-end tests in /usr/bin/chromium");
+      run(path.join(ROOT, "node_modules/.bin/playwright"), ["test", ...playwrightFilter], testEnv);
+    }
   } finally {
     await stopChildren();
     stopCluster(cluster);
