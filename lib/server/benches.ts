@@ -139,14 +139,11 @@ export async function createBench(db: Database, actor: Actor, input: z.infer<typ
       .insert(benchRevision)
       .values({ benchId: created.id, number: 1, document, contentHash: contentHash(document), createdBy: actor.userId })
       .returning({ id: benchRevision.id });
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: actor.roles.join(","),
+    await recordAudit(tx, actor, {
       action: "bench-created",
       benchId: created.id,
       revisionId: revision.id,
       contentHash: contentHash(document),
-      ipAddress: actor.ipAddress,
       detail: { title: input.title },
     });
     return created;

@@ -48,7 +48,7 @@ export async function deskFilterOptions(db: Database, actor: Actor): Promise<{ l
 export async function exportApprovalsCsv(db: Database, actor: Actor, q: DeskQuery, now = new Date()): Promise<ReadableStream<Uint8Array>> {
   authorize(actor, { audit: ["export"] });
   const { page: _page, pageSize: _size, sort: _sort, dir: _dir, ...filtersUsed } = q;
-  await recordAudit(db, { actorId: actor.userId, actorRole: actor.roles.join(","), action: "desk-exported-approvals", ipAddress: actor.ipAddress, detail: { filters: filtersUsed, format: "csv" } });
+  await recordAudit(db, actor, { action: "desk-exported-approvals", detail: { filters: filtersUsed, format: "csv" } });
   return approvalsCsvStream(db, actor, q, now);
 }
 
@@ -105,7 +105,7 @@ function trailLine(e: TrailEntry): string {
 export async function exportTrailCsv(db: Database, actor: Actor, benchId: string): Promise<{ filename: string; stream: ReadableStream<Uint8Array> }> {
   authorize(actor, { audit: ["export"] });
   const trail = await getBenchTrail(db, actor, benchId);
-  await recordAudit(db, { actorId: actor.userId, actorRole: actor.roles.join(","), action: "desk-exported-trail", benchId, ipAddress: actor.ipAddress, detail: { format: "csv", entries: trail.entries.length } });
+  await recordAudit(db, actor, { action: "desk-exported-trail", benchId, detail: { format: "csv", entries: trail.entries.length } });
   async function* lines() {
     yield `\uFEFF${csvLine(TRAIL_HEADER)}`;
     for (const e of trail.entries) yield trailLine(e);

@@ -142,14 +142,11 @@ export async function saveDraft(db: Database, actor: Actor, benchId: string, inp
       await tx.update(bench).set({ title, updatedAt: now }).where(eq(bench.id, benchId));
       current = { ...row, title };
     }
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: actor.roles.join(","),
+    await recordAudit(tx, actor, {
       action: createdRevision ? "draft-revision-started" : "draft-saved",
       benchId,
       revisionId: saved.id,
       contentHash: hash,
-      ipAddress: actor.ipAddress,
       detail: { number: saved.number, version: saved.version, basedOn: { revision: input.baseRevision, version: input.baseVersion }, elements: document.elements.length },
     });
     return { ok: true as const, draft: view(actor, current, saved), createdRevision };
@@ -186,14 +183,11 @@ export async function makeRevision(db: Database, actor: Actor, benchId: string, 
       .insert(benchRevision)
       .values({ benchId, number: latest.number + 1, document, contentHash: latest.contentHash, state: "draft", version: 1, createdBy: actor.userId })
       .returning();
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: actor.roles.join(","),
+    await recordAudit(tx, actor, {
       action: "revision-made",
       benchId,
       revisionId: latest.id,
       contentHash: latest.contentHash,
-      ipAddress: actor.ipAddress,
       detail: { number: latest.number, version: latest.version, newDraft: { number: created.number, revisionId: created.id }, elements: document.elements.length },
     });
     return { ok: true as const, draft: view(actor, row, created), frozen: { revisionId: latest.id, number: latest.number, contentHash: latest.contentHash } };

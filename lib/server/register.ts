@@ -231,11 +231,8 @@ export async function createLaser(db: Database, actor: Actor, input: LaserInput)
     await checkReferences(tx, input);
     const [row] = await tx.insert(laserRegister).values(values(input)).returning({ id: laserRegister.id });
     const created = await getLaser(tx, actor, row.id);
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: actor.roles.join(","),
+    await recordAudit(tx, actor, {
       action: "laser-registered",
-      ipAddress: actor.ipAddress,
       detail: { laserId: row.id, labId: input.labId, entry: values(input), computedClass: created.computed.hazardClass },
     });
     return created;
@@ -265,11 +262,8 @@ export async function updateLaser(db: Database, actor: Actor, laserId: string, i
       const from = before[key as keyof LaserView];
       if (JSON.stringify(from) !== JSON.stringify(to)) changes[key] = { from, to };
     }
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: actor.roles.join(","),
+    await recordAudit(tx, actor, {
       action: before.status !== input.status ? "laser-status-changed" : "laser-updated",
-      ipAddress: actor.ipAddress,
       detail: { laserId, labId: input.labId, fromVersion: input.version, toVersion: input.version + 1, changes },
     });
     return getLaser(tx, actor, laserId);

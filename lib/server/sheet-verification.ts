@@ -9,7 +9,7 @@ import { rolesAllow } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import type { Actor } from "./authorize";
-import { signOffSentence, signOffStatus, type SignOffStatus } from "./builds";
+import { signOffSentence, signOffStatus, type SignOffStatus } from "@/lib/build/rules";
 
 export type Verdict = "valid" | "expired" | "superseded" | "not-signed-off" | "unknown";
 
@@ -102,14 +102,11 @@ export async function verifySheetHash(db: Database, actor: Actor, input: z.infer
   const rank: Verdict[] = ["valid", "expired", "superseded", "not-signed-off"];
   const verdict: Verdict = matches.length ? (rank.find((v) => matches.some((m) => m.status === v)) ?? "not-signed-off") : "unknown";
   matches.sort((a, b) => rank.indexOf(a.status) - rank.indexOf(b.status));
-  await recordAudit(db, {
-    actorId: actor.userId,
-    actorRole: actor.roles.join(","),
+  await recordAudit(db, actor, {
     action: "sheet-verified",
     benchId: rows[0]?.benchId ?? null,
     revisionId: matches[0]?.revisionId ?? null,
     contentHash: input.hash,
-    ipAddress: actor.ipAddress,
     detail: { verdict, matches: matches.length },
   });
   return { hash: input.hash, verdict, headline: HEADLINE[verdict], matches };

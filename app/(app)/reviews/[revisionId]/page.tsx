@@ -15,7 +15,7 @@ import { StateBadge } from "@/components/ui/state-badge";
 import { rolesAllow } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
 import { pageActor, refusal } from "@/lib/server/page-guard";
-import { assessRevision } from "@/lib/server/review-hazard";
+import { assessRevision } from "@/lib/review/hazard";
 import { getReview, SIGN_OFF_MEANING } from "@/lib/server/reviews";
 
 export const metadata = { title: "Review" };
