@@ -33,6 +33,7 @@ import {
 } from "@/lib/build/rules";
 import { kindTitle } from "@/lib/bench/kinds";
 import { assessRevision } from "@/lib/review/hazard";
+import { notFoundAs } from "./scope";
 
 export const PAPERS = ["A4", "Letter"] as const;
 export const SHEET_TIMEOUT_MS = 90_000;
@@ -220,12 +221,7 @@ export async function downloadSheet(db: Database, actor: Actor, sheetId: string)
   if (!z.uuid().safeParse(sheetId).success) throw notFound("The build sheet");
   const [row] = await db.select().from(buildSheet).where(eq(buildSheet.id, sheetId));
   if (!row) throw notFound("The build sheet");
-  let r: SignedRevision;
-  try {
-    r = await loadSignedRevision(db, actor, row.revisionId);
-  } catch {
-    throw notFound("The build sheet");
-  }
+  const r = await notFoundAs("The build sheet", loadSignedRevision(db, actor, row.revisionId));
   assertSheetAllowed(actor, r, signOffStatus(r));
   if (row.state !== "ready" || !row.storageKey) {
     throw new AppError("conflict", row.state === "failed" ? (row.error ?? "The build sheet could not be made; ask for it again.") : `The build sheet is not ready yet (${row.progressPercent} %).`);

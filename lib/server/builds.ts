@@ -48,6 +48,7 @@ import {
 } from "@/lib/build/rules";
 import { assessRevision } from "@/lib/review/hazard";
 import { loadRevision } from "./reviews";
+import { inScope, notFoundAs } from "./scope";
 
 // ── Signed-off revisions ──────────────────────────────────────────────────────────────────────
 export type SignedRevision = {
@@ -87,12 +88,6 @@ export async function loadSignedRevision(db: DbOrTx, actor: Actor, revisionId: s
       ? { signerName: d.signerName, signerRole: d.signerRole, meaning: d.meaning, conditions: d.conditions, validUntil: d.validUntil, decidedAt: d.decidedAt, contentHash: d.contentHash }
       : null,
   };
-}
-
-function labScope(actor: Actor): SQL | undefined {
-  if (actor.allLabs) return undefined;
-  if (actor.labIds.length === 0) return sql`false`;
-  return inArray(bench.labId, actor.labIds);
 }
 
 // ── The list of benches to build ──────────────────────────────────────────────────────────────
@@ -136,7 +131,7 @@ export async function listBuildable(db: Database, actor: Actor): Promise<Buildab
     .innerJoin(lab, eq(lab.id, bench.labId))
     .innerJoin(user, eq(user.id, bench.authorId))
     .innerJoin(reviewDecision, and(eq(reviewDecision.revisionId, benchRevision.id), eq(reviewDecision.outcome, "approved")))
-    .where(and(labScope(actor), inArray(benchRevision.state, ["approved", "expired", "superseded"])))
+    .where(and(inScope(actor), inArray(benchRevision.state, ["approved", "expired", "superseded"])))
     .orderBy(desc(reviewDecision.decidedAt))
     .limit(500);
   const ids = rows.map((r) => r.revisionId);
@@ -221,12 +216,7 @@ async function loadBuild(db: DbOrTx, actor: Actor, buildId: string, lock = false
   const query = db.select().from(buildRecord).where(eq(buildRecord.id, buildId));
   const [build] = lock ? await query.for("update") : await query;
   if (!build) throw notFound("The build record");
-  let revision: SignedRevision;
-  try {
-    revision = await loadSignedRevision(db, actor, build.revisionId);
-  } catch {
-    throw notFound("The build record");
-  }
+  const revision = await notFoundAs("The build record", loadSignedRevision(db, actor, build.revisionId));
   return { build, revision };
 }
 

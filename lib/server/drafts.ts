@@ -13,6 +13,7 @@ import { benchDocumentSchema, type BenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import { authorize, authorizeLab, type Actor } from "./authorize";
+import { visibleOr404 } from "./scope";
 
 export type DraftView = {
   benchId: string;
@@ -55,14 +56,7 @@ async function visibleBench(db: DbOrTx, actor: Actor, benchId: string, lock: boo
   if (!z.uuid().safeParse(benchId).success) throw notFound("The bench");
   const query = db.select({ id: bench.id, labId: bench.labId, title: bench.title }).from(bench).where(eq(bench.id, benchId));
   const [row] = lock ? await query.for("update") : await query;
-  if (!row) throw notFound("The bench");
-  try {
-    authorizeLab(actor, row.labId);
-  } catch {
-    // Outside the actor's labs the bench does not exist, the same answer as a missing one.
-    throw notFound("The bench");
-  }
-  return row;
+  return visibleOr404(actor, row, "The bench");
 }
 
 async function latestRevision(db: DbOrTx, benchId: string) {

@@ -40,6 +40,7 @@ import { authorize, authorizeLab, type Actor } from "./authorize";
 import { hazardSummary } from "@/lib/review/hazard";
 import { COMMENTS_OPEN, DECISIONS, ONCE_APPROVED, SIGN_OFF_MEANING, TRANSITIONS, canMove, refusal, stateSentence } from "@/lib/review/transitions";
 import { validityEnd } from "@/lib/review/validity";
+import { inScope, visibleOr404 } from "./scope";
 
 export { expireApprovals, runReviewClock, sendExpiryReminders } from "./review-clock";
 
@@ -128,12 +129,7 @@ export async function loadRevision(db: DbOrTx, actor: Actor, revisionId: string,
     .innerJoin(user, eq(user.id, bench.authorId))
     .where(eq(benchRevision.id, revisionId));
   const [row] = lock ? await query.for("update", { of: benchRevision }) : await query;
-  if (!row) throw notFound("The revision");
-  try {
-    authorizeLab(actor, row.labId);
-  } catch {
-    throw notFound("The revision");
-  }
+  visibleOr404(actor, row, "The revision");
   return { ...row, document: row.document as BenchDocument };
 }
 
@@ -588,7 +584,7 @@ export type DecidedRow = { revisionId: string; title: string; labName: string; n
 /** The officer's queue (oldest waiting first) and the latest decisions. */
 export async function reviewQueue(db: Database, actor: Actor): Promise<{ waiting: QueueRow[]; decided: DecidedRow[] }> {
   authorize(actor, { review: ["read"] });
-  const scope = actor.allLabs ? undefined : actor.labIds.length ? inArray(bench.labId, actor.labIds) : sql`false`;
+  const scope = inScope(actor);
   const waiting = await db
     .select({
       revisionId: benchRevision.id,
