@@ -263,3 +263,14 @@ export async function revisionEyewear(db: DbOrTx, actor: Actor, revisionId: stri
   const result = await benchEyewear(db, r.labId, assessed.ok ? assessed.safety : null);
   return { ...result, revisionId: r.id, problem: assessed.ok ? null : assessed.problem };
 }
+
+export type LabShelf = { labId: string; labName: string; standard: SafetyStandard; items: EyewearView[] };
+
+/** The eyewear page: every lab the actor may see, with its standard and its eyewear (labs without eyewear included). */
+export async function eyewearShelves(db: DbOrTx, actor: Actor): Promise<LabShelf[]> {
+  authorize(actor, { eyewear: ["read"] });
+  const labScope = actor.allLabs ? undefined : actor.labIds.length ? inArray(lab.id, actor.labIds) : sql`false`;
+  const labs = await db.select({ id: lab.id, name: lab.name, standard: lab.safetyStandard }).from(lab).where(labScope).orderBy(asc(lab.name));
+  const items = await loadItems(db, scope(actor));
+  return labs.map((l) => ({ labId: l.id, labName: l.name, standard: l.standard, items: items.filter((i) => i.labId === l.id) }));
+}
