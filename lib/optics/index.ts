@@ -17,3 +17,5 @@ export { findScreenPositions, solveApertureDiameter, solveAperturePosition } fro
 export type { DiameterSolution, PositionSolution, ScreenCandidate, ScreenSearch } from "./finder";
 export { WARNING_CODES } from "./warnings";
 export type { OpticsWarning, WarningCode } from "./warnings";
+export { readScreenPhoto, PhotoReadError } from "./photo";
+export type { PhotoContext, PhotoImage, ScreenPhotoReading } from "./photo";
