@@ -1,6 +1,7 @@
 // The technician's as-built record of a signed-off revision: the list of benches to build, starting a
 // build, the checklist generated from the bench, observations against the predictions, uploads, sign-off.
 // Predictions come from lib/optics (analyzeBench, screenProfile) and lib/safety (assessBench), which name their sources.
+import { laserPowerText } from "@/lib/bench/laser-power";
 import "server-only";
 import { createHash, randomUUID } from "node:crypto";
 import { and, asc, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
@@ -207,7 +208,7 @@ export type ChecklistItem = {
 function elementSettings(e: BenchDocument["elements"][number]): string {
   switch (e.kind) {
     case "laser":
-      return `${e.wavelengthNm} nm, ${e.powerMw} mW, beam ⌀ ${e.beamDiameterMm} mm${e.m2 && e.m2 !== 1 ? `, M² ${e.m2}` : ""}`;
+      return `${e.wavelengthNm} nm, ${laserPowerText(e)}, beam ⌀ ${e.beamDiameterMm} mm${e.m2 && e.m2 !== 1 ? `, M² ${e.m2}` : ""}`;
     case "lens":
       return `focal length ${e.focalLengthMm} mm (${e.focalLengthMm > 0 ? "converging" : "diverging"})`;
     case "aperture":
