@@ -1,6 +1,7 @@
 // Build sheets: the PDF of a signed-off revision, made as a job (queued → rendering → ready | failed) by
 // printing the app's own print route in the shared chromium (lib/pdf), kept by the storage module and
 // reused while the revision's content hash is unchanged. Also the sheet's content (parts, build order, predictions).
+import { laserPowerText } from "@/lib/bench/laser-power";
 import "server-only";
 import { and, eq, lt, notInArray, or } from "drizzle-orm";
 import QRCode from "qrcode";
@@ -348,7 +349,7 @@ export function buildSteps(doc: BenchDocument, safety: BenchSafetyAssessment | n
     title: "Open up",
     lines: [
       `Take the temporary block away. Check that the beam ends on ${stops.length ? stops.map((s) => s.id).join(" / ") : "a beam block (this bench has an open end — add one first)"}.`,
-      laser ? `Raise the power to the drawn ${laser.powerMw} mW only now.` : "Raise the power to the drawn value only now.",
+      laser ? `Raise the power to the drawn ${laserPowerText(laser)} only now.` : "Raise the power to the drawn value only now.",
       "Compare the screen with the predictions page.",
     ],
   });
