@@ -1,5 +1,6 @@
 // The build rules for the printed sheet: its parts, the numbered build order, and the expected ring images
 // and profiles. Pure; the figures come from lib/optics (screenProfile, ringImage) and lib/safety, which name their sources.
+import { laserPowerText } from "@/lib/bench/laser-power";
 import type { BenchDocument, LaserElement } from "@/lib/bench/schema";
 import { kindTitle } from "@/lib/bench/kinds";
 import { ringImage, screenProfile, type ApertureAnalysis, type BenchAnalysis } from "@/lib/optics";
@@ -113,7 +114,7 @@ export function buildSteps(doc: BenchDocument, safety: BenchSafetyAssessment | n
     title: "Open up",
     lines: [
       `Take the temporary block away. Check that the beam ends on ${stops.length ? stops.map((s) => s.id).join(" / ") : "a beam block (this bench has an open end — add one first)"}.`,
-      laser ? `Raise the power to the drawn ${laser.powerMw} mW only now.` : "Raise the power to the drawn value only now.",
+      laser ? `Raise the power to the drawn ${laserPowerText(laser)} only now.` : "Raise the power to the drawn value only now.",
       "Compare the screen with the predictions page.",
     ],
   });
