@@ -211,7 +211,7 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
         kind = byId.get(o.elementId as string)?.kind ?? p.kind;
       }
       if (elementId === null) continue;
-      const key = `${o.pathId}|${elementId}|${p.where}|${p.positionMm}`;
+      const key = `${o.pathId}|${elementId}|${p.where}`; // at most one focus per gap, one point per element
       if (points.has(key)) continue;
       points.set(key, { ...p, elementId, kind, pathId: o.pathId, laserId: leaf.laserId });
       if (p.where !== "element") situations?.add("focusing-optics");
