@@ -116,6 +116,12 @@ function edgeOf(ox: number, oy: number, dx: number, dy: number, widthMm: number,
   return { t, point: { xMm: x, yMm: y } };
 }
 
+/** The filter's OD at a wavelength: the band that holds it, else the plain OD (the rule of the rail safety engine). */
+function filterOdAt(filter: { opticalDensity: number; opticalDensityBands?: { fromNm: number; toNm: number; opticalDensity: number }[] }, wavelengthNm: number): number {
+  for (const b of filter.opticalDensityBands ?? []) if (wavelengthNm >= b.fromNm && wavelengthNm <= b.toNm) return b.opticalDensity;
+  return filter.opticalDensity;
+}
+
 type Face = { e: TableElement; cx: number; cy: number; nx: number; ny: number; halfMm: number };
 
 /** Trace every laser on the table. Pure; bounded by MAX_PATHS runs of at most one pass over the elements each. */
@@ -201,7 +207,7 @@ export function traceTable(doc: BenchDocumentV2): TableTrace {
         });
       }
       if (action === "transmit") {
-        if (e.kind === "filter") share *= Math.pow(10, -e.opticalDensity);
+        if (e.kind === "filter") share *= Math.pow(10, -filterOdAt(e, run.laser.wavelengthNm));
         continue;
       }
       endPoint = hit.point;

@@ -33,9 +33,9 @@ export type UnfoldedChain = {
 export const chainId = (pathId: string, elementId: string): string => `⟨${pathId}⟩${elementId}`;
 export const edgeChainId = (pathId: string): string => `⟨${pathId}⟩⟨edge⟩`;
 
-/** The v1 laser of a table laser: its fields less the placement and further lines, at position 0. */
+/** The v1 laser of a table laser: its fields (further lines included) less the placement, at position 0. */
 export function railLaser(laser: LaserV2Element, id: string): BenchElement {
-  const { xMm: _x, yMm: _y, angleDeg: _a, lines: _l, ...fields } = laser;
+  const { xMm: _x, yMm: _y, angleDeg: _a, ...fields } = laser;
   return { ...fields, id, positionMm: 0 } as BenchElement;
 }
 
@@ -46,10 +46,12 @@ function railElement(e: TableElement, id: string, positionMm: number): BenchElem
       return (e.clearApertureMm === undefined
         ? { id, kind: "lens", positionMm, focalLengthMm: e.focalLengthMm }
         : { id, kind: "lens", positionMm, focalLengthMm: e.focalLengthMm, clearApertureMm: e.clearApertureMm }) as BenchElement;
-    case "filter":
-      return (e.clearApertureMm === undefined
-        ? { id, kind: "filter", positionMm, opticalDensity: e.opticalDensity }
-        : { id, kind: "filter", positionMm, opticalDensity: e.opticalDensity, clearApertureMm: e.clearApertureMm }) as BenchElement;
+    case "filter": {
+      const filter: Record<string, unknown> = { id, kind: "filter", positionMm, opticalDensity: e.opticalDensity };
+      if (e.opticalDensityBands !== undefined) filter.opticalDensityBands = e.opticalDensityBands;
+      if (e.clearApertureMm !== undefined) filter.clearApertureMm = e.clearApertureMm;
+      return filter as BenchElement;
+    }
     case "aperture":
       return { id, kind: "aperture", positionMm, diameterMm: e.diameterMm };
     case "beam-block":

@@ -5,6 +5,7 @@
 // upstream of a split sees the same beam in every leaf below it, so each (element, path) pair is taken from the first
 // leaf that holds it. An aperture gets one entry per screen its light reaches (a split sends it to several); with no
 // screen on any branch, one entry without a screen. Rail warnings that are artefacts of the unfolding are dropped.
+import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import type { BenchDocumentV2, TableElement } from "@/lib/bench/schema-v2";
 import { analyzeBench as analyzeRail, type ApertureAnalysis, type IncidentBeam } from "./analyze";
 import { MAX_GENERATIONS, MAX_PATHS, MIN_SHARE_OF_LASER, traceTable, type PathRole, type TableHit, type TablePathEnd, type TablePoint, type TableWarning } from "./table-trace";
@@ -24,7 +25,7 @@ export type TablePath = {
   generation: number;
   /** Share of the power arriving at the start element that this path takes (1 for a laser's own run). */
   branchShare: number;
-  /** Power at the start, mW (for a single-pulse laser without an average power, 0). */
+  /** Power at the start, mW (the average power; for a single pulse the power during the pulse, as the rail engine carries it). */
   powerMw: number;
   /** Share of the laser's power at the start from branch shares and filters alone (apertures, which clip by beam size, not counted). */
   shareOfLaser: number;
@@ -195,7 +196,7 @@ export function analyzeTable(doc: BenchDocumentV2): TableAnalysis {
     let powerMw = 0;
     if (p.parentPathId === null) {
       const laser = byId.get(p.laserId);
-      powerMw = laser && laser.kind === "laser" ? laserPowerMw(laser) : 0;
+      powerMw = laser && laser.kind === "laser" ? laserBeamPowerMw(laser) : 0;
     } else {
       const atStart = entries.get(`${p.parentPathId}|${p.startElementId}`);
       powerMw = atStart ? atStart.incident.powerMw * p.branchShare : 0;
@@ -255,14 +256,6 @@ export function analyzeTable(doc: BenchDocumentV2): TableAnalysis {
     .filter((x): x is { id: string; wavelengthNm: number; m2: number } => x !== null)
     .sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
   return { version: 2, lasers, paths, elements, apertures: apertureList, screens: screenList, warnings: filteredWarnings };
-}
-
-/** Average power of a table laser, mW: powerMw, or energy × rate for a train; 0 for a single pulse without an average. */
-export function laserPowerMw(laser: { powerMw?: number; pulseRepetitionRateHz?: number } & Record<string, unknown>): number {
-  if (typeof laser.powerMw === "number") return laser.powerMw;
-  const energy = laser["pulseEnergyJ"];
-  if (typeof energy === "number" && typeof laser.pulseRepetitionRateHz === "number") return energy * laser.pulseRepetitionRateHz * 1000;
-  return 0;
 }
 
 /** Screens lit, when the rail engine does not list them: the power arriving, and the centre from the last aperture before it. */
