@@ -6,6 +6,7 @@ export type {
   BenchAnalysis,
   ElementAnalysis,
   IncidentBeam,
+  ScreenAnalysis,
   OpticsInputErrorCode,
 } from "./analyze";
 export type { ElementStatus, EnvelopePoint, Waist } from "./propagate";
@@ -16,4 +17,8 @@ export type { ProfileOptions, RingImage, ScreenProfile } from "./profile";
 export { findScreenPositions, solveApertureDiameter, solveAperturePosition } from "./finder";
 export type { DiameterSolution, PositionSolution, ScreenCandidate, ScreenSearch } from "./finder";
 export { WARNING_CODES } from "./warnings";
+export { fieldPowerProbe } from "./field-power";
+export type { FieldPowerProbe } from "./field-power";
+export { FieldChain } from "./chain";
+export type { ChainElement, ChainStart, ClipPlane } from "./chain";
 export type { OpticsWarning, WarningCode } from "./warnings";

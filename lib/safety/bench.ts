@@ -29,7 +29,14 @@ export type BeamAtElement = {
   incident: IncidentBeam | null;
 };
 
-export type BenchBeam = { elements: readonly BeamAtElement[] };
+/**
+ * Power (mW) inside a centred circle of radius radiusMm on the beam axis at positionMm (arriving at elementId when
+ * given), from the propagated field behind a clipping aperture; null where the plain Gaussian holds. The caller hands
+ * it in (lib/optics fieldPowerProbe), so this module never depends on lib/optics. PRODUCT.md revision 2.
+ */
+export type EnclosedPowerMw = (positionMm: number, radiusMm: number, elementId?: string) => number | null;
+
+export type BenchBeam = { elements: readonly BeamAtElement[]; enclosedPowerMw?: EnclosedPowerMw };
 
 /** Options as the API accepts them (field paths with plain messages). */
 export const benchSafetyOptionsSchema = z.object({
@@ -141,7 +148,9 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
   const apertureMm = laserAssessment.limitingApertureMm;
 
   const point = (elementId: string, kind: string, where: HazardPoint["where"], positionMm: number, b: BeamState): HazardPoint => {
-    const averaged = apertureAveragedIrradianceWPerCm2(b.powerMw, b.radiusMm, apertureMm);
+    // behind a clipping aperture: the propagated field's power inside the limiting aperture, never a rescaled Gaussian
+    const fieldMw = beam.enclosedPowerMw?.(positionMm, apertureMm / 2, where === "element" ? elementId : undefined) ?? null;
+    const averaged = fieldMw === null ? apertureAveragedIrradianceWPerCm2(b.powerMw, b.radiusMm, apertureMm) : fieldMw / 1000 / (Math.PI * (apertureMm / 20) ** 2);
     const od = opticalDensity(averaged, mpe);
     return {
       elementId,
@@ -150,7 +159,7 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
       positionMm,
       powerMw: Math.max(0, b.powerMw),
       radiusMm: b.radiusMm,
-      peakIrradianceWPerCm2: peakIrradianceWPerCm2(b.powerMw, b.radiusMm),
+      peakIrradianceWPerCm2: Math.max(peakIrradianceWPerCm2(b.powerMw, b.radiusMm), averaged),
       averagedIrradianceWPerCm2: averaged,
       opticalDensityRaw: od.raw,
       opticalDensityRequired: od.required,

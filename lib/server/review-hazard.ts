@@ -2,7 +2,7 @@
 // signature. Figures come from the engines (lib/optics analyzeBench, lib/safety assessBench), which name their sources.
 import { benchDocumentSchema, type BenchDocument, type LaserElement } from "@/lib/bench/schema";
 import type { HazardSummary } from "@/db/schema";
-import { analyzeBench, type BenchAnalysis } from "@/lib/optics";
+import { analyzeBench, fieldPowerProbe, type BenchAnalysis } from "@/lib/optics";
 import { assessBench, type BenchSafetyAssessment } from "@/lib/safety";
 
 export type RevisionAssessment =
@@ -15,7 +15,7 @@ export function assessRevision(doc: BenchDocument): RevisionAssessment {
   if (!parsed.success) return { ok: false, problem: parsed.error.issues[0]?.message ?? "The bench document is not complete." };
   try {
     const analysis = analyzeBench(parsed.data);
-    const safety = assessBench(parsed.data, analysis);
+    const safety = assessBench(parsed.data, { elements: analysis.elements, enclosedPowerMw: fieldPowerProbe(parsed.data) });
     return { ok: true, analysis, safety };
   } catch (error) {
     return { ok: false, problem: error instanceof Error ? error.message : "The hazard engines could not assess this bench." };
