@@ -7,6 +7,7 @@
 // screen reached, 1/b = 0 (the far field) and the screen fields are null. M² > 1: the embedded Gaussian gives the
 // real radius W and curvature; the Fresnel quantities use the true λ with a coherent Gaussian of that W and ρ.
 import type { BenchDocument } from "@/lib/bench/schema";
+import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import {
   type AbcdMatrix,
   type BeamParameter,
@@ -45,6 +46,7 @@ import {
 import { type OpticsWarning, formatLengthMm, formatNumber, warning } from "./warnings";
 import { type ChainElement, FieldChain } from "./chain";
 import { gsmBlurWidth, gsmCentreRatio } from "./coherence";
+import { kindNoun } from "@/lib/bench/kinds";
 
 const M_PER_MM = 1e-3;
 /** Below this |B| the screen is taken to be at (or imaged onto) the aperture; B is clamped to it, keeping its sign. */
@@ -291,7 +293,7 @@ export function buildChain(trace: BenchTrace, options: { refinement?: number; ex
   }
   if (!canClip) return null;
   const chain = new FieldChain(
-    { positionMm: laser.positionMm, q: qAtWaist(laserWaistRadiusM(laser), trace.effectiveWavelengthM), powerMw: laser.powerMw },
+    { positionMm: laser.positionMm, q: qAtWaist(laserWaistRadiusM(laser), trace.effectiveWavelengthM), powerMw: laserBeamPowerMw(laser) },
     elements,
     trace.wavelengthM,
     trace.m2,
@@ -331,7 +333,7 @@ export function centreModel(trace: BenchTrace, build: ChainBuild | null, index: 
 
 /** Laser power × every filter before trace index `index`: what would arrive with no aperture or mount at all. */
 function unclippedPowerMw(trace: BenchTrace, index: number): number {
-  let p = trace.laser?.powerMw ?? 0;
+  let p = trace.laser === null ? 0 : laserBeamPowerMw(trace.laser);
   for (let i = 0; i < index; i++) {
     const en = trace.entries[i];
     if (en.status === "lit" && en.element.kind === "filter") p *= Math.pow(10, -en.element.opticalDensity);
@@ -362,18 +364,10 @@ function incidentOf(trace: BenchTrace, entry: TraceEntry): IncidentBeam {
   };
 }
 
-const KIND_WORD: Record<string, string> = {
-  laser: "laser",
-  lens: "lens",
-  aperture: "aperture",
-  filter: "filter",
-  "beam-block": "beam block",
-  screen: "screen",
-};
 /** Where a Gaussian focus sits relative to the lens's focal plane, in words. */
 const focalShift = (shiftMm: number): string =>
   Math.abs(shiftMm) < 1e-3 ? "at the focal plane" : `${formatLengthMm(Math.abs(shiftMm))} ${shiftMm < 0 ? "before" : "beyond"} the focal plane`;
-const named = (e: { id: string; kind: string }): string => `${KIND_WORD[e.kind] ?? e.kind} "${e.id}"`;
+const named = (e: { id: string; kind: string }): string => `${kindNoun(e.kind)} "${e.id}"`;
 
 /** Pure and synchronous; never throws for a document the schema accepts. */
 export function analyzeBench(doc: BenchDocument): BenchAnalysis {

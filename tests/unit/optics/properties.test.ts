@@ -104,5 +104,5 @@ describe("properties over schema-valid documents", () => {
       }),
       { numRuns: 100 },
     );
-  });
+  }, 30_000); // many profiles of extreme documents: seconds on a loaded machine
 });

@@ -1,21 +1,26 @@
 // The hazard picture of one revision for the review screen, and the compact summary kept with a
 // signature. Figures come from the engines (lib/optics analyzeBench, lib/safety assessBench), which name their sources.
+import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import { benchDocumentSchema, type BenchDocument, type LaserElement } from "@/lib/bench/schema";
 import type { HazardSummary } from "@/db/schema";
 import { analyzeBench, fieldPowerProbe, type BenchAnalysis } from "@/lib/optics";
-import { assessBench, type BenchSafetyAssessment } from "@/lib/safety";
+import { assessBench, type BenchSafetyAssessment, type BenchSafetyOptions } from "@/lib/safety";
 
 export type RevisionAssessment =
   | { ok: true; analysis: BenchAnalysis; safety: BenchSafetyAssessment }
   | { ok: false; problem: string };
 
+/** What a caller may ask of the engines: the lab's chosen standard (passed through to assessBench). */
+export type AssessOptions = { standard?: "ANSI Z136.1-2014" | "IEC 60825-1:2014" };
+
 /** Runs both engines on the document; a document they cannot take gets a sentence instead. */
-export function assessRevision(doc: BenchDocument): RevisionAssessment {
+export function assessRevision(doc: BenchDocument, options: AssessOptions = {}): RevisionAssessment {
   const parsed = benchDocumentSchema.safeParse(doc);
   if (!parsed.success) return { ok: false, problem: parsed.error.issues[0]?.message ?? "The bench document is not complete." };
   try {
     const analysis = analyzeBench(parsed.data);
-    const safety = assessBench(parsed.data, { elements: analysis.elements, enclosedPowerMw: fieldPowerProbe(parsed.data) });
+    const safetyOptions = (options.standard ? { standard: options.standard } : {}) as BenchSafetyOptions;
+    const safety = assessBench(parsed.data, { elements: analysis.elements, enclosedPowerMw: fieldPowerProbe(parsed.data) }, safetyOptions);
     return { ok: true, analysis, safety };
   } catch (error) {
     return { ok: false, problem: error instanceof Error ? error.message : "The hazard engines could not assess this bench." };
@@ -26,7 +31,7 @@ export function assessRevision(doc: BenchDocument): RevisionAssessment {
 export function hazardSummary(doc: BenchDocument): HazardSummary {
   const laser = doc.elements.find((e): e is LaserElement => e.kind === "laser");
   const laserFacts = laser
-    ? { id: laser.id, wavelengthNm: laser.wavelengthNm, powerMw: laser.powerMw, beamDiameterMm: laser.beamDiameterMm, m2: laser.m2 ?? 1, registerId: laser.registerId ?? null }
+    ? { id: laser.id, wavelengthNm: laser.wavelengthNm, powerMw: laserBeamPowerMw(laser), beamDiameterMm: laser.beamDiameterMm, m2: laser.m2 ?? 1, registerId: laser.registerId ?? null }
     : null;
   const assessed = assessRevision(doc);
   if (!assessed.ok) return { engine: "unavailable", problem: assessed.problem, laser: laserFacts };
