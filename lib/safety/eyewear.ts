@@ -2,6 +2,7 @@
 // Sources: OD = −log10(τ) (ANSI Z136.1-2014 §4.6.2.5 / Appendix B, "optical density"); EN 207:2009 scale numbers LB n ⇒ τ ≤ 10^−n (from memory).
 
 import { z } from "zod";
+import type { BenchSafetyAssessment } from "./bench";
 
 /** Highest optical density an item may declare; eyewear is not rated beyond this (common practice). */
 export const MAX_EYEWEAR_OD = 10;
@@ -171,4 +172,29 @@ export function eyewearCoverage(items: readonly EyewearItem[], lines: readonly L
     everyLineCovered: out.every((l) => l.status === "covered" || l.status === "none-needed"),
     note: EN207_NOTE,
   };
+}
+
+type LineFigure = { wavelengthNm: number; opticalDensityRequired?: number | null; powerMw?: number };
+type LaserWithLines = { laserId?: string; id?: string; lines?: LineFigure[] };
+
+/**
+ * The lines of a bench and the OD each needs, from the hazard engine's answer. Where the engine reports lasers with
+ * per-line figures (`lasers[].lines`), those are used; otherwise the laser's one line with the highest OD on the bench.
+ */
+export function lineNeeds(safety: Pick<BenchSafetyAssessment, "laserId" | "wavelengthNm" | "governing">): LineNeed[] {
+  const lasers = (safety as unknown as { lasers?: LaserWithLines[] }).lasers;
+  if (Array.isArray(lasers) && lasers.some((l) => Array.isArray(l.lines) && l.lines.length > 0)) {
+    const out: LineNeed[] = [];
+    for (const l of lasers) {
+      (l.lines ?? []).forEach((line, i) => {
+        let od = typeof line.opticalDensityRequired === "number" ? line.opticalDensityRequired : null;
+        // The bench's highest OD (a focus downstream may need more than the free beam) never gets lost for the main line.
+        if (od !== null && safety.governing && Math.abs(line.wavelengthNm - safety.wavelengthNm) < 1e-9) od = Math.max(od, safety.governing.opticalDensityRequired);
+        out.push({ laserId: l.laserId ?? l.id ?? safety.laserId, wavelengthNm: line.wavelengthNm, opticalDensityRequired: od, label: i === 0 ? "main line" : `line ${i + 1}` });
+      });
+    }
+    return out;
+  }
+  const od = safety.governing ? safety.governing.opticalDensityRequired : 0;
+  return [{ laserId: safety.laserId, wavelengthNm: safety.wavelengthNm, opticalDensityRequired: od, label: "main line" }];
 }
