@@ -89,6 +89,8 @@ async function main() {
   figures.push(...(await runOpticsBench()));
   const { runSafetyBench } = await import("./bench-safety");
   figures.push(...(await runSafetyBench()));
+  const { runTableBench } = await import("./bench-table");
+  figures.push(...(await runTableBench()));
   if (!process.argv.includes("--engines-only")) figures.push(...(await httpFigures()));
   log("benchmark figures");
   for (const f of figures) process.stdout.write(`  ${f.name}: ${Number(f.value.toPrecision(4))} ${f.unit}   (target ${f.target})\n`);

@@ -133,3 +133,6 @@ export function describeIssues(error: z.ZodError): FieldProblem[] {
     message: issue.message,
   }));
 }
+
+// Version 2 (the optical table) lives in ./schema-v2 (it builds on the schemas above); its types are re-exported here.
+export type { AnyBenchDocument, BenchDocumentV2, TableElement } from "./schema-v2";

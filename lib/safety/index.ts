@@ -2,8 +2,28 @@
 // Formulas come from ANSI Z136.1-2014, IEC 60825-1:2014 and Directive 2006/25/EC Annex II; each module names its own.
 
 export { assessBeam, beamInputSchema, type BeamAssessment, type BeamContext, type BeamInput } from "./beam";
+import type { AnyBenchDocument, BenchDocument, BenchDocumentV2 } from "@/lib/bench/schema";
+import { assessBench as assessRail, type BenchBeam, type BenchSafetyAssessment, type BenchSafetyOptions } from "./bench";
+import { assessTable, type TableBeam, type TableSafetyAssessment } from "./table";
+
+/**
+ * The laser safety of a bench document, given the optics engine's analyzeBench answer for it. Version 1 (a straight
+ * rail) gives exactly the rail assessment; version 2 (the table plan) is assessed per path with open beams and one
+ * entry per laser (lib/safety/table.ts). This is the one entry point callers use for either version.
+ */
+export function assessBench(doc: BenchDocument, beam: BenchBeam, options?: BenchSafetyOptions): BenchSafetyAssessment;
+export function assessBench(doc: BenchDocumentV2, beam: TableBeam, options?: BenchSafetyOptions): TableSafetyAssessment;
+export function assessBench(doc: AnyBenchDocument, beam: BenchBeam | TableBeam, options?: BenchSafetyOptions): BenchSafetyAssessment | TableSafetyAssessment;
+export function assessBench(doc: AnyBenchDocument, beam: BenchBeam | TableBeam, options: BenchSafetyOptions = {}): BenchSafetyAssessment | TableSafetyAssessment {
+  if (doc.version === 2) {
+    if (!("paths" in beam)) throw new RangeError("A version 2 bench is assessed with the analysis of the same table (analyzeBench of lib/optics)");
+    return assessTable(doc, beam, options);
+  }
+  return assessRail(doc, beam as BenchBeam, options);
+}
+export { assessRail, assessTable };
+export type { LineAssessment, OpenBeam, TableBeam, TableHazardPoint, TableLaserAssessment, TableSafetyAssessment } from "./table";
 export {
-  assessBench,
   benchSafetyOptionsSchema,
   waistFrom,
   type BeamAtElement,
