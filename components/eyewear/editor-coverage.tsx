@@ -1,14 +1,13 @@
 "use client";
 // The editor's eyewear lines: the lab's list (sent with the page) against the lines of the live analysis.
 import { useMemo } from "react";
-import type { BenchSafetyAssessment } from "@/lib/safety";
-import { eyewearCoverage, lineNeeds, type EyewearItem } from "@/lib/safety/eyewear";
+import { eyewearCoverage, lineNeeds, type EyewearItem, type HazardAnswerLines } from "@/lib/safety/eyewear";
 import { CoverageList } from "./coverage-list";
 import type { StandardName } from "./standard-words";
 
 export type LabShelfData = { standard: StandardName; items: EyewearItem[] };
 
-export function EditorCoverage({ shelf, safety }: { shelf: LabShelfData; safety: Pick<BenchSafetyAssessment, "laserId" | "wavelengthNm" | "governing"> }) {
+export function EditorCoverage({ shelf, safety }: { shelf: LabShelfData; safety: HazardAnswerLines }) {
   const coverage = useMemo(() => eyewearCoverage(shelf.items, lineNeeds(safety)), [shelf.items, safety]);
   return (
     <details className="mt-3" open>

@@ -2,7 +2,6 @@
 // Sources: OD = −log10(τ) (ANSI Z136.1-2014 §4.6.2.5 / Appendix B, "optical density"); EN 207:2009 scale numbers LB n ⇒ τ ≤ 10^−n (from memory).
 
 import { z } from "zod";
-import type { BenchSafetyAssessment } from "./bench";
 
 /** Highest optical density an item may declare; eyewear is not rated beyond this (common practice). */
 export const MAX_EYEWEAR_OD = 10;
@@ -174,27 +173,38 @@ export function eyewearCoverage(items: readonly EyewearItem[], lines: readonly L
   };
 }
 
-type LineFigure = { wavelengthNm: number; opticalDensityRequired?: number | null; powerMw?: number };
-type LaserWithLines = { laserId?: string; id?: string; lines?: LineFigure[] };
+type LineFigure = { wavelengthNm: number; opticalDensityRequired?: number | null; source?: string };
+type LaserWithLines = { laserId?: string; id?: string; lines?: readonly LineFigure[]; governing?: { opticalDensityRequired: number } | null };
+/** What lineNeeds reads of a hazard answer: the rail assessment (one laser) or the table's (lasers with lines). */
+export type HazardAnswerLines = {
+  laserId?: string;
+  wavelengthNm?: number;
+  governing?: { opticalDensityRequired: number } | null;
+  lasers?: readonly LaserWithLines[];
+};
 
 /**
- * The lines of a bench and the OD each needs, from the hazard engine's answer. Where the engine reports lasers with
- * per-line figures (`lasers[].lines`), those are used; otherwise the laser's one line with the highest OD on the bench.
+ * The lines of a bench and the OD each needs, from the hazard engine's answer. Where the answer has lasers with
+ * per-line figures (`lasers[].lines`), those are used, and a laser's main line never counts below the highest OD on
+ * that laser's paths (a focus may need more than the free beam); otherwise the one laser's line with the bench's highest OD.
+ * An OD the engine could not give (not finite) stays "unknown": no item is said to cover it.
  */
-export function lineNeeds(safety: Pick<BenchSafetyAssessment, "laserId" | "wavelengthNm" | "governing">): LineNeed[] {
-  const lasers = (safety as unknown as { lasers?: LaserWithLines[] }).lasers;
+export function lineNeeds(safety: HazardAnswerLines): LineNeed[] {
+  const lasers = safety.lasers;
   if (Array.isArray(lasers) && lasers.some((l) => Array.isArray(l.lines) && l.lines.length > 0)) {
     const out: LineNeed[] = [];
     for (const l of lasers) {
-      (l.lines ?? []).forEach((line, i) => {
-        let od = typeof line.opticalDensityRequired === "number" ? line.opticalDensityRequired : null;
-        // The bench's highest OD (a focus downstream may need more than the free beam) never gets lost for the main line.
-        if (od !== null && safety.governing && Math.abs(line.wavelengthNm - safety.wavelengthNm) < 1e-9) od = Math.max(od, safety.governing.opticalDensityRequired);
-        out.push({ laserId: l.laserId ?? l.id ?? safety.laserId, wavelengthNm: line.wavelengthNm, opticalDensityRequired: od, label: i === 0 ? "main line" : `line ${i + 1}` });
+      const laserId = l.laserId ?? l.id ?? safety.laserId ?? "laser";
+      const highest = l.governing?.opticalDensityRequired ?? (lasers.length === 1 ? safety.governing?.opticalDensityRequired : undefined);
+      (l.lines ?? []).forEach((line: LineFigure, i: number) => {
+        const main = line.source ? line.source === "main" : i === 0;
+        let od = typeof line.opticalDensityRequired === "number" && Number.isFinite(line.opticalDensityRequired) ? line.opticalDensityRequired : null;
+        if (od !== null && main && typeof highest === "number" && Number.isFinite(highest)) od = Math.max(od, highest);
+        out.push({ laserId, wavelengthNm: line.wavelengthNm, opticalDensityRequired: od, label: main ? "main line" : `line ${i + 1}` });
       });
     }
     return out;
   }
   const od = safety.governing ? safety.governing.opticalDensityRequired : 0;
-  return [{ laserId: safety.laserId, wavelengthNm: safety.wavelengthNm, opticalDensityRequired: od, label: "main line" }];
+  return [{ laserId: safety.laserId ?? "laser", wavelengthNm: safety.wavelengthNm ?? Number.NaN, opticalDensityRequired: od, label: "main line" }];
 }

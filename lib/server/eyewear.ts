@@ -6,8 +6,7 @@ import { z } from "zod";
 import type { Database, DbOrTx } from "@/db";
 import { eyewearBand, eyewearItem, lab, SAFETY_STANDARDS, type SafetyStandard } from "@/db/schema";
 import { AppError, notFound } from "@/lib/errors";
-import type { BenchSafetyAssessment } from "@/lib/safety";
-import { eyewearBandsSchema, eyewearCoverage, eyewearNameSchema, lineNeeds, type EyewearCoverage, type EyewearItem } from "@/lib/safety/eyewear";
+import { eyewearBandsSchema, eyewearCoverage, eyewearNameSchema, lineNeeds, type EyewearCoverage, type EyewearItem, type HazardAnswerLines } from "@/lib/safety/eyewear";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
 import { assessRevision } from "@/lib/review/hazard";
@@ -213,7 +212,7 @@ export type BenchEyewear = {
 };
 
 /** Which of the lab's items cover each line of the bench, and the lab's standard. */
-export async function benchEyewear(db: DbOrTx, labId: string, safety: BenchSafetyAssessment | null): Promise<BenchEyewear> {
+export async function benchEyewear(db: DbOrTx, labId: string, safety: HazardAnswerLines | null): Promise<BenchEyewear> {
   const standard = await labStandard(db, labId);
   const items = await loadItems(db, eq(eyewearItem.labId, labId));
   const shelf: EyewearItem[] = items.map((i) => ({ id: i.id, name: i.name, bands: i.bands }));
@@ -245,7 +244,7 @@ export async function eyewearShelves(db: DbOrTx, actor: Actor): Promise<LabShelf
 /** The editor's copy of one lab's list and standard: names and bands only (the editor works out coverage as the drawing changes). */
 export async function labShelf(db: DbOrTx, actor: Actor, labId: string): Promise<{ standard: SafetyStandard; items: EyewearItem[] }> {
   authorize(actor, { eyewear: ["read"] });
-  if (!mayReadLab(actor, labId)) return { standard: await labStandard(db, labId), items: [] };
+  if (!scopeHolds(actor, labId)) return { standard: await labStandard(db, labId), items: [] };
   const items = await loadItems(db, eq(eyewearItem.labId, labId));
   return { standard: await labStandard(db, labId), items: items.map((i) => ({ id: i.id, name: i.name, bands: i.bands })) };
 }
