@@ -87,6 +87,8 @@ async function main() {
   const figures: Figure[] = [];
   const { runOpticsBench } = await import("./bench-optics");
   figures.push(...(await runOpticsBench()));
+  const { runPhotoBench } = await import("./bench-photo");
+  figures.push(...(await runPhotoBench()));
   const { runSafetyBench } = await import("./bench-safety");
   figures.push(...(await runSafetyBench()));
   const { runTableBench } = await import("./bench-table");

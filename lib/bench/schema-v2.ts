@@ -4,6 +4,8 @@ import { z } from "zod";
 import {
   apertureSchema,
   beamBlockSchema,
+  checkFilterBands,
+  checkLaserFields,
   filterSchema,
   laserSchema,
   lensSchema,
@@ -159,6 +161,9 @@ export const benchDocumentV2Schema = z
           message: `${name} at (${fmt(e.xMm)}, ${fmt(e.yMm)}) mm is off the table, which spans 0–${fmt(widthMm)} mm in x and 0–${fmt(depthMm)} mm in y`,
         });
       }
+      // The pulse and band rules of version 1 (contract revision 2) hold for version 2 too.
+      if (e.kind === "laser") checkLaserFields(e, ctx, ["elements", i]);
+      if (e.kind === "filter") checkFilterBands(e, ctx, ["elements", i]);
       if (e.kind === "beam-splitter" && !(e.reflectance >= 0 && e.reflectance <= 1)) {
         ctx.addIssue({ code: "custom", path: ["elements", i, "reflectance"], message: `${name}: reflectance must be between 0 and 1 (it is ${fmt(e.reflectance)})` });
       }

@@ -1,6 +1,7 @@
 // The build rules: whether a sign-off still holds, the checklist a bench asks for, the predictions an
 // as-built record is compared with, the comparison itself, and which uploaded files are accepted.
 // Pure (no database); the figures come from lib/optics (analyzeBench, screenProfile) and lib/safety, which name their sources.
+import { laserPowerText } from "@/lib/bench/laser-power";
 import type { ReviewState } from "@/db/schema";
 import { kindTitle } from "@/lib/bench/kinds";
 import type { BenchDocument } from "@/lib/bench/schema";
@@ -57,7 +58,7 @@ export type ChecklistItem = {
 export function elementSettings(e: BenchDocument["elements"][number]): string {
   switch (e.kind) {
     case "laser":
-      return `${e.wavelengthNm} nm, ${e.powerMw} mW, beam ⌀ ${e.beamDiameterMm} mm${e.m2 && e.m2 !== 1 ? `, M² ${e.m2}` : ""}`;
+      return `${e.wavelengthNm} nm, ${laserPowerText(e)}, beam ⌀ ${e.beamDiameterMm} mm${e.m2 && e.m2 !== 1 ? `, M² ${e.m2}` : ""}`;
     case "lens":
       return `focal length ${e.focalLengthMm} mm (${e.focalLengthMm > 0 ? "converging" : "diverging"})`;
     case "aperture":

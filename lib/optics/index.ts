@@ -37,3 +37,5 @@ export { traceTable } from "./table-trace";
 export type { TableTrace, TracedPath } from "./table-trace";
 export { unfoldPath } from "./table-unfold";
 export type { OpticsWarning, WarningCode } from "./warnings";
+export { readScreenPhoto, PhotoReadError } from "./photo";
+export type { PhotoContext, PhotoImage, ScreenPhotoReading } from "./photo";

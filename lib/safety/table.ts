@@ -113,8 +113,10 @@ function assessLine(laser: LaserV2Element, line: Line, beam: { diameterMm: numbe
     ...(options.exposureS === undefined ? {} : { exposureS: options.exposureS }),
     ...(main ? pulseFields(laser, beam.powerScale) : {}),
   } as BeamInput;
-  if (!(input.powerMw > 0) && (input as { pulseEnergyJ?: number }).pulseEnergyJ === undefined) {
-    (input as { powerMw: number }).powerMw = Number.MIN_VALUE;
+  if (!((input.powerMw ?? 0) > 0)) {
+    // A single pulse given by its energy has no power; a line without power is assessed at a vanishing one.
+    if ((input as { pulseEnergyJ?: number }).pulseEnergyJ === undefined) (input as { powerMw: number }).powerMw = Number.MIN_VALUE;
+    else delete (input as { powerMw?: number }).powerMw;
   }
   return assessBeam(input);
 }

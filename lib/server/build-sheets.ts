@@ -1,8 +1,9 @@
 // Build sheets: the PDF of a signed-off revision, made as a job (queued → rendering → ready | failed) by
 // printing the app's own print route in the shared chromium (lib/pdf), kept by the storage module and
 // reused while the revision's content hash is unchanged. Also the sheet's content (parts, build order, predictions).
+import { laserPowerText } from "@/lib/bench/laser-power";
 import "server-only";
-import { and, eq } from "drizzle-orm";
+import { and, eq, lt, notInArray, or } from "drizzle-orm";
 import QRCode from "qrcode";
 import { z } from "zod";
 import type { Database } from "@/db";
@@ -82,12 +83,13 @@ function printUrl(revisionId: string, paper: Paper): string {
 
 // ── The job queue (one per server process; kept on globalThis across hot reloads) ─────────────
 type Job = { sheetId: string; revisionId: string; paper: Paper; cookie: string; headerText: string; storageKey: string };
-type Queue = { pending: Job[]; active: number; known: Set<string> };
+// Which server renders a sheet is decided in the database (requestSheet); this queue only paces the
+// jobs this process took.
+type Queue = { pending: Job[]; active: number };
 const globalForSheets = globalThis as unknown as { benchwardenSheetQueue?: Queue };
-const queue: Queue = (globalForSheets.benchwardenSheetQueue ??= { pending: [], active: 0, known: new Set() });
+const queue: Queue = (globalForSheets.benchwardenSheetQueue ??= { pending: [], active: 0 });
 
 function enqueue(job: Job): void {
-  queue.known.add(job.sheetId);
   queue.pending.push(job);
   pump();
 }
@@ -98,7 +100,6 @@ function pump(): void {
     queue.active += 1;
     void run(job).finally(() => {
       queue.active -= 1;
-      queue.known.delete(job.sheetId);
       pump();
     });
   }
@@ -170,15 +171,20 @@ export async function requestSheet(db: Database, actor: Actor, revisionId: strin
   let reused = false;
   if (row && row.state === "ready" && row.contentHash === r.contentHash && row.storageKey && (await storage().exists(row.storageKey))) {
     reused = true;
-  } else if (row && (row.state === "queued" || row.state === "rendering") && queue.known.has(row.id)) {
-    // already on its way in this process
   } else if (row) {
-    [row] = await db
+    // Take the job over only if no server has it on its way: the row is not queued or rendering, or
+    // it has not moved for longer than a render may take (its server died). One UPDATE decides, so
+    // two servers asked at once never render the same sheet twice.
+    const staleBefore = new Date(Date.now() - SHEET_TIMEOUT_MS - 30_000);
+    const [taken] = await db
       .update(buildSheet)
       .set({ state: "queued", progressPercent: 0, error: null, storageKey: null, sizeBytes: null, contentHash: r.contentHash, requestedBy: actor.userId, updatedAt: new Date() })
-      .where(eq(buildSheet.id, row.id))
+      .where(and(eq(buildSheet.id, row.id), or(notInArray(buildSheet.state, ["queued", "rendering"]), lt(buildSheet.updatedAt, staleBefore))))
       .returning();
-    enqueue({ sheetId: row.id, revisionId: r.id, paper, cookie, headerText, storageKey });
+    if (taken) {
+      row = taken;
+      enqueue({ sheetId: row.id, revisionId: r.id, paper, cookie, headerText, storageKey });
+    }
   } else {
     const [inserted] = await db
       .insert(buildSheet)
@@ -343,7 +349,7 @@ export function buildSteps(doc: BenchDocument, safety: BenchSafetyAssessment | n
     title: "Open up",
     lines: [
       `Take the temporary block away. Check that the beam ends on ${stops.length ? stops.map((s) => s.id).join(" / ") : "a beam block (this bench has an open end — add one first)"}.`,
-      laser ? `Raise the power to the drawn ${laser.powerMw} mW only now.` : "Raise the power to the drawn value only now.",
+      laser ? `Raise the power to the drawn ${laserPowerText(laser)} only now.` : "Raise the power to the drawn value only now.",
       "Compare the screen with the predictions page.",
     ],
   });
