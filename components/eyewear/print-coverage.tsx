@@ -1,5 +1,5 @@
 import type { CoverageData } from "./coverage-list";
-import { standardSentence } from "./standard-words";
+import { otherStandardNotes, standardSentence } from "./standard-words";
 
 const od = (v: number | null) => (v === null || !Number.isFinite(v) ? "—" : v.toFixed(1));
 const nm = (v: number) => String(Number(v.toPrecision(6)));
@@ -36,5 +36,16 @@ export function PrintCoverage({ data, asOf }: { data: CoverageData; asOf: string
 
 /** The sheet's one line naming the standard the figures follow. */
 export function PrintStandard({ data, safety }: { data: Pick<CoverageData, "standard">; safety: unknown }) {
-  return <p style={{ margin: "0 0 2mm", fontSize: "10.5pt" }} data-testid="sheet-standard"><strong>Standard:</strong> {standardSentence(data.standard, safety)}</p>;
+  return (
+    <div style={{ margin: "0 0 2mm", fontSize: "10.5pt" }} data-testid="sheet-standard">
+      <p style={{ margin: 0 }}>
+        <strong>Standard:</strong> {standardSentence(data.standard, safety)}
+      </p>
+      {otherStandardNotes(safety).map((n, i) => (
+        <p key={i} style={{ margin: "1mm 0 0", fontSize: "9.5pt" }}>
+          {n}
+        </p>
+      ))}
+    </div>
+  );
 }

@@ -9,6 +9,7 @@ import { AppError, notFound } from "@/lib/errors";
 import { eyewearBandsSchema, eyewearCoverage, eyewearNameSchema, lineNeeds, type EyewearCoverage, type EyewearItem, type HazardAnswerLines } from "@/lib/safety/eyewear";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
+import { labStandard } from "./lab-standard";
 import { assessRevision } from "@/lib/review/hazard";
 import { inScope, scopeHolds } from "./scope";
 import { loadRevision } from "./reviews";
@@ -178,14 +179,7 @@ export async function deleteEyewear(db: Database, actor: Actor, itemId: string):
 }
 
 // ── The lab's safety standard ─────────────────────────────────────────────────────────────────
-export const DEFAULT_STANDARD: SafetyStandard = "ANSI Z136.1-2014";
-
-/** The standard a lab chose; the default when the lab is unknown. No authorization: a lab's standard is not secret. */
-export async function labStandard(db: DbOrTx, labId: string): Promise<SafetyStandard> {
-  if (!z.uuid().safeParse(labId).success) return DEFAULT_STANDARD;
-  const [row] = await db.select({ standard: lab.safetyStandard }).from(lab).where(eq(lab.id, labId));
-  return row?.standard ?? DEFAULT_STANDARD;
-}
+export { DEFAULT_STANDARD, labStandard } from "./lab-standard";
 
 /** An admin or officer picks the standard a lab's hazard figures follow; audited. */
 export async function setLabStandard(db: Database, actor: Actor, labId: string, input: z.infer<typeof labStandardInput>): Promise<{ labId: string; standard: SafetyStandard }> {

@@ -195,3 +195,25 @@ describe("the lines a bench's hazard answer gives", () => {
     ]);
   });
 });
+
+describe("the rail assessment's per-line figures (lines.lines and points[].lines)", () => {
+  it("takes, per line, the highest OD over every point and the free beam", () => {
+    const safety = {
+      laserId: "L",
+      wavelengthNm: 532,
+      governing: { opticalDensityRequired: 4 },
+      lines: { lines: [{ wavelengthNm: 532, main: true, opticalDensityRequired: 2 }, { wavelengthNm: 1064, main: false, opticalDensityRequired: 1.5 }] },
+      points: [
+        { lines: [{ wavelengthNm: 532, opticalDensityRequired: 3.9 }, { wavelengthNm: 1064, opticalDensityRequired: 2.7 }] },
+        { lines: [{ wavelengthNm: 532, opticalDensityRequired: 0 }, { wavelengthNm: 1064, opticalDensityRequired: 0.1 }] },
+      ],
+    };
+    expect(lineNeeds(safety).map((l) => [l.wavelengthNm, l.opticalDensityRequired, l.label])).toEqual([
+      [532, 3.9, "main line"],
+      [1064, 2.7, "line 2"],
+    ]);
+    // Without per-point figures the main line takes the bench's highest OD; a further line keeps its own.
+    const bare = { ...safety, points: [] };
+    expect(lineNeeds(bare).map((l) => l.opticalDensityRequired)).toEqual([4, 1.5]);
+  });
+});
