@@ -4,7 +4,7 @@
 import { useState } from "react";
 import { CoverageList, type CoverageData } from "@/components/eyewear/coverage-list";
 import { fieldError } from "@/lib/api/client";
-import type { BuildView } from "@/lib/server/builds";
+import type { BuildView } from "@/lib/api/contracts/builds";
 import { useCheck } from "./build-queries";
 
 type Item = BuildView["checklist"][number];

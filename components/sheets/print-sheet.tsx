@@ -1,5 +1,5 @@
 import { fmt } from "@/components/review/format";
-import type { SheetContent } from "@/lib/server/build-sheets";
+import type { SheetContent } from "@/lib/build/sheet";
 import type { CoverageData } from "@/components/eyewear/coverage-list";
 import { PrintCoverage, PrintStandard } from "@/components/eyewear/print-coverage";
 import { statedOd } from "@/lib/safety/cautions";

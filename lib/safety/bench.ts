@@ -34,7 +34,14 @@ export type BeamAtElement = {
   incident: IncidentBeam | null;
 };
 
-export type BenchBeam = { elements: readonly BeamAtElement[] };
+/**
+ * Power (mW) inside a centred circle of radius radiusMm on the beam axis at positionMm (arriving at elementId when
+ * given), from the propagated field behind a clipping aperture; null where the plain Gaussian holds. The caller hands
+ * it in (lib/optics fieldPowerProbe), so this module never depends on lib/optics. PRODUCT.md revision 2.
+ */
+export type EnclosedPowerMw = (positionMm: number, radiusMm: number, elementId?: string) => number | null;
+
+export type BenchBeam = { elements: readonly BeamAtElement[]; enclosedPowerMw?: EnclosedPowerMw };
 
 /** Options as the API accepts them (field paths with plain messages). */
 export const benchSafetyOptionsSchema = z.object({
@@ -235,9 +242,18 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
   const correctionAt = new Map<string, number[]>();
 
   const point = (elementId: string, kind: string, where: HazardPoint["where"], positionMm: number, b: BeamState, factors: readonly number[]): HazardPoint => {
+    // behind a clipping aperture: the share of the beam inside each limiting aperture from the propagated field, never a rescaled Gaussian
+    const enclosed = beam.enclosedPowerMw;
+    const shareInside =
+      enclosed === undefined
+        ? undefined
+        : (apertureMm: number): number | null => {
+            const inside = enclosed(positionMm, apertureMm / 2, where === "element" ? elementId : undefined);
+            return inside === null ? null : b.powerMw > 0 ? Math.min(1, inside / b.powerMw) : 0;
+          };
     const perLine = lineList.map((line, i) => {
       const p = b.powerMw * line.share * factors[i];
-      const worst = worstExceedance(line.limit, p, b.radiusMm);
+      const worst = worstExceedance(line.limit, p, b.radiusMm, shareInside);
       const raw = worst.raw === null ? null : worst.raw + allocation[i];
       return { wavelengthNm: line.wavelengthNm, powerMw: Math.max(0, p), opticalDensityRaw: raw, opticalDensityRequired: raw === null ? 0 : Math.max(0, raw), averaged: worst.averagedWPerCm2 };
     });
@@ -250,7 +266,7 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
       positionMm,
       powerMw: Math.max(0, b.powerMw),
       radiusMm: b.radiusMm,
-      peakIrradianceWPerCm2: peakIrradianceWPerCm2(b.powerMw, b.radiusMm),
+      peakIrradianceWPerCm2: Math.max(peakIrradianceWPerCm2(b.powerMw, b.radiusMm), perLine[0].averaged),
       averagedIrradianceWPerCm2: perLine[0].averaged,
       opticalDensityRaw: raw,
       opticalDensityRequired: raw === null ? 0 : Math.max(0, raw),

@@ -8,7 +8,7 @@ import { SheetDownload } from "@/components/sheets/sheet-download";
 import { Refused } from "@/components/shell/refused";
 import { rolesAllow } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
-import { predictionImages } from "@/lib/server/build-sheets";
+import { predictionImages } from "@/lib/build/sheet";
 import { getBuild, loadSignedRevision } from "@/lib/server/builds";
 import { revisionEyewear } from "@/lib/server/eyewear";
 import { pageActor, refusal } from "@/lib/server/page-guard";
