@@ -1,5 +1,5 @@
 import { fmt } from "@/components/review/format";
-import type { SheetContent } from "@/lib/server/build-sheets";
+import type { SheetContent } from "@/lib/build/sheet";
 import { statedOd } from "@/lib/safety/cautions";
 import { ProfilePlot } from "./profile-plot";
 import { ScaleDrawing } from "./scale-drawing";

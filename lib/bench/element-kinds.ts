@@ -31,8 +31,10 @@ export type SymbolGeometry = {
 
 export type ElementKindRecord = {
   kind: TableElementKind;
-  /** What people call it, for lists, drawings and sheets. */
+  /** What people call it, as a heading: lists, drawings and sheets. */
   label: string;
+  /** The lower-case noun for sentences ("beam block"). */
+  noun: string;
   /** The id prefix of a new element ("lens" → "lens-3"). */
   idPrefix: string;
   /** Whether a version 1 (straight rail) document may hold it. */
@@ -59,6 +61,7 @@ const clearApertureField: KindField = {
 export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> = {
   laser: {
     kind: "laser",
+    noun: "laser",
     label: "Laser",
     idPrefix: "laser",
     onRail: true,
@@ -75,6 +78,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   lens: {
     kind: "lens",
+    noun: "lens",
     label: "Lens",
     idPrefix: "lens",
     onRail: true,
@@ -86,7 +90,8 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   aperture: {
     kind: "aperture",
-    label: "Aperture / iris",
+    noun: "aperture",
+    label: "Aperture (iris)",
     idPrefix: "iris",
     onRail: true,
     action: "transmit",
@@ -97,6 +102,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   filter: {
     kind: "filter",
+    noun: "filter",
     label: "Filter",
     idPrefix: "filter",
     onRail: true,
@@ -108,6 +114,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   "beam-block": {
     kind: "beam-block",
+    noun: "beam block",
     label: "Beam block",
     idPrefix: "block",
     onRail: true,
@@ -119,6 +126,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   screen: {
     kind: "screen",
+    noun: "screen",
     label: "Screen",
     idPrefix: "screen",
     onRail: true,
@@ -130,6 +138,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   mirror: {
     kind: "mirror",
+    noun: "mirror",
     label: "Mirror",
     idPrefix: "mirror",
     onRail: false,
@@ -141,6 +150,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   "beam-splitter": {
     kind: "beam-splitter",
+    noun: "beam splitter",
     label: "Beam splitter",
     idPrefix: "splitter",
     onRail: false,
@@ -152,6 +162,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   window: {
     kind: "window",
+    noun: "window",
     label: "Window",
     idPrefix: "window",
     onRail: false,
@@ -171,11 +182,8 @@ export const kindRecord = (kind: string): ElementKindRecord | undefined =>
 /** The label of a kind ("beam-block" → "Beam block"); unknown kinds read as given. */
 export const kindLabel = (kind: string): string => kindRecord(kind)?.label ?? kind;
 
-/** The kind in running text ("beam block", "beam splitter"). */
-export const kindWord = (kind: string): string => {
-  const label = kindLabel(kind);
-  return kind === "aperture" ? "aperture" : label.toLowerCase();
-};
+/** The kind in running text ("beam block", "beam splitter"); unknown kinds read as given. */
+export const kindWord = (kind: string): string => kindRecord(kind)?.noun ?? kind;
 
 /** Editable fields of a kind, with the clear aperture for every optical element on a table. */
 export function tableFieldsOf(kind: TableElementKind): KindField[] {

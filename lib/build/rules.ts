@@ -22,6 +22,17 @@ export const UPLOAD_MAX_BYTES = 10 * 1024 * 1024;
 // ── Sign-off status ───────────────────────────────────────────────────────────────────────────
 export type SignOffStatus = "valid" | "expired" | "superseded" | "not-signed-off";
 
+/** The officer's sign-off as a build sees it. */
+export type SignOffRecord = {
+  signerName: string;
+  signerRole: string;
+  meaning: string;
+  conditions: string | null;
+  validUntil: Date | null;
+  decidedAt: Date;
+  contentHash: string;
+};
+
 /** Whether the sign-off holds now. The review clock marks expiry in the database; the date is checked too, so a late clock never lets a build start. */
 export function signOffStatus(r: { state: ReviewState; decision: { validUntil: Date | null } | null }, now = new Date()): SignOffStatus {
   if (r.state === "superseded") return "superseded";

@@ -3,7 +3,7 @@
 import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import { benchDocumentSchema, type BenchDocument, type LaserElement } from "@/lib/bench/schema";
 import type { HazardSummary } from "@/db/schema";
-import { analyzeBench, type BenchAnalysis } from "@/lib/optics";
+import { analyzeBench, fieldPowerProbe, type BenchAnalysis } from "@/lib/optics";
 import { assessBench, type BenchSafetyAssessment, type BenchSafetyOptions } from "@/lib/safety";
 
 export type RevisionAssessment =
@@ -20,7 +20,7 @@ export function assessRevision(doc: BenchDocument, options: AssessOptions = {}):
   try {
     const analysis = analyzeBench(parsed.data);
     const safetyOptions = (options.standard ? { standard: options.standard } : {}) as BenchSafetyOptions;
-    const safety = assessBench(parsed.data, analysis, safetyOptions);
+    const safety = assessBench(parsed.data, { elements: analysis.elements, enclosedPowerMw: fieldPowerProbe(parsed.data) }, safetyOptions);
     return { ok: true, analysis, safety };
   } catch (error) {
     return { ok: false, problem: error instanceof Error ? error.message : "The hazard engines could not assess this bench." };

@@ -34,7 +34,14 @@ export type BeamAtElement = {
   incident: IncidentBeam | null;
 };
 
-export type BenchBeam = { elements: readonly BeamAtElement[] };
+/**
+ * Power (mW) inside a centred circle of radius radiusMm on the beam axis at positionMm (arriving at elementId when
+ * given), from the propagated field behind a clipping aperture; null where the plain Gaussian holds. The caller hands
+ * it in (lib/optics fieldPowerProbe), so this module never depends on lib/optics. PRODUCT.md revision 2.
+ */
+export type EnclosedPowerMw = (positionMm: number, radiusMm: number, elementId?: string) => number | null;
+
+export type BenchBeam = { elements: readonly BeamAtElement[]; enclosedPowerMw?: EnclosedPowerMw };
 
 /** Options as the API accepts them (field paths with plain messages). */
 export const benchSafetyOptionsSchema = z.object({
@@ -253,8 +260,18 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
   const filterFactor = lineList.map(() => 1);
   const correctionAt = new Map<string, readonly number[]>();
 
-  const point = (elementId: string, kind: string, where: HazardPoint["where"], positionMm: number, b: BeamState, factors: readonly number[]): HazardPoint =>
-    hazardPoint(lineList, allocation, elementId, kind, where, positionMm, b, factors);
+  const point = (elementId: string, kind: string, where: HazardPoint["where"], positionMm: number, b: BeamState, factors: readonly number[]): HazardPoint => {
+    // behind a clipping aperture: the share of the beam inside each limiting aperture from the propagated field, never a rescaled Gaussian
+    const enclosed = beam.enclosedPowerMw;
+    const shareInside =
+      enclosed === undefined
+        ? undefined
+        : (apertureMm: number): number | null => {
+            const inside = enclosed(positionMm, apertureMm / 2, where === "element" ? elementId : undefined);
+            return inside === null ? null : b.powerMw > 0 ? Math.min(1, inside / b.powerMw) : 0;
+          };
+    return hazardPoint(lineList, allocation, elementId, kind, where, positionMm, b, factors, shareInside);
+  };
   const dark = (e: BeamAtElement, radiusMm: number): HazardPoint => ({
     elementId: e.id, kind: e.kind, where: "element", positionMm: e.positionMm, powerMw: 0, radiusMm,
     peakIrradianceWPerCm2: 0, averagedIrradianceWPerCm2: 0, opticalDensityRaw: null, opticalDensityRequired: 0,
@@ -477,6 +494,7 @@ function hazardPoint(
   positionMm: number,
   b: BeamState,
   factors: readonly number[],
+  shareInside?: (limitingApertureMm: number) => number | null,
 ): HazardPoint {
   const lines: NonNullable<HazardPoint["lines"]> = [];
   let raw: number | null = null;
@@ -484,7 +502,7 @@ function hazardPoint(
   for (let i = 0; i < lineList.length; i++) {
     const line = lineList[i];
     const p = b.powerMw * line.share * factors[i];
-    const worst = worstExceedance(line.limit, p, b.radiusMm);
+    const worst = worstExceedance(line.limit, p, b.radiusMm, shareInside);
     const r = worst.raw === null ? null : worst.raw + allocation[i];
     if (i === 0) averagedMain = worst.averagedWPerCm2;
     if (r !== null && (raw === null || r > raw)) raw = r;
@@ -497,7 +515,7 @@ function hazardPoint(
     positionMm,
     powerMw: Math.max(0, b.powerMw),
     radiusMm: b.radiusMm,
-    peakIrradianceWPerCm2: peakIrradianceWPerCm2(b.powerMw, b.radiusMm),
+    peakIrradianceWPerCm2: Math.max(peakIrradianceWPerCm2(b.powerMw, b.radiusMm), averagedMain),
     averagedIrradianceWPerCm2: averagedMain,
     opticalDensityRaw: raw,
     opticalDensityRequired: raw === null ? 0 : Math.max(0, raw),

@@ -7,7 +7,7 @@ import { BuildWorkspace } from "@/components/builds/build-workspace";
 import { SheetDownload } from "@/components/sheets/sheet-download";
 import { Refused } from "@/components/shell/refused";
 import { AppError } from "@/lib/errors";
-import { predictionImages } from "@/lib/server/build-sheets";
+import { predictionImages } from "@/lib/build/sheet";
 import { getBuild, loadSignedRevision } from "@/lib/server/builds";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 
