@@ -47,6 +47,7 @@ import {
   type SignOffStatus,
 } from "@/lib/build/rules";
 import { assessRevision } from "@/lib/review/hazard";
+import { OPTICS_ENGINE_VERSION } from "@/lib/optics/version";
 import { loadRevision } from "./reviews";
 import { inScope, notFoundAs } from "./scope";
 import type { BuildableRow, BuildView, CheckView, checkInput, ObservationView, observationInput, startBuildInput, UploadView } from "@/lib/api/contracts/builds";
@@ -155,19 +156,20 @@ export async function loadBuild(db: DbOrTx, actor: Actor, buildId: string, lock 
   return { build, revision };
 }
 
-function observationView(row: typeof buildObservation.$inferSelect, name: string, predictions: Predictions): ObservationView {
-  const compared = compareObservation(predictions, row);
+/** An observation as recorded: the prediction and the sentences kept with it, never recomputed by a later engine. */
+function observationView(row: typeof buildObservation.$inferSelect, name: string): ObservationView {
   return {
     id: row.id,
     apertureId: row.apertureId,
     centreSeen: row.centreSeen,
     centrePredicted: row.centrePredicted,
     spotDiameterMm: row.spotDiameterMm,
-    predictedSpotDiameterMm: compared.predictedSpotDiameterMm,
+    predictedSpotDiameterMm: row.predictedSpotDiameterMm,
     screenPowerMw: row.screenPowerMw,
     predictedScreenPowerMw: row.predictedScreenPowerMw,
+    predictionEngine: row.predictionEngine,
     mismatch: row.mismatch,
-    reasons: compared.reasons,
+    reasons: row.reasons,
     note: row.note,
     recordedByName: name,
     createdAt: row.createdAt.toISOString(),
@@ -230,7 +232,7 @@ export async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revis
     },
     tolerance: { positionMm: POSITION_TOLERANCE_MM, spotPercent: SPOT_TOLERANCE_FRACTION * 100, powerPercent: POWER_TOLERANCE_FRACTION * 100 },
     checklist,
-    observations: observations.map(({ o, name }) => observationView(o, name, predictions)),
+    observations: observations.map(({ o, name }) => observationView(o, name)),
     uploads: uploads.map(({ u, name }) => ({
       id: u.id,
       kind: u.kind,
@@ -358,7 +360,10 @@ export async function addObservation(db: Database, actor: Actor, buildId: string
         centrePredicted: compared.centrePredicted,
         spotDiameterMm: input.spotDiameterMm ?? null,
         screenPowerMw: input.screenPowerMw ?? null,
+        predictedSpotDiameterMm: compared.predictedSpotDiameterMm,
         predictedScreenPowerMw: compared.predictedScreenPowerMw,
+        predictionEngine: OPTICS_ENGINE_VERSION,
+        reasons: compared.reasons,
         mismatch,
         note: input.note || null,
         recordedBy: actor.userId,
@@ -386,7 +391,7 @@ export async function addObservation(db: Database, actor: Actor, buildId: string
         }),
       );
     }
-    return { observation: observationView(row, actor.name, predictions), build: await buildView(tx, actor, build, revision) };
+    return { observation: observationView(row, actor.name), build: await buildView(tx, actor, build, revision) };
   });
 }
 

@@ -36,6 +36,8 @@ export type ObservationView = {
   predictedSpotDiameterMm: number | null;
   screenPowerMw: number | null;
   predictedScreenPowerMw: number | null;
+  /** The optics engine version the prediction came from; null for records kept before it was stored. */
+  predictionEngine: string | null;
   mismatch: boolean;
   reasons: string[];
   note: string | null;
