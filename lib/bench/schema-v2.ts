@@ -26,7 +26,6 @@ export const MAX_TABLE_SIDE_MM = 20_000;
 export const SAME_SPOT_MM = 1;
 /** Clear aperture of an optical element when the document gives none: one inch (common practice). */
 export const DEFAULT_CLEAR_APERTURE_MM = 25.4;
-export const MAX_LASER_LINES = 8;
 
 const finite = (field: string) =>
   z.number({ error: `${field} must be a number` }).refine(Number.isFinite, `${field} must be a finite number`);
@@ -62,19 +61,8 @@ export const tableSchema = z.object(
   { error: "table must give widthMm, depthMm and holePitchMm" },
 );
 
-export const laserLineSchema = z.object({
-  wavelengthNm: finite("Line wavelength").refine(
-    (v) => v >= MIN_WAVELENGTH_NM && v <= MAX_WAVELENGTH_NM,
-    `Line wavelength must be between ${MIN_WAVELENGTH_NM} nm and 1 mm (${MAX_WAVELENGTH_NM} nm)`,
-  ),
-  powerMw: positive("Line power", "mW", 1e9),
-});
-
-export const laserV2Schema = laserSchema.omit({ positionMm: true }).extend({
-  ...placement,
-  /** Further emission lines leaving with the main beam (residual pump, other harmonics). */
-  lines: z.array(laserLineSchema, { error: "lines must be a list" }).max(MAX_LASER_LINES, `A laser may list at most ${MAX_LASER_LINES} further lines`).optional(),
-});
+/** The version 1 laser (with its further `lines`) less positionMm, placed on the table. */
+export const laserV2Schema = laserSchema.omit({ positionMm: true }).extend(placement);
 export const lensV2Schema = lensSchema.omit({ positionMm: true }).extend({ ...placement, ...clearAperture });
 export const apertureV2Schema = apertureSchema.omit({ positionMm: true }).extend({ ...placement, ...clearAperture });
 export const filterV2Schema = filterSchema.omit({ positionMm: true }).extend({ ...placement, ...clearAperture });
