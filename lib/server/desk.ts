@@ -3,7 +3,7 @@
 import "server-only";
 import { asc, eq, sql } from "drizzle-orm";
 import type { Database } from "@/db";
-import { lab, reviewDecision, type ReviewState } from "@/db/schema";
+import { lab, reviewDecision } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
@@ -19,7 +19,7 @@ import {
   type ApprovalsPage,
   type DeskQuery,
 } from "./desk-queries";
-import { inScope, scopeHolds } from "./scope";
+import { scopeHolds } from "./scope";
 
 export * from "./desk-queries";
 
