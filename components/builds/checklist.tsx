@@ -4,6 +4,7 @@
 import { useState } from "react";
 import { fieldError } from "@/lib/api/client";
 import type { BuildView } from "@/lib/server/builds";
+import { HazardNotes } from "@/components/ui/hazard-notes";
 import { useCheck } from "./build-queries";
 
 type Item = BuildView["checklist"][number];
@@ -82,6 +83,7 @@ export function Checklist({ build }: { build: BuildView }) {
   const groups: { title: string; group: Item["group"] }[] = [
     { title: "Elements at their positions", group: "element" },
     { title: "Controls in place", group: "control" },
+    { title: "Conditions of the sign-off", group: "condition" },
     { title: "Eyewear", group: "eyewear" },
   ];
   const done = build.checklist.filter((c) => c.done).length;
@@ -90,7 +92,7 @@ export function Checklist({ build }: { build: BuildView }) {
       <p className="text-muted">
         {done} of {build.checklist.length} ticked. Each element must sit within ±{build.tolerance.positionMm} mm of its drawn position, measured along the beam.
       </p>
-      {groups.map((g) => (
+      {groups.filter((g) => build.checklist.some((c) => c.group === g.group)).map((g) => (
         <section key={g.group} className="flex flex-col gap-2">
           <h3 className="font-semibold">{g.title}</h3>
           <ul className="flex flex-col gap-2">
@@ -102,6 +104,7 @@ export function Checklist({ build }: { build: BuildView }) {
           </ul>
         </section>
       ))}
+      <HazardNotes />
     </div>
   );
 }

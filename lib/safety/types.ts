@@ -37,6 +37,6 @@ export const SOURCE = {
   productOd: "PRODUCT.md: OD = log10(E/MPE), E = P·(1 − exp(−2r²/w²))/(π r²) over the limiting aperture",
 } as const;
 
-/** The sentence every safety output carries. */
+/** The one sentence every hazard figure carries, on every screen, e-mail and sheet (components use it as it is). */
 export const FINAL_SAY =
-  "Advisory only: the institution's laser safety officer and local regulations have the final word; Benchwarden never authorises work on its own.";
+  "These figures are advice: the institution's laser safety officer and local regulations decide.";

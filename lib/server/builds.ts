@@ -27,7 +27,7 @@ import { observationMismatchMail } from "@/lib/mail/build-mail";
 import { enqueueMail } from "@/lib/mail/outbox";
 import { screenProfile } from "@/lib/optics";
 import type { BenchSafetyAssessment } from "@/lib/safety";
-import { statedOd } from "@/lib/safety/cautions";
+import { capitalise, eyewearWords, formatDate } from "@/lib/format";
 import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
@@ -103,7 +103,7 @@ export function signOffStatus(r: { state: ReviewState; decision: { validUntil: D
 }
 
 export function signOffSentence(r: { number: number; decision: { validUntil: Date | null } | null }, status: SignOffStatus): string {
-  const until = r.decision?.validUntil ? r.decision.validUntil.toISOString().slice(0, 10) : null;
+  const until = r.decision?.validUntil ? formatDate(r.decision.validUntil) : null;
   switch (status) {
     case "valid":
       return until ? `Signed off, valid until ${until}.` : "Signed off.";
@@ -197,7 +197,7 @@ export async function listBuildable(db: Database, actor: Actor): Promise<Buildab
 // ── The checklist, generated from the bench ───────────────────────────────────────────────────
 export type ChecklistItem = {
   itemKey: string;
-  group: "element" | "control" | "eyewear";
+  group: "element" | "control" | "condition" | "eyewear";
   label: string;
   detail: string;
   elementId: string | null;
@@ -225,8 +225,19 @@ function elementSettings(e: BenchDocument["elements"][number]): string {
 
 export { elementSettings, KIND_WORDS as ELEMENT_KIND_WORDS };
 
-/** The items to tick: each element at its position (±POSITION_TOLERANCE_MM), each control the cautions call for, the eyewear. */
-export function checklistFor(doc: BenchDocument, safety: BenchSafetyAssessment | null): ChecklistItem[] {
+/** The officer's conditions as separate lines to tick: one per line or per ";"-separated clause. */
+export function conditionLines(conditions: string | null | undefined): string[] {
+  return (conditions ?? "")
+    .split(/\r?\n|;\s+/)
+    .map((l) => l.trim().replace(/[.;]+$/, ""))
+    .filter((l) => l.length > 0);
+}
+
+/**
+ * The items to tick: each element at its position (±POSITION_TOLERANCE_MM), each control the cautions call for, each
+ * condition of the officer's sign-off, the eyewear (worded by the one OD rule, lib/format eyewearWords).
+ */
+export function checklistFor(doc: BenchDocument, safety: BenchSafetyAssessment | null, conditions?: string | null): ChecklistItem[] {
   const elements = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm || a.id.localeCompare(b.id));
   const items: ChecklistItem[] = elements.map((e) => ({
     itemKey: `element:${e.id}`,
@@ -240,16 +251,17 @@ export function checklistFor(doc: BenchDocument, safety: BenchSafetyAssessment |
     if (c.id === "eyewear-od") continue; // the eyewear line below covers it, with the figure
     items.push({ itemKey: `control:${c.id}`, group: "control", label: c.title, detail: c.text, elementId: null, expectedPositionMm: null });
   }
+  conditionLines(conditions).forEach((line, i) => {
+    items.push({ itemKey: `condition:${i + 1}`, group: "condition", label: line, detail: "A condition of the laser safety officer's sign-off.", elementId: null, expectedPositionMm: null });
+  });
   const od = safety?.governing?.opticalDensityRequired ?? 0;
   const wavelength = safety?.wavelengthNm ?? doc.elements.find((e) => e.kind === "laser")?.wavelengthNm;
+  const eyewear = eyewearWords(od, wavelength);
   items.push({
     itemKey: "eyewear",
     group: "eyewear",
-    label: od > 0 ? `Eyewear of OD ${statedOd(od)} or more at ${wavelength} nm, for everyone present` : "Eyewear: none needed by the estimate",
-    detail:
-      od > 0
-        ? `Check the marking on each pair for ${wavelength} nm; eyewear made for another laser may not protect at all.`
-        : "The estimate needs no eyewear (OD 0); follow local rules, which may ask for it anyway.",
+    label: eyewear.wholeOd > 0 ? `${eyewear.wear}, for everyone present` : eyewear.wear,
+    detail: eyewear.wholeOd > 0 ? `${capitalise(eyewear.need)}. ${eyewear.check}` : `${capitalise(eyewear.need)}; follow local rules, which may ask for eyewear anyway.`,
     elementId: null,
     expectedPositionMm: null,
   });
@@ -313,14 +325,14 @@ const round3 = (v: number) => Number(v.toPrecision(3));
 /** Compares what was seen with what was predicted; each difference becomes one sentence. */
 export function compareObservation(
   predictions: Predictions,
-  seen: { apertureId?: string | null; centreSeen?: "bright" | "dark" | "unclear" | null; spotDiameterMm?: number | null; screenPowerMw?: number | null },
+  seen: { apertureId?: string | null; centreSeen?: "bright" | "dark" | "between" | "unclear" | null; spotDiameterMm?: number | null; screenPowerMw?: number | null },
 ): { centrePredicted: string | null; predictedSpotDiameterMm: number | null; predictedScreenPowerMw: number | null; reasons: string[] } {
   const aperture = seen.apertureId ? predictions.apertures.find((a) => a.apertureId === seen.apertureId) : undefined;
   const centrePredicted = aperture?.centre ?? null;
   const predictedSpot = aperture ? aperture.spotDiameterMm : (predictions.screen?.beamDiameterMm ?? null);
   const predictedPower = aperture ? aperture.screenPowerMw : (predictions.screen?.powerMw ?? null);
   const reasons: string[] = [];
-  if (seen.centreSeen && centrePredicted && seen.centreSeen !== "unclear" && centrePredicted !== "between" && seen.centreSeen !== centrePredicted) {
+  if (seen.centreSeen && centrePredicted && seen.centreSeen !== "unclear" && seen.centreSeen !== "between" && centrePredicted !== "between" && seen.centreSeen !== centrePredicted) {
     reasons.push(`Centre: predicted ${centrePredicted}, seen ${seen.centreSeen}.`);
   }
   if (seen.spotDiameterMm != null && predictedSpot != null && predictedSpot > 0 && Math.abs(seen.spotDiameterMm - predictedSpot) > SPOT_TOLERANCE_FRACTION * predictedSpot) {
@@ -337,7 +349,8 @@ export type CheckView = ChecklistItem & { done: boolean; measuredPositionMm: num
 export type ObservationView = {
   id: string;
   apertureId: string | null;
-  centreSeen: "bright" | "dark" | "unclear" | null;
+  /** "unclear" is the older code of "between". */
+  centreSeen: "bright" | "dark" | "between" | "unclear" | null;
   centrePredicted: string | null;
   spotDiameterMm: number | null;
   predictedSpotDiameterMm: number | null;
@@ -415,8 +428,8 @@ function observationView(row: typeof buildObservation.$inferSelect, name: string
 }
 
 function whyNotSignOff(build: BuildRow, revision: SignedRevision, checklist: CheckView[], actor: Actor): string | null {
-  if (build.state === "completed") return "This build is already signed off.";
-  if (build.technicianId !== actor.userId) return "Only the technician who started this build can sign it off.";
+  if (build.state === "completed") return "This build is already completed.";
+  if (build.technicianId !== actor.userId) return "Only the technician who started this build can complete it.";
   const status = signOffStatus(revision);
   if (status !== "valid") return signOffSentence(revision, status);
   const open = checklist.filter((c) => !c.done);
@@ -428,7 +441,7 @@ function whyNotSignOff(build: BuildRow, revision: SignedRevision, checklist: Che
 
 async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revision: SignedRevision): Promise<BuildView> {
   const assessed = assessRevision(revision.document);
-  const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null);
+  const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions);
   const checks = await db.select().from(buildCheck).where(eq(buildCheck.buildId, build.id));
   const byKey = new Map(checks.map((c) => [c.itemKey, c]));
   const checklist: CheckView[] = items.map((i) => {
@@ -458,7 +471,7 @@ async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revision: Si
   const [technician] = await db.select({ name: user.name }).from(user).where(eq(user.id, build.technicianId));
   const status = signOffStatus(revision);
   const mayRecord = build.state === "in-progress" && status === "valid" && canRecord(actor);
-  const why = canRecord(actor) ? whyNotSignOff(build, revision, checklist, actor) : "Only a technician can sign off a build.";
+  const why = canRecord(actor) ? whyNotSignOff(build, revision, checklist, actor) : "Only a technician can complete a build.";
   return {
     id: build.id,
     state: build.state,
@@ -539,7 +552,7 @@ export async function startBuild(db: Database, actor: Actor, input: z.infer<type
       .values({ revisionId: revision.id, benchId: revision.benchId, contentHash: revision.contentHash, technicianId: actor.userId })
       .returning();
     const assessed = assessRevision(revision.document);
-    const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null);
+    const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions);
     await tx.insert(buildCheck).values(items.map((i) => ({ buildId: build.id, itemKey: i.itemKey })));
     await recordAudit(tx, { ...auditBase(actor, revision), action: "build-started", detail: { buildId: build.id, number: revision.number, items: items.length } });
     return { build: await buildView(tx, actor, build, revision), created: true };
@@ -572,7 +585,7 @@ export async function updateCheck(db: Database, actor: Actor, buildId: string, i
     const { build, revision } = await loadBuild(tx, actor, buildId, true);
     assertRecordable(build, revision);
     const assessed = assessRevision(revision.document);
-    const item = checklistFor(revision.document, assessed.ok ? assessed.safety : null).find((i) => i.itemKey === input.itemKey);
+    const item = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions).find((i) => i.itemKey === input.itemKey);
     if (!item) throw new AppError("bad-request", `There is no checklist item "${input.itemKey}" on this build.`, [{ path: "itemKey", message: "No such item" }]);
     if (input.measuredPositionMm !== undefined && item.expectedPositionMm === null) {
       throw new AppError("bad-request", `"${item.label}" has no position to measure.`, [{ path: "measuredPositionMm", message: "This item has no position" }]);
@@ -604,7 +617,7 @@ export async function updateCheck(db: Database, actor: Actor, buildId: string, i
 export const observationInput = z
   .object({
     apertureId: z.string().min(1).max(64).nullable().optional(),
-    centreSeen: z.enum(["bright", "dark", "unclear"], { error: "The centre is bright, dark or unclear" }).nullable().optional(),
+    centreSeen: z.enum(["bright", "dark", "between", "unclear"], { error: "The centre is bright, dark or between" }).nullable().optional(),
     spotDiameterMm: z
       .number({ error: "The spot or ring diameter must be a number of millimetres" })
       .refine((v) => Number.isFinite(v) && v > 0 && v <= 10_000, "The spot or ring diameter must be between 0 and 10000 mm")

@@ -25,6 +25,7 @@ import { ROLE_LABELS, parseRoles, rolesAllow } from "@/lib/auth/permissions";
 import { contentHash } from "@/lib/bench/canonical";
 import { diffBenches, type BenchDiff } from "@/lib/bench/diff";
 import { benchDocumentSchema, describeIssues, type BenchDocument } from "@/lib/bench/schema";
+import { endOfDayInZone } from "@/lib/format/date";
 import { AppError, notFound } from "@/lib/errors";
 import { enqueueMail } from "@/lib/mail/outbox";
 import {
@@ -291,10 +292,15 @@ function addMonths(date: Date, months: number): Date {
   return d;
 }
 
-/** The end of the given day (UTC), checked to lie in the future and within the longest validity. */
+/** The end of the given day in the lab's time zone, checked to lie in the future and within the longest validity. */
 function validityEnd(now: Date, day: string | undefined): Date {
   if (!day) return addMonths(now, DEFAULT_VALIDITY_MONTHS);
-  const end = new Date(`${day}T23:59:59.999Z`);
+  let end: Date;
+  try {
+    end = endOfDayInZone(day);
+  } catch {
+    end = new Date(Number.NaN);
+  }
   if (Number.isNaN(end.getTime()) || end.getTime() <= now.getTime()) {
     throw new AppError("bad-request", "The sign-off must hold until a day after today.", [{ path: "validUntil", message: "Choose a day after today" }]);
   }

@@ -11,7 +11,8 @@ import { AppError } from "@/lib/errors";
 import { listLabs } from "@/lib/server/people";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 import { getLaser, listResponsibleCandidates } from "@/lib/server/register";
-import { FINAL_SAY } from "@/lib/safety";
+import { HazardNotes } from "@/components/ui/hazard-notes";
+import { plainText } from "@/lib/format";
 
 export const metadata = { title: "Laser" };
 
@@ -57,10 +58,12 @@ export default async function LaserPage({ params }: { params: Promise<{ laserId:
         <ClassCheck labelClass={laser.labelClass} computed={laser.computed} long />
         <ul className="mt-3 list-disc pl-5 text-sm text-muted">
           {laser.computed.reasons.map((r) => (
-            <li key={r}>{r}</li>
+            <li key={r}>{plainText(r)}</li>
           ))}
         </ul>
-        <p className="mt-3 text-sm text-muted">{FINAL_SAY}</p>
+        <div className="mt-3">
+          <HazardNotes />
+        </div>
       </section>
       <dl className="grid gap-x-6 gap-y-3 rounded-xl border border-line bg-panel p-5 sm:grid-cols-2">
         {facts.map(([k, val]) => (
