@@ -13,8 +13,9 @@ export function ApertureTable({ apertures, selectedId, onSelect }: { apertures: 
         <thead className="bg-raised text-muted">
           <tr>
             <th className="px-2 py-1.5 font-medium">Aperture</th>
-            <th className="px-2 py-1.5 font-medium" title="Fresnel number (R²/λ)(1/ρ + 1/b)">N</th>
-            <th className="px-2 py-1.5 font-medium">Zones</th>
+            <th className="px-2 py-1.5 font-medium" title="The Fresnel number N = (R²/λ)(1/ρ + 1/b): how many half-period zones the aperture exposes">
+              Half-period zones (N)
+            </th>
             <th className="px-2 py-1.5 font-medium">Regime</th>
             <th className="px-2 py-1.5 font-medium">Centre</th>
             <th className="px-2 py-1.5 font-medium" title="On-axis intensity with the aperture ÷ without it">Ratio</th>
@@ -30,7 +31,6 @@ export function ApertureTable({ apertures, selectedId, onSelect }: { apertures: 
                 </button>
                 <span className="block text-xs text-muted">⌀ {a.diameterMm} mm{a.observationDistanceMm !== null ? `, ${sig(a.observationDistanceMm)} mm to ${a.screenId}` : ", no screen"}</span>
               </td>
-              <td className="px-2 py-1.5 font-mono">{sig(a.fresnelNumber)}</td>
               <td className="px-2 py-1.5 font-mono" data-testid="zone-count">{sig(a.zonesExposed)}</td>
               <td className="px-2 py-1.5">{REGIME_WORDS[a.regime] ?? a.regime}</td>
               <td className="px-2 py-1.5" data-testid="centre">

@@ -37,7 +37,7 @@ import { useScreenFinder } from "./use-screen-finder";
 import { fitAll, mmAt, zoomAbout, type View } from "./view";
 import type { ElementPatch } from "./editor-reducer";
 import { sig } from "./format";
-import { VERTICAL_EXAGGERATION } from "@/lib/format";
+import { CENTRE_WORDS, VERTICAL_EXAGGERATION } from "@/lib/format";
 
 const BenchCanvas = dynamic(() => import("./bench-canvas").then((m) => m.BenchCanvas), {
   ssr: false,
@@ -397,6 +397,11 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
                 {selectedApertureId ? (
                   <FinderPanel
                     apertureId={selectedApertureId}
+                    current={
+                      selectedAperture && selectedAperture.screenId && selectedAperture.observationDistanceMm !== null
+                        ? { positionMm: selectedAperture.positionMm + selectedAperture.observationDistanceMm, centre: selectedAperture.centre, zones: selectedAperture.zonesExposed }
+                        : null
+                    }
                     range={finder.range}
                     data={finder.data}
                     stale={finder.stale || staleLook}
@@ -431,7 +436,7 @@ function PredictionState({ analysis }: { analysis: ReturnType<typeof useAnalysis
     text = `Predictions failed: ${analysis.error}`;
     tone = "border-danger text-danger";
   } else if (analysis.stale || (analysis.fetching && !analysis.data)) text = "◌ updating…";
-  const summary = (analysis.data?.analysis.apertures ?? []).map((a) => `${a.id}: ${sig(a.zonesExposed)} zones, ${a.centre} centre`).join("; ");
+  const summary = (analysis.data?.analysis.apertures ?? []).map((a) => `${a.id}: ${sig(a.zonesExposed)} zones, ${CENTRE_WORDS[a.centre]}`).join("; ");
   return (
     <>
       {text ? (

@@ -25,7 +25,7 @@ export function capitalise(text: string): string {
 export const BUILD_DONE = { verb: "Complete the build", done: "Build completed", past: "completed" } as const;
 
 /** The one name for checking a printed sheet against the record. */
-export const SHEET_CHECK = "Check a printed sheet";
+export const SHEET_CHECK = "Check a sheet";
 
 /** The one name for the drawing's vertical scale of the beam radius. */
 export const VERTICAL_EXAGGERATION = "Vertical exaggeration of the beam";
@@ -68,3 +68,44 @@ export function plainText(text: string): string {
     .replace(/\s{2,}/g, " ")
     .trim();
 }
+
+/** The trail's events in words (the audit action codes stay in the CSV beside them). */
+export const ACTION_WORDS: Record<string, string> = {
+  "bench-created": "Bench created",
+  "draft-saved": "Draft saved",
+  "draft-revision-started": "New draft revision started",
+  "revision-made": "Revision made",
+  "review-submitted": "Sent for review",
+  "review-withdrawn": "Withdrawn from review",
+  "review-approved": "Signed off",
+  "review-changes-requested": "Changes asked",
+  "review-rejected": "Turned down",
+  "review-superseded": "Sign-off replaced by a newer one",
+  "review-expired": "Sign-off expired",
+  "review-comment": "Comment written",
+  "sign-off-password-refused": "Signing refused: wrong password",
+  "build-sheet-requested": "Build sheet requested",
+  "build-sheet-exported": "Build sheet downloaded",
+  "sheet-verified": "Sheet checked against its hash",
+  "build-started": "Build started",
+  "build-check-recorded": "Checklist line recorded",
+  "build-observation-recorded": "Observation recorded",
+  "build-upload-stored": "Photo or file uploaded",
+  "build-signed-off": "Build completed",
+  "desk-exported-trail": "Trail exported",
+};
+
+/** A revision's review state in words, the same as the state badges. */
+export const REVIEW_STATE_WORDS: Record<string, string> = {
+  draft: "Draft",
+  submitted: "Waiting for review",
+  approved: "Signed off",
+  "changes-requested": "Changes asked",
+  rejected: "Turned down",
+  withdrawn: "Withdrawn",
+  expired: "Sign-off expired",
+  superseded: "Replaced by a newer sign-off",
+};
+
+/** A decision's outcome in words. */
+export const OUTCOME_WORDS: Record<string, string> = { approved: "Signed off", "changes-requested": "Changes asked", rejected: "Turned down" };

@@ -28,6 +28,7 @@ import { enqueueMail } from "@/lib/mail/outbox";
 import { screenProfile } from "@/lib/optics";
 import type { BenchSafetyAssessment } from "@/lib/safety";
 import { capitalise, eyewearWords, formatDate } from "@/lib/format";
+import { conditionLines } from "./builds-conditions";
 import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
@@ -224,14 +225,6 @@ function elementSettings(e: BenchDocument["elements"][number]): string {
 }
 
 export { elementSettings, KIND_WORDS as ELEMENT_KIND_WORDS };
-
-/** The officer's conditions as separate lines to tick: one per line or per ";"-separated clause. */
-export function conditionLines(conditions: string | null | undefined): string[] {
-  return (conditions ?? "")
-    .split(/\r?\n|;\s+/)
-    .map((l) => l.trim().replace(/[.;]+$/, ""))
-    .filter((l) => l.length > 0);
-}
 
 /**
  * The items to tick: each element at its position (±POSITION_TOLERANCE_MM), each control the cautions call for, each

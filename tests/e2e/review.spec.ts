@@ -68,7 +68,7 @@ test("a bench goes from draft to signed off in the browser", async ({ browser })
   await expect(officer).toHaveURL(new RegExp(`/reviews/${revisionId}$`));
   await expect(officer.getByRole("heading", { name: "Laser hazard" })).toBeVisible();
   await expect(officer.getByTestId("hazard-panel").getByText(/^Class (1|1M|2|2M|3R|3B|4)$/)).toBeVisible();
-  await expect(officer.getByText("Eyewear OD needed (highest on the bench)")).toBeVisible();
+  await expect(officer.getByText("Eyewear (highest need on the bench)")).toBeVisible();
   await expect(officer.getByRole("img", { name: /Side view of the bench/ })).toBeVisible();
   await expect(officer.getByText(/No earlier revision of this bench was signed off/)).toBeVisible();
   await officer.screenshot({ path: `${shots}/review-3-review-screen.png`, fullPage: true });

@@ -106,7 +106,7 @@ describe("GET /api/inbox", () => {
     expect(after.count).toBe(before.count + 1);
     const item = after.items.find((i) => i.id === `bench-${b.benchId}`)!;
     expect(item.title).toBe(title);
-    expect(item.detail).toBe("Changes asked for on revision 1 · 1 new comment in the last 7 days");
+    expect(item.detail).toBe("Changes asked on revision 1 · 1 new comment in the last 7 days");
     expect(item.href).toBe(`/reviews/${b.revisionId}`);
     // Another lab's researcher (the student) never sees it.
     const student = await section(cookie.student, "researcher");

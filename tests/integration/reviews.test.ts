@@ -129,7 +129,8 @@ describe("the whole review cycle", () => {
       for (const part of [mail.text, mail.html]) {
         expect(part).toContain(b.contentHash);
         expect(part).toContain("Eyewear OD 2 at 633 nm");
-        expect(part).toContain(`/reviews/${b.revisionId}`);
+        // the author opens the revision; the technician lands where the build is started
+        expect(part).toContain(to === DEMO.technician ? `/builds#revision-${b.revisionId}` : `/reviews/${b.revisionId}`);
       }
     }
     const seen = await call("GET", `/api/revisions/${b.revisionId}`, cookie.researcher);

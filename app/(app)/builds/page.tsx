@@ -29,7 +29,7 @@ export default async function BuildsPage() {
         {rows.map((r) => {
           const mine = r.builds.find((b) => b.state === "in-progress");
           return (
-            <li key={r.revisionId} className={`flex flex-col gap-3 rounded-xl border bg-panel p-4 ${r.status === "valid" ? "border-line" : "border-danger/60"}`} data-testid={`buildable-${r.revisionId}`}>
+            <li key={r.revisionId} className={`flex flex-col gap-3 rounded-xl border bg-panel p-4 ${r.status === "valid" ? "border-line" : "border-danger/60"}`} data-testid={`buildable-${r.revisionId}`} id={`revision-${r.revisionId}`}>
               <div className="flex flex-wrap items-center gap-3">
                 <h2 className="text-lg font-semibold">{r.title}</h2>
                 <span className="text-muted">revision {r.number}</span>
