@@ -86,10 +86,16 @@ export const verification = pgTable(
 );
 
 // ── Labs and people ────────────────────────────────────────────────────────────────────────
+/** The laser safety standards a lab may choose to assess its benches against. */
+export const SAFETY_STANDARDS = ["ANSI Z136.1-2014", "IEC 60825-1:2014"] as const;
+export type SafetyStandard = (typeof SAFETY_STANDARDS)[number];
+
 export const lab = pgTable("lab", {
   id: uuid("id").primaryKey().defaultRandom(),
   name: text("name").notNull().unique(),
   room: text("room"),
+  /** The standard this lab's hazard figures follow (chosen by an admin or officer). */
+  safetyStandard: text("safety_standard").$type<SafetyStandard>().notNull().default("ANSI Z136.1-2014"),
   ...timestamps,
 });
 
@@ -345,6 +351,8 @@ export const laserRegister = pgTable(
     pulseEnergyMj: doublePrecision("pulse_energy_mj"),
     pulseDurationS: doublePrecision("pulse_duration_s"),
     pulseRepetitionRateHz: doublePrecision("pulse_repetition_rate_hz"),
+    /** Further emission lines with their own power (residual pump, other harmonics); null when none. */
+    lines: jsonb("lines").$type<{ wavelengthNm: number; powerMw: number }[]>(),
     /** 1/e² diameter at the exit, as datasheets give it. */
     beamDiameterMm: doublePrecision("beam_diameter_mm").notNull(),
     /** 1/e² full-angle divergence, as datasheets give it. */
@@ -408,7 +416,11 @@ export const buildRecord = pgTable(
     signedOffAt: timestamp("signed_off_at", { withTimezone: true }),
     ...timestamps,
   },
-  (t) => [index("build_record_revision_idx").on(t.revisionId)],
+  (t) => [
+    index("build_record_revision_idx").on(t.revisionId),
+    // One open build per revision and technician: two simultaneous starts make one build.
+    uniqueIndex("build_record_one_open_idx").on(t.revisionId, t.technicianId).where(sql`${t.state} = 'in-progress'`),
+  ],
 );
 
 /** One line of the as-built checklist: an element placed, a control in place, eyewear available. */
@@ -478,4 +490,61 @@ export const upload = pgTable(
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index("upload_build_idx").on(t.buildId)],
+);
+
+// ── Eyewear on the lab's shelf: laser protective eyewear, each with its protected bands ─────
+/** One pair (or model) of laser protective eyewear a lab keeps. */
+export const eyewearItem = pgTable(
+  "eyewear_item",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    labId: uuid("lab_id")
+      .notNull()
+      .references(() => lab.id),
+    name: text("name").notNull(),
+    /** How many pairs are on the shelf. */
+    quantity: integer("quantity").notNull().default(1),
+    note: text("note"),
+    /** Optimistic-concurrency counter. */
+    version: integer("version").notNull().default(1),
+    ...timestamps,
+  },
+  (t) => [index("eyewear_item_lab_idx").on(t.labId)],
+);
+
+/** A wavelength band an eyewear item protects, with its optical density and, where known, its EN 207 scale number. */
+export const eyewearBand = pgTable(
+  "eyewear_band",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    itemId: uuid("item_id")
+      .notNull()
+      .references(() => eyewearItem.id, { onDelete: "cascade" }),
+    /** Order of the band within the item, from 0. */
+    position: integer("position").notNull(),
+    fromNm: doublePrecision("from_nm").notNull(),
+    toNm: doublePrecision("to_nm").notNull(),
+    opticalDensity: doublePrecision("optical_density").notNull(),
+    /** EN 207 scale number (the n of LB n), 1–10; null when not marked. */
+    en207ScaleNumber: integer("en207_scale_number"),
+  },
+  (t) => [uniqueIndex("eyewear_band_item_position_idx").on(t.itemId, t.position)],
+);
+
+/**
+ * Attempts at a secret (sign-in, the signing step-up) counted per account and per client address, in
+ * the database so every app server sees the same count. A row is written before the password is
+ * checked and removed when it was right; what stays are failures and attempts still running.
+ */
+export const authAttempt = pgTable(
+  "auth_attempt",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    /** "sign-in" or "step-up". */
+    scope: text("scope").notNull(),
+    /** "account:<e-mail or user id>" or "address:<client address>". */
+    subject: text("subject").notNull(),
+    attemptedAt: timestamp("attempted_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("auth_attempt_subject_idx").on(t.scope, t.subject, t.attemptedAt)],
 );

@@ -1,4 +1,4 @@
-import type { TrailEntry } from "@/lib/server/desk";
+import type { TrailEntry } from "@/lib/server/trail";
 
 import { ACTION_WORDS, centreWords, formatDate, formatDateTime, formatNumber } from "@/lib/format";
 

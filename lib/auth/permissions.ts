@@ -13,6 +13,8 @@ export const statements = {
   lab: ["read", "manage"],
   mail: ["read"],
   analysis: ["run"],
+  eyewear: ["read", "manage"],
+  standard: ["set"],
 } as const;
 
 export const ac = createAccessControl(statements);
@@ -35,6 +37,7 @@ export const roles = {
     register: ["read"],
     lab: ["read"],
     analysis: ["run"],
+    eyewear: ["read"],
   }),
   officer: ac.newRole({
     bench: ["read"],
@@ -43,6 +46,8 @@ export const roles = {
     audit: ["read"],
     lab: ["read"],
     analysis: ["run"],
+    eyewear: ["read", "manage"],
+    standard: ["set"],
   }),
   technician: ac.newRole({
     bench: ["read"],
@@ -50,6 +55,7 @@ export const roles = {
     register: ["read"],
     lab: ["read"],
     analysis: ["run"],
+    eyewear: ["read"],
   }),
   auditor: ac.newRole({
     bench: ["read"],
@@ -58,11 +64,13 @@ export const roles = {
     register: ["read"],
     audit: ["read", "export"],
     lab: ["read"],
+    eyewear: ["read"],
   }),
   admin: ac.newRole({
     ...adminAc.statements,
     lab: ["read", "manage"],
     mail: ["read"],
+    standard: ["set"],
   }),
 };
 

@@ -20,20 +20,20 @@ import { eyewearWords } from "@/lib/format";
 import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
+import { loadSignedRevision, type SignedRevision } from "./builds";
 import {
   checklistFor,
-  ELEMENT_KIND_WORDS,
   elementSettings,
-  loadSignedRevision,
   POSITION_TOLERANCE_MM,
   predictionsFor,
   signOffSentence,
   signOffStatus,
   type ChecklistItem,
-  type SignedRevision,
   type SignOffStatus,
-} from "./builds";
-import { assessRevision } from "./review-hazard";
+} from "@/lib/build/rules";
+import { kindTitle } from "@/lib/bench/kinds";
+import { assessRevision } from "@/lib/review/hazard";
+import { notFoundAs } from "./scope";
 
 export const PAPERS = ["A4", "Letter"] as const;
 export const SHEET_TIMEOUT_MS = 90_000;
@@ -193,14 +193,11 @@ export async function requestSheet(db: Database, actor: Actor, revisionId: strin
       [row] = await db.select().from(buildSheet).where(and(eq(buildSheet.revisionId, r.id), eq(buildSheet.paper, paper)));
     }
   }
-  await recordAudit(db, {
-    actorId: actor.userId,
-    actorRole: actor.roles.join(","),
+  await recordAudit(db, actor, {
     action: "build-sheet-requested",
     benchId: r.benchId,
     revisionId: r.id,
     contentHash: r.contentHash,
-    ipAddress: actor.ipAddress,
     detail: { sheetId: row.id, paper, reused },
   });
   return { sheet: sheetView(row), reused };
@@ -224,12 +221,7 @@ export async function downloadSheet(db: Database, actor: Actor, sheetId: string)
   if (!z.uuid().safeParse(sheetId).success) throw notFound("The build sheet");
   const [row] = await db.select().from(buildSheet).where(eq(buildSheet.id, sheetId));
   if (!row) throw notFound("The build sheet");
-  let r: SignedRevision;
-  try {
-    r = await loadSignedRevision(db, actor, row.revisionId);
-  } catch {
-    throw notFound("The build sheet");
-  }
+  const r = await notFoundAs("The build sheet", loadSignedRevision(db, actor, row.revisionId));
   assertSheetAllowed(actor, r, signOffStatus(r));
   if (row.state !== "ready" || !row.storageKey) {
     throw new AppError("conflict", row.state === "failed" ? (row.error ?? "The build sheet could not be made; ask for it again.") : `The build sheet is not ready yet (${row.progressPercent} %).`);
@@ -237,14 +229,11 @@ export async function downloadSheet(db: Database, actor: Actor, sheetId: string)
   if (row.contentHash !== r.contentHash) throw new AppError("conflict", "This sheet was made for a different version of the drawing; ask for the sheet again.");
   const bytes = await storage().get(row.storageKey);
   if (!bytes) throw new AppError("conflict", "The stored PDF is missing; ask for the build sheet again and it will be made anew.");
-  await recordAudit(db, {
-    actorId: actor.userId,
-    actorRole: actor.roles.join(","),
+  await recordAudit(db, actor, {
     action: "build-sheet-exported",
     benchId: r.benchId,
     revisionId: r.id,
     contentHash: r.contentHash,
-    ipAddress: actor.ipAddress,
     detail: { sheetId: row.id, paper: row.paper, sizeBytes: bytes.length },
   });
   return { bytes, fileName: `build-sheet-${slug(r.benchTitle)}-rev${r.number}-${r.contentHash.slice(0, 8)}-${row.paper}.pdf` };
@@ -345,7 +334,7 @@ export function buildSteps(doc: BenchDocument, safety: BenchSafetyAssessment | n
         : e.kind === "screen"
           ? [settings, ...(cautionIds.has("screen-backstop") ? ["Mount a beam block directly behind the screen."] : [])]
           : [settings];
-    steps.push({ title: `Mount ${ELEMENT_KIND_WORDS[e.kind]?.toLowerCase() ?? e.kind} ${e.id} ${at}`, lines });
+    steps.push({ title: `Mount ${kindTitle(e.kind).toLowerCase()} ${e.id} ${at}`, lines });
   }
   const first = elements.find((e) => e.kind !== "laser");
   steps.push({
@@ -428,7 +417,7 @@ async function computeDrawingContent(doc: BenchDocument, url: string): Promise<D
   const origin = laser?.positionMm ?? 0;
   const parts = [...doc.elements]
     .sort((a, b) => a.positionMm - b.positionMm || a.id.localeCompare(b.id))
-    .map((e) => ({ id: e.id, kind: e.kind, kindWord: ELEMENT_KIND_WORDS[e.kind] ?? e.kind, positionMm: e.positionMm, fromLaserMm: e.positionMm - origin, settings: elementSettings(e) }));
+    .map((e) => ({ id: e.id, kind: e.kind, kindWord: kindTitle(e.kind), positionMm: e.positionMm, fromLaserMm: e.positionMm - origin, settings: elementSettings(e) }));
   const predictions = predictionsFor(doc);
   const apertures: SheetAperture[] = (analysis?.apertures ?? []).map((a) => {
     const p = predictions.apertures.find((x) => x.apertureId === a.id);

@@ -18,7 +18,7 @@ test.beforeAll(async () => {
   const pool = new pg.Pool({ connectionString: databaseUrl(), max: 1 });
   try {
     const researcher = await signIn(DEMO.researcher);
-    const labId = await labIdByName(researcher.cookie, "Coherent Imaging Lab");
+    const labId = await labIdByName(researcher.cookie, "Wrenfield Imaging Lab");
     const created = await createDrawnBench(pool, researcher.cookie, labId, sampleBench(title, { powerMw: 4 }));
     revisionId = created.revisionId;
     contentHash = created.contentHash;

@@ -24,7 +24,7 @@ test.beforeAll(async () => {
   try {
     const researcher = await signIn(DEMO.researcher);
     const officer = await signIn(DEMO.officer);
-    const labId = await labIdByName(researcher.cookie, "Coherent Imaging Lab");
+    const labId = await labIdByName(researcher.cookie, "Wrenfield Imaging Lab");
     const b = await createDrawnBench(pool, researcher.cookie, labId, sampleBench(title));
     await call("POST", `/api/revisions/${b.revisionId}/submit`, researcher.cookie, { contentHash: b.contentHash });
     const decided = await call("POST", `/api/revisions/${b.revisionId}/decision`, officer.cookie, { outcome: "approve", contentHash: b.contentHash, password: DEMO_PASSWORD, conditions: "Enclosure closed." });

@@ -57,7 +57,7 @@ type Json = Record<string, unknown>;
 type Sheet = { id: string; state: string; progressPercent: number; error: string | null; downloadUrl: string | null };
 
 async function approvedRevision(t: string, doc: BenchDocument = sampleBench(t)) {
-  const labId = await labIdByName(cookie.researcher, "Coherent Imaging Lab");
+  const labId = await labIdByName(cookie.researcher, "Wrenfield Imaging Lab");
   const b = await createDrawnBench(pool, cookie.researcher, labId, doc);
   expect((await call("POST", `/api/revisions/${b.revisionId}/submit`, cookie.researcher, { contentHash: b.contentHash })).status).toBe(200);
   const decided = await call("POST", `/api/revisions/${b.revisionId}/decision`, cookie.officer, { outcome: "approve", contentHash: b.contentHash, password: DEMO_PASSWORD, conditions: CONDITIONS });
@@ -182,7 +182,7 @@ describe("the build sheet PDF", () => {
   }, 180_000);
 
   it("refuses a sheet of a revision that is not signed off, and hides other labs' revisions", async () => {
-    const labId = await labIdByName(cookie.researcher, "Coherent Imaging Lab");
+    const labId = await labIdByName(cookie.researcher, "Wrenfield Imaging Lab");
     const draft = await createDrawnBench(pool, cookie.researcher, labId, sampleBench(`Draft sheet ${run}`));
     const res = await call("POST", `/api/revisions/${draft.revisionId}/sheet`, cookie.technician, { paper: "A4" });
     expect(res.status).toBe(409);

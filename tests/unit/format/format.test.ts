@@ -1,7 +1,7 @@
 // The one formatter for people: figures (Intl), dates in the lab's zone, the eyewear OD rule, plain engine text.
 import { describe, expect, it } from "vitest";
 import { computedOdText, endOfDayInZone, eyewearWords, formatDate, formatDateTime, formatNumber, nohdWords, plainText, wholeOdToWear } from "../../../lib/format";
-import { conditionLines } from "../../../lib/server/builds-conditions";
+import { conditionLines } from "../../../lib/build/conditions";
 
 describe("formatNumber", () => {
   it("writes powers of ten with superscript exponents and keeps three significant figures", () => {

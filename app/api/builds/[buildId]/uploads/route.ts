@@ -1,7 +1,8 @@
 import { getDb } from "@/db";
 import { AppError } from "@/lib/errors";
 import { apiRoute, parseWith } from "@/lib/server/api";
-import { addUpload, assertUploadSize, uploadKindInput, UPLOAD_MAX_BYTES } from "@/lib/server/builds";
+import { assertUploadSize, UPLOAD_MAX_BYTES } from "@/lib/build/rules";
+import { addUpload, uploadKindInput } from "@/lib/server/builds";
 
 // multipart/form-data with "file" and "kind". The size is checked before the body is read when the
 // client declares it; the type is checked from the file's first bytes, never its name.
