@@ -1,3 +1,4 @@
+import { formatDateTime } from "@/lib/format";
 import Link from "next/link";
 import type { ReviewState } from "@/db/schema";
 import { StateBadge } from "@/components/ui/state-badge";
@@ -34,7 +35,7 @@ export function BenchTable({ rows, empty, caption }: { rows: BenchRow[]; empty: 
                 #{r.number} · {r.contentHash.slice(0, 10)}
               </td>
               <td className="px-3 py-3">{r.state ? <StateBadge state={r.state} /> : null}</td>
-              <td className="px-3 py-3 text-sm text-muted">{r.updatedAt.slice(0, 16).replace("T", " ")} UTC</td>
+              <td className="px-3 py-3 text-sm text-muted">{formatDateTime(r.updatedAt)}</td>
             </tr>
           ))}
         </tbody>

@@ -1,4 +1,5 @@
 "use client";
+import { formatDate, formatDateTime } from "@/lib/format";
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 import Link from "next/link";
 import { Button } from "@/components/ui/button";
@@ -8,12 +9,12 @@ import { useDeskUrl } from "./use-desk-url";
 
 const DAY_MS = 86_400_000;
 const column = createColumnHelper<ApprovalRow>();
-const utc = (iso: string) => `${iso.slice(0, 16).replace("T", " ")} UTC`;
+const utc = (iso: string) => formatDateTime(iso);
 
 function validity(row: ApprovalRow, nowMs: number) {
   if (!row.validUntil) return <span className="text-muted">—</span>;
   const days = Math.ceil((Date.parse(row.validUntil) - nowMs) / DAY_MS);
-  const when = row.validUntil.slice(0, 10);
+  const when = formatDate(row.validUntil);
   if (row.state !== "approved") return <span className="text-muted">{when}</span>;
   if (days <= 30) {
     return (

@@ -1,3 +1,4 @@
+import { formatDateTime } from "@/lib/format";
 import Link from "next/link";
 import { StateBadge } from "@/components/ui/state-badge";
 import type { BenchTrail } from "@/lib/server/trail";
@@ -24,7 +25,7 @@ export function RevisionList({ revisions }: { revisions: BenchTrail["revisions"]
               <td className="px-3 py-2">
                 <StateBadge state={r.state} />
               </td>
-              <td className="px-3 py-2 text-sm text-muted">{r.createdAt.slice(0, 16).replace("T", " ")} UTC</td>
+              <td className="px-3 py-2 text-sm text-muted">{formatDateTime(r.createdAt)}</td>
             </tr>
           ))}
         </tbody>

@@ -1,3 +1,4 @@
+import { formatDate } from "@/lib/format";
 import { getDb } from "@/db";
 import { InviteForm } from "@/components/admin/invite-form";
 import { PersonActions } from "@/components/admin/person-actions";
@@ -65,7 +66,7 @@ export default async function PeoplePage() {
           <ul className="flex flex-col gap-1">
             {invitations.map((i) => (
               <li key={i.id}>
-                {i.name} · {i.email} · {i.roles.map((r) => ROLE_LABELS[r]).join(", ")} <span className="text-sm text-muted">(link works until {i.expiresAt.slice(0, 10)})</span>
+                {i.name} · {i.email} · {i.roles.map((r) => ROLE_LABELS[r]).join(", ")} <span className="text-sm text-muted">(link works until {formatDate(i.expiresAt)})</span>
               </li>
             ))}
           </ul>

@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { notFound } from "next/navigation";
 import { getDb } from "@/db";
 import { ClassCheck } from "@/components/register/class-check";
 import { LaserForm } from "@/components/register/laser-form";
@@ -25,6 +26,7 @@ export default async function LaserPage({ params }: { params: Promise<{ laserId:
   try {
     laser = await getLaser(getDb(), actor, laserId);
   } catch (error) {
+    if (error instanceof AppError && error.status === 404) notFound();
     if (error instanceof AppError) return <Refused reason={error.message} />;
     throw error;
   }
