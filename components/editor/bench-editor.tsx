@@ -37,7 +37,7 @@ import { useScreenFinder } from "./use-screen-finder";
 import { fitAll, mmAt, zoomAbout, type View } from "./view";
 import type { ElementPatch } from "./editor-reducer";
 import { sig } from "./format";
-import { CENTRE_WORDS, VERTICAL_EXAGGERATION } from "@/lib/format";
+import { CENTRE_WORDS, VERTICAL_EXAGGERATION, plainText } from "@/lib/format";
 
 const BenchCanvas = dynamic(() => import("./bench-canvas").then((m) => m.BenchCanvas), {
   ssr: false,
@@ -467,7 +467,7 @@ function WarningsList({ analysis, onSelect }: { analysis: ReturnType<typeof useA
                 {w.elementId}
               </button>
             ) : null}
-            {w.message}
+            {plainText(w.message)}
           </li>
         ))}
       </ul>

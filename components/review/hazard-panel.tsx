@@ -45,7 +45,7 @@ export function HazardPanel({ safety }: { safety: BenchSafetyAssessment }) {
           ) : (
             <>
               <span aria-hidden="true" className="text-danger">✕ </span>
-              <strong>Class mismatch:</strong> {label.warning}
+              <strong>Class mismatch:</strong> {plainText(label.warning ?? "")}
             </>
           )
         ) : (
@@ -57,7 +57,7 @@ export function HazardPanel({ safety }: { safety: BenchSafetyAssessment }) {
           {safety.warnings.map((w, i) => (
             <li key={`${w.code}-${i}`} className="rounded-md border border-warn/60 px-3 py-2">
               <span aria-hidden="true" className="text-warn">▲ </span>
-              {w.message}
+              {plainText(w.message)}
             </li>
           ))}
         </ul>

@@ -1,6 +1,6 @@
 import { fmt } from "@/components/review/format";
 import { displayedCautions } from "@/components/ui/cautions";
-import { capitalise, CENTRE_WORDS, eyewearWords, formatDate, formatDateTime, HAZARD_LABELS, nohdWords, ONE_OVER_E_NOTE, plainText } from "@/lib/format";
+import { capitalise, CENTRE_WORDS, eyewearWords, formatDate, formatDateTime, HAZARD_LABELS, nohdWords, ONE_OVER_E_NOTE, plainText, limitationText } from "@/lib/format";
 import { FINAL_SAY, LIMITATIONS } from "@/lib/safety";
 import type { SheetContent } from "@/lib/server/build-sheets";
 import { ProfilePlot } from "./profile-plot";
@@ -146,8 +146,9 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
                   <br />
                   {p.kindWord}
                 </td>
-                <td className="num big">{fmt(p.positionMm, 6)} mm</td>
-                <td className="num">{fmt(Number(p.fromLaserMm.toFixed(2)), 6)} mm</td>
+                {/* positions as the ruler reads them, the same digits as the build order (no grouping) */}
+                <td className="num big">{p.positionMm} mm</td>
+                <td className="num">{Number(p.fromLaserMm.toFixed(2))} mm</td>
                 <td>
                   {p.settings}
                   {p.kind === "laser" ? <RegisterLine register={sheet.register} /> : null}
@@ -161,8 +162,9 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
         </p>
       </section>
 
-      {/* ── Build order and the paper checklist ────────────────────────────────────────── */}
-      <section className="page">
+      {/* ── Build order and the paper checklist (flows on after the parts list: a forced page break here left
+          page 2 nearly empty whenever the parts list ran over page 1) ──────────────────────────────────── */}
+      <section>
         <h2>Build order</h2>
         <ol className="steps">
           {sheet.steps.map((s, i) => (
@@ -260,7 +262,7 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
             <h3 style={{ marginTop: 0 }}>Notes on the predictions</h3>
             <ul>
               {analysis.warnings.map((w, i) => (
-                <li key={i}>{w.message}</li>
+                <li key={i}>{plainText(w.message)}</li>
               ))}
             </ul>
           </div>
@@ -307,7 +309,7 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
                   <tr>
                     <th>Label class</th>
                     <td>Class {safety.laser.labelCheck.labelClass}</td>
-                    <td>{safety.laser.labelCheck.matches ? "matches the estimate" : safety.laser.labelCheck.warning}</td>
+                    <td>{safety.laser.labelCheck.matches ? "matches the estimate" : plainText(safety.laser.labelCheck.warning ?? "")}</td>
                   </tr>
                 ) : null}
               </tbody>
@@ -323,7 +325,7 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
             {safety.warnings.length ? (
               <ul>
                 {safety.warnings.map((w, i) => (
-                  <li key={i}>{w.message}</li>
+                  <li key={i}>{plainText(w.message)}</li>
                 ))}
               </ul>
             ) : null}
@@ -335,7 +337,7 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
         <ul className="scope">
           <li>{ONE_OVER_E_NOTE}</li>
           {LIMITATIONS.map((l) => (
-            <li key={l.id}>{plainText(l.text)}</li>
+            <li key={l.id}>{limitationText(l)}</li>
           ))}
         </ul>
         <p className="warn">{FINAL_SAY}</p>

@@ -1,7 +1,7 @@
 // Beside every hazard result: the one deferral sentence, and the hazard engine's scope limits (what it does not cover).
 import { LIMITATIONS } from "@/lib/safety/limitations";
 import { FINAL_SAY } from "@/lib/safety/types";
-import { ONE_OVER_E_NOTE, plainText } from "@/lib/format";
+import { limitationText, ONE_OVER_E_NOTE } from "@/lib/format";
 
 /** The deferral sentence, the same everywhere a hazard figure appears. */
 export function FinalSay({ className = "" }: { className?: string }) {
@@ -21,7 +21,7 @@ export function HazardScope({ open = false, oneOverE = true }: { open?: boolean;
       <ul className="mt-2 flex list-disc flex-col gap-1 pl-5 text-muted">
         {oneOverE ? <li>{ONE_OVER_E_NOTE}</li> : null}
         {LIMITATIONS.map((l) => (
-          <li key={l.id}>{plainText(l.text)}</li>
+          <li key={l.id}>{limitationText(l)}</li>
         ))}
       </ul>
     </details>

@@ -62,6 +62,12 @@ export function plainText(text: string): string {
     .replace(/,\s*recalled\)/gi, `; ${UNCHECKED})`)
     .replace(/\(recalled[^)]*\)/gi, `(${UNCHECKED})`)
     .replace(/\brecalled\b/gi, "not yet checked")
+    .replace(/\bso its zone count and centre prediction are moot\b/g, "so its zone count and centre prediction do not apply")
+    .replace(/\bare moot\b/g, "do not apply")
+    .replace(/\bis moot\b/g, "does not apply")
+    .replace(/\b(?:this|the) engine(?:'s)? estimates\b/gi, "Benchwarden estimates")
+    .replace(/\bby this engine\b/gi, "by Benchwarden")
+    .replace(/\bthe engine's\b/gi, "Benchwarden's")
     .replace(/\bPRODUCT\.md[,:;]?\s*/g, "")
     .replace(/\s*\(\s*\)/g, "")
     .replace(/\b[\w./-]+\.(?:tsx?|md|json|mjs)\b/g, "")
@@ -109,3 +115,11 @@ export const REVIEW_STATE_WORDS: Record<string, string> = {
 
 /** A decision's outcome in words. */
 export const OUTCOME_WORDS: Record<string, string> = { approved: "Signed off", "changes-requested": "Changes asked", rejected: "Turned down" };
+
+/** A scope limit of the hazard engine as a lab user reads it (the "values not yet checked" entry in our words). */
+export function limitationText(limitation: { id: string; text: string }): string {
+  if (limitation.id === "from-memory") {
+    return `Some table values of the standards are ${UNCHECKED}. The correction factors C_A, C_B, C_C, T1, T2 and the repetitive-pulse rules were checked against Directive 2006/25/EC Annex II.`;
+  }
+  return plainText(limitation.text);
+}

@@ -154,7 +154,13 @@ describe("the build sheet PDF", () => {
     expect(text).toContain(`Signed off by ${approved.signerName}`);
     expect(text).toContain("Meaning Approved for operation as drawn, with the conditions listed.");
     expect(text).toContain(`Conditions ${CONDITIONS}`);
-    expect(text).toMatch(/Valid until \d{4}-\d{2}-\d{2}/);
+    expect(text).toMatch(/Valid until \d{1,2} [A-Z][a-z]{2} \d{4} \(to the end of that day\)/); // one date format, the lab's zone
+    // The hash is printed unbroken (one line), never split across lines.
+    expect(all).toContain(approved.contentHash);
+    // The sheet's figures are advice; work is authorised by the sign-off; the scope limits are on the safety page.
+    expect(text).toContain("Work is authorised by the sign-off above, under its conditions");
+    expect(text).toContain("What these hazard figures do not cover");
+    expect(text).not.toMatch(/from memory|recalled|PRODUCT\.md|never authorises/);
     // Every page: the running footer and its page number.
     pages.forEach((page, i) => {
       expect(flat(page)).toContain("Uncontrolled when printed — check the online record");
