@@ -29,6 +29,8 @@ export class AppError extends Error {
     readonly code: ErrorCode,
     message: string,
     readonly fields: FieldProblem[] = [],
+    /** Data the client needs beside the sentence, sent at the top level of the body (a 409 sends the server's `current` copy). */
+    readonly extra: Record<string, unknown> = {},
   ) {
     super(message);
     this.status = STATUS[code];

@@ -4,7 +4,7 @@
 import { useQuery } from "@tanstack/react-query";
 import { Button } from "@/components/ui/button";
 import { ProfilePlot } from "@/components/sheets/profile-plot";
-import type { BuildView, ObservationView } from "@/lib/server/builds";
+import type { BuildView, ObservationView } from "@/lib/api/contracts/builds";
 import { BUILD_DONE, capitalise, CENTRE_MARKS, centreWords, formatDateTime, formatNumber, type CentreState } from "@/lib/format";
 import { buildQuery, useSignOff } from "./build-queries";
 import { Checklist } from "./checklist";

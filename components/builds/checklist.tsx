@@ -3,7 +3,7 @@
 // stated tolerance), each control and the eyewear ticked. Flags carry a word and a shape, not colour alone.
 import { useState } from "react";
 import { fieldError } from "@/lib/api/client";
-import type { BuildView } from "@/lib/server/builds";
+import type { BuildView } from "@/lib/api/contracts/builds";
 import { HazardNotes } from "@/components/ui/hazard-notes";
 import { useCheck } from "./build-queries";
 

@@ -1,4 +1,4 @@
-import type { DecisionView } from "@/lib/server/reviews";
+import type { DecisionView } from "@/lib/api/contracts/reviews";
 import { FinalSay } from "@/components/ui/hazard-notes";
 import { eyewearWords, nohdWords } from "@/lib/format";
 import { day, fmt, utc } from "./format";

@@ -2,7 +2,7 @@ import { fmt } from "@/components/review/format";
 import { displayedCautions } from "@/components/ui/cautions";
 import { capitalise, CENTRE_WORDS, eyewearWords, formatDate, formatDateTime, HAZARD_LABELS, nohdWords, ONE_OVER_E_NOTE, plainText, limitationText } from "@/lib/format";
 import { FINAL_SAY, LIMITATIONS } from "@/lib/safety";
-import type { SheetContent } from "@/lib/server/build-sheets";
+import type { SheetContent } from "@/lib/build/sheet";
 import { ProfilePlot } from "./profile-plot";
 import { ScaleDrawing } from "./scale-drawing";
 

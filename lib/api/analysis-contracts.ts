@@ -2,6 +2,11 @@
 // and the browser. The bench document itself is lib/bench/schema.ts.
 import { z } from "zod";
 import { benchDocumentSchema, MAX_POSITION_MM } from "@/lib/bench/schema";
+import { anyBenchDocumentSchema } from "@/lib/bench/schema-v2";
+
+/** POST /api/analyze: a bench document of either version (1: a rail; 2: a table with paths and open beams). */
+export const analyzeRequestSchema = anyBenchDocumentSchema;
+export type AnalyzeRequest = z.infer<typeof analyzeRequestSchema>;
 
 const positionMm = (field: string) =>
   z

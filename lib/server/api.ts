@@ -12,7 +12,7 @@ export const MAX_BODY_BYTES = 256 * 1024;
 export function errorResponse(error: unknown): NextResponse {
   if (error instanceof AppError) {
     return NextResponse.json(
-      { error: { code: error.code, message: error.message, fields: error.fields } },
+      { ...error.extra, error: { code: error.code, message: error.message, fields: error.fields } },
       { status: error.status },
     );
   }

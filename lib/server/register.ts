@@ -1,5 +1,6 @@
 // The laser register: the institution's inventory of lasers, kept by the safety officers and read by
 // everyone in the labs. Computed classes come from lib/safety (IEC 60825-1:2014 class limits); labels are never changed.
+import { laserAveragePowerMw } from "@/lib/bench/laser-power";
 import "server-only";
 import { and, asc, eq, inArray, sql, type SQL } from "drizzle-orm";
 import { z } from "zod";
@@ -310,8 +311,9 @@ export async function checkBenchAgainstRegister(db: DbOrTx, actor: Actor, docume
       blocksSubmission: true,
     });
   }
-  if (laser.powerMw > entry.maxPowerMw * (1 + 1e-9)) {
-    warnings.push({ code: "power-above-register", elementId: id, message: `The bench sets ${fmt(laser.powerMw)} mW, above the register's maximum of ${fmt(entry.maxPowerMw)} mW for ${name}.`, blocksSubmission: false });
+  const averageMw = laserAveragePowerMw(laser);
+  if (averageMw !== null && averageMw > entry.maxPowerMw * (1 + 1e-9)) {
+    warnings.push({ code: "power-above-register", elementId: id, message: `The bench sets ${fmt(averageMw)} mW, above the register's maximum of ${fmt(entry.maxPowerMw)} mW for ${name}.`, blocksSubmission: false });
   }
   if (!entry.wavelengthsNm.some((w) => Math.abs(w - laser.wavelengthNm) <= WAVELENGTH_TOLERANCE_NM)) {
     warnings.push({
@@ -337,6 +339,7 @@ export async function checkBenchAgainstRegister(db: DbOrTx, actor: Actor, docume
     computedClass = classifyBeam({
       wavelengthNm: laser.wavelengthNm,
       powerMw: laser.powerMw,
+      pulseEnergyJ: laser.pulseEnergyJ,
       beamDiameterMm: laser.beamDiameterMm,
       divergenceMrad: entry.divergenceMrad,
       ...(laser.pulseDurationS !== undefined ? { pulseDurationS: laser.pulseDurationS, pulseRepetitionRateHz: laser.pulseRepetitionRateHz } : {}),

@@ -8,7 +8,7 @@ import { SheetDownload } from "@/components/sheets/sheet-download";
 import { Refused } from "@/components/shell/refused";
 import { AppError } from "@/lib/errors";
 import { BUILD_DONE, formatDate } from "@/lib/format";
-import { predictionImages } from "@/lib/server/build-sheets";
+import { predictionImages } from "@/lib/build/sheet";
 import { getBuild, loadSignedRevision } from "@/lib/server/builds";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 

@@ -2,7 +2,8 @@ import { getDb } from "@/db";
 import { AppError } from "@/lib/errors";
 import { apiRoute, parseWith } from "@/lib/server/api";
 import { assertUploadSize, UPLOAD_MAX_BYTES } from "@/lib/build/rules";
-import { addUpload, uploadKindInput } from "@/lib/server/builds";
+import { uploadKindInput } from "@/lib/api/contracts/builds";
+import { addUpload } from "@/lib/server/build-uploads";
 
 // multipart/form-data with "file" and "kind". The size is checked before the body is read when the
 // client declares it; the type is checked from the file's first bytes, never its name.
