@@ -8,7 +8,7 @@ export type BenchRow = { href?: string; benchId: string; title: string; labName:
 export function BenchTable({ rows, empty, caption }: { rows: BenchRow[]; empty: string; caption: string }) {
   if (rows.length === 0) return <p className="rounded-lg border border-dashed border-line p-4 text-muted">{empty}</p>;
   return (
-    <div className="overflow-x-auto rounded-lg border border-line">
+    <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
       <table className="w-full text-left">
         <caption className="sr-only">{caption}</caption>
         <thead className="bg-raised text-sm text-muted">

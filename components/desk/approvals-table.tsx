@@ -99,7 +99,7 @@ export function ApprovalsTable({ rows, total, page, pageSize, pageCount, sort, d
       <p role="status" className="text-muted" data-testid="desk-count">
         {total === 0 ? "No sign-off matches these filters." : `Showing ${first}–${last} of ${total} sign-off${total === 1 ? "" : "s"}.`}
       </p>
-      <div className={`overflow-x-auto rounded-lg border border-line ${pending ? "opacity-60" : ""}`}>
+      <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className={`overflow-x-auto rounded-lg border border-line ${pending ? "opacity-60" : ""}`}>
         <table className="w-full text-left" data-testid="approvals-table">
           <caption className="sr-only">Sign-offs, {sort} {dir === "asc" ? "ascending" : "descending"}</caption>
           <thead className="bg-raised text-sm text-muted">

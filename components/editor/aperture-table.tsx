@@ -7,7 +7,7 @@ import { REGIME_WORDS, sig } from "./format";
 export function ApertureTable({ apertures, selectedId, onSelect }: { apertures: ApertureAnalysis[]; selectedId: string | null; onSelect: (id: string) => void }) {
   if (apertures.length === 0) return <p className="text-sm text-muted">No aperture is lit, so there is no diffraction pattern to predict.</p>;
   return (
-    <div className="overflow-x-auto rounded-md border border-line">
+    <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-md border border-line">
       <table className="w-full text-left text-sm" data-testid="aperture-table">
         <caption className="sr-only">Fresnel analysis per aperture</caption>
         <thead className="bg-raised text-muted">

@@ -6,7 +6,7 @@ import type { BenchTrail } from "@/lib/server/trail";
 /** The bench's revisions with their content hashes and where each stands now; drafts have no review page. */
 export function RevisionList({ revisions }: { revisions: BenchTrail["revisions"] }) {
   return (
-    <div className="overflow-x-auto rounded-lg border border-line">
+    <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
       <table className="w-full text-left">
         <caption className="sr-only">Revisions of this bench</caption>
         <thead className="bg-raised text-sm text-muted">

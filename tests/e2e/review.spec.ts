@@ -8,6 +8,8 @@ import { createDrawnBench, databaseUrl, labIdByName, sampleBench } from "../supp
 
 // The dev server compiles a route on its first request; allow for that after each action.
 const expect = baseExpect.configure({ timeout: 15_000 });
+// the whole sign-off cycle in two browsers: minutes on a loaded two-core machine
+test.setTimeout(180_000);
 
 const title = `E2E iris bench ${Date.now().toString(36)}`;
 const shots = "test-results/screenshots";

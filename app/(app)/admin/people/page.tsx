@@ -21,7 +21,7 @@ export default async function PeoplePage() {
       <div>
         <h1 className="mb-1 text-2xl font-semibold">People</h1>
         <p className="mb-4 text-muted">A deactivated person cannot sign in; everything they drew, wrote and signed stays in the record under their name.</p>
-        <div className="overflow-x-auto rounded-lg border border-line">
+        <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
           <table className="w-full text-left" data-testid="people-table">
             <thead className="bg-raised text-sm text-muted">
               <tr>

@@ -48,7 +48,7 @@ export default async function BenchTrailPage({ params }: { params: Promise<{ ben
         <h2 id="revisions-heading" className="mb-2 text-lg font-semibold">
           Revisions
         </h2>
-        <div className="overflow-x-auto rounded-lg border border-line">
+        <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
           <table className="w-full text-left">
             <thead className="bg-raised text-sm text-muted">
               <tr>
