@@ -5,8 +5,9 @@ import type { BenchSafetyAssessment } from "@/lib/safety";
 import { eyewearWords, formatNumber, HAZARD_LABELS, nohdWords, plainText } from "@/lib/format";
 import { HazardNotes } from "@/components/ui/hazard-notes";
 import { displayedCautions } from "@/components/ui/cautions";
+import { EditorCoverage, type LabShelfData } from "@/components/eyewear/editor-coverage";
 
-export function SafetyPanel({ safety }: { safety: BenchSafetyAssessment | undefined }) {
+export function SafetyPanel({ safety, shelf = null }: { safety: BenchSafetyAssessment | undefined; shelf?: LabShelfData | null }) {
   if (!safety) return null;
   const od = safety.governing;
   const eyewear = eyewearWords(od?.opticalDensityRequired ?? 0, safety.wavelengthNm);
@@ -41,6 +42,7 @@ export function SafetyPanel({ safety }: { safety: BenchSafetyAssessment | undefi
           </dd>
         </div>
       </dl>
+      {shelf ? <EditorCoverage shelf={shelf} safety={safety} /> : null}
       {cautions.length ? (
         <details className="mt-3">
           <summary className="cursor-pointer text-sm font-medium">Cautions ({cautions.length})</summary>

@@ -3,6 +3,8 @@ import { displayedCautions } from "@/components/ui/cautions";
 import { capitalise, CENTRE_WORDS, eyewearWords, formatDate, formatDateTime, HAZARD_LABELS, nohdWords, ONE_OVER_E_NOTE, plainText, limitationText } from "@/lib/format";
 import { FINAL_SAY, LIMITATIONS } from "@/lib/safety";
 import type { SheetContent } from "@/lib/build/sheet";
+import type { CoverageData } from "@/components/eyewear/coverage-list";
+import { PrintCoverage, PrintStandard } from "@/components/eyewear/print-coverage";
 import { ProfilePlot } from "./profile-plot";
 import { ScaleDrawing } from "./scale-drawing";
 
@@ -75,12 +77,12 @@ function day(d: Date | string | null | undefined): string {
   return formatDate(d);
 }
 
-export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" | "Letter" }) {
+export function PrintSheet({ sheet, paper, eyewear = null }: { sheet: SheetContent; paper: "A4" | "Letter"; eyewear?: CoverageData | null }) {
   const { revision, decision, safety, analysis } = sheet;
   const governing = safety?.governing ?? null;
   const od = governing?.opticalDensityRequired ?? 0;
   const wavelength = sheet.laser?.wavelengthNm;
-  const eyewear = eyewearWords(od, wavelength);
+  const eyewearText = eyewearWords(od, wavelength);
   const cautions = safety ? displayedCautions(safety.cautions) : [];
   return (
     <div className="sheet" data-print-ready="" data-paper={paper}>
@@ -272,6 +274,7 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
       {/* ── Safety and approval ─────────────────────────────────────────────────────────── */}
       <section className="page">
         <h2>Laser safety</h2>
+        {eyewear ? <PrintStandard data={eyewear} safety={safety} /> : null}
         {safety ? (
           <>
             <div className="grid2" style={{ marginBottom: "3mm" }}>
@@ -285,12 +288,13 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
               <div className="box">
                 <p style={{ margin: 0 }}>{HAZARD_LABELS.eyewear}</p>
                 <p className="big" style={{ fontSize: "16pt", margin: 0 }} data-testid="sheet-eyewear">
-                  {eyewear.wear}
+                  {eyewearText.wear}
                 </p>
-                <p style={{ margin: 0 }}>{capitalise(eyewear.need)}</p>
+                <p style={{ margin: 0 }}>{capitalise(eyewearText.need)}</p>
                 <p style={{ margin: 0, fontSize: "9.5pt" }}>{governing ? `Highest ${governing.where === "element" ? "at" : "at the focus after"} ${governing.elementId}, ${fmt(governing.positionMm)} mm. ${plainText(governing.source)}` : "No light reaches anything."}</p>
               </div>
             </div>
+            {eyewear ? <PrintCoverage data={eyewear} asOf={new Date().toISOString().slice(0, 10)} /> : null}
             <table style={{ marginBottom: "3mm" }}>
               <tbody>
                 <tr>
