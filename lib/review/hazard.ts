@@ -28,16 +28,17 @@ export function assessRevision(doc: BenchDocument, options: AssessOptions = {}):
 }
 
 /** What is stored with a signature: enough to show, years later, what the officer saw. */
-export function hazardSummary(doc: BenchDocument): HazardSummary {
+export function hazardSummary(doc: BenchDocument, options: AssessOptions = {}): HazardSummary {
   const laser = doc.elements.find((e): e is LaserElement => e.kind === "laser");
   const laserFacts = laser
     ? { id: laser.id, wavelengthNm: laser.wavelengthNm, powerMw: laserBeamPowerMw(laser), beamDiameterMm: laser.beamDiameterMm, m2: laser.m2 ?? 1, registerId: laser.registerId ?? null }
     : null;
-  const assessed = assessRevision(doc);
+  const assessed = assessRevision(doc, options);
   if (!assessed.ok) return { engine: "unavailable", problem: assessed.problem, laser: laserFacts };
   const { safety, analysis } = assessed;
   return {
     engine: "lib/safety assessBench + lib/optics analyzeBench",
+    standard: (safety as { standard?: string }).standard ?? options.standard ?? null,
     laser: laserFacts,
     hazardClass: { value: safety.laser.hazardClass, source: safety.laser.figures.hazardClass.source },
     labelCheck: safety.laser.labelCheck ? { warning: safety.laser.labelCheck.warning ?? null } : null,

@@ -36,6 +36,7 @@ import {
   type Recipient,
   type RevisionMailContext,
 } from "@/lib/mail/review-mail";
+import { labStandard } from "./lab-standard";
 import { recordAudit } from "./audit";
 import { authorize, authorizeLab, type Actor } from "./authorize";
 import { hazardSummary } from "@/lib/review/hazard";
@@ -280,7 +281,7 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
             .where(and(eq(benchRevision.benchId, r.benchId), eq(benchRevision.state, "approved"), lt(benchRevision.number, r.number)))
             .for("update")),
         );
-        summary = hazardSummary(parsed.data);
+        summary = hazardSummary(parsed.data, { standard: await labStandard(tx, r.labId) });
       }
       const signerRole = ROLE_LABELS.officer;
       const [decision] = await tx
