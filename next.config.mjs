@@ -6,6 +6,8 @@ const nextConfig = {
   typedRoutes: false,
   // The build checks the app's own code; scripts and tests are checked by `tsc` in npm test.
   typescript: { tsconfigPath: "tsconfig.build.json" },
+  // forbidden() from next/navigation: a page a role may not open answers 403 (app/forbidden.tsx), not 200.
+  experimental: { authInterrupts: true },
 };
 
 export default nextConfig;
