@@ -13,8 +13,8 @@ function median(xs: number[]): number {
 }
 
 /**
- * One laser along y = 100 mm on a 3 × 1.5 m table: 28 lenses, filters and irises on the main line, 4 tilted windows
- * (their ghosts go back across the table), 6 splitters each sending an arm of 9 optics and a block up the table,
+ * One laser along y = 100 mm on a 3 × 1.5 m table: 26 lenses and filters and 2 irises on the main line, 4 tilted windows
+ * (their ghosts go back across the table), 6 splitters each sending an arm of 8 lenses and filters, an iris and a block up the table,
  * and a block at the end: 100 elements.
  */
 export function hundredElementTable(): BenchDocumentV2 {
@@ -30,9 +30,9 @@ export function hundredElementTable(): BenchDocumentV2 {
       for (let j = 0; j < 9; j++) {
         const y = 250 + j * 110;
         const id = `arm${k}-${j}`;
-        if (j % 3 === 0) elements.push({ id, kind: "lens", xMm: x, yMm: y, angleDeg: 270, focalLengthMm: j === 0 ? 150 : 300 });
-        else if (j % 3 === 1) elements.push({ id, kind: "filter", xMm: x, yMm: y, angleDeg: 270, opticalDensity: 0.2 });
-        else elements.push({ id, kind: "aperture", xMm: x, yMm: y, angleDeg: 270, diameterMm: 4 + j });
+        if (j === 4) elements.push({ id, kind: "aperture", xMm: x, yMm: y, angleDeg: 270, diameterMm: 6 });
+        else if (j % 2 === 0) elements.push({ id, kind: "lens", xMm: x, yMm: y, angleDeg: 270, focalLengthMm: j === 0 ? 150 : 300 });
+        else elements.push({ id, kind: "filter", xMm: x, yMm: y, angleDeg: 270, opticalDensity: 0.2 });
       }
       elements.push({ id: `arm${k}-block`, kind: "beam-block", xMm: x, yMm: 1300, angleDeg: 270 });
     } else if (windowSlots.has(slot)) {
@@ -40,9 +40,9 @@ export function hundredElementTable(): BenchDocumentV2 {
       elements.push({ id: `w${k}`, kind: "window", xMm: x, yMm: 100, angleDeg: 184 });
     } else {
       const id = `main-${main++}`;
-      if (main % 4 === 0) elements.push({ id, kind: "lens", xMm: x, yMm: 100, angleDeg: 180, focalLengthMm: main % 8 === 0 ? 200 : -200 });
-      else if (main % 4 === 1) elements.push({ id, kind: "filter", xMm: x, yMm: 100, angleDeg: 180, opticalDensity: 0.05 });
-      else elements.push({ id, kind: "aperture", xMm: x, yMm: 100, angleDeg: 180, diameterMm: 6 });
+      if (main === 2 || main === 20) elements.push({ id, kind: "aperture", xMm: x, yMm: 100, angleDeg: 180, diameterMm: 6 });
+      else if (main % 2 === 0) elements.push({ id, kind: "lens", xMm: x, yMm: 100, angleDeg: 180, focalLengthMm: main % 4 === 0 ? 200 : -200 });
+      else elements.push({ id, kind: "filter", xMm: x, yMm: 100, angleDeg: 180, opticalDensity: 0.05 });
     }
   }
   elements.push({ id: "end-block", kind: "beam-block", xMm: 2900, yMm: 100, angleDeg: 180 });

@@ -8,7 +8,7 @@ export function PredictionsTable({ analysis, safety }: { analysis: BenchAnalysis
   const odAt = new Map(safety.points.filter((p) => p.where === "element").map((p) => [p.elementId, p]));
   return (
     <div className="flex flex-col gap-4">
-      <div className="overflow-x-auto rounded-lg border border-line">
+      <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
         <table className="w-full text-left text-sm">
           <caption className="sr-only">The beam arriving at each element</caption>
           <thead className="bg-raised text-muted">
@@ -40,7 +40,7 @@ export function PredictionsTable({ analysis, safety }: { analysis: BenchAnalysis
         </table>
       </div>
       {analysis.apertures.length ? (
-        <div className="overflow-x-auto rounded-lg border border-line">
+        <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
           <table className="w-full text-left text-sm">
             <caption className="sr-only">Fresnel zones at each aperture</caption>
             <thead className="bg-raised text-muted">
