@@ -56,9 +56,10 @@ export function AppHeader({ name, roles, mailCatcherUrl }: { name: string; roles
   return (
     <header className="border-b border-line bg-panel">
       <div className="mx-auto flex max-w-[90rem] items-center gap-x-4 gap-y-2 px-4 py-2 lg:py-3">
-        <Link href="/" className="flex shrink-0 items-center gap-2 text-accent no-underline">
+        <Link href="/" aria-label="Benchwarden, home" className="flex shrink-0 items-center gap-2 text-accent no-underline">
           <BrandMark />
-          <span className="text-lg font-semibold text-text">Benchwarden</span>
+          {/* on a phone the mark alone, so the header keeps to one line */}
+          <span className="hidden text-lg font-semibold text-text sm:inline">Benchwarden</span>
         </Link>
         {/* wide screens: one line of links */}
         <nav aria-label="Main" className="hidden min-w-0 flex-1 flex-nowrap items-center gap-0.5 xl:flex">

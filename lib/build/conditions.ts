@@ -5,6 +5,7 @@ export function conditionLines(conditions: string | null | undefined): string[] 
   return (conditions ?? "")
     .split(/\r?\n|;\s+/)
     .map((l) => l.trim().replace(/[.;]+$/, ""))
-    .filter((l) => l.length > 0);
+    .filter((l) => l.length > 0)
+    .map((l) => l.charAt(0).toUpperCase() + l.slice(1));
 }
 

@@ -166,7 +166,7 @@ test("the eyewear OD reads the same on the editor, the review screen, the checkl
   await expect(eyewearLine).toContainText(wear);
   await expect(eyewearLine).toContainText(need);
   await expect(techPage.getByTestId("check-condition:1")).toContainText("Door interlock tested before use");
-  await expect(techPage.getByTestId("check-condition:2")).toContainText("beam enclosure closed");
+  await expect(techPage.getByTestId("check-condition:2")).toContainText("Beam enclosure closed");
   await expect(techPage.getByTestId("checklist")).toContainText(DEFERRAL);
   await techPage.getByTestId("checklist").screenshot({ path: `${shots}/wording-checklist.png` });
 

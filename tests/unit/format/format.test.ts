@@ -68,7 +68,7 @@ describe("plain text from the engines", () => {
 
 describe("the officer's conditions as checklist lines", () => {
   it("splits on lines and semicolons, drops trailing stops", () => {
-    expect(conditionLines("Eyewear OD 2 at 633 nm for everyone in the room; door interlock on.")).toEqual(["Eyewear OD 2 at 633 nm for everyone in the room", "door interlock on"]);
+    expect(conditionLines("Eyewear OD 2 at 633 nm for everyone in the room; door interlock on.")).toEqual(["Eyewear OD 2 at 633 nm for everyone in the room", "Door interlock on"]);
     expect(conditionLines("One\nTwo;Three")).toEqual(["One", "Two;Three"]);
     expect(conditionLines(null)).toEqual([]);
   });
