@@ -9,6 +9,7 @@ import { draftQuery, inServiceLasersQuery, type DraftView } from "@/lib/api/benc
 import { ELEMENT_KINDS, type BenchDocument, type ElementKind } from "@/lib/bench/schema";
 import { StateBadge } from "@/components/ui/state-badge";
 import { ApertureTable } from "./aperture-table";
+import { ScreenTable } from "./screen-table";
 import { CANVAS_HEIGHT } from "./canvas-constants";
 import { ChangesSinceReview } from "./changes-since-review";
 import { ConflictDialog } from "./conflict-dialog";
@@ -389,6 +390,7 @@ function EditorBody({ benchId, labName, authorName, initial, shelf = null }: Pro
             {analysis.data ? (
               <>
                 <ApertureTable apertures={analysis.data.analysis.apertures} selectedId={selectedAperture?.id ?? null} onSelect={(id) => dispatch({ type: "select", ids: [id] })} />
+                <ScreenTable screens={analysis.data.analysis.screens} />
                 {selectedAperture ? (
                   <div className="mt-4">
                     <ProfilePanel

@@ -70,6 +70,31 @@ export function PredictionsTable({ analysis, safety }: { analysis: BenchAnalysis
           </table>
         </div>
       ) : null}
+      {analysis.screens?.length ? (
+        <div className="overflow-x-auto rounded-lg border border-line">
+          <table className="w-full text-left text-sm" data-testid="review-screens">
+            <caption className="sr-only">What reaches each screen</caption>
+            <thead className="bg-raised text-muted">
+              <tr>
+                <th className="px-3 py-2 font-medium">Screen</th>
+                <th className="px-3 py-2 font-medium">Centre, every aperture in place</th>
+                <th className="px-3 py-2 font-medium">Power arriving</th>
+              </tr>
+            </thead>
+            <tbody>
+              {analysis.screens.map((s) => (
+                <tr key={s.id} className="border-t border-line">
+                  <td className="px-3 py-2">{s.id}</td>
+                  <td className="px-3 py-2">
+                    {s.centre === "bright" ? "● bright" : s.centre === "dark" ? "○ dark" : "◐ between"} <span className="text-muted">(×{fmt(s.centreIntensityRatio)} of the open beam)</span>
+                  </td>
+                  <td className="px-3 py-2 font-mono">{fmt(s.powerMw)} mW</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      ) : null}
       {analysis.warnings.length ? (
         <ul className="flex flex-col gap-1 text-sm">
           {analysis.warnings.map((w, i) => (
