@@ -416,7 +416,11 @@ export const buildRecord = pgTable(
     signedOffAt: timestamp("signed_off_at", { withTimezone: true }),
     ...timestamps,
   },
-  (t) => [index("build_record_revision_idx").on(t.revisionId)],
+  (t) => [
+    index("build_record_revision_idx").on(t.revisionId),
+    // One open build per revision and technician: two simultaneous starts make one build.
+    uniqueIndex("build_record_one_open_idx").on(t.revisionId, t.technicianId).where(sql`${t.state} = 'in-progress'`),
+  ],
 );
 
 /** One line of the as-built checklist: an element placed, a control in place, eyewear available. */
@@ -525,4 +529,22 @@ export const eyewearBand = pgTable(
     en207ScaleNumber: integer("en207_scale_number"),
   },
   (t) => [uniqueIndex("eyewear_band_item_position_idx").on(t.itemId, t.position)],
+);
+
+/**
+ * Attempts at a secret (sign-in, the signing step-up) counted per account and per client address, in
+ * the database so every app server sees the same count. A row is written before the password is
+ * checked and removed when it was right; what stays are failures and attempts still running.
+ */
+export const authAttempt = pgTable(
+  "auth_attempt",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    /** "sign-in" or "step-up". */
+    scope: text("scope").notNull(),
+    /** "account:<e-mail or user id>" or "address:<client address>". */
+    subject: text("subject").notNull(),
+    attemptedAt: timestamp("attempted_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("auth_attempt_subject_idx").on(t.scope, t.subject, t.attemptedAt)],
 );

@@ -29,9 +29,11 @@ export class AppError extends Error {
     readonly code: ErrorCode,
     message: string,
     readonly fields: FieldProblem[] = [],
+    /** Only where one code has two answers: a body cut off while streaming is a 413, not a 400. */
+    status?: number,
   ) {
     super(message);
-    this.status = STATUS[code];
+    this.status = status ?? STATUS[code];
   }
 }
 

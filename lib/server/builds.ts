@@ -5,6 +5,7 @@ import "server-only";
 import { createHash, randomUUID } from "node:crypto";
 import { and, asc, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import type { Database, DbOrTx } from "@/db";
 import {
   bench,
@@ -521,8 +522,24 @@ function auditBase(actor: Actor, revision: SignedRevision) {
 export const startBuildInput = z.object({ revisionId: z.uuid({ error: "Choose the signed-off revision to build" }) });
 
 /** Starts a build of a valid sign-off; a technician's unfinished build of the same revision is returned instead of a second one. */
-export async function startBuild(db: Database, actor: Actor, input: z.infer<typeof startBuildInput>): Promise<{ build: BuildView; created: boolean }> {
+export async function startBuild(db: Database, actor: Actor, input: z.infer<typeof startBuildInput>, retried = false): Promise<{ build: BuildView; created: boolean }> {
   authorize(actor, { build: ["record"] });
+  // A simultaneous start that won the race made the one open build (build_record_one_open_idx): answer with it.
+  return startBuildOnce(db, actor, input).catch((error: unknown) => {
+    if (!retried && isUniqueViolation(error, "build_record_one_open_idx")) return startBuild(db, actor, input, true);
+    throw error;
+  });
+}
+
+function isUniqueViolation(error: unknown, constraint: string): boolean {
+  for (let e: unknown = error; e && typeof e === "object"; e = (e as { cause?: unknown }).cause) {
+    const pgError = e as { code?: string; constraint?: string };
+    if (pgError.code === "23505" && pgError.constraint === constraint) return true;
+  }
+  return false;
+}
+
+async function startBuildOnce(db: Database, actor: Actor, input: z.infer<typeof startBuildInput>): Promise<{ build: BuildView; created: boolean }> {
   return db.transaction(async (tx) => {
     const revision = await loadSignedRevision(tx, actor, input.revisionId);
     await tx.select({ id: benchRevision.id }).from(benchRevision).where(eq(benchRevision.id, revision.id)).for("share");
@@ -554,7 +571,7 @@ function assertRecordable(build: BuildRow, revision: SignedRevision): void {
 
 export const checkInput = z
   .object({
-    itemKey: z.string({ error: "Say which checklist item" }).min(1, "Say which checklist item").max(200, "The item key is too long"),
+    itemKey: safeText({ error: "Say which checklist item" }).min(1, "Say which checklist item").max(200, "The item key is too long"),
     done: z.boolean({ error: "Done must be true or false" }).optional(),
     measuredPositionMm: z
       .number({ error: "The measured position must be a number of millimetres" })
@@ -562,7 +579,7 @@ export const checkInput = z
       .refine((v) => Math.abs(v) <= 100_000, "The measured position must lie within ±100000 mm")
       .nullable()
       .optional(),
-    note: z.string().trim().max(2000, "A note must be at most 2000 characters").nullable().optional(),
+    note: safeText().trim().max(2000, "A note must be at most 2000 characters").nullable().optional(),
   })
   .refine((v) => v.done !== undefined || v.measuredPositionMm !== undefined || v.note !== undefined, { message: "Send done, a measured position or a note" });
 
@@ -603,7 +620,7 @@ export async function updateCheck(db: Database, actor: Actor, buildId: string, i
 
 export const observationInput = z
   .object({
-    apertureId: z.string().min(1).max(64).nullable().optional(),
+    apertureId: safeText().min(1).max(64).nullable().optional(),
     centreSeen: z.enum(["bright", "dark", "unclear"], { error: "The centre is bright, dark or unclear" }).nullable().optional(),
     spotDiameterMm: z
       .number({ error: "The spot or ring diameter must be a number of millimetres" })
@@ -615,7 +632,7 @@ export const observationInput = z
       .refine((v) => Number.isFinite(v) && v >= 0 && v <= 1e9, "The power must be between 0 and 10⁹ mW")
       .nullable()
       .optional(),
-    note: z.string().trim().max(2000, "A note must be at most 2000 characters").nullable().optional(),
+    note: safeText().trim().max(2000, "A note must be at most 2000 characters").nullable().optional(),
   })
   .refine((v) => v.centreSeen != null || v.spotDiameterMm != null || v.screenPowerMw != null, { message: "Record at least one of: the centre, the spot or ring size, the power at the screen" });
 
@@ -720,7 +737,8 @@ export async function addUpload(
   const id = randomUUID();
   const sha256 = createHash("sha256").update(input.bytes).digest("hex");
   const key = `uploads/${build.id}/${id}.${type.extension}`;
-  const fileName = input.fileName.replace(/[\u0000-\u001f\u007f/\\]/g, "_").slice(0, 200) || `upload.${type.extension}`;
+  // Kept as the person's computer named it (the route refused what cannot be stored); sent back with RFC 6266 filename*.
+  const fileName = input.fileName || `upload.${type.extension}`;
   const store = storage();
   await store.put(key, input.bytes, type.contentType);
   try {

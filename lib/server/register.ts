@@ -3,6 +3,7 @@
 import "server-only";
 import { and, asc, eq, inArray, sql, type SQL } from "drizzle-orm";
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import type { Database, DbOrTx } from "@/db";
 import { lab, laserRegister, LASER_STATUSES, user, type LaserStatus } from "@/db/schema";
 import type { BenchDocument, LaserElement } from "@/lib/bench/schema";
@@ -18,8 +19,7 @@ const positive = (field: string, unit: string, max: number) =>
     .refine((v) => v > 0, `${field} must be greater than 0 ${unit}`)
     .refine((v) => v <= max, `${field} must be at most ${max} ${unit}`);
 const optionalText = (field: string, max: number) =>
-  z
-    .string()
+  safeText()
     .trim()
     .max(max, `${field} must be at most ${max} characters`)
     .nullish()
@@ -39,11 +39,11 @@ export const laserInput = z
     pulseRepetitionRateHz: positive("Repetition rate", "Hz", 1e12).nullish().transform((v) => v ?? null),
     beamDiameterMm: positive("Beam diameter", "mm", 1000),
     divergenceMrad: positive("Divergence", "mrad", 1000),
-    model: z.string({ error: "Give the manufacturer and model" }).trim().min(1, "Give the manufacturer and model").max(200, "The model must be at most 200 characters"),
+    model: safeText({ error: "Give the manufacturer and model" }).trim().min(1, "Give the manufacturer and model").max(200, "The model must be at most 200 characters"),
     serialNumber: optionalText("The serial number", 120),
     location: optionalText("The location", 200),
     status: z.enum(LASER_STATUSES, { error: "Status must be in service, out of service or disposed" }).default("in-service"),
-    responsibleUserId: z.string().max(64).nullish().transform((v) => v || null),
+    responsibleUserId: safeText().max(64).nullish().transform((v) => v || null),
   })
   .superRefine((v, ctx) => {
     if (v.pulseRepetitionRateHz !== null && v.pulseDurationS === null) {

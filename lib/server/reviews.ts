@@ -5,7 +5,9 @@ import "server-only";
 import { assertRegisterAllowsSubmission } from "./register";
 import { and, asc, desc, eq, gt, inArray, lt, ne, sql } from "drizzle-orm";
 import { verifyPassword } from "better-auth/crypto";
+import { reserveAttempt } from "@/lib/auth/rate-limit";
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import type { Database, DbOrTx } from "@/db";
 import {
   account,
@@ -54,7 +56,7 @@ export const MAX_VALIDITY_MONTHS = 60;
 const ONCE_APPROVED: ReviewState[] = ["approved", "expired", "superseded"];
 
 // ── Inputs (the one contract for routes and client forms) ─────────────────────────────────────
-const hashField = z.string({ error: "Send the content hash of the revision you reviewed" }).regex(/^[0-9a-f]{64}$/, "The content hash must be 64 hexadecimal characters");
+const hashField = safeText({ error: "Send the content hash of the revision you reviewed" }).regex(/^[0-9a-f]{64}$/, "The content hash must be 64 hexadecimal characters");
 
 export const submitInput = z.object({ contentHash: hashField.optional() });
 export const withdrawInput = z.object({});
@@ -65,20 +67,20 @@ export const decisionInput = z.discriminatedUnion(
     z.object({
       outcome: z.literal("approve"),
       contentHash: hashField,
-      password: z.string({ error: "Enter your password to sign" }).min(1, "Enter your password to sign"),
-      conditions: z.string().trim().max(4000, "Conditions must be at most 4000 characters").optional(),
+      password: safeText({ error: "Enter your password to sign" }).min(1, "Enter your password to sign"),
+      conditions: safeText().trim().max(4000, "Conditions must be at most 4000 characters").optional(),
       /** The last day the sign-off holds (YYYY-MM-DD); 12 months from today when left out. */
       validUntil: z.iso.date({ error: "Valid until must be a date (YYYY-MM-DD)" }).optional(),
     }),
     z.object({
       outcome: z.literal("request-changes"),
       contentHash: hashField,
-      comment: z.string({ error: "Say what has to change" }).trim().min(1, "Say what has to change").max(4000, "The comment must be at most 4000 characters"),
+      comment: safeText({ error: "Say what has to change" }).trim().min(1, "Say what has to change").max(4000, "The comment must be at most 4000 characters"),
     }),
     z.object({
       outcome: z.literal("reject"),
       contentHash: hashField,
-      reason: z.string({ error: "Give the reason for turning it down" }).trim().min(1, "Give the reason for turning it down").max(4000, "The reason must be at most 4000 characters"),
+      reason: safeText({ error: "Give the reason for turning it down" }).trim().min(1, "Give the reason for turning it down").max(4000, "The reason must be at most 4000 characters"),
     }),
   ],
   { error: "Choose approve, request-changes or reject" },
@@ -86,8 +88,8 @@ export const decisionInput = z.discriminatedUnion(
 export type DecisionInput = z.infer<typeof decisionInput>;
 
 export const commentInput = z.object({
-  body: z.string({ error: "Write the comment" }).trim().min(1, "Write the comment").max(4000, "A comment must be at most 4000 characters"),
-  elementId: z.string().min(1).max(64).optional(),
+  body: safeText({ error: "Write the comment" }).trim().min(1, "Write the comment").max(4000, "A comment must be at most 4000 characters"),
+  elementId: safeText().min(1).max(64).optional(),
   parentId: z.uuid({ error: "The comment to answer is not a valid id" }).optional(),
 });
 export type CommentInput = z.infer<typeof commentInput>;
@@ -350,7 +352,14 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
   }
   if (first.state !== "submitted") throw await notWaiting(db, first);
   if (input.outcome === "approve") {
-    if (!(await checkPassword(db, actor.userId, input.password))) {
+    // The step-up is limited like sign-in: per account and per address, counted in the database.
+    const attempt = await reserveAttempt(db, "step-up", { account: actor.userId, address: actor.ipAddress });
+    if (!attempt.allowed) {
+      await recordAudit(db, { actorId: actor.userId, actorRole: actorRoleText(actor), action: "sign-off-password-limited", benchId: first.benchId, revisionId: first.id, contentHash: first.contentHash, ipAddress: actor.ipAddress });
+      throw new AppError("rate-limited", attempt.refusal ?? "Too many wrong signing password attempts; wait, then try again.");
+    }
+    if (await checkPassword(db, actor.userId, input.password)) await attempt.release();
+    else {
       await recordAudit(db, {
         actorId: actor.userId,
         actorRole: actorRoleText(actor),
