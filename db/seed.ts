@@ -4,7 +4,7 @@ import { randomUUID } from "node:crypto";
 import { hashPassword } from "better-auth/crypto";
 import { eq } from "drizzle-orm";
 import type { Database } from "@/db";
-import { account, bench, benchRevision, lab, labMember, user, type ReviewState } from "@/db/schema";
+import { account, bench, benchRevision, eyewearBand, eyewearItem, lab, labMember, user, type ReviewState, type SafetyStandard } from "@/db/schema";
 import { contentHash } from "@/lib/bench/canonical";
 import type { BenchDocument } from "@/lib/bench/schema";
 import type { RoleName } from "@/lib/auth/permissions";
@@ -73,6 +73,28 @@ const teachingBench: BenchDocument = {
   ],
 };
 
+/** Invented eyewear for the demo labs' shelves (no real products): bands in nm with their OD and, where marked, EN 207 scale number. */
+const DEMO_EYEWEAR: { lab: LabKey; name: string; quantity: number; note: string; bands: { fromNm: number; toNm: number; opticalDensity: number; en207ScaleNumber?: number }[] }[] = [
+  {
+    lab: "imaging",
+    name: "Amber goggles, shelf A",
+    quantity: 4,
+    note: "Hook by the door of B214",
+    bands: [
+      { fromNm: 190, toNm: 400, opticalDensity: 5, en207ScaleNumber: 5 },
+      { fromNm: 400, toNm: 420, opticalDensity: 3 },
+      { fromNm: 515, toNm: 545, opticalDensity: 4, en207ScaleNumber: 4 },
+    ],
+  },
+  { lab: "imaging", name: "Red-line alignment glasses", quantity: 2, note: "Drawer under table 2", bands: [{ fromNm: 620, toNm: 650, opticalDensity: 2, en207ScaleNumber: 2 }] },
+  { lab: "imaging", name: "Near-infrared visor, cupboard 2", quantity: 1, note: "Keep away from the 532 nm bench: no visible protection", bands: [{ fromNm: 780, toNm: 1100, opticalDensity: 7, en207ScaleNumber: 6 }] },
+  { lab: "spectro", name: "Teaching-lab red glasses", quantity: 12, note: "Box on the front bench", bands: [{ fromNm: 625, toNm: 645, opticalDensity: 3 }] },
+  { lab: "spectro", name: "Violet diode glasses", quantity: 3, note: "", bands: [{ fromNm: 395, toNm: 415, opticalDensity: 4, en207ScaleNumber: 3 }] },
+];
+
+/** The demo labs' chosen standards: one lab per standard, so both show on screens. */
+const DEMO_STANDARDS: Record<LabKey, SafetyStandard> = { imaging: "ANSI Z136.1-2014", spectro: "IEC 60825-1:2014" };
+
 const DEMO_BENCHES: { lab: LabKey; author: string; doc: BenchDocument; states: ReviewState[] }[] = [
   { lab: "imaging", author: "researcher@northmere.example.edu", doc: heNeZones, states: ["approved", "draft"] },
   { lab: "imaging", author: "researcher@northmere.example.edu", doc: expander, states: ["submitted"] },
@@ -88,8 +110,12 @@ export async function seedDemo(db: Database): Promise<boolean> {
   await db.transaction(async (tx) => {
     const labIds = new Map<LabKey, string>();
     for (const l of DEMO_LABS) {
-      const [row] = await tx.insert(lab).values({ name: l.name, room: l.room }).returning({ id: lab.id });
+      const [row] = await tx.insert(lab).values({ name: l.name, room: l.room, safetyStandard: DEMO_STANDARDS[l.key] }).returning({ id: lab.id });
       labIds.set(l.key, row.id);
+    }
+    for (const e of DEMO_EYEWEAR) {
+      const [item] = await tx.insert(eyewearItem).values({ labId: labIds.get(e.lab)!, name: e.name, quantity: e.quantity, note: e.note || null }).returning({ id: eyewearItem.id });
+      await tx.insert(eyewearBand).values(e.bands.map((b, position) => ({ itemId: item.id, position, fromNm: b.fromNm, toNm: b.toNm, opticalDensity: b.opticalDensity, en207ScaleNumber: b.en207ScaleNumber ?? null })));
     }
     const passwordHash = await hashPassword(DEMO_PASSWORD);
     const userIds = new Map<string, string>();

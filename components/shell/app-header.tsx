@@ -19,6 +19,7 @@ export function AppHeader({ name, roles, mailCatcherUrl }: { name: string; roles
     { href: "/reviews", label: "Reviews", needs: { review: ["decide"] }, waiting: "officer" },
     { href: "/builds", label: "Builds", needs: { build: ["record"] }, waiting: "technician" },
     { href: "/lasers", label: "Lasers", needs: { register: ["read"] } },
+    { href: "/eyewear", label: "Eyewear", needs: { eyewear: ["read"] } },
     { href: "/desk", label: "Sign-off desk", needs: { audit: ["read"] }, waiting: "auditor" },
     { href: "/verify", label: "Check a sheet", needs: { bench: ["read"] } },
     { href: "/admin/people", label: "People", needs: { user: ["list"] } },

@@ -13,6 +13,8 @@ export const statements = {
   lab: ["read", "manage"],
   mail: ["read"],
   analysis: ["run"],
+  eyewear: ["read", "manage"],
+  standard: ["set"],
 } as const;
 
 export const ac = createAccessControl(statements);
@@ -35,6 +37,7 @@ export const roles = {
     register: ["read"],
     lab: ["read"],
     analysis: ["run"],
+    eyewear: ["read"],
   }),
   officer: ac.newRole({
     bench: ["read"],
@@ -43,6 +46,8 @@ export const roles = {
     audit: ["read"],
     lab: ["read"],
     analysis: ["run"],
+    eyewear: ["read", "manage"],
+    standard: ["set"],
   }),
   technician: ac.newRole({
     bench: ["read"],
@@ -50,6 +55,7 @@ export const roles = {
     register: ["read"],
     lab: ["read"],
     analysis: ["run"],
+    eyewear: ["read"],
   }),
   auditor: ac.newRole({
     bench: ["read"],
@@ -58,6 +64,7 @@ export const roles = {
     register: ["read"],
     audit: ["read", "export"],
     lab: ["read"],
+    eyewear: ["read"],
   }),
   // Only what Benchwarden's own audited admin routes ask for (people list, invitations, roles,
   // deactivation with its sessions). The library's own admin endpoints (impersonation, passwords,
@@ -67,6 +74,7 @@ export const roles = {
     session: ["revoke"],
     lab: ["read", "manage"],
     mail: ["read"],
+    standard: ["set"],
   }),
 };
 

@@ -3,19 +3,23 @@
 import { benchDocumentSchema, type BenchDocument, type LaserElement } from "@/lib/bench/schema";
 import type { HazardSummary } from "@/db/schema";
 import { analyzeBench, type BenchAnalysis } from "@/lib/optics";
-import { assessBench, type BenchSafetyAssessment } from "@/lib/safety";
+import { assessBench, type BenchSafetyAssessment, type BenchSafetyOptions } from "@/lib/safety";
 
 export type RevisionAssessment =
   | { ok: true; analysis: BenchAnalysis; safety: BenchSafetyAssessment }
   | { ok: false; problem: string };
 
+/** What a caller may ask of the engines: the lab's chosen standard (passed through to assessBench). */
+export type AssessOptions = { standard?: "ANSI Z136.1-2014" | "IEC 60825-1:2014" };
+
 /** Runs both engines on the document; a document they cannot take gets a sentence instead. */
-export function assessRevision(doc: BenchDocument): RevisionAssessment {
+export function assessRevision(doc: BenchDocument, options: AssessOptions = {}): RevisionAssessment {
   const parsed = benchDocumentSchema.safeParse(doc);
   if (!parsed.success) return { ok: false, problem: parsed.error.issues[0]?.message ?? "The bench document is not complete." };
   try {
     const analysis = analyzeBench(parsed.data);
-    const safety = assessBench(parsed.data, analysis);
+    const safetyOptions = (options.standard ? { standard: options.standard } : {}) as BenchSafetyOptions;
+    const safety = assessBench(parsed.data, analysis, safetyOptions);
     return { ok: true, analysis, safety };
   } catch (error) {
     return { ok: false, problem: error instanceof Error ? error.message : "The hazard engines could not assess this bench." };

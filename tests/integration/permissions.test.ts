@@ -61,6 +61,27 @@ const matrix: Row[] = [
     body: () => ({ email: `matrix-${Math.random().toString(36).slice(2, 8)}@northmere.example.edu`, name: "Matrix Person", roles: ["technician"], labIds: [] }),
     expect: { anonymous: 401, researcher: 403, officer: 403, technician: 403, auditor: 403, admin: 201, student: 403 },
   },
+  { label: "list eyewear", method: "GET", path: () => "/api/eyewear", expect: { anonymous: 401, researcher: 200, officer: 200, technician: 200, auditor: 200, admin: 403, student: 200 } },
+  {
+    label: "read the Coherent Imaging Lab's eyewear",
+    method: "GET",
+    path: () => `/api/eyewear?labId=${imagingLabId}`,
+    expect: { anonymous: 401, researcher: 200, officer: 200, technician: 200, auditor: 200, admin: 403, student: 403 },
+  },
+  {
+    label: "add eyewear (an empty name: 400 for those allowed)",
+    method: "POST",
+    path: () => "/api/eyewear",
+    body: () => ({ labId: imagingLabId, name: "", bands: [{ fromNm: 500, toNm: 560, opticalDensity: 4 }] }),
+    expect: { anonymous: 401, researcher: 403, officer: 400, technician: 403, auditor: 403, admin: 403, student: 403 },
+  },
+  {
+    label: "pick a lab's safety standard (an unknown standard: 400 for those allowed)",
+    method: "PUT",
+    path: () => `/api/eyewear/standards/${imagingLabId}`,
+    body: () => ({ standard: "none" }),
+    expect: { anonymous: 401, researcher: 403, officer: 400, technician: 403, auditor: 403, admin: 400, student: 403 },
+  },
 ];
 
 describe("permissions matrix", () => {

@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getDb } from "@/db";
+import { CoverageList } from "@/components/eyewear/coverage-list";
 import { BenchDrawing } from "@/components/review/bench-drawing";
 import { CommentThreads } from "@/components/review/comment-threads";
 import { DecisionPanel } from "@/components/review/decision-panel";
@@ -15,6 +16,7 @@ import { StateBadge } from "@/components/ui/state-badge";
 import { rolesAllow } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
 import { pageActor, refusal } from "@/lib/server/page-guard";
+import { revisionEyewear } from "@/lib/server/eyewear";
 import { assessRevision } from "@/lib/server/review-hazard";
 import { getReview, SIGN_OFF_MEANING } from "@/lib/server/reviews";
 
@@ -53,7 +55,8 @@ export default async function ReviewPage({ params }: { params: Promise<{ revisio
   });
   const { revision, bench, decision, lastApproved, may } = review;
   const doc = revision.document;
-  const assessed = assessRevision(doc);
+  const eyewear = rolesAllow(actor.roles, { eyewear: ["read"] }) ? await revisionEyewear(getDb(), actor, revision.id) : null;
+  const assessed = assessRevision(doc, eyewear ? { standard: eyewear.standard } : {});
   const officer = rolesAllow(actor.roles, { review: ["decide"] });
   const mayReadReview = rolesAllow(actor.roles, { review: ["read"] });
   const elementOptions = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm).map((e) => ({ id: e.id, label: `${KIND_WORDS[e.kind] ?? e.kind} ${e.id} (${e.positionMm} mm)` }));
@@ -96,6 +99,11 @@ export default async function ReviewPage({ params }: { params: Promise<{ revisio
               <Section id="hazard-heading" title="Laser hazard">
                 <HazardPanel safety={assessed.safety} />
               </Section>
+              {eyewear ? (
+                <Section id="eyewear-heading" title="Eyewear for each line">
+                  <CoverageList data={eyewear} safety={assessed.safety} />
+                </Section>
+              ) : null}
               <Section id="predictions-heading" title="What the light will do">
                 <PredictionsTable analysis={assessed.analysis} safety={assessed.safety} />
               </Section>
