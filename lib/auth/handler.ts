@@ -50,7 +50,8 @@ export async function handleAuthRequest(request: Request): Promise<Response> {
     const attempt = await reserveAttempt(getDb(), "sign-in", { account: body ? accountOf(body) : null, address });
     if (!attempt.allowed) throw new AppError("rate-limited", attempt.refusal ?? "Too many attempts; wait, then try again.");
     const response = await handler.POST(forwarded);
-    if (response.ok) await attempt.release();
+    // Only a wrong e-mail or password (401) tried a secret; anything else does not count.
+    if (response.status !== 401) await attempt.release();
     return response;
   } catch (error) {
     return errorResponse(error);

@@ -13,7 +13,7 @@ type Limit = { max: number; windowMinutes: number };
 /** Failed attempts allowed in the sliding window before further attempts are refused. */
 export const ATTEMPT_LIMITS: Record<AttemptScope, { account: Limit; address: Limit }> = {
   "sign-in": { account: { max: 10, windowMinutes: 15 }, address: { max: 30, windowMinutes: 15 } },
-  "step-up": { account: { max: 5, windowMinutes: 15 }, address: { max: 20, windowMinutes: 15 } },
+  "step-up": { account: { max: 8, windowMinutes: 15 }, address: { max: 30, windowMinutes: 15 } },
 };
 
 export type Attempt = {
