@@ -13,6 +13,10 @@ const globalForDb = globalThis as unknown as { benchwardenDb?: { pool: pg.Pool; 
 export function getDb(): Database {
   if (!globalForDb.benchwardenDb) {
     const pool = new pg.Pool({ connectionString: env().DATABASE_URL, max: 10 });
+    // An idle client loses its server (PostgreSQL restarted, connection killed): pg emits 'error' on
+    // the pool, which would end the process if nobody listened. The pool drops that client and opens
+    // a new one on the next query, so logging is all there is to do.
+    pool.on("error", (error) => console.error(`[db] idle connection lost: ${error.message}`));
     globalForDb.benchwardenDb = { pool, db: drizzle(pool, { schema }) };
   }
   return globalForDb.benchwardenDb.db;

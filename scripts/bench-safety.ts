@@ -1,5 +1,6 @@
 // Benchmark of the bench-level laser hazard assessment (lib/safety assessBench) on a 20-element bench; target median ≤ 0.5 ms.
 // Run directly with `npx tsx scripts/bench-safety.ts`, or import runSafetyBench from the project's bench runner.
+import { laserBeamPowerMw } from "../lib/bench/laser-power";
 import { pathToFileURL } from "node:url";
 import type { BenchDocument, BenchElement } from "../lib/bench/schema";
 import { assessBench, type BenchBeam } from "../lib/safety/bench";
@@ -32,7 +33,7 @@ function gaussianBeam(doc: BenchDocument): BenchBeam {
   let re = 0;
   let im = (Math.PI * w0 * w0) / λm2;
   let pos = laser.positionMm;
-  let power = laser.powerMw;
+  let power = laserBeamPowerMw(laser);
   return {
     elements: doc.elements.map((e) => {
       if (e.kind === "laser") return { id: e.id, kind: e.kind, positionMm: e.positionMm, incident: { radiusMm: w0, wavefrontRadiusMm: null, powerMw: power } };

@@ -88,8 +88,12 @@ async function main() {
   const figures: Figure[] = [];
   const { runOpticsBench } = await import("./bench-optics");
   figures.push(...(await runOpticsBench()));
+  const { runPhotoBench } = await import("./bench-photo");
+  figures.push(...(await runPhotoBench()));
   const { runSafetyBench } = await import("./bench-safety");
   figures.push(...(await runSafetyBench()));
+  const { runTableBench } = await import("./bench-table");
+  figures.push(...(await runTableBench()));
   if (!process.argv.includes("--engines-only")) figures.push(...(await httpFigures()));
   log("benchmark figures");
   for (const f of figures) process.stdout.write(`  ${f.name}: ${Number(f.value.toPrecision(4))} ${f.unit}   (target ${f.target})\n`);

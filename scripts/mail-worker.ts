@@ -15,6 +15,7 @@ let running = true;
 let lastClock = 0;
 
 async function loop() {
+  let failuresInARow = 0;
   while (running) {
     try {
       const { sent, failed } = await sendDueMail(getDb(), transport, e.MAIL_FROM);
@@ -24,10 +25,14 @@ async function loop() {
         lastClock = Date.now();
         await runReviewClock(getDb());
       }
+      failuresInARow = 0;
     } catch (error) {
-      console.error("[mail-worker] round failed:", error instanceof Error ? error.message : error);
+      // Typically the database is restarting: wait longer each time (up to 30 s), then carry on.
+      failuresInARow++;
+      console.error(`[mail-worker] round failed (${failuresInARow} in a row):`, error instanceof Error ? error.message : error);
     }
-    await new Promise((r) => setTimeout(r, intervalMs));
+    const waitMs = failuresInARow === 0 ? intervalMs : Math.min(30_000, intervalMs * 2 ** Math.min(failuresInARow, 6));
+    await new Promise((r) => setTimeout(r, waitMs));
   }
   await closeDb();
 }
@@ -37,5 +42,11 @@ function stop() {
 }
 process.on("SIGTERM", stop);
 process.on("SIGINT", stop);
+// A crash the loop did not catch is logged and ends the process; the supervisor in npm start starts
+// a new worker (scripts/lib/system.ts superviseChild).
+process.on("unhandledRejection", (reason) => {
+  console.error("[mail-worker] unhandled rejection:", reason instanceof Error ? reason.message : reason);
+  process.exit(1);
+});
 console.log(`[mail-worker] sending from the outbox to ${e.SMTP_HOST}:${e.SMTP_PORT} every ${intervalMs} ms`);
 void loop();

@@ -5,7 +5,7 @@ import { buildIfStale } from "./lib/build";
 import { stopCluster } from "./lib/postgres";
 import { NEXT, provision, TSX } from "./lib/provision";
 import { DEMO_PASSWORD, DEMO_USERS } from "../db/seed";
-import { log, ROOT, startChild, stopChildren, waitForHttp } from "./lib/system";
+import { log, ROOT, startChild, stopChildren, superviseChild, waitForHttp } from "./lib/system";
 
 const ports = {
   app: Number(process.env.PORT ?? 3000),
@@ -34,7 +34,7 @@ async function main() {
   startChild("mail catcher", TSX, ["scripts/mail-catcher.ts"], { env });
   buildIfStale();
   startChild("app", NEXT, ["start", "-H", "127.0.0.1", "-p", String(ports.app)], { env });
-  startChild("mail worker", TSX, ["scripts/mail-worker.ts"], { env });
+  superviseChild("mail worker", TSX, ["scripts/mail-worker.ts"], { env });
   await waitForHttp(`${env.APP_URL}/sign-in`, 60_000);
 
   const seconds = ((Date.now() - started) / 1000).toFixed(1);

@@ -7,7 +7,7 @@ import path from "node:path";
 import { buildIfStale } from "./lib/build";
 import { stopCluster } from "./lib/postgres";
 import { NEXT, provision, TSX } from "./lib/provision";
-import { log, ROOT, startChild, stopChildren, waitForHttp } from "./lib/system";
+import { log, ROOT, startChild, stopChildren, superviseChild, waitForHttp } from "./lib/system";
 
 const ports = { app: 3100, postgres: 5434, smtp: 2526, catcherWeb: 1081 };
 const dataDir = path.join(ROOT, ".data/test");
@@ -56,7 +56,7 @@ async function main(): Promise<number> {
     startChild("mail catcher", TSX, ["scripts/mail-catcher.ts"], { env: testEnv });
     buildIfStale();
     startChild("app", NEXT, ["start", "-H", "127.0.0.1", "-p", String(ports.app)], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
-    startChild("mail worker", TSX, ["scripts/mail-worker.ts"], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
+    superviseChild("mail worker", TSX, ["scripts/mail-worker.ts"], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
     await waitForHttp(`${env.APP_URL}/sign-in`, 60_000);
     await waitForHttp(`${env.MAIL_CATCHER_URL}/api/messages`, 30_000);
 

@@ -1,4 +1,4 @@
-import type { TrailEntry } from "@/lib/server/desk";
+import type { TrailEntry } from "@/lib/server/trail";
 
 const utc = (iso: string) => `${iso.slice(0, 19).replace("T", " ")} UTC`;
 

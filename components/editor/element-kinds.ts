@@ -1,5 +1,6 @@
 // What the editor knows about each element kind: its name, the id prefix, a new element's values and the
 // editable fields with their units. Validation itself is the shared zod schema (lib/bench/schema.ts).
+import { laserPowerText } from "@/lib/bench/laser-power";
 import {
   apertureSchema,
   beamBlockSchema,
@@ -77,7 +78,7 @@ export const ELEMENT_SCHEMAS = {
 export function shortLabel(e: BenchElement): string {
   switch (e.kind) {
     case "laser":
-      return `${e.wavelengthNm} nm · ${e.powerMw} mW`;
+      return `${e.wavelengthNm} nm · ${laserPowerText(e)}`;
     case "lens":
       return `f ${e.focalLengthMm > 0 ? "+" : "−"}${Math.abs(e.focalLengthMm)} mm`;
     case "aperture":

@@ -1,4 +1,6 @@
 // Number and time formatting shared by the review components: three significant figures, units named by the caller.
+import { KIND_NAMES } from "@/lib/bench/kinds";
+
 export function fmt(value: number | null | undefined, digits = 3): string {
   if (value === null || value === undefined || Number.isNaN(value)) return "—";
   if (!Number.isFinite(value)) return value > 0 ? "unbounded" : "—";
@@ -16,11 +18,5 @@ export function day(iso: string): string {
   return iso.slice(0, 10);
 }
 
-export const KIND_WORDS: Record<string, string> = {
-  laser: "Laser",
-  lens: "Lens",
-  aperture: "Aperture (iris)",
-  filter: "Filter",
-  "beam-block": "Beam block",
-  screen: "Screen",
-};
+/** Heading names of the element kinds, from the one record in lib/bench/kinds.ts. */
+export const KIND_WORDS: Record<string, string> = Object.fromEntries(Object.entries(KIND_NAMES).map(([kind, n]) => [kind, n.title]));

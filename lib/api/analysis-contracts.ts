@@ -3,6 +3,11 @@
 import { z } from "zod";
 import { safeText } from "@/lib/validation/text";
 import { benchDocumentSchema, MAX_POSITION_MM } from "@/lib/bench/schema";
+import { anyBenchDocumentSchema } from "@/lib/bench/schema-v2";
+
+/** POST /api/analyze: a bench document of either version (1: a rail; 2: a table with paths and open beams). */
+export const analyzeRequestSchema = anyBenchDocumentSchema;
+export type AnalyzeRequest = z.infer<typeof analyzeRequestSchema>;
 
 const positionMm = (field: string) =>
   z

@@ -57,12 +57,7 @@ function createAuth() {
       session: {
         create: {
           after: async (s) => {
-            await recordAudit(getDb(), {
-              actorId: s.userId,
-              action: "signed-in",
-              ipAddress: s.ipAddress ?? null,
-              detail: { userAgent: s.userAgent ?? null },
-            });
+            await recordAudit(getDb(), { userId: s.userId, roleText: null, ipAddress: s.ipAddress ?? null }, { action: "signed-in", detail: { userAgent: s.userAgent ?? null } });
           },
         },
       },

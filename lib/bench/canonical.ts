@@ -1,7 +1,7 @@
 // Canonical JSON of a bench document and its SHA-256 content hash: the identity an approval signs.
-// Keys sorted, elements in beam order (position, then id), numbers as JavaScript prints them.
+// Keys sorted, elements in beam order (position, then id) — on a table (version 2) by id —, numbers as JavaScript prints them.
 import { createHash } from "node:crypto";
-import type { BenchDocument } from "./schema";
+import type { AnyBenchDocument } from "./schema";
 
 function canonicalValue(value: unknown): unknown {
   if (Array.isArray(value)) return value.map(canonicalValue);
@@ -16,11 +16,14 @@ function canonicalValue(value: unknown): unknown {
   return value;
 }
 
-export function canonicalJson(doc: BenchDocument): string {
-  const elements = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+const byId = (a: { id: string }, b: { id: string }) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
+
+export function canonicalJson(doc: AnyBenchDocument): string {
+  if (doc.version === 2) return JSON.stringify(canonicalValue({ ...doc, elements: [...doc.elements].sort(byId) }));
+  const elements = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm || byId(a, b));
   return JSON.stringify(canonicalValue({ ...doc, elements }));
 }
 
-export function contentHash(doc: BenchDocument): string {
+export function contentHash(doc: AnyBenchDocument): string {
   return createHash("sha256").update(canonicalJson(doc)).digest("hex");
 }

@@ -1,11 +1,17 @@
-// Sends due outbox rows: claims them with FOR UPDATE SKIP LOCKED (several workers never send the
-// same message), retries with exponential backoff, marks each one sent or failed with the reason.
+// Sends due outbox rows. A round first CLAIMS rows in a short transaction (FOR UPDATE SKIP LOCKED,
+// then a lease: next_attempt_at moves LEASE_S ahead, so no other worker takes them), then sends over
+// SMTP with no transaction or row lock held, then marks each row sent, or pending with a backoff, or
+// failed after MAX_ATTEMPTS. A worker that dies mid-round leaves leased rows that become due again
+// when the lease ends: delivery is at least once, and exactly once unless a worker dies between
+// the SMTP reply and the mark.
 import { sql } from "drizzle-orm";
 import type { Database } from "@/db";
 import type { MailTransport } from "./transport";
 
 export const MAX_ATTEMPTS = 8;
 const BASE_DELAY_S = 15;
+/** How long a claimed row stays invisible to other workers; far longer than one SMTP send. */
+export const LEASE_S = 300;
 
 /** Delay before the next attempt after `attempts` failures: 15 s, 30 s, 60 s … capped at 1 h. */
 export function backoffSeconds(attempts: number): number {
@@ -14,29 +20,53 @@ export function backoffSeconds(attempts: number): number {
 
 type OutboxRow = { id: string; to_address: string; subject: string; text_body: string; html_body: string; attempts: number };
 
+/** Claims up to `limit` due rows for this worker (a lease of LEASE_S seconds). */
+export async function claimDueMail(db: Database, limit: number): Promise<OutboxRow[]> {
+  const claimed = await db.execute<OutboxRow>(sql`
+    update mail_outbox set next_attempt_at = now() + make_interval(secs => ${LEASE_S})
+    where id in (
+      select id from mail_outbox
+      where state = 'pending' and next_attempt_at <= now()
+      order by created_at limit ${limit} for update skip locked)
+    returning id, to_address, subject, text_body, html_body, attempts`);
+  return claimed.rows;
+}
+
 /** Sends up to `limit` due messages; returns how many were sent and how many failed this round. */
 export async function sendDueMail(db: Database, transport: MailTransport, from: string, limit = 20): Promise<{ sent: number; failed: number }> {
   let sent = 0;
   let failed = 0;
-  await db.transaction(async (tx) => {
-    const due = await tx.execute<OutboxRow>(sql`
-      select id, to_address, subject, text_body, html_body, attempts from mail_outbox
-      where state = 'pending' and next_attempt_at <= now()
-      order by created_at limit ${limit} for update skip locked`);
-    for (const row of due.rows) {
-      try {
-        await transport.send({ from, to: row.to_address, subject: row.subject, text: row.text_body, html: row.html_body });
-        await tx.execute(sql`update mail_outbox set state = 'sent', sent_at = now(), attempts = attempts + 1, last_error = null where id = ${row.id}`);
-        sent++;
-      } catch (error) {
-        const attempts = row.attempts + 1;
-        const reason = error instanceof Error ? error.message : String(error);
-        const finalState = attempts >= MAX_ATTEMPTS ? "failed" : "pending";
-        await tx.execute(sql`update mail_outbox set attempts = ${attempts}, last_error = ${reason.slice(0, 500)},
-          state = ${finalState}, next_attempt_at = now() + make_interval(secs => ${backoffSeconds(attempts)}) where id = ${row.id}`);
-        failed++;
-      }
+  const due = await claimDueMail(db, limit);
+  for (const row of due) {
+    try {
+      await transport.send({ from, to: row.to_address, subject: row.subject, text: row.text_body, html: row.html_body });
+      await db.execute(sql`update mail_outbox set state = 'sent', sent_at = now(), attempts = attempts + 1, last_error = null where id = ${row.id}`);
+      sent++;
+    } catch (error) {
+      const attempts = row.attempts + 1;
+      const reason = error instanceof Error ? error.message : String(error);
+      const finalState = attempts >= MAX_ATTEMPTS ? "failed" : "pending";
+      await db.execute(sql`update mail_outbox set attempts = ${attempts}, last_error = ${reason.slice(0, 500)},
+        state = ${finalState}, next_attempt_at = now() + make_interval(secs => ${backoffSeconds(attempts)}) where id = ${row.id}`);
+      failed++;
     }
-  });
+  }
   return { sent, failed };
+}
+
+export type OutboxHealth = { pending: number; failed: number; oldestPendingS: number | null };
+
+/** Queue depth and the age of the oldest message still waiting, for the health route. */
+export async function outboxHealth(db: Database): Promise<OutboxHealth> {
+  const { rows } = await db.execute<{ pending: string; failed: string; oldest_s: string | null }>(sql`
+    select count(*) filter (where state = 'pending') as pending,
+           count(*) filter (where state = 'failed') as failed,
+           extract(epoch from now() - min(created_at) filter (where state = 'pending')) as oldest_s
+    from mail_outbox`);
+  const row = rows[0];
+  return {
+    pending: Number(row?.pending ?? 0),
+    failed: Number(row?.failed ?? 0),
+    oldestPendingS: row?.oldest_s == null ? null : Math.round(Number(row.oldest_s)),
+  };
 }

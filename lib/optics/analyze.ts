@@ -42,6 +42,7 @@ import {
   waistsOf,
 } from "./propagate";
 import { type OpticsWarning, formatLengthMm, formatNumber, warning } from "./warnings";
+import { kindNoun } from "@/lib/bench/kinds";
 
 const M_PER_MM = 1e-3;
 /** Below this |B| the screen is taken to be at (or imaged onto) the aperture; B is clamped to it, keeping its sign. */
@@ -250,18 +251,10 @@ function incidentOf(trace: BenchTrace, entry: TraceEntry): IncidentBeam {
   };
 }
 
-const KIND_WORD: Record<string, string> = {
-  laser: "laser",
-  lens: "lens",
-  aperture: "aperture",
-  filter: "filter",
-  "beam-block": "beam block",
-  screen: "screen",
-};
 /** Where a Gaussian focus sits relative to the lens's focal plane, in words. */
 const focalShift = (shiftMm: number): string =>
   Math.abs(shiftMm) < 1e-3 ? "at the focal plane" : `${formatLengthMm(Math.abs(shiftMm))} ${shiftMm < 0 ? "before" : "beyond"} the focal plane`;
-const named = (e: { id: string; kind: string }): string => `${KIND_WORD[e.kind] ?? e.kind} "${e.id}"`;
+const named = (e: { id: string; kind: string }): string => `${kindNoun(e.kind)} "${e.id}"`;
 
 /** Pure and synchronous; never throws for a document the schema accepts. */
 export function analyzeBench(doc: BenchDocument): BenchAnalysis {

@@ -21,7 +21,6 @@ export type AdminPerson = { id: string; name: string; email: string; roles: Role
 export type AdminLab = { id: string; name: string; room: string | null; members: { id: string; name: string; roles: RoleName[]; active: boolean }[] };
 export type PendingInvitation = { id: string; email: string; name: string; roles: RoleName[]; expiresAt: string };
 
-const roleText = (actor: Actor) => actor.roles.join(",");
 
 async function loadUser(db: DbOrTx, userId: string) {
   const [row] = await db.select({ id: user.id, name: user.name, email: user.email, role: user.role, banned: user.banned }).from(user).where(eq(user.id, userId));
@@ -77,11 +76,8 @@ export async function setRoles(db: Database, actor: Actor, userId: string, input
       if ((await otherActiveAdmins(tx, userId)) === 0) throw new AppError("conflict", `${target.name} is the only active administrator; give someone else the role first.`);
     }
     await tx.update(user).set({ role: roles.join(","), updatedAt: new Date() }).where(eq(user.id, userId));
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: roleText(actor),
+    await recordAudit(tx, actor, {
       action: "person-roles-changed",
-      ipAddress: actor.ipAddress,
       detail: { userId, email: target.email, from: before, to: roles },
     });
     return roles;
@@ -104,11 +100,8 @@ export async function deactivatePerson(db: Database, actor: Actor, userId: strin
     const reason = input.reason || "Deactivated by an administrator";
     await tx.update(user).set({ banned: true, banReason: reason, banExpires: null, updatedAt: new Date() }).where(eq(user.id, userId));
     const revoked = await tx.delete(session).where(eq(session.userId, userId)).returning({ id: session.id });
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: roleText(actor),
+    await recordAudit(tx, actor, {
       action: "person-deactivated",
-      ipAddress: actor.ipAddress,
       detail: { userId, email: target.email, reason, sessionsRevoked: revoked.length },
     });
     return { active: false as const, sessionsRevoked: revoked.length };
@@ -121,7 +114,7 @@ export async function reactivatePerson(db: Database, actor: Actor, userId: strin
     const target = await loadUser(tx, userId);
     if (!target.banned) throw new AppError("conflict", `${target.name}'s account is already active.`);
     await tx.update(user).set({ banned: false, banReason: null, banExpires: null, updatedAt: new Date() }).where(eq(user.id, userId));
-    await recordAudit(tx, { actorId: actor.userId, actorRole: roleText(actor), action: "person-reactivated", ipAddress: actor.ipAddress, detail: { userId, email: target.email } });
+    await recordAudit(tx, actor, { action: "person-reactivated", detail: { userId, email: target.email } });
     return { active: true as const };
   });
 }
@@ -157,7 +150,7 @@ export async function addLabMember(db: Database, actor: Actor, labId: string, in
     const target = await loadUser(tx, input.userId);
     const inserted = await tx.insert(labMember).values({ labId, userId: target.id }).onConflictDoNothing().returning({ labId: labMember.labId });
     if (inserted.length === 0) throw new AppError("conflict", `${target.name} is already a member of ${l.name}.`);
-    await recordAudit(tx, { actorId: actor.userId, actorRole: roleText(actor), action: "lab-member-added", ipAddress: actor.ipAddress, detail: { labId, labName: l.name, userId: target.id, email: target.email } });
+    await recordAudit(tx, actor, { action: "lab-member-added", detail: { labId, labName: l.name, userId: target.id, email: target.email } });
     return { labId, userId: target.id };
   });
   return result;
@@ -170,7 +163,7 @@ export async function removeLabMember(db: Database, actor: Actor, labId: string,
     const target = await loadUser(tx, userId);
     const removed = await tx.delete(labMember).where(and(eq(labMember.labId, labId), eq(labMember.userId, userId))).returning({ userId: labMember.userId });
     if (removed.length === 0) throw new AppError("not-found", `${target.name} is not a member of ${l.name}.`);
-    await recordAudit(tx, { actorId: actor.userId, actorRole: roleText(actor), action: "lab-member-removed", ipAddress: actor.ipAddress, detail: { labId, labName: l.name, userId, email: target.email } });
+    await recordAudit(tx, actor, { action: "lab-member-removed", detail: { labId, labName: l.name, userId, email: target.email } });
     return { removed: true as const };
   });
   return result;

@@ -11,6 +11,7 @@ import type { BenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import { authorize, authorizeLab, type Actor } from "./authorize";
+import { inScope, visibleOr404 } from "./scope";
 
 export type BenchSummary = {
   id: string;
@@ -24,19 +25,13 @@ export type BenchSummary = {
   updatedAt: string;
 };
 
-function labScope(actor: Actor): SQL | undefined {
-  if (actor.allLabs) return undefined;
-  if (actor.labIds.length === 0) return sql`false`;
-  return inArray(bench.labId, actor.labIds);
-}
-
 /** The number of a bench's newest revision, for joining only that one. */
 const latestNumber = sql`(select max(r2.number) from bench_revision r2 where r2.bench_id = ${bench.id})`;
 
 /** Benches the actor may see, newest first; optionally only one review state of the latest revision. */
 export async function listBenches(db: Database, actor: Actor, filter: { state?: ReviewState; authoredByMe?: boolean } = {}): Promise<BenchSummary[]> {
   authorize(actor, { bench: ["read"] });
-  const conditions = [labScope(actor), eq(benchRevision.number, latestNumber)];
+  const conditions = [inScope(actor), eq(benchRevision.number, latestNumber)];
   if (filter.state) conditions.push(eq(benchRevision.state, filter.state));
   if (filter.authoredByMe) conditions.push(eq(bench.authorId, actor.userId));
   const rows = await db
@@ -78,7 +73,7 @@ export async function listRevisionsInState(db: Database, actor: Actor, state: Re
     .innerJoin(bench, eq(bench.id, benchRevision.benchId))
     .innerJoin(lab, eq(lab.id, bench.labId))
     .innerJoin(user, eq(user.id, bench.authorId))
-    .where(and(labScope(actor), eq(benchRevision.state, state)))
+    .where(and(inScope(actor), eq(benchRevision.state, state)))
     .orderBy(desc(benchRevision.updatedAt));
   return rows.map((r) => ({ ...r, updatedAt: r.updatedAt.toISOString() }));
 }
@@ -103,12 +98,7 @@ export async function getBench(db: Database, actor: Actor, benchId: string): Pro
     .innerJoin(lab, eq(lab.id, bench.labId))
     .innerJoin(user, eq(user.id, bench.authorId))
     .where(eq(bench.id, benchId));
-  if (!row) throw notFound("The bench");
-  try {
-    authorizeLab(actor, row.labId);
-  } catch {
-    throw notFound("The bench");
-  }
+  visibleOr404(actor, row, "The bench");
   const revisions = await db.select().from(benchRevision).where(eq(benchRevision.benchId, benchId)).orderBy(desc(benchRevision.number));
   return {
     ...row,
@@ -140,14 +130,11 @@ export async function createBench(db: Database, actor: Actor, input: z.infer<typ
       .insert(benchRevision)
       .values({ benchId: created.id, number: 1, document, contentHash: contentHash(document), createdBy: actor.userId })
       .returning({ id: benchRevision.id });
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: actor.roles.join(","),
+    await recordAudit(tx, actor, {
       action: "bench-created",
       benchId: created.id,
       revisionId: revision.id,
       contentHash: contentHash(document),
-      ipAddress: actor.ipAddress,
       detail: { title: input.title },
     });
     return created;

@@ -1,8 +1,9 @@
 // Build sheets: the PDF of a signed-off revision, made as a job (queued → rendering → ready | failed) by
 // printing the app's own print route in the shared chromium (lib/pdf), kept by the storage module and
 // reused while the revision's content hash is unchanged. Also the sheet's content (parts, build order, predictions).
+import { laserPowerText } from "@/lib/bench/laser-power";
 import "server-only";
-import { and, eq } from "drizzle-orm";
+import { and, eq, lt, notInArray, or } from "drizzle-orm";
 import QRCode from "qrcode";
 import { z } from "zod";
 import type { Database } from "@/db";
@@ -20,20 +21,20 @@ import { statedOd } from "@/lib/safety/cautions";
 import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
+import { loadSignedRevision, type SignedRevision } from "./builds";
 import {
   checklistFor,
-  ELEMENT_KIND_WORDS,
   elementSettings,
-  loadSignedRevision,
   POSITION_TOLERANCE_MM,
   predictionsFor,
   signOffSentence,
   signOffStatus,
   type ChecklistItem,
-  type SignedRevision,
   type SignOffStatus,
-} from "./builds";
-import { assessRevision } from "./review-hazard";
+} from "@/lib/build/rules";
+import { kindTitle } from "@/lib/bench/kinds";
+import { assessRevision } from "@/lib/review/hazard";
+import { notFoundAs } from "./scope";
 
 export const PAPERS = ["A4", "Letter"] as const;
 export const SHEET_TIMEOUT_MS = 90_000;
@@ -82,12 +83,13 @@ function printUrl(revisionId: string, paper: Paper): string {
 
 // ── The job queue (one per server process; kept on globalThis across hot reloads) ─────────────
 type Job = { sheetId: string; revisionId: string; paper: Paper; cookie: string; headerText: string; storageKey: string };
-type Queue = { pending: Job[]; active: number; known: Set<string> };
+// Which server renders a sheet is decided in the database (requestSheet); this queue only paces the
+// jobs this process took.
+type Queue = { pending: Job[]; active: number };
 const globalForSheets = globalThis as unknown as { benchwardenSheetQueue?: Queue };
-const queue: Queue = (globalForSheets.benchwardenSheetQueue ??= { pending: [], active: 0, known: new Set() });
+const queue: Queue = (globalForSheets.benchwardenSheetQueue ??= { pending: [], active: 0 });
 
 function enqueue(job: Job): void {
-  queue.known.add(job.sheetId);
   queue.pending.push(job);
   pump();
 }
@@ -98,7 +100,6 @@ function pump(): void {
     queue.active += 1;
     void run(job).finally(() => {
       queue.active -= 1;
-      queue.known.delete(job.sheetId);
       pump();
     });
   }
@@ -170,15 +171,20 @@ export async function requestSheet(db: Database, actor: Actor, revisionId: strin
   let reused = false;
   if (row && row.state === "ready" && row.contentHash === r.contentHash && row.storageKey && (await storage().exists(row.storageKey))) {
     reused = true;
-  } else if (row && (row.state === "queued" || row.state === "rendering") && queue.known.has(row.id)) {
-    // already on its way in this process
   } else if (row) {
-    [row] = await db
+    // Take the job over only if no server has it on its way: the row is not queued or rendering, or
+    // it has not moved for longer than a render may take (its server died). One UPDATE decides, so
+    // two servers asked at once never render the same sheet twice.
+    const staleBefore = new Date(Date.now() - SHEET_TIMEOUT_MS - 30_000);
+    const [taken] = await db
       .update(buildSheet)
       .set({ state: "queued", progressPercent: 0, error: null, storageKey: null, sizeBytes: null, contentHash: r.contentHash, requestedBy: actor.userId, updatedAt: new Date() })
-      .where(eq(buildSheet.id, row.id))
+      .where(and(eq(buildSheet.id, row.id), or(notInArray(buildSheet.state, ["queued", "rendering"]), lt(buildSheet.updatedAt, staleBefore))))
       .returning();
-    enqueue({ sheetId: row.id, revisionId: r.id, paper, cookie, headerText, storageKey });
+    if (taken) {
+      row = taken;
+      enqueue({ sheetId: row.id, revisionId: r.id, paper, cookie, headerText, storageKey });
+    }
   } else {
     const [inserted] = await db
       .insert(buildSheet)
@@ -193,14 +199,11 @@ export async function requestSheet(db: Database, actor: Actor, revisionId: strin
       [row] = await db.select().from(buildSheet).where(and(eq(buildSheet.revisionId, r.id), eq(buildSheet.paper, paper)));
     }
   }
-  await recordAudit(db, {
-    actorId: actor.userId,
-    actorRole: actor.roles.join(","),
+  await recordAudit(db, actor, {
     action: "build-sheet-requested",
     benchId: r.benchId,
     revisionId: r.id,
     contentHash: r.contentHash,
-    ipAddress: actor.ipAddress,
     detail: { sheetId: row.id, paper, reused },
   });
   return { sheet: sheetView(row), reused };
@@ -224,12 +227,7 @@ export async function downloadSheet(db: Database, actor: Actor, sheetId: string)
   if (!z.uuid().safeParse(sheetId).success) throw notFound("The build sheet");
   const [row] = await db.select().from(buildSheet).where(eq(buildSheet.id, sheetId));
   if (!row) throw notFound("The build sheet");
-  let r: SignedRevision;
-  try {
-    r = await loadSignedRevision(db, actor, row.revisionId);
-  } catch {
-    throw notFound("The build sheet");
-  }
+  const r = await notFoundAs("The build sheet", loadSignedRevision(db, actor, row.revisionId));
   assertSheetAllowed(actor, r, signOffStatus(r));
   if (row.state !== "ready" || !row.storageKey) {
     throw new AppError("conflict", row.state === "failed" ? (row.error ?? "The build sheet could not be made; ask for it again.") : `The build sheet is not ready yet (${row.progressPercent} %).`);
@@ -237,14 +235,11 @@ export async function downloadSheet(db: Database, actor: Actor, sheetId: string)
   if (row.contentHash !== r.contentHash) throw new AppError("conflict", "This sheet was made for a different version of the drawing; ask for the sheet again.");
   const bytes = await storage().get(row.storageKey);
   if (!bytes) throw new AppError("conflict", "The stored PDF is missing; ask for the build sheet again and it will be made anew.");
-  await recordAudit(db, {
-    actorId: actor.userId,
-    actorRole: actor.roles.join(","),
+  await recordAudit(db, actor, {
     action: "build-sheet-exported",
     benchId: r.benchId,
     revisionId: r.id,
     contentHash: r.contentHash,
-    ipAddress: actor.ipAddress,
     detail: { sheetId: row.id, paper: row.paper, sizeBytes: bytes.length },
   });
   return { bytes, fileName: `build-sheet-${slug(r.benchTitle)}-rev${r.number}-${r.contentHash.slice(0, 8)}-${row.paper}.pdf` };
@@ -332,7 +327,7 @@ export function buildSteps(doc: BenchDocument, safety: BenchSafetyAssessment | n
         : e.kind === "screen"
           ? [settings, ...(cautionIds.has("screen-backstop") ? ["Mount a beam block directly behind the screen."] : [])]
           : [settings];
-    steps.push({ title: `Mount ${ELEMENT_KIND_WORDS[e.kind]?.toLowerCase() ?? e.kind} ${e.id} ${at}`, lines });
+    steps.push({ title: `Mount ${kindTitle(e.kind).toLowerCase()} ${e.id} ${at}`, lines });
   }
   const first = elements.find((e) => e.kind !== "laser");
   steps.push({
@@ -354,7 +349,7 @@ export function buildSteps(doc: BenchDocument, safety: BenchSafetyAssessment | n
     title: "Open up",
     lines: [
       `Take the temporary block away. Check that the beam ends on ${stops.length ? stops.map((s) => s.id).join(" / ") : "a beam block (this bench has an open end — add one first)"}.`,
-      laser ? `Raise the power to the drawn ${laser.powerMw} mW only now.` : "Raise the power to the drawn value only now.",
+      laser ? `Raise the power to the drawn ${laserPowerText(laser)} only now.` : "Raise the power to the drawn value only now.",
       "Compare the screen with the predictions page.",
     ],
   });
@@ -415,7 +410,7 @@ async function computeDrawingContent(doc: BenchDocument, url: string): Promise<D
   const origin = laser?.positionMm ?? 0;
   const parts = [...doc.elements]
     .sort((a, b) => a.positionMm - b.positionMm || a.id.localeCompare(b.id))
-    .map((e) => ({ id: e.id, kind: e.kind, kindWord: ELEMENT_KIND_WORDS[e.kind] ?? e.kind, positionMm: e.positionMm, fromLaserMm: e.positionMm - origin, settings: elementSettings(e) }));
+    .map((e) => ({ id: e.id, kind: e.kind, kindWord: kindTitle(e.kind), positionMm: e.positionMm, fromLaserMm: e.positionMm - origin, settings: elementSettings(e) }));
   const predictions = predictionsFor(doc);
   const apertures: SheetAperture[] = (analysis?.apertures ?? []).map((a) => {
     const p = predictions.apertures.find((x) => x.apertureId === a.id);

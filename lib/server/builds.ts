@@ -1,6 +1,6 @@
-// The technician's as-built record of a signed-off revision: the list of benches to build, starting a
-// build, the checklist generated from the bench, observations against the predictions, uploads, sign-off.
-// Predictions come from lib/optics (analyzeBench, screenProfile) and lib/safety (assessBench), which name their sources.
+// The data side of the technician's as-built record: loading what the actor may see, starting a build, saving
+// checks, observations and uploads, signing off, each with its audit row. The rules themselves (status,
+// checklist, predictions, comparison, file types) are the build rules in lib/build/rules.ts.
 import "server-only";
 import { createHash, randomUUID } from "node:crypto";
 import { and, asc, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
@@ -26,35 +26,32 @@ import type { BenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { observationMismatchMail } from "@/lib/mail/build-mail";
 import { enqueueMail } from "@/lib/mail/outbox";
-import { screenProfile } from "@/lib/optics";
-import type { BenchSafetyAssessment } from "@/lib/safety";
-import { statedOd } from "@/lib/safety/cautions";
 import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
-import { assessRevision } from "./review-hazard";
+import {
+  checklistFor,
+  compareObservation,
+  positionWithinTolerance,
+  POSITION_TOLERANCE_MM,
+  POWER_TOLERANCE_FRACTION,
+  predictionsFor,
+  safeFileName,
+  signOffSentence,
+  signOffStatus,
+  assertUploadSize,
+  sniffFileType,
+  SPOT_TOLERANCE_FRACTION,
+  whyNotSignOff,
+  type ChecklistItem,
+  type Predictions,
+  type SignOffStatus,
+} from "@/lib/build/rules";
+import { assessRevision } from "@/lib/review/hazard";
 import { loadRevision } from "./reviews";
-
-/** How far a mount may sit from its drawn position and still count as placed (measured along the rail). */
-export const POSITION_TOLERANCE_MM = 2;
-/** A spot or ring diameter within this fraction of the prediction matches. */
-export const SPOT_TOLERANCE_FRACTION = 0.25;
-/** A power reading at the screen within this fraction of the prediction matches (meters and losses vary). */
-export const POWER_TOLERANCE_FRACTION = 0.2;
-export const UPLOAD_MAX_BYTES = 10 * 1024 * 1024;
-
-const KIND_WORDS: Record<string, string> = {
-  laser: "Laser",
-  lens: "Lens",
-  aperture: "Aperture (iris)",
-  filter: "Filter",
-  "beam-block": "Beam block",
-  screen: "Screen",
-};
+import { inScope, notFoundAs } from "./scope";
 
 // ── Signed-off revisions ──────────────────────────────────────────────────────────────────────
-export type SignOffStatus = "valid" | "expired" | "superseded" | "not-signed-off";
-
 export type SignedRevision = {
   id: string;
   benchId: string;
@@ -92,35 +89,6 @@ export async function loadSignedRevision(db: DbOrTx, actor: Actor, revisionId: s
       ? { signerName: d.signerName, signerRole: d.signerRole, meaning: d.meaning, conditions: d.conditions, validUntil: d.validUntil, decidedAt: d.decidedAt, contentHash: d.contentHash }
       : null,
   };
-}
-
-/** Whether the sign-off holds now. The review clock marks expiry in the database; the date is checked too, so a late clock never lets a build start. */
-export function signOffStatus(r: { state: ReviewState; decision: { validUntil: Date | null } | null }, now = new Date()): SignOffStatus {
-  if (r.state === "superseded") return "superseded";
-  if (r.state === "expired") return "expired";
-  if (r.state !== "approved" || !r.decision) return "not-signed-off";
-  if (r.decision.validUntil && r.decision.validUntil.getTime() <= now.getTime()) return "expired";
-  return "valid";
-}
-
-export function signOffSentence(r: { number: number; decision: { validUntil: Date | null } | null }, status: SignOffStatus): string {
-  const until = r.decision?.validUntil ? r.decision.validUntil.toISOString().slice(0, 10) : null;
-  switch (status) {
-    case "valid":
-      return until ? `Signed off, valid until ${until}.` : "Signed off.";
-    case "expired":
-      return `The sign-off of revision ${r.number} has expired${until ? ` (it held until ${until})` : ""}: do not build or switch on this setup until a revision is signed off again.`;
-    case "superseded":
-      return `Revision ${r.number} has been replaced by a newer signed-off revision: build the newer one instead.`;
-    case "not-signed-off":
-      return `Revision ${r.number} is not signed off, so it cannot be built.`;
-  }
-}
-
-function labScope(actor: Actor): SQL | undefined {
-  if (actor.allLabs) return undefined;
-  if (actor.labIds.length === 0) return sql`false`;
-  return inArray(bench.labId, actor.labIds);
 }
 
 // ── The list of benches to build ──────────────────────────────────────────────────────────────
@@ -164,7 +132,7 @@ export async function listBuildable(db: Database, actor: Actor): Promise<Buildab
     .innerJoin(lab, eq(lab.id, bench.labId))
     .innerJoin(user, eq(user.id, bench.authorId))
     .innerJoin(reviewDecision, and(eq(reviewDecision.revisionId, benchRevision.id), eq(reviewDecision.outcome, "approved")))
-    .where(and(labScope(actor), inArray(benchRevision.state, ["approved", "expired", "superseded"])))
+    .where(and(inScope(actor), inArray(benchRevision.state, ["approved", "expired", "superseded"])))
     .orderBy(desc(reviewDecision.decidedAt))
     .limit(500);
   const ids = rows.map((r) => r.revisionId);
@@ -193,144 +161,6 @@ export async function listBuildable(db: Database, actor: Actor): Promise<Buildab
       };
     })
     .sort((a, b) => order[a.status] - order[b.status]);
-}
-
-// ── The checklist, generated from the bench ───────────────────────────────────────────────────
-export type ChecklistItem = {
-  itemKey: string;
-  group: "element" | "control" | "eyewear";
-  label: string;
-  detail: string;
-  elementId: string | null;
-  expectedPositionMm: number | null;
-};
-
-function elementSettings(e: BenchDocument["elements"][number]): string {
-  switch (e.kind) {
-    case "laser":
-      return `${e.wavelengthNm} nm, ${e.powerMw} mW, beam ⌀ ${e.beamDiameterMm} mm${e.m2 && e.m2 !== 1 ? `, M² ${e.m2}` : ""}`;
-    case "lens":
-      return `focal length ${e.focalLengthMm} mm (${e.focalLengthMm > 0 ? "converging" : "diverging"})`;
-    case "aperture":
-      return `opening ⌀ ${e.diameterMm} mm, centred on the beam`;
-    case "filter":
-      return `optical density ${e.opticalDensity} (passes ${Number((100 * 10 ** -e.opticalDensity).toPrecision(3))} %)`;
-    case "beam-block":
-      return "stops the beam";
-    case "screen":
-      return "observation plane";
-    default:
-      return "";
-  }
-}
-
-export { elementSettings, KIND_WORDS as ELEMENT_KIND_WORDS };
-
-/** The items to tick: each element at its position (±POSITION_TOLERANCE_MM), each control the cautions call for, the eyewear. */
-export function checklistFor(doc: BenchDocument, safety: BenchSafetyAssessment | null): ChecklistItem[] {
-  const elements = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm || a.id.localeCompare(b.id));
-  const items: ChecklistItem[] = elements.map((e) => ({
-    itemKey: `element:${e.id}`,
-    group: "element",
-    label: `${KIND_WORDS[e.kind] ?? e.kind} ${e.id} at ${e.positionMm} mm`,
-    detail: `${elementSettings(e)}; within ±${POSITION_TOLERANCE_MM} mm of ${e.positionMm} mm`,
-    elementId: e.id,
-    expectedPositionMm: e.positionMm,
-  }));
-  for (const c of safety?.cautions ?? []) {
-    if (c.id === "eyewear-od") continue; // the eyewear line below covers it, with the figure
-    items.push({ itemKey: `control:${c.id}`, group: "control", label: c.title, detail: c.text, elementId: null, expectedPositionMm: null });
-  }
-  const od = safety?.governing?.opticalDensityRequired ?? 0;
-  const wavelength = safety?.wavelengthNm ?? doc.elements.find((e) => e.kind === "laser")?.wavelengthNm;
-  items.push({
-    itemKey: "eyewear",
-    group: "eyewear",
-    label: od > 0 ? `Eyewear of OD ${statedOd(od)} or more at ${wavelength} nm, for everyone present` : "Eyewear: none needed by the estimate",
-    detail:
-      od > 0
-        ? `Check the marking on each pair for ${wavelength} nm; eyewear made for another laser may not protect at all.`
-        : "The estimate needs no eyewear (OD 0); follow local rules, which may ask for it anyway.",
-    elementId: null,
-    expectedPositionMm: null,
-  });
-  return items;
-}
-
-// ── Predictions the observations are compared with ────────────────────────────────────────────
-export type AperturePrediction = {
-  apertureId: string;
-  diameterMm: number;
-  screenId: string | null;
-  observationDistanceMm: number | null;
-  fresnelNumber: number;
-  centre: "bright" | "dark" | "between";
-  centreIntensityRatio: number;
-  transmittedFraction: number;
-  /** The lit pattern's diameter: the larger of the aperture's shadow and the first dark ring of the far-field pattern. */
-  spotDiameterMm: number | null;
-  screenPowerMw: number | null;
-};
-export type ScreenPrediction = { screenId: string; positionMm: number; beamDiameterMm: number; powerMw: number };
-export type Predictions = { apertures: AperturePrediction[]; screen: ScreenPrediction | null; problem: string | null };
-
-export function predictionsFor(doc: BenchDocument): Predictions {
-  const assessed = assessRevision(doc);
-  if (!assessed.ok) return { apertures: [], screen: null, problem: assessed.problem };
-  const { analysis } = assessed;
-  const lambdaMm = (analysis.wavelengthNm ?? 0) * 1e-6;
-  const powerAt = (id: string | null) => (id ? (analysis.elements.find((e) => e.id === id)?.incident.powerMw ?? null) : null);
-  const apertures = analysis.apertures.map((a): AperturePrediction => {
-    let spotDiameterMm: number | null = null;
-    if (a.screenId) {
-      try {
-        const shadow = screenProfile(doc, a.id, { radiiMm: [0] }).shadowRadiusMm;
-        const airy = a.observationDistanceMm ? (2 * 1.22 * lambdaMm * a.observationDistanceMm) / a.diameterMm : 0;
-        spotDiameterMm = Math.max(2 * shadow, airy);
-      } catch {
-        spotDiameterMm = null;
-      }
-    }
-    return {
-      apertureId: a.id,
-      diameterMm: a.diameterMm,
-      screenId: a.screenId,
-      observationDistanceMm: a.observationDistanceMm,
-      fresnelNumber: a.fresnelNumber,
-      centre: a.centre,
-      centreIntensityRatio: a.centreIntensityRatio,
-      transmittedFraction: a.transmittedFraction,
-      spotDiameterMm,
-      screenPowerMw: powerAt(a.screenId),
-    };
-  });
-  const lit = analysis.elements.find((e) => e.kind === "screen" && e.status === "lit" && e.incident.powerMw > 0);
-  const screen = lit ? { screenId: lit.id, positionMm: lit.positionMm, beamDiameterMm: 2 * lit.incident.radiusMm, powerMw: lit.incident.powerMw } : null;
-  return { apertures, screen, problem: null };
-}
-
-const round3 = (v: number) => Number(v.toPrecision(3));
-
-/** Compares what was seen with what was predicted; each difference becomes one sentence. */
-export function compareObservation(
-  predictions: Predictions,
-  seen: { apertureId?: string | null; centreSeen?: "bright" | "dark" | "unclear" | null; spotDiameterMm?: number | null; screenPowerMw?: number | null },
-): { centrePredicted: string | null; predictedSpotDiameterMm: number | null; predictedScreenPowerMw: number | null; reasons: string[] } {
-  const aperture = seen.apertureId ? predictions.apertures.find((a) => a.apertureId === seen.apertureId) : undefined;
-  const centrePredicted = aperture?.centre ?? null;
-  const predictedSpot = aperture ? aperture.spotDiameterMm : (predictions.screen?.beamDiameterMm ?? null);
-  const predictedPower = aperture ? aperture.screenPowerMw : (predictions.screen?.powerMw ?? null);
-  const reasons: string[] = [];
-  if (seen.centreSeen && centrePredicted && seen.centreSeen !== "unclear" && centrePredicted !== "between" && seen.centreSeen !== centrePredicted) {
-    reasons.push(`Centre: predicted ${centrePredicted}, seen ${seen.centreSeen}.`);
-  }
-  if (seen.spotDiameterMm != null && predictedSpot != null && predictedSpot > 0 && Math.abs(seen.spotDiameterMm - predictedSpot) > SPOT_TOLERANCE_FRACTION * predictedSpot) {
-    reasons.push(`Spot or ring diameter: predicted ${round3(predictedSpot)} mm, measured ${seen.spotDiameterMm} mm (more than ${SPOT_TOLERANCE_FRACTION * 100} % apart).`);
-  }
-  if (seen.screenPowerMw != null && predictedPower != null && Math.abs(seen.screenPowerMw - predictedPower) > POWER_TOLERANCE_FRACTION * predictedPower) {
-    reasons.push(`Power at the screen: predicted ${round3(predictedPower)} mW, measured ${seen.screenPowerMw} mW (more than ${POWER_TOLERANCE_FRACTION * 100} % apart).`);
-  }
-  return { centrePredicted, predictedSpotDiameterMm: predictedSpot, predictedScreenPowerMw: predictedPower, reasons };
 }
 
 // ── One build ─────────────────────────────────────────────────────────────────────────────────
@@ -387,12 +217,7 @@ async function loadBuild(db: DbOrTx, actor: Actor, buildId: string, lock = false
   const query = db.select().from(buildRecord).where(eq(buildRecord.id, buildId));
   const [build] = lock ? await query.for("update") : await query;
   if (!build) throw notFound("The build record");
-  let revision: SignedRevision;
-  try {
-    revision = await loadSignedRevision(db, actor, build.revisionId);
-  } catch {
-    throw notFound("The build record");
-  }
+  const revision = await notFoundAs("The build record", loadSignedRevision(db, actor, build.revisionId));
   return { build, revision };
 }
 
@@ -413,18 +238,6 @@ function observationView(row: typeof buildObservation.$inferSelect, name: string
     recordedByName: name,
     createdAt: row.createdAt.toISOString(),
   };
-}
-
-function whyNotSignOff(build: BuildRow, revision: SignedRevision, checklist: CheckView[], actor: Actor): string | null {
-  if (build.state === "completed") return "This build is already signed off.";
-  if (build.technicianId !== actor.userId) return "Only the technician who started this build can sign it off.";
-  const status = signOffStatus(revision);
-  if (status !== "valid") return signOffSentence(revision, status);
-  const open = checklist.filter((c) => !c.done);
-  if (open.length) return `${open.length} checklist item${open.length === 1 ? " is" : "s are"} not ticked yet.`;
-  const off = checklist.filter((c) => c.group === "element" && c.withinTolerance !== true);
-  if (off.length) return `${off.map((c) => c.elementId).join(", ")} ${off.length === 1 ? "is" : "are"} not measured within ±${POSITION_TOLERANCE_MM} mm of the drawn position.`;
-  return null;
 }
 
 async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revision: SignedRevision): Promise<BuildView> {
@@ -459,7 +272,7 @@ async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revision: Si
   const [technician] = await db.select({ name: user.name }).from(user).where(eq(user.id, build.technicianId));
   const status = signOffStatus(revision);
   const mayRecord = build.state === "in-progress" && status === "valid" && canRecord(actor);
-  const why = canRecord(actor) ? whyNotSignOff(build, revision, checklist, actor) : "Only a technician can sign off a build.";
+  const why = canRecord(actor) ? whyNotSignOff(build, revision, checklist, actor.userId) : "Only a technician can sign off a build.";
   return {
     id: build.id,
     state: build.state,
@@ -515,8 +328,9 @@ export async function getBuild(db: Database, actor: Actor, buildId: string): Pro
   return buildView(db, actor, build, revision);
 }
 
-function auditBase(actor: Actor, revision: SignedRevision) {
-  return { actorId: actor.userId, actorRole: actor.roles.join(","), benchId: revision.benchId, revisionId: revision.id, contentHash: revision.contentHash, ipAddress: actor.ipAddress };
+/** What a build's audit rows are about: the signed-off revision. */
+function aboutRevision(revision: SignedRevision) {
+  return { benchId: revision.benchId, revisionId: revision.id, contentHash: revision.contentHash };
 }
 
 export const startBuildInput = z.object({ revisionId: z.uuid({ error: "Choose the signed-off revision to build" }) });
@@ -558,7 +372,7 @@ async function startBuildOnce(db: Database, actor: Actor, input: z.infer<typeof 
     const assessed = assessRevision(revision.document);
     const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null);
     await tx.insert(buildCheck).values(items.map((i) => ({ buildId: build.id, itemKey: i.itemKey })));
-    await recordAudit(tx, { ...auditBase(actor, revision), action: "build-started", detail: { buildId: build.id, number: revision.number, items: items.length } });
+    await recordAudit(tx, actor, { ...aboutRevision(revision), action: "build-started", detail: { buildId: build.id, number: revision.number, items: items.length } });
     return { build: await buildView(tx, actor, build, revision), created: true };
   });
 }
@@ -596,7 +410,7 @@ export async function updateCheck(db: Database, actor: Actor, buildId: string, i
     }
     const [current] = await tx.select().from(buildCheck).where(and(eq(buildCheck.buildId, build.id), eq(buildCheck.itemKey, item.itemKey)));
     const measured = input.measuredPositionMm !== undefined ? input.measuredPositionMm : (current?.measuredPositionMm ?? null);
-    const withinTolerance = item.expectedPositionMm === null || measured === null ? null : Math.abs(measured - item.expectedPositionMm) <= POSITION_TOLERANCE_MM + 1e-9;
+    const withinTolerance = positionWithinTolerance(item.expectedPositionMm, measured);
     const values = {
       done: input.done ?? current?.done ?? false,
       measuredPositionMm: measured,
@@ -609,8 +423,8 @@ export async function updateCheck(db: Database, actor: Actor, buildId: string, i
       .insert(buildCheck)
       .values({ buildId: build.id, itemKey: item.itemKey, ...values })
       .onConflictDoUpdate({ target: [buildCheck.buildId, buildCheck.itemKey], set: values });
-    await recordAudit(tx, {
-      ...auditBase(actor, revision),
+    await recordAudit(tx, actor, {
+      ...aboutRevision(revision),
       action: "build-check-recorded",
       detail: { buildId: build.id, itemKey: item.itemKey, done: values.done, measuredPositionMm: measured, expectedPositionMm: item.expectedPositionMm, withinTolerance, note: values.note },
     });
@@ -666,8 +480,8 @@ export async function addObservation(db: Database, actor: Actor, buildId: string
         recordedBy: actor.userId,
       })
       .returning();
-    await recordAudit(tx, {
-      ...auditBase(actor, revision),
+    await recordAudit(tx, actor, {
+      ...aboutRevision(revision),
       action: "build-observation-recorded",
       detail: { buildId: build.id, observationId: row.id, apertureId, centreSeen: row.centreSeen, centrePredicted: row.centrePredicted, spotDiameterMm: row.spotDiameterMm, screenPowerMw: row.screenPowerMw, mismatch, reasons: compared.reasons },
     });
@@ -693,29 +507,7 @@ export async function addObservation(db: Database, actor: Actor, buildId: string
 }
 
 // ── Uploads ───────────────────────────────────────────────────────────────────────────────────
-const FILE_TYPES = [
-  { contentType: "image/png", extension: "png", magic: [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a] },
-  { contentType: "image/jpeg", extension: "jpg", magic: [0xff, 0xd8, 0xff] },
-  { contentType: "application/pdf", extension: "pdf", magic: [0x25, 0x50, 0x44, 0x46, 0x2d] }, // %PDF-
-] as const;
-
-/** The file's real type from its first bytes (its name and declared type are not trusted), or null. */
-export function sniffFileType(bytes: Uint8Array): { contentType: string; extension: string } | null {
-  const found = FILE_TYPES.find((t) => bytes.length >= t.magic.length && t.magic.every((b, i) => bytes[i] === b));
-  return found ? { contentType: found.contentType, extension: found.extension } : null;
-}
-
 export const uploadKindInput = z.enum(UPLOAD_KINDS, { error: `Say what the file shows: ${UPLOAD_KINDS.join(", ")}` });
-
-function tooBig(sizeBytes: number): AppError {
-  return new AppError("payload-too-large", `The file is ${(sizeBytes / 1024 / 1024).toFixed(1)} MB; files may be at most ${UPLOAD_MAX_BYTES / 1024 / 1024} MB. Take a smaller photo or export a smaller PDF.`, [
-    { path: "file", message: `At most ${UPLOAD_MAX_BYTES / 1024 / 1024} MB` },
-  ]);
-}
-
-export function assertUploadSize(sizeBytes: number): void {
-  if (sizeBytes > UPLOAD_MAX_BYTES) throw tooBig(sizeBytes);
-}
 
 export async function addUpload(
   db: Database,
@@ -737,8 +529,7 @@ export async function addUpload(
   const id = randomUUID();
   const sha256 = createHash("sha256").update(input.bytes).digest("hex");
   const key = `uploads/${build.id}/${id}.${type.extension}`;
-  // Kept as the person's computer named it (the route refused what cannot be stored); sent back with RFC 6266 filename*.
-  const fileName = input.fileName || `upload.${type.extension}`;
+  const fileName = safeFileName(input.fileName, type.extension);
   const store = storage();
   await store.put(key, input.bytes, type.contentType);
   try {
@@ -749,8 +540,8 @@ export async function addUpload(
         .insert(upload)
         .values({ id, buildId: build.id, kind: input.kind, fileName, contentType: type.contentType, sizeBytes: input.bytes.length, sha256, storageKey: key, uploadedBy: actor.userId })
         .returning();
-      await recordAudit(tx, {
-        ...auditBase(actor, revision),
+      await recordAudit(tx, actor, {
+        ...aboutRevision(revision),
         action: "build-upload-stored",
         detail: { buildId: build.id, uploadId: id, kind: input.kind, fileName, contentType: type.contentType, sizeBytes: input.bytes.length, sha256 },
       });
@@ -781,12 +572,12 @@ export async function signOffBuild(db: Database, actor: Actor, buildId: string):
   return db.transaction(async (tx) => {
     const { build, revision } = await loadBuild(tx, actor, buildId, true);
     const view = await buildView(tx, actor, build, revision);
-    const why = whyNotSignOff(build, revision, view.checklist, actor);
+    const why = whyNotSignOff(build, revision, view.checklist, actor.userId);
     if (why) throw new AppError("conflict", `The build cannot be signed off yet: ${why}`);
     const now = new Date();
     const [done] = await tx.update(buildRecord).set({ state: "completed", signedOffAt: now, updatedAt: now }).where(eq(buildRecord.id, build.id)).returning();
-    await recordAudit(tx, {
-      ...auditBase(actor, revision),
+    await recordAudit(tx, actor, {
+      ...aboutRevision(revision),
       action: "build-signed-off",
       detail: { buildId: build.id, items: view.checklist.length, observations: view.observations.length, mismatches: view.observations.filter((o) => o.mismatch).length, uploads: view.uploads.length },
     });

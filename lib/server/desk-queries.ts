@@ -6,9 +6,9 @@ import { safeText } from "@/lib/validation/text";
 import type { Database } from "@/db";
 import { bench, benchRevision, lab, reviewDecision } from "@/db/schema";
 import { HAZARD_CLASSES, type HazardClass } from "@/lib/safety/types";
+import { inScope, scopeHolds, type LabScope } from "./scope";
 
-/** Which labs the caller may see: everything (officers, auditors) or the listed labs. */
-export type LabScope = { allLabs: boolean; labIds: string[] };
+export type { LabScope };
 
 // ── The query (the URL's search params, the API's query string) ───────────────────────────────
 export const APPROVAL_STATES = ["approved", "expired", "superseded"] as const;
@@ -92,7 +92,8 @@ const DAY_MS = 86_400_000;
 
 function filters(scope: LabScope, q: DeskQuery, now: Date): SQL[] {
   const where: SQL[] = [eq(reviewDecision.outcome, "approved")];
-  if (!scope.allLabs) where.push(scope.labIds.length ? inArray(bench.labId, scope.labIds) : sql`false`);
+  const labs = inScope(scope);
+  if (labs) where.push(labs);
   if (q.lab) where.push(eq(bench.labId, q.lab));
   if (q.hazardClass) where.push(sql`${hazardClassExpr} = ${q.hazardClass}`);
   if (q.state) where.push(eq(benchRevision.state, q.state));

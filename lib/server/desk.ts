@@ -7,7 +7,7 @@ import { lab, reviewDecision, type ReviewState } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
-import { loadBenchTrail } from "./trail";
+import { loadBenchTrail, type BenchTrail, type TrailEntry } from "./trail";
 import {
   approvalsCountQuery,
   approvalsCsvStream,
@@ -19,6 +19,7 @@ import {
   type ApprovalsPage,
   type DeskQuery,
 } from "./desk-queries";
+import { inScope, scopeHolds } from "./scope";
 
 export * from "./desk-queries";
 
@@ -41,45 +42,18 @@ export async function deskFilterOptions(db: Database, actor: Actor): Promise<{ l
       .groupBy(reviewDecision.signerId)
       .orderBy(sql`max(${reviewDecision.signerName})`),
   ]);
-  return { labs: actor.allLabs ? labs : labs.filter((l) => actor.labIds.includes(l.id)), officers };
+  return { labs: labs.filter((l) => scopeHolds(actor, l.id)), officers };
 }
 
 /** The filtered sign-offs as CSV, streamed batch by batch; the export itself goes into the audit trail first. */
 export async function exportApprovalsCsv(db: Database, actor: Actor, q: DeskQuery, now = new Date()): Promise<ReadableStream<Uint8Array>> {
   authorize(actor, { audit: ["export"] });
   const { page: _page, pageSize: _size, sort: _sort, dir: _dir, ...filtersUsed } = q;
-  await recordAudit(db, { actorId: actor.userId, actorRole: actor.roles.join(","), action: "desk-exported-approvals", ipAddress: actor.ipAddress, detail: { filters: filtersUsed, format: "csv" } });
+  await recordAudit(db, actor, { action: "desk-exported-approvals", detail: { filters: filtersUsed, format: "csv" } });
   return approvalsCsvStream(db, actor, q, now);
 }
 
 // ── A bench's trail ───────────────────────────────────────────────────────────────────────────
-export type TrailEntry =
-  | { kind: "revision"; at: string; revisionNumber: number; revisionId: string; contentHash: string; state: ReviewState; by: string | null }
-  | {
-      kind: "decision";
-      at: string;
-      revisionNumber: number;
-      revisionId: string;
-      contentHash: string;
-      outcome: string;
-      by: string;
-      role: string;
-      meaning: string;
-      conditions: string | null;
-      reason: string | null;
-      validUntil: string | null;
-      stepUpVerified: boolean;
-      hazardClass: string | null;
-    }
-  | { kind: "comment"; at: string; revisionNumber: number; revisionId: string; by: string; role: string; body: string; elementId: string | null }
-  | { kind: "event"; at: string; revisionNumber: number | null; revisionId: string | null; contentHash: string | null; action: string; by: string | null; role: string | null; detail: Record<string, unknown> };
-
-export type BenchTrail = {
-  bench: { id: string; title: string; labName: string; authorName: string; createdAt: string };
-  revisions: { id: string; number: number; state: ReviewState; contentHash: string; createdAt: string }[];
-  entries: TrailEntry[];
-};
-
 /** A bench's whole trail for the desk (audit: read; every lab for auditors and officers). */
 export async function getBenchTrail(db: Database, actor: Actor, benchId: string): Promise<BenchTrail> {
   authorize(actor, { audit: ["read"] });
@@ -105,7 +79,7 @@ function trailLine(e: TrailEntry): string {
 export async function exportTrailCsv(db: Database, actor: Actor, benchId: string): Promise<{ filename: string; stream: ReadableStream<Uint8Array> }> {
   authorize(actor, { audit: ["export"] });
   const trail = await getBenchTrail(db, actor, benchId);
-  await recordAudit(db, { actorId: actor.userId, actorRole: actor.roles.join(","), action: "desk-exported-trail", benchId, ipAddress: actor.ipAddress, detail: { format: "csv", entries: trail.entries.length } });
+  await recordAudit(db, actor, { action: "desk-exported-trail", benchId, detail: { format: "csv", entries: trail.entries.length } });
   async function* lines() {
     yield `\uFEFF${csvLine(TRAIL_HEADER)}`;
     for (const e of trail.entries) yield trailLine(e);

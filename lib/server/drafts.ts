@@ -13,6 +13,7 @@ import { benchDocumentSchema, type BenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import { authorize, authorizeLab, type Actor } from "./authorize";
+import { visibleOr404 } from "./scope";
 
 export type DraftView = {
   benchId: string;
@@ -55,14 +56,7 @@ async function visibleBench(db: DbOrTx, actor: Actor, benchId: string, lock: boo
   if (!z.uuid().safeParse(benchId).success) throw notFound("The bench");
   const query = db.select({ id: bench.id, labId: bench.labId, title: bench.title }).from(bench).where(eq(bench.id, benchId));
   const [row] = lock ? await query.for("update") : await query;
-  if (!row) throw notFound("The bench");
-  try {
-    authorizeLab(actor, row.labId);
-  } catch {
-    // Outside the actor's labs the bench does not exist, the same answer as a missing one.
-    throw notFound("The bench");
-  }
-  return row;
+  return visibleOr404(actor, row, "The bench");
 }
 
 async function latestRevision(db: DbOrTx, benchId: string) {
@@ -142,14 +136,11 @@ export async function saveDraft(db: Database, actor: Actor, benchId: string, inp
       await tx.update(bench).set({ title, updatedAt: now }).where(eq(bench.id, benchId));
       current = { ...row, title };
     }
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: actor.roles.join(","),
+    await recordAudit(tx, actor, {
       action: createdRevision ? "draft-revision-started" : "draft-saved",
       benchId,
       revisionId: saved.id,
       contentHash: hash,
-      ipAddress: actor.ipAddress,
       detail: { number: saved.number, version: saved.version, basedOn: { revision: input.baseRevision, version: input.baseVersion }, elements: document.elements.length },
     });
     return { ok: true as const, draft: view(actor, current, saved), createdRevision };
@@ -186,14 +177,11 @@ export async function makeRevision(db: Database, actor: Actor, benchId: string, 
       .insert(benchRevision)
       .values({ benchId, number: latest.number + 1, document, contentHash: latest.contentHash, state: "draft", version: 1, createdBy: actor.userId })
       .returning();
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: actor.roles.join(","),
+    await recordAudit(tx, actor, {
       action: "revision-made",
       benchId,
       revisionId: latest.id,
       contentHash: latest.contentHash,
-      ipAddress: actor.ipAddress,
       detail: { number: latest.number, version: latest.version, newDraft: { number: created.number, revisionId: created.id }, elements: document.elements.length },
     });
     return { ok: true as const, draft: view(actor, row, created), frozen: { revisionId: latest.id, number: latest.number, contentHash: latest.contentHash } };

@@ -10,7 +10,8 @@ import type { BenchSafetyAssessment } from "@/lib/safety";
 import { eyewearBandsSchema, eyewearCoverage, eyewearNameSchema, type EyewearCoverage, type EyewearItem, type LineNeed } from "@/lib/safety/eyewear";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
-import { assessRevision } from "./review-hazard";
+import { assessRevision } from "@/lib/review/hazard";
+import { inScope, scopeHolds } from "./scope";
 import { loadRevision } from "./reviews";
 
 // ── Inputs ────────────────────────────────────────────────────────────────────────────────────
@@ -58,16 +59,6 @@ export type EyewearView = {
   updatedAt: string;
 };
 
-function scope(actor: Actor): SQL | undefined {
-  if (actor.allLabs) return undefined;
-  if (actor.labIds.length === 0) return sql`false`;
-  return inArray(eyewearItem.labId, actor.labIds);
-}
-
-function mayReadLab(actor: Actor, labId: string): boolean {
-  return actor.allLabs || actor.labIds.includes(labId);
-}
-
 async function loadItems(db: DbOrTx, where: SQL | undefined): Promise<EyewearView[]> {
   const rows = await db
     .select({
@@ -103,8 +94,8 @@ async function loadItems(db: DbOrTx, where: SQL | undefined): Promise<EyewearVie
 /** The eyewear of the labs the actor may see (officers and auditors: every lab), by lab and name. */
 export async function listEyewear(db: DbOrTx, actor: Actor, filter: z.infer<typeof eyewearListQuery> = {}): Promise<EyewearView[]> {
   authorize(actor, { eyewear: ["read"] });
-  if (filter.labId && !mayReadLab(actor, filter.labId)) throw new AppError("forbidden", "This lab's eyewear belongs to a lab you are not a member of.");
-  return loadItems(db, and(scope(actor), filter.labId ? eq(eyewearItem.labId, filter.labId) : undefined));
+  if (filter.labId && !scopeHolds(actor, filter.labId)) throw new AppError("forbidden", "This lab's eyewear belongs to a lab you are not a member of.");
+  return loadItems(db, and(inScope(actor, eyewearItem.labId), filter.labId ? eq(eyewearItem.labId, filter.labId) : undefined));
 }
 
 /** One item; outside the actor's labs it does not exist (404). */
@@ -112,13 +103,13 @@ export async function getEyewear(db: DbOrTx, actor: Actor, itemId: string): Prom
   authorize(actor, { eyewear: ["read"] });
   if (!z.uuid().safeParse(itemId).success) throw notFound("The eyewear item");
   const [item] = await loadItems(db, eq(eyewearItem.id, itemId));
-  if (!item || !mayReadLab(actor, item.labId)) throw notFound("The eyewear item");
+  if (!item || !scopeHolds(actor, item.labId)) throw notFound("The eyewear item");
   return item;
 }
 
 // ── Changing (safety officers) ────────────────────────────────────────────────────────────────
 async function audit(tx: DbOrTx, actor: Actor, action: string, detail: Record<string, unknown>) {
-  await recordAudit(tx, { actorId: actor.userId, actorRole: actor.roles.join(","), action, ipAddress: actor.ipAddress, detail });
+  await recordAudit(tx, actor, { action, detail });
 }
 
 async function checkLab(tx: DbOrTx, labId: string): Promise<{ id: string; name: string }> {
@@ -269,8 +260,7 @@ export type LabShelf = { labId: string; labName: string; standard: SafetyStandar
 /** The eyewear page: every lab the actor may see, with its standard and its eyewear (labs without eyewear included). */
 export async function eyewearShelves(db: DbOrTx, actor: Actor): Promise<LabShelf[]> {
   authorize(actor, { eyewear: ["read"] });
-  const labScope = actor.allLabs ? undefined : actor.labIds.length ? inArray(lab.id, actor.labIds) : sql`false`;
-  const labs = await db.select({ id: lab.id, name: lab.name, standard: lab.safetyStandard }).from(lab).where(labScope).orderBy(asc(lab.name));
-  const items = await loadItems(db, scope(actor));
+  const labs = await db.select({ id: lab.id, name: lab.name, standard: lab.safetyStandard }).from(lab).where(inScope(actor, lab.id)).orderBy(asc(lab.name));
+  const items = await loadItems(db, inScope(actor, eyewearItem.labId));
   return labs.map((l) => ({ labId: l.id, labName: l.name, standard: l.standard, items: items.filter((i) => i.labId === l.id) }));
 }

@@ -6,6 +6,7 @@ import type { Database } from "@/db";
 import { bench, benchRevision, buildRecord, lab, reviewComment, reviewDecision, user, type ReviewState } from "@/db/schema";
 import { ROLE_LABELS, type Permission, type RoleName } from "@/lib/auth/permissions";
 import { authorize, type Actor } from "./authorize";
+import { inScope, scopeHolds } from "./scope";
 
 /** How far back comments on one's benches count as new, and how far ahead an expiry counts as near. */
 export const COMMENT_WINDOW_DAYS = 7;
@@ -57,12 +58,6 @@ const SECTION_PERMISSION: Record<InboxRole, Permission> = {
   auditor: { audit: ["read"] },
 };
 
-function labScope(actor: Actor): SQL | undefined {
-  if (actor.allLabs) return undefined;
-  if (actor.labIds.length === 0) return sql`false`;
-  return inArray(bench.labId, actor.labIds);
-}
-
 /** The full count of a limited query, from a window over the same rows. */
 const fullCount = sql<number>`count(*) over ()`.mapWith(Number);
 const day = (d: Date | null) => (d ? d.toISOString().slice(0, 10) : "—");
@@ -75,7 +70,7 @@ async function officerSection(db: Database, actor: Actor): Promise<InboxSection>
     .innerJoin(bench, eq(bench.id, benchRevision.benchId))
     .innerJoin(lab, eq(lab.id, bench.labId))
     .innerJoin(user, eq(user.id, bench.authorId))
-    .where(and(labScope(actor), eq(benchRevision.state, "submitted"), ne(bench.authorId, actor.userId), ne(benchRevision.createdBy, actor.userId)))
+    .where(and(inScope(actor), eq(benchRevision.state, "submitted"), ne(bench.authorId, actor.userId), ne(benchRevision.createdBy, actor.userId)))
     .orderBy(desc(benchRevision.updatedAt))
     .limit(INBOX_ITEMS_SHOWN);
   return {
@@ -105,7 +100,7 @@ async function researcherSection(db: Database, actor: Actor, now: Date): Promise
       .select({ benchId: bench.id, title: bench.title, revisionId: benchRevision.id, number: benchRevision.number, state: benchRevision.state, at: benchRevision.updatedAt })
       .from(bench)
       .innerJoin(benchRevision, and(eq(benchRevision.benchId, bench.id), eq(benchRevision.number, latestNumber)))
-      .where(and(labScope(actor), eq(bench.authorId, actor.userId), inArray(benchRevision.state, SENT_BACK)))
+      .where(and(inScope(actor), eq(bench.authorId, actor.userId), inArray(benchRevision.state, SENT_BACK)))
       .orderBy(desc(benchRevision.updatedAt))
       .limit(200),
     db
@@ -119,7 +114,7 @@ async function researcherSection(db: Database, actor: Actor, now: Date): Promise
       })
       .from(reviewComment)
       .innerJoin(bench, eq(bench.id, reviewComment.benchId))
-      .where(and(labScope(actor), eq(bench.authorId, actor.userId), ne(reviewComment.authorId, actor.userId), gte(reviewComment.createdAt, since)))
+      .where(and(inScope(actor), eq(bench.authorId, actor.userId), ne(reviewComment.authorId, actor.userId), gte(reviewComment.createdAt, since)))
       .groupBy(bench.id, bench.title)
       .limit(200),
   ]);
@@ -165,7 +160,7 @@ async function technicianSection(db: Database, actor: Actor, now: Date): Promise
     .innerJoin(bench, eq(bench.id, benchRevision.benchId))
     .innerJoin(lab, eq(lab.id, bench.labId))
     .innerJoin(reviewDecision, and(eq(reviewDecision.revisionId, benchRevision.id), eq(reviewDecision.outcome, "approved")))
-    .where(and(labScope(actor), eq(benchRevision.state, "approved"), or(isNull(reviewDecision.validUntil), gt(reviewDecision.validUntil, now)), sql`not exists (${completed})`))
+    .where(and(inScope(actor), eq(benchRevision.state, "approved"), or(isNull(reviewDecision.validUntil), gt(reviewDecision.validUntil, now)), sql`not exists (${completed})`))
     .orderBy(desc(reviewDecision.decidedAt))
     .limit(INBOX_ITEMS_SHOWN);
   return {
@@ -193,7 +188,7 @@ async function auditorSection(db: Database, actor: Actor, now: Date): Promise<In
     .innerJoin(benchRevision, eq(benchRevision.id, reviewDecision.revisionId))
     .innerJoin(bench, eq(bench.id, reviewDecision.benchId))
     .innerJoin(lab, eq(lab.id, bench.labId))
-    .where(and(labScope(actor), eq(reviewDecision.outcome, "approved"), eq(benchRevision.state, "approved"), gte(reviewDecision.validUntil, now), lt(reviewDecision.validUntil, until)))
+    .where(and(inScope(actor), eq(reviewDecision.outcome, "approved"), eq(benchRevision.state, "approved"), gte(reviewDecision.validUntil, now), lt(reviewDecision.validUntil, until)))
     .orderBy(reviewDecision.validUntil)
     .limit(INBOX_ITEMS_SHOWN);
   return {

@@ -53,7 +53,7 @@ export async function createLab(db: Database, actor: Actor, input: z.infer<typeo
     const [existing] = await tx.select({ id: lab.id }).from(lab).where(eq(lab.name, input.name));
     if (existing) throw new AppError("conflict", `A lab named "${input.name}" already exists.`);
     const [row] = await tx.insert(lab).values({ name: input.name, room: input.room || null }).returning({ id: lab.id, name: lab.name, room: lab.room });
-    await recordAudit(tx, { actorId: actor.userId, actorRole: actor.roles.join(","), action: "lab-created", ipAddress: actor.ipAddress, detail: { labId: row.id, name: row.name } });
+    await recordAudit(tx, actor, { action: "lab-created", detail: { labId: row.id, name: row.name } });
     return row;
   });
 }
@@ -101,7 +101,7 @@ export async function invitePerson(db: Database, actor: Actor, input: z.infer<ty
         url: `${env().APP_URL}/accept-invitation?token=${token}`,
       }),
     );
-    await recordAudit(tx, { actorId: actor.userId, actorRole: actor.roles.join(","), action: "person-invited", ipAddress: actor.ipAddress, detail: { email: input.email, roles: input.roles } });
+    await recordAudit(tx, actor, { action: "person-invited", detail: { email: input.email, roles: input.roles } });
     return row;
   });
 }
@@ -126,7 +126,7 @@ export async function acceptInvitation(db: Database, input: z.infer<typeof accep
     await tx.insert(account).values({ id: randomUUID(), accountId: id, providerId: "credential", userId: id, password: passwordHash });
     for (const labId of inv.labIds) await tx.insert(labMember).values({ labId, userId: id });
     await tx.update(invitation).set({ acceptedAt: new Date() }).where(eq(invitation.id, inv.id));
-    await recordAudit(tx, { actorId: id, actorRole: inv.roles, action: "invitation-accepted", detail: { email: inv.email } });
+    await recordAudit(tx, { userId: id, roleText: inv.roles }, { action: "invitation-accepted", detail: { email: inv.email } });
     return { email: inv.email };
   });
 }

@@ -1,5 +1,6 @@
 // The laser register: the institution's inventory of lasers, kept by the safety officers and read by
 // everyone in the labs. Computed classes come from lib/safety (IEC 60825-1:2014 class limits); labels are never changed.
+import { laserAveragePowerMw } from "@/lib/bench/laser-power";
 import "server-only";
 import { and, asc, eq, inArray, sql, type SQL } from "drizzle-orm";
 import { z } from "zod";
@@ -11,6 +12,7 @@ import { AppError, notFound } from "@/lib/errors";
 import { classifyBeam, compareLabel, HAZARD_CLASSES, type HazardClass } from "@/lib/safety";
 import { recordAudit } from "./audit";
 import { authorize, authorizeLab, type Actor } from "./authorize";
+import { inScope, scopeHolds } from "./scope";
 
 // ── Inputs (the one contract for the routes and the officer's form) ───────────────────────────
 const num = (field: string) => z.number({ error: `${field} must be a number` }).refine(Number.isFinite, `${field} must be a finite number`);
@@ -158,18 +160,12 @@ function baseQuery(db: DbOrTx) {
   return db.select(columns).from(laserRegister).innerJoin(lab, eq(lab.id, laserRegister.labId)).leftJoin(user, eq(user.id, laserRegister.responsibleUserId));
 }
 
-function scope(actor: Actor): SQL | undefined {
-  if (actor.allLabs) return undefined;
-  if (actor.labIds.length === 0) return sql`false`;
-  return inArray(laserRegister.labId, actor.labIds);
-}
-
 // ── Reading ───────────────────────────────────────────────────────────────────────────────────
 /** The lasers of the labs the actor may see (officers and auditors: all), by lab and model. */
 export async function listLasers(db: DbOrTx, actor: Actor, filter: z.infer<typeof laserListQuery> = {}): Promise<LaserView[]> {
   authorize(actor, { register: ["read"] });
   if (filter.labId) authorizeLab(actor, filter.labId);
-  const conditions = [scope(actor), filter.labId ? eq(laserRegister.labId, filter.labId) : undefined, filter.status ? eq(laserRegister.status, filter.status) : undefined];
+  const conditions = [inScope(actor, laserRegister.labId), filter.labId ? eq(laserRegister.labId, filter.labId) : undefined, filter.status ? eq(laserRegister.status, filter.status) : undefined];
   const rows = await baseQuery(db)
     .where(and(...conditions))
     .orderBy(asc(lab.name), asc(laserRegister.model), asc(laserRegister.id));
@@ -182,7 +178,7 @@ export async function getLaser(db: DbOrTx, actor: Actor, laserId: string): Promi
   if (!z.uuid().safeParse(laserId).success) throw notFound("The laser");
   const [row] = await baseQuery(db).where(eq(laserRegister.id, laserId));
   if (!row) throw notFound("The laser");
-  if (!actor.allLabs && !actor.labIds.includes(row.labId)) throw notFound("The laser");
+  if (!scopeHolds(actor, row.labId)) throw notFound("The laser");
   return view(row);
 }
 
@@ -231,11 +227,8 @@ export async function createLaser(db: Database, actor: Actor, input: LaserInput)
     await checkReferences(tx, input);
     const [row] = await tx.insert(laserRegister).values(values(input)).returning({ id: laserRegister.id });
     const created = await getLaser(tx, actor, row.id);
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: actor.roles.join(","),
+    await recordAudit(tx, actor, {
       action: "laser-registered",
-      ipAddress: actor.ipAddress,
       detail: { laserId: row.id, labId: input.labId, entry: values(input), computedClass: created.computed.hazardClass },
     });
     return created;
@@ -265,11 +258,8 @@ export async function updateLaser(db: Database, actor: Actor, laserId: string, i
       const from = before[key as keyof LaserView];
       if (JSON.stringify(from) !== JSON.stringify(to)) changes[key] = { from, to };
     }
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: actor.roles.join(","),
+    await recordAudit(tx, actor, {
       action: before.status !== input.status ? "laser-status-changed" : "laser-updated",
-      ipAddress: actor.ipAddress,
       detail: { laserId, labId: input.labId, fromVersion: input.version, toVersion: input.version + 1, changes },
     });
     return getLaser(tx, actor, laserId);
@@ -308,7 +298,7 @@ export async function checkBenchAgainstRegister(db: DbOrTx, actor: Actor, docume
   };
   if (!z.uuid().safeParse(laser.registerId).success) return missing;
   const [row] = await baseQuery(db).where(eq(laserRegister.id, laser.registerId));
-  if (!row || (!actor.allLabs && !actor.labIds.includes(row.labId))) return missing;
+  if (!row || !scopeHolds(actor, row.labId)) return missing;
   const entry = view(row);
   const name = `${entry.model}${entry.serialNumber ? ` (serial ${entry.serialNumber})` : ""}`;
   const warnings: RegisterWarning[] = [];
@@ -321,8 +311,9 @@ export async function checkBenchAgainstRegister(db: DbOrTx, actor: Actor, docume
       blocksSubmission: true,
     });
   }
-  if (laser.powerMw > entry.maxPowerMw * (1 + 1e-9)) {
-    warnings.push({ code: "power-above-register", elementId: id, message: `The bench sets ${fmt(laser.powerMw)} mW, above the register's maximum of ${fmt(entry.maxPowerMw)} mW for ${name}.`, blocksSubmission: false });
+  const averageMw = laserAveragePowerMw(laser);
+  if (averageMw !== null && averageMw > entry.maxPowerMw * (1 + 1e-9)) {
+    warnings.push({ code: "power-above-register", elementId: id, message: `The bench sets ${fmt(averageMw)} mW, above the register's maximum of ${fmt(entry.maxPowerMw)} mW for ${name}.`, blocksSubmission: false });
   }
   if (!entry.wavelengthsNm.some((w) => Math.abs(w - laser.wavelengthNm) <= WAVELENGTH_TOLERANCE_NM)) {
     warnings.push({
@@ -348,6 +339,7 @@ export async function checkBenchAgainstRegister(db: DbOrTx, actor: Actor, docume
     computedClass = classifyBeam({
       wavelengthNm: laser.wavelengthNm,
       powerMw: laser.powerMw,
+      pulseEnergyJ: laser.pulseEnergyJ,
       beamDiameterMm: laser.beamDiameterMm,
       divergenceMrad: entry.divergenceMrad,
       ...(laser.pulseDurationS !== undefined ? { pulseDurationS: laser.pulseDurationS, pulseRepetitionRateHz: laser.pulseRepetitionRateHz } : {}),

@@ -2,9 +2,11 @@
 // and 7 days before. Kept free of 'server-only' so the mail worker process can run it each round.
 import { and, eq, gt, lte, sql } from "drizzle-orm";
 import type { Database, DbOrTx } from "@/db";
-import { auditEvent, bench, benchRevision, lab, reviewDecision, reviewReminder, user, type ReminderKind } from "@/db/schema";
+import { bench, benchRevision, lab, reviewDecision, reviewReminder, user, type ReminderKind } from "@/db/schema";
 import { enqueueMail } from "@/lib/mail/outbox";
+import { TRANSITIONS } from "@/lib/review/transitions";
 import { approvalExpiredMail, expiryReminderMail, type Recipient, type RevisionMailContext } from "@/lib/mail/review-mail";
+import { recordAudit, SYSTEM_ACTOR } from "./audit";
 
 const REMINDER_DAYS: Record<ReminderKind, number> = { "30-days": 30, "7-days": 7 };
 const DAY_MS = 24 * 60 * 60 * 1000;
@@ -60,17 +62,14 @@ export async function expireApprovals(db: Database, now: Date = new Date()): Pro
       const row = due.rows[0];
       if (!row) return false;
       const validUntil = new Date(row.valid_until);
-      await tx.update(benchRevision).set({ state: "expired", updatedAt: now }).where(eq(benchRevision.id, row.revision_id));
+      await tx.update(benchRevision).set({ state: TRANSITIONS.expire.to, updatedAt: now }).where(eq(benchRevision.id, row.revision_id));
       const { ctx, author, benchId, contentHash: hash } = await contextForSystem(tx, row.revision_id);
-      // Same row shape as lib/server/audit.ts recordAudit (which is server-only, so not importable here).
-      await tx.insert(auditEvent).values({
-        actorId: null,
-        actorRole: "system",
-        action: "review-expired",
+      await recordAudit(tx, SYSTEM_ACTOR, {
+        action: TRANSITIONS.expire.auditAction,
         benchId,
         revisionId: row.revision_id,
         contentHash: hash,
-        detail: { from: "approved", to: "expired", decisionId: row.decision_id, validUntil: validUntil.toISOString() },
+        detail: { from: "approved", to: TRANSITIONS.expire.to, decisionId: row.decision_id, validUntil: validUntil.toISOString() },
       });
       const to = new Map<string, Recipient>([[author.email, author]]);
       const s = await signer(tx, row.signer_id, row.signer_name);

@@ -39,21 +39,14 @@ import {
 } from "@/lib/mail/review-mail";
 import { recordAudit } from "./audit";
 import { authorize, authorizeLab, type Actor } from "./authorize";
-import { hazardSummary } from "./review-hazard";
+import { hazardSummary } from "@/lib/review/hazard";
+import { COMMENTS_OPEN, DECISIONS, ONCE_APPROVED, SIGN_OFF_MEANING, TRANSITIONS, canMove, refusal, stateSentence } from "@/lib/review/transitions";
+import { validityEnd } from "@/lib/review/validity";
+import { inScope, visibleOr404 } from "./scope";
 
 export { expireApprovals, runReviewClock, sendExpiryReminders } from "./review-clock";
 
-export const SIGN_OFF_MEANING = "Approved for operation as drawn, with the conditions listed.";
-const MEANING: Record<DecisionOutcome, string> = {
-  approved: SIGN_OFF_MEANING,
-  "changes-requested": "Not approved: changes are asked for before this bench may be operated.",
-  rejected: "Not approved: this bench must not be operated as drawn.",
-};
-export const DEFAULT_VALIDITY_MONTHS = 12;
-export const MAX_VALIDITY_MONTHS = 60;
-
-/** States in which a revision has been signed off at some time. */
-const ONCE_APPROVED: ReviewState[] = ["approved", "expired", "superseded"];
+export { SIGN_OFF_MEANING };
 
 // ── Inputs (the one contract for routes and client forms) ─────────────────────────────────────
 const hashField = safeText({ error: "Send the content hash of the revision you reviewed" }).regex(/^[0-9a-f]{64}$/, "The content hash must be 64 hexadecimal characters");
@@ -138,12 +131,7 @@ export async function loadRevision(db: DbOrTx, actor: Actor, revisionId: string,
     .innerJoin(user, eq(user.id, bench.authorId))
     .where(eq(benchRevision.id, revisionId));
   const [row] = lock ? await query.for("update", { of: benchRevision }) : await query;
-  if (!row) throw notFound("The revision");
-  try {
-    authorizeLab(actor, row.labId);
-  } catch {
-    throw notFound("The revision");
-  }
+  visibleOr404(actor, row, "The revision");
   return { ...row, document: row.document as BenchDocument };
 }
 
@@ -151,35 +139,8 @@ function mailContext(r: RevisionRow): RevisionMailContext {
   return { benchTitle: r.benchTitle, labName: r.labName, revisionId: r.id, revisionNumber: r.number, contentHash: r.contentHash, authorName: r.authorName };
 }
 
-function actorRoleText(actor: Actor): string {
-  return actor.roles.join(",");
-}
-
 function isAuthor(actor: Actor, r: Pick<RevisionRow, "authorId" | "createdBy">): boolean {
   return r.authorId === actor.userId || r.createdBy === actor.userId;
-}
-
-/** Why a state does not allow the move, in a sentence. */
-function stateSentence(r: Pick<RevisionRow, "number" | "state">): string {
-  const n = `Revision ${r.number}`;
-  switch (r.state) {
-    case "draft":
-      return `${n} is still a draft; it has not been sent for review.`;
-    case "submitted":
-      return `${n} is already waiting for review.`;
-    case "approved":
-      return `${n} has already been signed off.`;
-    case "changes-requested":
-      return `${n} has already been sent back with changes asked for; a changed drawing makes a new revision.`;
-    case "rejected":
-      return `${n} has already been turned down; a changed drawing makes a new revision.`;
-    case "withdrawn":
-      return `${n} was withdrawn by its author.`;
-    case "expired":
-      return `${n} had a sign-off that has expired.`;
-    case "superseded":
-      return `${n} had a sign-off that a newer revision has replaced.`;
-  }
 }
 
 async function usersWithRole(db: DbOrTx, role: "officer" | "technician", labId?: string): Promise<(Recipient & { id: string })[]> {
@@ -198,7 +159,8 @@ export async function submitRevision(db: Database, actor: Actor, revisionId: str
   return db.transaction(async (tx) => {
     const r = await loadRevision(tx, actor, revisionId, true);
     if (r.authorId !== actor.userId) throw new AppError("forbidden", `Only the bench's author, ${r.authorName}, can send it for review.`);
-    if (r.state !== "draft" && r.state !== "withdrawn") throw new AppError("conflict", `${stateSentence(r)} Only a draft or a withdrawn revision can be sent for review.`);
+    const refused = refusal("submit", r);
+    if (refused) throw new AppError("conflict", refused);
     if (input.contentHash && input.contentHash !== r.contentHash) {
       throw new AppError("conflict", `Revision ${r.number} has changed since you opened it; look at it again before sending it for review.`);
     }
@@ -229,24 +191,21 @@ export async function submitRevision(db: Database, actor: Actor, revisionId: str
     // Bumping the draft counter makes any save still holding the old one get a conflict.
     await tx
       .update(benchRevision)
-      .set({ state: "submitted", version: sql`${benchRevision.version} + 1`, updatedAt: new Date() })
+      .set({ state: TRANSITIONS.submit.to, version: sql`${benchRevision.version} + 1`, updatedAt: new Date() })
       .where(eq(benchRevision.id, r.id));
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: actorRoleText(actor),
-      action: "review-submitted",
+    await recordAudit(tx, actor, {
+      action: TRANSITIONS.submit.auditAction,
       benchId: r.benchId,
       revisionId: r.id,
       contentHash: r.contentHash,
-      ipAddress: actor.ipAddress,
-      detail: { from: r.state, to: "submitted", number: r.number },
+      detail: { from: r.state, to: TRANSITIONS.submit.to, number: r.number },
     });
     const ctx = mailContext(r);
     for (const officer of await usersWithRole(tx, "officer")) {
       if (officer.id === r.authorId) continue;
       await enqueueMail(tx, reviewSubmittedMail(officer, ctx));
     }
-    return { state: "submitted" as const };
+    return { state: TRANSITIONS.submit.to };
   });
 }
 
@@ -255,17 +214,15 @@ export async function withdrawRevision(db: Database, actor: Actor, revisionId: s
   return db.transaction(async (tx) => {
     const r = await loadRevision(tx, actor, revisionId, true);
     if (r.authorId !== actor.userId) throw new AppError("forbidden", `Only the bench's author, ${r.authorName}, can withdraw it from review.`);
-    if (r.state !== "submitted") throw new AppError("conflict", `${stateSentence(r)} Only a revision waiting for review can be withdrawn.`);
-    await tx.update(benchRevision).set({ state: "withdrawn", updatedAt: new Date() }).where(eq(benchRevision.id, r.id));
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: actorRoleText(actor),
-      action: "review-withdrawn",
+    const refused = refusal("withdraw", r);
+    if (refused) throw new AppError("conflict", refused);
+    await tx.update(benchRevision).set({ state: TRANSITIONS.withdraw.to, updatedAt: new Date() }).where(eq(benchRevision.id, r.id));
+    await recordAudit(tx, actor, {
+      action: TRANSITIONS.withdraw.auditAction,
       benchId: r.benchId,
       revisionId: r.id,
       contentHash: r.contentHash,
-      ipAddress: actor.ipAddress,
-      detail: { from: "submitted", to: "withdrawn", number: r.number },
+      detail: { from: r.state, to: TRANSITIONS.withdraw.to, number: r.number },
     });
     // The officers were told it waits; tell them it no longer does, in the same transaction.
     const ctx = mailContext(r);
@@ -273,7 +230,7 @@ export async function withdrawRevision(db: Database, actor: Actor, revisionId: s
       if (officer.id === r.authorId) continue;
       await enqueueMail(tx, reviewWithdrawnMail(officer, ctx));
     }
-    return { state: "withdrawn" as const };
+    return { state: TRANSITIONS.withdraw.to };
   });
 }
 
@@ -285,25 +242,6 @@ async function checkPassword(db: DbOrTx, userId: string, password: string): Prom
     .where(and(eq(account.userId, userId), eq(account.providerId, "credential")));
   if (!row?.hash) return false;
   return verifyPassword({ hash: row.hash, password });
-}
-
-function addMonths(date: Date, months: number): Date {
-  const d = new Date(date);
-  d.setUTCMonth(d.getUTCMonth() + months);
-  return d;
-}
-
-/** The end of the given day (UTC), checked to lie in the future and within the longest validity. */
-function validityEnd(now: Date, day: string | undefined): Date {
-  if (!day) return addMonths(now, DEFAULT_VALIDITY_MONTHS);
-  const end = new Date(`${day}T23:59:59.999Z`);
-  if (Number.isNaN(end.getTime()) || end.getTime() <= now.getTime()) {
-    throw new AppError("bad-request", "The sign-off must hold until a day after today.", [{ path: "validUntil", message: "Choose a day after today" }]);
-  }
-  if (end.getTime() > addMonths(now, MAX_VALIDITY_MONTHS).getTime()) {
-    throw new AppError("bad-request", `A sign-off may hold for at most ${MAX_VALIDITY_MONTHS / 12} years.`, [{ path: "validUntil", message: `At most ${MAX_VALIDITY_MONTHS / 12} years from today` }]);
-  }
-  return end;
 }
 
 export type DecisionView = {
@@ -340,7 +278,7 @@ function decisionView(row: typeof reviewDecision.$inferSelect): DecisionView {
 async function notWaiting(db: DbOrTx, r: RevisionRow): Promise<AppError> {
   const [existing] = await db.select().from(reviewDecision).where(eq(reviewDecision.revisionId, r.id));
   const by = existing ? ` ${existing.signerName} decided on it at ${existing.decidedAt.toISOString().slice(0, 16).replace("T", " ")} UTC.` : "";
-  return new AppError("conflict", `${stateSentence(r)}${by} Only a revision waiting for review can be decided.`);
+  return new AppError("conflict", `${stateSentence(r)}${by} ${TRANSITIONS.approve.refusal}`);
 }
 
 export async function decideRevision(db: Database, actor: Actor, revisionId: string, input: DecisionInput): Promise<{ state: ReviewState; decision: DecisionView }> {
@@ -350,24 +288,21 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
   if (isAuthor(actor, first)) {
     throw new AppError("forbidden", "You drew this bench, so another safety officer has to review it; nobody signs off their own work.");
   }
-  if (first.state !== "submitted") throw await notWaiting(db, first);
+  if (!canMove(input.outcome, first.state)) throw await notWaiting(db, first);
   if (input.outcome === "approve") {
     // The step-up is limited like sign-in: per account and per address, counted in the database.
     const attempt = await reserveAttempt(db, "step-up", { account: actor.userId, address: actor.ipAddress });
     if (!attempt.allowed) {
-      await recordAudit(db, { actorId: actor.userId, actorRole: actorRoleText(actor), action: "sign-off-password-limited", benchId: first.benchId, revisionId: first.id, contentHash: first.contentHash, ipAddress: actor.ipAddress });
+      await recordAudit(db, actor, { action: "sign-off-password-limited", benchId: first.benchId, revisionId: first.id, contentHash: first.contentHash });
       throw new AppError("rate-limited", attempt.refusal ?? "Too many wrong signing password attempts; wait, then try again.");
     }
     if (await checkPassword(db, actor.userId, input.password)) await attempt.release();
     else {
-      await recordAudit(db, {
-        actorId: actor.userId,
-        actorRole: actorRoleText(actor),
+      await recordAudit(db, actor, {
         action: "sign-off-password-refused",
         benchId: first.benchId,
         revisionId: first.id,
         contentHash: first.contentHash,
-        ipAddress: actor.ipAddress,
       });
       throw new AppError("forbidden", "That password is not right, so nothing was signed. Enter your own Benchwarden password again.", [
         { path: "password", message: "The password is not right" },
@@ -378,7 +313,7 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
   try {
     return await db.transaction(async (tx) => {
       const r = await loadRevision(tx, actor, revisionId, true);
-      if (r.state !== "submitted") throw await notWaiting(tx, r);
+      if (!canMove(input.outcome, r.state)) throw await notWaiting(tx, r);
       if (input.contentHash !== r.contentHash) {
         throw new AppError("conflict", `Revision ${r.number} is not the one you reviewed (its content hash differs); open it again before deciding.`);
       }
@@ -388,7 +323,7 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
       }
 
       const now = new Date();
-      const outcome: DecisionOutcome = input.outcome === "approve" ? "approved" : input.outcome === "reject" ? "rejected" : "changes-requested";
+      const outcome: DecisionOutcome = DECISIONS[input.outcome].outcome;
       const supersede: { id: string; number: number; contentHash: string }[] = [];
       let validUntil: Date | null = null;
       let summary: HazardSummary | null = null;
@@ -419,7 +354,7 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
           signerId: actor.userId,
           signerName: actor.name,
           signerRole,
-          meaning: MEANING[outcome],
+          meaning: DECISIONS[input.outcome].meaning,
           conditions: input.outcome === "approve" ? input.conditions || null : null,
           reason: input.outcome === "reject" ? input.reason : input.outcome === "request-changes" ? input.comment : null,
           validUntil,
@@ -428,18 +363,15 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
           stepUpVerified: input.outcome === "approve",
         })
         .returning();
-      await tx.update(benchRevision).set({ state: outcome, updatedAt: now }).where(eq(benchRevision.id, r.id));
-      await recordAudit(tx, {
-        actorId: actor.userId,
-        actorRole: actorRoleText(actor),
-        action: `review-${outcome}`,
+      await tx.update(benchRevision).set({ state: TRANSITIONS[input.outcome].to, updatedAt: now }).where(eq(benchRevision.id, r.id));
+      await recordAudit(tx, actor, {
+        action: TRANSITIONS[input.outcome].auditAction,
         benchId: r.benchId,
         revisionId: r.id,
         contentHash: r.contentHash,
-        ipAddress: actor.ipAddress,
         detail: {
-          from: "submitted",
-          to: outcome,
+          from: r.state,
+          to: TRANSITIONS[input.outcome].to,
           number: r.number,
           decisionId: decision.id,
           meaning: decision.meaning,
@@ -448,7 +380,7 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
           validUntil: validUntil?.toISOString() ?? null,
           stepUpVerified: decision.stepUpVerified,
         },
-      });
+    });
       if (input.outcome === "request-changes") {
         // The officer's words open a thread the author can answer.
         const id = crypto.randomUUID();
@@ -464,17 +396,14 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
         });
       }
       for (const old of supersede) {
-        await tx.update(benchRevision).set({ state: "superseded", updatedAt: now }).where(eq(benchRevision.id, old.id));
-        await recordAudit(tx, {
-          actorId: actor.userId,
-          actorRole: actorRoleText(actor),
-          action: "review-superseded",
+        await tx.update(benchRevision).set({ state: TRANSITIONS.supersede.to, updatedAt: now }).where(eq(benchRevision.id, old.id));
+        await recordAudit(tx, actor, {
+          action: TRANSITIONS.supersede.auditAction,
           benchId: r.benchId,
           revisionId: old.id,
           contentHash: old.contentHash,
-          ipAddress: actor.ipAddress,
-          detail: { from: "approved", to: "superseded", number: old.number, replacedBy: { revisionId: r.id, number: r.number } },
-        });
+          detail: { from: "approved", to: TRANSITIONS.supersede.to, number: old.number, replacedBy: { revisionId: r.id, number: r.number } },
+    });
       }
 
       const ctx = mailContext(r);
@@ -524,7 +453,7 @@ export async function addComment(db: Database, actor: Actor, revisionId: string,
   authorize(actor, { review: ["comment"] });
   return db.transaction(async (tx) => {
     const r = await loadRevision(tx, actor, revisionId);
-    if (r.state === "draft") throw new AppError("conflict", `Revision ${r.number} is still a draft; comments open once it is sent for review.`);
+    if (!COMMENTS_OPEN(r.state)) throw new AppError("conflict", `Revision ${r.number} is still a draft; comments open once it is sent for review.`);
     let threadId: string | null = null;
     let elementId = input.elementId ?? null;
     if (input.parentId) {
@@ -542,14 +471,11 @@ export async function addComment(db: Database, actor: Actor, revisionId: string,
       .insert(reviewComment)
       .values({ id, revisionId: r.id, benchId: r.benchId, threadId: threadId ?? id, parentId: input.parentId ?? null, elementId, authorId: actor.userId, authorName: actor.name, authorRole: role, body: input.body })
       .returning();
-    await recordAudit(tx, {
-      actorId: actor.userId,
-      actorRole: actorRoleText(actor),
+    await recordAudit(tx, actor, {
       action: "review-comment",
       benchId: r.benchId,
       revisionId: r.id,
       contentHash: r.contentHash,
-      ipAddress: actor.ipAddress,
       detail: { commentId: row.id, threadId: row.threadId, elementId, length: input.body.length },
     });
 
@@ -624,7 +550,7 @@ export async function getReview(db: Database, actor: Actor, revisionId: string):
   const [approvedRow] = await db
     .select({ id: benchRevision.id, number: benchRevision.number, state: benchRevision.state, contentHash: benchRevision.contentHash, document: benchRevision.document })
     .from(benchRevision)
-    .where(and(eq(benchRevision.benchId, r.benchId), lt(benchRevision.number, r.number), inArray(benchRevision.state, ONCE_APPROVED)))
+    .where(and(eq(benchRevision.benchId, r.benchId), lt(benchRevision.number, r.number), inArray(benchRevision.state, [...ONCE_APPROVED])))
     .orderBy(desc(benchRevision.number))
     .limit(1);
   const canReadReview = rolesAllow(actor.roles, { review: ["read"] });
@@ -640,7 +566,7 @@ export async function getReview(db: Database, actor: Actor, revisionId: string):
   let whyNotDecide: string | null = null;
   if (!officer) whyNotDecide = "Only a laser safety officer can decide on a revision.";
   else if (isAuthor(actor, r)) whyNotDecide = "You drew this bench, so another safety officer has to review it.";
-  else if (r.state !== "submitted") whyNotDecide = stateSentence(r);
+  else if (!canMove("approve", r.state)) whyNotDecide = stateSentence(r);
 
   return {
     revision: { id: r.id, number: r.number, state: r.state, contentHash: r.contentHash, document: r.document, updatedAt: r.updatedAt.toISOString() },
@@ -653,9 +579,9 @@ export async function getReview(db: Database, actor: Actor, revisionId: string):
     trail: trailRows.map((t) => ({ at: t.at.toISOString(), action: t.action, actorName: t.actorName, detail: t.detail })),
     may: {
       decide: whyNotDecide === null,
-      comment: rolesAllow(actor.roles, { review: ["comment"] }) && r.state !== "draft",
-      submit: r.authorId === actor.userId && rolesAllow(actor.roles, { bench: ["submit"] }) && (r.state === "draft" || r.state === "withdrawn"),
-      withdraw: r.authorId === actor.userId && rolesAllow(actor.roles, { bench: ["submit"] }) && r.state === "submitted",
+      comment: rolesAllow(actor.roles, { review: ["comment"] }) && COMMENTS_OPEN(r.state),
+      submit: r.authorId === actor.userId && rolesAllow(actor.roles, { bench: ["submit"] }) && canMove("submit", r.state),
+      withdraw: r.authorId === actor.userId && rolesAllow(actor.roles, { bench: ["submit"] }) && canMove("withdraw", r.state),
       whyNotDecide,
     },
   };
@@ -667,7 +593,7 @@ export type DecidedRow = { revisionId: string; title: string; labName: string; n
 /** The officer's queue (oldest waiting first) and the latest decisions. */
 export async function reviewQueue(db: Database, actor: Actor): Promise<{ waiting: QueueRow[]; decided: DecidedRow[] }> {
   authorize(actor, { review: ["read"] });
-  const scope = actor.allLabs ? undefined : actor.labIds.length ? inArray(bench.labId, actor.labIds) : sql`false`;
+  const scope = inScope(actor);
   const waiting = await db
     .select({
       revisionId: benchRevision.id,

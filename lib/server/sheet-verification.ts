@@ -10,7 +10,8 @@ import { rolesAllow } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import type { Actor } from "./authorize";
-import { signOffSentence, signOffStatus, type SignOffStatus } from "./builds";
+import { signOffSentence, signOffStatus, type SignOffStatus } from "@/lib/build/rules";
+import { inScope, scopeHolds } from "./scope";
 
 export type Verdict = "valid" | "expired" | "superseded" | "not-signed-off" | "unknown";
 
@@ -47,12 +48,6 @@ const HEADLINE: Record<Verdict, string> = {
   unknown: "Unknown: no revision you may see has this hash. The sheet may be altered, or it belongs to a lab you are not a member of.",
 };
 
-function scope(actor: Actor): SQL | undefined {
-  if (actor.allLabs) return undefined;
-  if (actor.labIds.length === 0) return sql`false`;
-  return inArray(bench.labId, actor.labIds);
-}
-
 export async function verifySheetHash(db: Database, actor: Actor, input: z.infer<typeof verifyInput>): Promise<Verification> {
   if (!rolesAllow(actor.roles, { bench: ["read"] }) && !rolesAllow(actor.roles, { audit: ["read"] })) {
     throw new AppError("forbidden", "Your role may not verify build sheets; it needs read access to benches or to the audit trail.");
@@ -76,7 +71,7 @@ export async function verifySheetHash(db: Database, actor: Actor, input: z.infer
     .innerJoin(bench, eq(bench.id, benchRevision.benchId))
     .innerJoin(lab, eq(lab.id, bench.labId))
     .leftJoin(reviewDecision, and(eq(reviewDecision.revisionId, benchRevision.id), eq(reviewDecision.outcome, "approved")))
-    .where(and(scope(actor), eq(benchRevision.contentHash, input.hash)))
+    .where(and(inScope(actor), eq(benchRevision.contentHash, input.hash)))
     .orderBy(desc(benchRevision.updatedAt))
     .limit(20);
   const now = new Date();
@@ -102,14 +97,11 @@ export async function verifySheetHash(db: Database, actor: Actor, input: z.infer
   const rank: Verdict[] = ["valid", "expired", "superseded", "not-signed-off"];
   const verdict: Verdict = matches.length ? (rank.find((v) => matches.some((m) => m.status === v)) ?? "not-signed-off") : "unknown";
   matches.sort((a, b) => rank.indexOf(a.status) - rank.indexOf(b.status));
-  await recordAudit(db, {
-    actorId: actor.userId,
-    actorRole: actor.roles.join(","),
+  await recordAudit(db, actor, {
     action: "sheet-verified",
     benchId: rows[0]?.benchId ?? null,
     revisionId: matches[0]?.revisionId ?? null,
     contentHash: input.hash,
-    ipAddress: actor.ipAddress,
     detail: { verdict, matches: matches.length },
   });
   return { hash: input.hash, verdict, headline: HEADLINE[verdict], matches };

@@ -1,17 +1,42 @@
 // A bench's trail (revisions, decisions, comments, audit events) as one timeline for everyone who may read
-// the bench, within their lab scope; the auditor's desk shows the same entries (TrailEntry from desk.ts).
+// the bench, within their lab scope; the auditor's desk shows and exports the same entries.
 import "server-only";
 import { asc, eq } from "drizzle-orm";
 import { z } from "zod";
 import type { Database } from "@/db";
-import { auditEvent, bench, benchRevision, lab, reviewComment, reviewDecision, user } from "@/db/schema";
+import { auditEvent, bench, benchRevision, lab, reviewComment, reviewDecision, user, type ReviewState } from "@/db/schema";
 import { rolesAllow } from "@/lib/auth/permissions";
 import { notFound } from "@/lib/errors";
 import { authorize, authorizeLab, type Actor } from "./authorize";
-import type { BenchTrail, TrailEntry } from "./desk";
-import type { LabScope } from "./desk-queries";
+import { scopeHolds, visibleOr404, type LabScope } from "./scope";
 
-export type { BenchTrail, TrailEntry };
+/** One line of a bench's trail: a revision, a decision, a comment or any other audit event. */
+export type TrailEntry =
+  | { kind: "revision"; at: string; revisionNumber: number; revisionId: string; contentHash: string; state: ReviewState; by: string | null }
+  | {
+      kind: "decision";
+      at: string;
+      revisionNumber: number;
+      revisionId: string;
+      contentHash: string;
+      outcome: string;
+      by: string;
+      role: string;
+      meaning: string;
+      conditions: string | null;
+      reason: string | null;
+      validUntil: string | null;
+      stepUpVerified: boolean;
+      hazardClass: string | null;
+    }
+  | { kind: "comment"; at: string; revisionNumber: number; revisionId: string; by: string; role: string; body: string; elementId: string | null }
+  | { kind: "event"; at: string; revisionNumber: number | null; revisionId: string | null; contentHash: string | null; action: string; by: string | null; role: string | null; detail: Record<string, unknown> };
+
+export type BenchTrail = {
+  bench: { id: string; title: string; labName: string; authorName: string; createdAt: string };
+  revisions: { id: string; number: number; state: ReviewState; contentHash: string; createdAt: string }[];
+  entries: TrailEntry[];
+};
 
 /** What the reader's roles leave out: review comments need review:read (technicians do not have it). */
 export type ReaderTrail = BenchTrail & { commentsHidden: boolean };
@@ -36,7 +61,7 @@ async function benchHead(db: Database, benchId: string): Promise<BenchHead> {
  */
 export async function loadBenchTrail(db: Database, scope: LabScope, benchId: string): Promise<BenchTrail> {
   const b = await benchHead(db, benchId);
-  if (!(scope.allLabs || scope.labIds.includes(b.labId))) throw notFound("The bench");
+  if (!scopeHolds(scope, b.labId)) throw notFound("The bench");
   return trailOf(db, b);
 }
 
@@ -108,12 +133,7 @@ async function trailOf(db: Database, b: BenchHead): Promise<BenchTrail> {
 /** The trail for anyone who may read the bench (bench: read, and a member of its lab unless they see every lab). */
 export async function getReaderTrail(db: Database, actor: Actor, benchId: string): Promise<ReaderTrail> {
   authorize(actor, { bench: ["read"] });
-  const b = await benchHead(db, benchId);
-  try {
-    authorizeLab(actor, b.labId);
-  } catch {
-    throw notFound("The bench");
-  }
+  const b = visibleOr404(actor, await benchHead(db, benchId), "The bench");
   const trail = await trailOf(db, b);
   const commentsHidden = !rolesAllow(actor.roles, { review: ["read"] });
   if (!commentsHidden) return { ...trail, commentsHidden };

@@ -38,6 +38,28 @@ export function startChild(name: string, command: string, args: string[], option
 
 let stopping = false;
 
+/**
+ * Like startChild, but starts the process again when it exits on its own (a crash, or the database
+ * gone for good): after 1 s, then 2 s, 4 s … at most 30 s; a run that lasted a minute resets the wait.
+ */
+export function superviseChild(name: string, command: string, args: string[], options: SpawnOptions = {}): void {
+  let delayMs = 1000;
+  const launch = () => {
+    const startedAt = Date.now();
+    const child = startChild(name, command, args, options);
+    child.on("exit", () => {
+      if (stopping) return;
+      if (Date.now() - startedAt > 60_000) delayMs = 1000;
+      log(`${name} stopped; starting it again in ${delayMs / 1000} s`);
+      setTimeout(() => {
+        if (!stopping) launch();
+      }, delayMs);
+      delayMs = Math.min(30_000, delayMs * 2);
+    });
+  };
+  launch();
+}
+
 export async function stopChildren(): Promise<void> {
   stopping = true;
   const waits = [...children].map(

@@ -17,7 +17,7 @@ import { rolesAllow } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 import { revisionEyewear } from "@/lib/server/eyewear";
-import { assessRevision } from "@/lib/server/review-hazard";
+import { assessRevision } from "@/lib/review/hazard";
 import { getReview, SIGN_OFF_MEANING } from "@/lib/server/reviews";
 
 export const metadata = { title: "Review" };

@@ -1,7 +1,8 @@
 import { getDb } from "@/db";
 import { AppError } from "@/lib/errors";
 import { apiRoute, parseWith, readBodyLimited } from "@/lib/server/api";
-import { addUpload, assertUploadSize, uploadKindInput, UPLOAD_MAX_BYTES } from "@/lib/server/builds";
+import { assertUploadSize, UPLOAD_MAX_BYTES } from "@/lib/build/rules";
+import { addUpload, uploadKindInput } from "@/lib/server/builds";
 import { unsafeTextProblem } from "@/lib/validation/text";
 
 // The form's own fields and boundaries around the file.

@@ -1,5 +1,6 @@
 // The hazard picture of one revision for the review screen, and the compact summary kept with a
 // signature. Figures come from the engines (lib/optics analyzeBench, lib/safety assessBench), which name their sources.
+import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import { benchDocumentSchema, type BenchDocument, type LaserElement } from "@/lib/bench/schema";
 import type { HazardSummary } from "@/db/schema";
 import { analyzeBench, type BenchAnalysis } from "@/lib/optics";
@@ -30,7 +31,7 @@ export function assessRevision(doc: BenchDocument, options: AssessOptions = {}):
 export function hazardSummary(doc: BenchDocument): HazardSummary {
   const laser = doc.elements.find((e): e is LaserElement => e.kind === "laser");
   const laserFacts = laser
-    ? { id: laser.id, wavelengthNm: laser.wavelengthNm, powerMw: laser.powerMw, beamDiameterMm: laser.beamDiameterMm, m2: laser.m2 ?? 1, registerId: laser.registerId ?? null }
+    ? { id: laser.id, wavelengthNm: laser.wavelengthNm, powerMw: laserBeamPowerMw(laser), beamDiameterMm: laser.beamDiameterMm, m2: laser.m2 ?? 1, registerId: laser.registerId ?? null }
     : null;
   const assessed = assessRevision(doc);
   if (!assessed.ok) return { engine: "unavailable", problem: assessed.problem, laser: laserFacts };

@@ -1,0 +1,280 @@
+// analyzeTable: the optics of a version 2 bench (the table plan) — every path traced, each leaf unfolded and run through the rail engine.
+// Sources: the rail engine's (Siegman, Lasers, 1986; Born & Wolf §8.8; Collins 1970) along each path's unfolded length; geometry in table-trace.ts (Hecht §4.3).
+//
+// Only the leaves of the path tree are analysed: a leaf's unfolded bench holds every path before it, and an element
+// upstream of a split sees the same beam in every leaf below it, so each (element, path) pair is taken from the first
+// leaf that holds it. An aperture gets one entry per screen its light reaches (a split sends it to several); with no
+// screen on any branch, one entry without a screen. Rail warnings that are artefacts of the unfolding are dropped.
+import type { BenchDocumentV2, TableElement } from "@/lib/bench/schema-v2";
+import { analyzeBench as analyzeRail, type ApertureAnalysis, type IncidentBeam } from "./analyze";
+import { MAX_GENERATIONS, MAX_PATHS, MIN_SHARE_OF_LASER, traceTable, type PathRole, type TablePathEnd, type TablePoint, type TableWarning } from "./table-trace";
+import { unfoldPath, type ChainOrigin } from "./table-unfold";
+
+export { MAX_GENERATIONS, MAX_PATHS, MIN_SHARE_OF_LASER };
+export type { TablePathEnd, TablePoint, TableWarning };
+
+export type TablePath = {
+  id: string;
+  laserId: string;
+  /** null for a laser's own first run. */
+  parentPathId: string | null;
+  /** The laser, mirror, splitter or window it leaves. */
+  startElementId: string;
+  role: PathRole;
+  generation: number;
+  /** Share of the power arriving at the start element that this path takes (1 for a laser's own run). */
+  branchShare: number;
+  /** Power at the start, mW (for a single-pulse laser without an average power, 0). */
+  powerMw: number;
+  /** Share of the laser's power at the start from branch shares and filters alone (apertures, which clip by beam size, not counted). */
+  shareOfLaser: number;
+  start: TablePoint;
+  directionDeg: number;
+  /** Unfolded length from the laser to the start, mm. */
+  startLengthMm: number;
+  lengthMm: number;
+  endPoint: TablePoint;
+  /** In order; leaves out the start element and includes the element it ends on. */
+  elementIds: string[];
+  hits: { elementId: string; distanceMm: number; point: TablePoint; offsetMm: number }[];
+  end: TablePathEnd;
+  /** The beam arriving at the end point (the element it ends on, or the table edge); null if not computed. */
+  arrival: IncidentBeam | null;
+  cut?: "power" | "generations" | "path-limit";
+};
+
+export type TableElementAnalysis = {
+  id: string;
+  kind: string;
+  pathId: string;
+  laserId: string;
+  /** Unfolded length from the laser, mm. */
+  positionMm: number;
+  /** Where the path's axis meets the element (the laser: where it stands). */
+  xMm: number;
+  yMm: number;
+  status: "lit";
+  incident: IncidentBeam;
+  /** Power leaving the element on every run it sends on (0 for a screen or beam block; absorbed shares left out). */
+  outgoingPowerMw: number;
+};
+
+export type TableApertureAnalysis = ApertureAnalysis & { pathId: string; laserId: string };
+export type TableScreenAnalysis = { id: string; pathId: string; laserId: string; powerMw: number; centreIntensityRatio: number | null; centre: string | null };
+
+export type TableAnalysis = {
+  version: 2;
+  lasers: { id: string; wavelengthNm: number; m2: number }[];
+  paths: TablePath[];
+  elements: TableElementAnalysis[];
+  apertures: TableApertureAnalysis[];
+  screens: TableScreenAnalysis[];
+  warnings: TableWarning[];
+};
+
+/** Rail warnings that come from the unfolding itself, not from the table. */
+const UNFOLDING_ARTEFACTS = new Set(["same-position", "no-screen", "screen-not-reached", "element-beyond-stop", "element-upstream-of-laser", "no-laser"]);
+
+function rename(message: string, chainToReal: ReadonlyMap<string, string>): string {
+  let out = message;
+  for (const [chain, real] of chainToReal) if (out.includes(chain)) out = out.split(chain).join(real);
+  return out;
+}
+
+type RailScreen = { id: string; centreIntensityRatio?: number; centre?: string; powerMw?: number };
+
+/** Pure and synchronous; never throws for a document the version 2 schema accepts. */
+export function analyzeTable(doc: BenchDocumentV2): TableAnalysis {
+  const trace = traceTable(doc);
+  const byId = new Map<string, TableElement>(doc.elements.map((e) => [e.id, e]));
+  const pathsById = new Map(trace.paths.map((p) => [p.id, p]));
+  const warnings: TableWarning[] = [...trace.warnings];
+  const seenWarnings = new Set(warnings.map((w) => `${w.code}|${w.elementId ?? ""}|${w.message}`));
+  const entries = new Map<string, TableElementAnalysis>(); // `${pathId}|${elementId}`
+  const arrivals = new Map<string, IncidentBeam>();
+  const apertures = new Map<string, TableApertureAnalysis>(); // `${pathId}|${apertureId}|${screenId}`
+  const screens = new Map<string, TableScreenAnalysis>();
+  const hitOf = (pathId: string, elementId: string) => pathsById.get(pathId)?.hits.find((h) => h.elementId === elementId);
+
+  const leaves = trace.paths.filter((p) => !("continuesAs" in p.end) || p.end.continuesAs.length === 0);
+  for (const leaf of leaves) {
+    const chain = unfoldPath(doc, byId, pathsById, leaf.id);
+    const rail = analyzeRail(chain.doc);
+    const chainToReal = new Map<string, string>();
+    for (const [cid, o] of chain.origin) if (o.elementId !== null && cid !== o.elementId) chainToReal.set(`"${cid}"`, `"${o.elementId}"`);
+    const originOf = (cid: string): ChainOrigin | undefined => chain.origin.get(cid);
+
+    for (const entry of rail.elements) {
+      const o = originOf(entry.id);
+      if (!o || entry.status !== "lit") continue;
+      if (o.role === "edge") {
+        arrivals.set(o.pathId, entry.incident);
+        continue;
+      }
+      const elementId = o.elementId as string;
+      const key = `${o.pathId}|${elementId}`;
+      if (entries.has(key)) continue;
+      const e = byId.get(elementId);
+      if (!e) continue;
+      const path = pathsById.get(o.pathId);
+      const hit = hitOf(o.pathId, elementId);
+      let outgoingPowerMw = entry.outgoingPowerMw;
+      if (o.role === "turn" && path && "continuesAs" in path.end) {
+        outgoingPowerMw = path.end.continuesAs.reduce((sum, id) => sum + entry.incident.powerMw * (pathsById.get(id)?.branchShare ?? 0), 0);
+      }
+      entries.set(key, {
+        id: elementId,
+        kind: e.kind,
+        pathId: o.pathId,
+        laserId: path?.laserId ?? elementId,
+        positionMm: entry.positionMm,
+        xMm: hit ? hit.point.xMm : e.xMm,
+        yMm: hit ? hit.point.yMm : e.yMm,
+        status: "lit",
+        incident: entry.incident,
+        outgoingPowerMw,
+      });
+      if (path && "elementId" in path.end && path.end.elementId === elementId) arrivals.set(path.id, entry.incident);
+      if (path && "continuesAs" in path.end && path.elementIds[path.elementIds.length - 1] === elementId) arrivals.set(path.id, entry.incident);
+    }
+
+    for (const a of rail.apertures) {
+      const o = originOf(a.id);
+      if (!o || o.elementId === null) continue;
+      const screen = a.screenId === null ? null : originOf(a.screenId);
+      const screenId = screen?.elementId ?? null;
+      const key = `${o.pathId}|${o.elementId}|${screenId ?? ""}`;
+      if (apertures.has(key)) continue;
+      apertures.set(key, { ...a, id: o.elementId, screenId, pathId: o.pathId, laserId: leaf.laserId });
+    }
+
+    // The rail engine may report the screens it lights (PRODUCT.md revision 2); map them when it does.
+    const railScreens = "screens" in rail && Array.isArray((rail as { screens?: unknown }).screens) ? ((rail as { screens: RailScreen[] }).screens) : [];
+    for (const s of railScreens) {
+      const o = originOf(s.id);
+      if (!o || o.elementId === null) continue;
+      const key = `${o.pathId}|${o.elementId}`;
+      if (screens.has(key)) continue;
+      screens.set(key, {
+        id: o.elementId,
+        pathId: o.pathId,
+        laserId: leaf.laserId,
+        powerMw: s.powerMw ?? 0,
+        centreIntensityRatio: s.centreIntensityRatio ?? null,
+        centre: s.centre ?? null,
+      });
+    }
+
+    for (const w of rail.warnings) {
+      if (UNFOLDING_ARTEFACTS.has(w.code)) continue;
+      const o = w.elementId === undefined ? undefined : originOf(w.elementId);
+      const mapped: TableWarning = {
+        code: w.code,
+        ...(o?.elementId ? { elementId: o.elementId } : {}),
+        ...(o && o.role !== "laser" ? { pathId: o.pathId } : {}),
+        message: rename(w.message, chainToReal),
+      };
+      const key = `${mapped.code}|${mapped.elementId ?? ""}|${mapped.message}`;
+      if (seenWarnings.has(key)) continue;
+      seenWarnings.add(key);
+      warnings.push(mapped);
+    }
+  }
+
+  // An aperture whose light reaches a screen on some branch keeps only the entries with a screen.
+  const withScreen = new Set([...apertures.values()].filter((a) => a.screenId !== null).map((a) => `${a.pathId}|${a.id}`));
+  const apertureList = [...apertures.values()].filter((a) => a.screenId !== null || !withScreen.has(`${a.pathId}|${a.id}`));
+  const filteredWarnings = warnings.filter((w) => !(w.code === "aperture-without-screen" && w.elementId !== undefined && withScreen.has(`${w.pathId}|${w.elementId}`)));
+
+  // Paths in order, with their start power and arrival; elements in path order, the laser first on its own run.
+  const paths: TablePath[] = trace.paths.map((p) => {
+    let powerMw = 0;
+    if (p.parentPathId === null) {
+      const laser = byId.get(p.laserId);
+      powerMw = laser && laser.kind === "laser" ? laserPowerMw(laser) : 0;
+    } else {
+      const atStart = entries.get(`${p.parentPathId}|${p.startElementId}`);
+      powerMw = atStart ? atStart.incident.powerMw * p.branchShare : 0;
+    }
+    return {
+      id: p.id,
+      laserId: p.laserId,
+      parentPathId: p.parentPathId,
+      startElementId: p.startElementId,
+      role: p.role,
+      generation: p.generation,
+      branchShare: p.branchShare,
+      powerMw,
+      shareOfLaser: p.shareOfLaser,
+      start: p.start,
+      directionDeg: p.directionDeg,
+      startLengthMm: p.startLengthMm,
+      lengthMm: p.lengthMm,
+      endPoint: p.endPoint,
+      elementIds: p.elementIds,
+      hits: p.hits,
+      end: p.end,
+      arrival: arrivals.get(p.id) ?? null,
+      ...(p.cut === undefined ? {} : { cut: p.cut }),
+    };
+  });
+  const elements: TableElementAnalysis[] = [];
+  for (const p of paths) {
+    if (p.parentPathId === null) {
+      const laser = byId.get(p.laserId);
+      if (laser && laser.kind === "laser") {
+        const w0 = laser.beamDiameterMm / 2;
+        elements.push({
+          id: laser.id,
+          kind: "laser",
+          pathId: p.id,
+          laserId: laser.id,
+          positionMm: 0,
+          xMm: laser.xMm,
+          yMm: laser.yMm,
+          status: "lit",
+          incident: { radiusMm: w0, wavefrontRadiusMm: null, powerMw: p.powerMw },
+          outgoingPowerMw: p.powerMw,
+        });
+      }
+    }
+    for (const id of p.elementIds) {
+      const entry = entries.get(`${p.id}|${id}`);
+      if (entry) elements.push(entry);
+    }
+  }
+  const screenList = screens.size > 0 ? [...screens.values()] : screensFromElements(elements, apertureList);
+
+  const lasers = doc.elements
+    .filter((e) => e.kind === "laser")
+    .map((e) => (e.kind === "laser" ? { id: e.id, wavelengthNm: e.wavelengthNm, m2: e.m2 ?? 1 } : null))
+    .filter((x): x is { id: string; wavelengthNm: number; m2: number } => x !== null)
+    .sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+  return { version: 2, lasers, paths, elements, apertures: apertureList, screens: screenList, warnings: filteredWarnings };
+}
+
+/** Average power of a table laser, mW: powerMw, or energy × rate for a train; 0 for a single pulse without an average. */
+export function laserPowerMw(laser: { powerMw?: number; pulseRepetitionRateHz?: number } & Record<string, unknown>): number {
+  if (typeof laser.powerMw === "number") return laser.powerMw;
+  const energy = laser["pulseEnergyJ"];
+  if (typeof energy === "number" && typeof laser.pulseRepetitionRateHz === "number") return energy * laser.pulseRepetitionRateHz * 1000;
+  return 0;
+}
+
+/** Screens lit, when the rail engine does not list them: the power arriving, and the centre from the last aperture before it. */
+function screensFromElements(elements: readonly TableElementAnalysis[], apertures: readonly TableApertureAnalysis[]): TableScreenAnalysis[] {
+  return elements
+    .filter((e) => e.kind === "screen")
+    .map((e) => {
+      const lit = apertures.filter((a) => a.screenId === e.id);
+      const last = lit.length > 0 ? lit[lit.length - 1] : null;
+      return {
+        id: e.id,
+        pathId: e.pathId,
+        laserId: e.laserId,
+        powerMw: e.incident.powerMw,
+        centreIntensityRatio: last ? last.centreIntensityRatio : null,
+        centre: last ? last.centre : null,
+      };
+    });
+}

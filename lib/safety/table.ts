@@ -1,0 +1,356 @@
+// assessTable: the laser safety of a version 2 bench (the table plan) — every laser and line classified, every path's OD, every beam leaving the table.
+// Formulas: those of assessBeam and the rail assessBench (ANSI Z136.1-2014 Tables 5a/8 and Appendix B; IEC 60825-1:2014; PRODUCT.md OD rule), applied per path along its unfolded length.
+//
+// Entry point: callers use `assessBench(doc, analyzeBench(doc), options)` from lib/safety (index.ts dispatches on
+// doc.version: version 2 comes here, version 1 to the rail assessment unchanged). Each leaf path of the analysis is
+// unfolded into a straight bench (lib/optics/table-unfold.ts) and assessed by the rail assessBench; an open beam at
+// the table edge is assessed by assessBeam with the beam as it arrives there (its size, its own far-field divergence,
+// its share of the laser's power or pulse energy). Further lines are taken to carry all their power inside the
+// limiting aperture (their beam size is not modelled): the conservative reading, said in a note.
+import type { BenchDocumentV2, LaserV2Element, TableElement } from "@/lib/bench/schema-v2";
+import type { TableAnalysis } from "@/lib/optics/table";
+import { unfoldPath } from "@/lib/optics/table-unfold";
+import { assessBeam, type BeamAssessment, type BeamInput } from "./beam";
+import { assessBench as assessRail, waistFrom, type BeamAtElement, type BenchSafetyOptions, type HazardPoint } from "./bench";
+import { selectCautions, type CautionSituation, type SelectedCaution } from "./cautions";
+import { LIMITATIONS, type Limitation } from "./limitations";
+import { FINAL_SAY, type HazardClass, HAZARD_CLASSES, classRank } from "./types";
+
+/** What the table assessment needs of analyzeBench's version 2 answer. */
+export type TableBeam = Pick<TableAnalysis, "paths" | "elements">;
+
+export type LineAssessment = {
+  wavelengthNm: number;
+  powerMw: number;
+  /** "main" for the laser's own beam, "line" for a further line. */
+  source: "main" | "line";
+  hazardClass: HazardClass;
+  mpeWPerCm2: number | null;
+  nohdM: number;
+  opticalDensityRequired: number;
+  mpeSource: string;
+  nohdSource: string;
+};
+
+export type TableLaserAssessment = {
+  laserId: string;
+  /** The most hazardous class over its lines. */
+  hazardClass: HazardClass;
+  lines: LineAssessment[];
+  /** The highest OD on any path of this laser, and where; null when nothing is lit. */
+  governing: TableHazardPoint | null;
+};
+
+export type TableHazardPoint = Omit<HazardPoint, "kind"> & { kind: string; pathId: string; laserId: string };
+
+export type OpenBeam = {
+  pathId: string;
+  laserId: string;
+  /** The element the run leaves (laser, mirror, splitter, window) and its role there. */
+  startElementId: string;
+  role: string;
+  /** Where it leaves the table. */
+  xMm: number;
+  yMm: number;
+  directionDeg: number;
+  powerMw: number;
+  /** The irradiance averaged over the limiting aperture where it leaves exceeds the MPE (default exposure) for some line. */
+  exceedsMpe: boolean;
+  /** Highest eyewear OD over the lines there (floored at 0). */
+  opticalDensityRequired: number;
+  /** NOHD measured from the table edge, m (the largest over the lines). */
+  nohdM: number;
+};
+
+export type TableSafetyAssessment = {
+  version: 2;
+  lasers: TableLaserAssessment[];
+  openBeams: OpenBeam[];
+  points: TableHazardPoint[];
+  governing: TableHazardPoint | null;
+  lensHazards: { elementId: string; pathId: string; fromFocusM: number; fromLensM: number; source: string }[];
+  screenHazards: { elementId: string; pathId: string; diffuseReflectionNhzM: number; source: string }[];
+  cautions: SelectedCaution[];
+  warnings: { code: string; elementId?: string; pathId?: string; message: string }[];
+  notes: string[];
+  limitations: readonly Limitation[];
+  finalSay: string;
+};
+
+const PULSE_KEYS = ["pulseDurationS", "pulseRepetitionRateHz", "pulseEnergyJ"] as const;
+const fmt = (v: number) => (Number.isFinite(v) ? String(Number(v.toPrecision(3))) : String(v));
+
+/** The laser's pulse fields as assessBeam takes them; pulses that overlap are assessed as continuous-wave. */
+function pulseFields(laser: LaserV2Element, energyScale: number): Partial<Record<(typeof PULSE_KEYS)[number], number>> {
+  const source = laser as unknown as Record<string, unknown>;
+  const out: Partial<Record<(typeof PULSE_KEYS)[number], number>> = {};
+  for (const k of PULSE_KEYS) if (typeof source[k] === "number") out[k] = source[k] as number;
+  if (out.pulseDurationS === undefined) return {};
+  if (out.pulseRepetitionRateHz !== undefined && out.pulseDurationS * out.pulseRepetitionRateHz >= 1) return {};
+  if (out.pulseEnergyJ !== undefined) out.pulseEnergyJ *= energyScale;
+  return out;
+}
+
+/** Far-field 1/e² full-angle divergence of a Gaussian of waist radius w0: θ = 2M²λ/(π w0) (Siegman, Lasers, §17.1), mrad. */
+const divergenceMradOf = (wavelengthNm: number, m2: number, waistRadiusMm: number) => ((2 * m2 * wavelengthNm * 1e-6) / (Math.PI * waistRadiusMm)) * 1000;
+
+type Line = { wavelengthNm: number; powerMw: number; source: "main" | "line" };
+const linesOf = (laser: LaserV2Element): Line[] => [
+  { wavelengthNm: laser.wavelengthNm, powerMw: laser.powerMw ?? 0, source: "main" },
+  ...(laser.lines ?? []).map((l) => ({ wavelengthNm: l.wavelengthNm, powerMw: l.powerMw, source: "line" as const })),
+];
+
+/** The limiting-aperture stand-in for a further line: a beam far narrower than any limiting aperture puts all its power inside it. */
+const POINT_BEAM_DIAMETER_MM = 1e-3;
+
+function assessLine(laser: LaserV2Element, line: Line, beam: { diameterMm: number; divergenceMrad: number; powerScale: number }, options: BenchSafetyOptions): BeamAssessment {
+  const main = line.source === "main";
+  const input = {
+    wavelengthNm: line.wavelengthNm,
+    powerMw: line.powerMw * beam.powerScale,
+    beamDiameterMm: main ? beam.diameterMm : POINT_BEAM_DIAMETER_MM,
+    divergenceMrad: beam.divergenceMrad,
+    ...(options.exposureS === undefined ? {} : { exposureS: options.exposureS }),
+    ...(main ? pulseFields(laser, beam.powerScale) : {}),
+  } as BeamInput;
+  if (!((input.powerMw ?? 0) > 0)) {
+    // A single pulse given by its energy has no power; a line without power is assessed at a vanishing one.
+    if ((input as { pulseEnergyJ?: number }).pulseEnergyJ === undefined) (input as { powerMw: number }).powerMw = Number.MIN_VALUE;
+    else delete (input as { powerMw?: number }).powerMw;
+  }
+  return assessBeam(input);
+}
+
+export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: BenchSafetyOptions = {}): TableSafetyAssessment {
+  const byId = new Map<string, TableElement>(doc.elements.map((e) => [e.id, e]));
+  const pathsById = new Map(beam.paths.map((p) => [p.id, p]));
+  const entryOf = new Map(beam.elements.map((e) => [`${e.pathId}|${e.id}`, e]));
+  const lasers = doc.elements.filter((e): e is LaserV2Element => e.kind === "laser").sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+  const warnings: TableSafetyAssessment["warnings"] = [];
+  const notes: string[] = [];
+  const situationsByLaser = new Map<string, Set<CautionSituation>>(lasers.map((l) => [l.id, new Set<CautionSituation>()]));
+
+  // 1. Every laser, once per line.
+  const laserResults: TableLaserAssessment[] = [];
+  for (const laser of lasers) {
+    const w0 = laser.beamDiameterMm / 2;
+    const lines: LineAssessment[] = [];
+    for (const line of linesOf(laser)) {
+      try {
+        const a = assessLine(
+          laser,
+          line,
+          { diameterMm: laser.beamDiameterMm, divergenceMrad: divergenceMradOf(line.wavelengthNm, laser.m2 ?? 1, w0), powerScale: 1 },
+          lasers.length === 1 && line.source === "main" ? options : { exposureS: options.exposureS },
+        );
+        lines.push({
+          wavelengthNm: line.wavelengthNm,
+          powerMw: line.powerMw,
+          source: line.source,
+          hazardClass: a.hazardClass,
+          mpeWPerCm2: a.mpeWPerCm2,
+          nohdM: a.nohdM,
+          opticalDensityRequired: a.opticalDensityRequired,
+          mpeSource: a.figures.mpe.source,
+          nohdSource: a.figures.nohd.source,
+        });
+      } catch (error) {
+        warnings.push({
+          code: "line-not-assessed",
+          elementId: laser.id,
+          message: `The ${fmt(line.wavelengthNm)} nm ${line.source === "main" ? "beam" : "line"} of laser "${laser.id}" could not be assessed (${error instanceof Error ? error.message : "unknown reason"}); it is taken as class 4. Ask the safety officer.`,
+        });
+        lines.push({
+          wavelengthNm: line.wavelengthNm, powerMw: line.powerMw, source: line.source, hazardClass: "4",
+          mpeWPerCm2: null, nohdM: Number.POSITIVE_INFINITY, opticalDensityRequired: Number.POSITIVE_INFINITY, mpeSource: "not assessed", nohdSource: "not assessed",
+        });
+      }
+    }
+    const hazardClass = lines.reduce<HazardClass>((worst, l) => (classRank(l.hazardClass) > classRank(worst) ? l.hazardClass : worst), HAZARD_CLASSES[0]);
+    if ((laser.lines ?? []).length > 0) {
+      notes.push(`Laser "${laser.id}": its further lines are taken to follow the main beam with all their power inside the limiting aperture (their beam size is not modelled), the cautious reading.`);
+    }
+    laserResults.push({ laserId: laser.id, hazardClass, lines, governing: null });
+  }
+
+  // 2. Each leaf path, unfolded, through the rail assessment.
+  const points = new Map<string, TableHazardPoint>();
+  const lensHazards = new Map<string, TableSafetyAssessment["lensHazards"][number]>();
+  const screenHazards = new Map<string, TableSafetyAssessment["screenHazards"][number]>();
+  const leaves = beam.paths.filter((p) => !("continuesAs" in p.end) || p.end.continuesAs.length === 0);
+  for (const leaf of leaves) {
+    const chain = unfoldPath(doc, byId, pathsById, leaf.id);
+    const elements: BeamAtElement[] = chain.doc.elements.map((e) => {
+      const o = chain.origin.get(e.id);
+      let incident: BeamAtElement["incident"] = null;
+      if (o?.role === "edge") incident = pathsById.get(o.pathId)?.arrival ?? null;
+      else if (o?.elementId) incident = entryOf.get(`${o.pathId}|${o.elementId}`)?.incident ?? null;
+      return { id: e.id, kind: e.kind, positionMm: e.positionMm, incident };
+    });
+    let rail: ReturnType<typeof assessRail>;
+    try {
+      rail = assessRail(chain.doc, { elements }, { exposureS: options.exposureS });
+    } catch (error) {
+      warnings.push({
+        code: "path-not-assessed",
+        pathId: leaf.id,
+        message: `The beam path ${leaf.id} of laser "${leaf.laserId}" could not be assessed (${error instanceof Error ? error.message : "unknown reason"}). Ask the safety officer.`,
+      });
+      continue;
+    }
+    const situations = situationsByLaser.get(leaf.laserId);
+    for (const p of rail.points) {
+      const o = chain.origin.get(p.elementId);
+      if (!o) continue;
+      const path = pathsById.get(o.pathId);
+      let elementId = o.elementId;
+      let kind = p.kind;
+      if (o.role === "edge") {
+        if (p.where === "element") continue; // the edge's own figures are the open beam's
+        elementId = path && path.elementIds.length > 0 ? path.elementIds[path.elementIds.length - 1] : (path?.startElementId ?? null);
+        kind = elementId ? (byId.get(elementId)?.kind ?? "edge") : "edge";
+      } else if (o.role === "turn" || o.role === "element") {
+        kind = byId.get(o.elementId as string)?.kind ?? p.kind;
+      }
+      if (elementId === null) continue;
+      const key = `${o.pathId}|${elementId}|${p.where}|${p.positionMm}`;
+      if (points.has(key)) continue;
+      points.set(key, { ...p, elementId, kind, pathId: o.pathId, laserId: leaf.laserId });
+      if (p.where !== "element") situations?.add("focusing-optics");
+    }
+    for (const h of rail.lensHazards) {
+      const o = chain.origin.get(h.elementId);
+      if (!o?.elementId) continue;
+      const key = `${o.pathId}|${o.elementId}`;
+      if (!lensHazards.has(key)) lensHazards.set(key, { ...h, elementId: o.elementId, pathId: o.pathId });
+      const lens = byId.get(o.elementId);
+      if (lens?.kind === "lens" && lens.focalLengthMm > 0) situations?.add("focusing-optics");
+    }
+    for (const h of rail.screenHazards) {
+      const o = chain.origin.get(h.elementId);
+      if (!o?.elementId) continue;
+      const key = `${o.pathId}|${o.elementId}`;
+      if (!screenHazards.has(key)) screenHazards.set(key, { ...h, elementId: o.elementId, pathId: o.pathId });
+      situations?.add("screen-in-beam");
+    }
+    for (const w of rail.warnings) {
+      if (w.code === "open-beam-end") continue; // reported per open beam below
+      const o = w.elementId === undefined ? undefined : chain.origin.get(w.elementId);
+      const entry = { code: w.code, ...(o?.elementId ? { elementId: o.elementId } : {}), message: w.message };
+      if (!warnings.some((x) => x.code === entry.code && x.elementId === entry.elementId && x.message === entry.message)) warnings.push(entry);
+    }
+  }
+
+  // 3. Every path that leaves the table.
+  const openBeams: OpenBeam[] = [];
+  for (const path of beam.paths) {
+    if (!("edge" in path.end)) continue;
+    const laser = byId.get(path.laserId);
+    if (!laser || laser.kind !== "laser") continue;
+    const situations = situationsByLaser.get(laser.id);
+    situations?.add("open-beam-end");
+    const arrival = path.arrival;
+    const m2 = laser.m2 ?? 1;
+    const laserPower = laser.powerMw ?? 0;
+    const powerScale = arrival && laserPower > 0 ? arrival.powerMw / laserPower : path.shareOfLaser;
+    const radiusMm = arrival ? arrival.radiusMm : laser.beamDiameterMm / 2;
+    let exceeds = false;
+    let od = 0;
+    let nohd = 0;
+    for (const line of linesOf(laser)) {
+      const waist = arrival ? waistFrom({ ...arrival }, line.wavelengthNm, m2) : { radiusMm: laser.beamDiameterMm / 2, distanceMm: 0 };
+      try {
+        const a = assessLine(laser, line, { diameterMm: 2 * radiusMm, divergenceMrad: divergenceMradOf(line.wavelengthNm, m2, waist.radiusMm), powerScale }, { exposureS: options.exposureS });
+        if (a.opticalDensityRaw > 0) exceeds = true;
+        od = Math.max(od, a.opticalDensityRequired);
+        nohd = Math.max(nohd, a.nohdM);
+      } catch {
+        exceeds = true; // cannot say: the cautious answer
+        od = Math.max(od, Number.POSITIVE_INFINITY);
+      }
+    }
+    const edge = path.end.edge as { xMm: number; yMm: number };
+    const open: OpenBeam = {
+      pathId: path.id,
+      laserId: laser.id,
+      startElementId: path.startElementId,
+      role: path.role,
+      xMm: edge.xMm,
+      yMm: edge.yMm,
+      directionDeg: path.directionDeg,
+      powerMw: arrival ? arrival.powerMw : laserPower * path.shareOfLaser,
+      exceedsMpe: exceeds,
+      opticalDensityRequired: od,
+      nohdM: nohd,
+    };
+    openBeams.push(open);
+    const from = path.parentPathId === null ? `laser "${laser.id}"` : describeRole(path.role, byId.get(path.startElementId));
+    warnings.push({
+      code: exceeds ? "open-beam" : "open-beam-below-mpe",
+      elementId: path.startElementId,
+      pathId: path.id,
+      message: exceeds
+        ? `Open beam above the MPE: ${from} leaves the table at (${fmt(edge.xMm)}, ${fmt(edge.yMm)}) mm heading ${fmt(path.directionDeg)}° with ${fmt(open.powerMw)} mW; hazardous to ${fmt(nohd)} m beyond the edge (NOHD). Stop it with a beam block on the table.`
+        : `${capitalise(from)} leaves the table at (${fmt(edge.xMm)}, ${fmt(edge.yMm)}) mm heading ${fmt(path.directionDeg)}° with ${fmt(open.powerMw)} mW, below the MPE there; end it on a beam block all the same.`,
+    });
+  }
+
+  // 4. Governing points and cautions.
+  const pointList = [...points.values()];
+  let governing: TableHazardPoint | null = null;
+  for (const result of laserResults) {
+    let best: TableHazardPoint | null = null;
+    for (const p of pointList) {
+      if (p.laserId !== result.laserId || p.opticalDensityRaw === null) continue;
+      if (best === null || (best.opticalDensityRaw as number) < p.opticalDensityRaw) best = p;
+    }
+    result.governing = best;
+    if (best && (governing === null || (governing.opticalDensityRaw as number) < (best.opticalDensityRaw as number))) governing = best;
+  }
+  const cautions: SelectedCaution[] = [];
+  const seen = new Set<string>();
+  for (const result of laserResults) {
+    const laser = byId.get(result.laserId) as LaserV2Element;
+    const situations = situationsByLaser.get(result.laserId) ?? new Set<CautionSituation>();
+    const od = Math.max(result.governing?.opticalDensityRequired ?? 0, ...result.lines.map((l) => (Number.isFinite(l.opticalDensityRequired) ? l.opticalDensityRequired : 0)));
+    if (od > 0) situations.add("eyewear-needed");
+    if (Object.keys(pulseFields(laser, 1)).length > 0) situations.add("pulsed");
+    for (const c of selectCautions({ hazardClass: result.hazardClass, wavelengthNm: laser.wavelengthNm, situations: [...situations], opticalDensityRequired: od })) {
+      const key = `${c.id}|${c.text}`;
+      if (seen.has(key)) continue;
+      seen.add(key);
+      cautions.push(c);
+    }
+  }
+
+  return {
+    version: 2,
+    lasers: laserResults,
+    openBeams,
+    points: pointList,
+    governing,
+    lensHazards: [...lensHazards.values()],
+    screenHazards: [...screenHazards.values()],
+    cautions,
+    warnings,
+    notes,
+    limitations: LIMITATIONS,
+    finalSay: FINAL_SAY,
+  };
+}
+
+const capitalise = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
+
+function describeRole(role: string, e: TableElement | undefined): string {
+  const id = e ? `"${e.id}"` : "";
+  switch (role) {
+    case "front-ghost":
+      return `the front-surface ghost of window ${id}`;
+    case "rear-ghost":
+      return `the rear-surface ghost of window ${id}`;
+    case "transmitted":
+      return e?.kind === "window" ? `the beam through window ${id}` : `the transmitted port of beam splitter ${id}`;
+    default:
+      return e?.kind === "beam-splitter" ? `the reflected port of beam splitter ${id}` : `the beam reflected by ${e ? `${e.kind.replace("-", " ")} ${id}` : "a mirror"}`;
+  }
+}
