@@ -1,5 +1,5 @@
-// Headers every response carries (the Content-Security-Policy with its per-request nonce is set in
-// proxy.ts, except for the static files below, which run nothing).
+// Headers every response carries. Pages get their Content-Security-Policy, with a per-request nonce,
+// from proxy.ts; API answers and static files get a fixed one here that allows nothing to run or frame.
 const SECURITY_HEADERS = [
   { key: "X-Content-Type-Options", value: "nosniff" },
   { key: "Referrer-Policy", value: "same-origin" },
@@ -7,6 +7,8 @@ const SECURITY_HEADERS = [
   { key: "X-Frame-Options", value: "DENY" },
   { key: "Cross-Origin-Opener-Policy", value: "same-origin" },
 ];
+
+const NOTHING_RUNS = { key: "Content-Security-Policy", value: "default-src 'none'; frame-ancestors 'none'" };
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {
@@ -19,7 +21,9 @@ const nextConfig = {
   async headers() {
     return [
       { source: "/:path*", headers: SECURITY_HEADERS },
-      { source: "/_next/static/:path*", headers: [{ key: "Content-Security-Policy", value: "default-src 'none'; frame-ancestors 'none'" }] },
+      { source: "/api/:path*", headers: [NOTHING_RUNS] },
+      { source: "/_next/static/:path*", headers: [NOTHING_RUNS] },
+      { source: "/favicon.ico", headers: [NOTHING_RUNS] },
     ];
   },
 };
