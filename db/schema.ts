@@ -457,6 +457,11 @@ export const buildObservation = pgTable(
     spotDiameterMm: doublePrecision("spot_diameter_mm"),
     screenPowerMw: doublePrecision("screen_power_mw"),
     predictedScreenPowerMw: doublePrecision("predicted_screen_power_mw"),
+    /** The prediction the reading was compared with, kept so the record never changes with the engine. */
+    predictedSpotDiameterMm: doublePrecision("predicted_spot_diameter_mm"),
+    predictionEngine: text("prediction_engine"),
+    /** The sentences shown when it was recorded (each difference); empty when it matched. */
+    reasons: jsonb("reasons").$type<string[]>().notNull().default([]),
     mismatch: boolean("mismatch").notNull().default(false),
     note: text("note"),
     recordedBy: text("recorded_by")

@@ -55,11 +55,13 @@ export async function runTableBench(): Promise<BenchFigure[]> {
   const run = () => assessBench(doc, analyzeBench(doc));
   for (let i = 0; i < 200; i++) run();
   const times: number[] = [];
+  const cpu0 = process.cpuUsage();
   for (let i = 0; i < 1001; i++) {
     const t0 = performance.now();
     run();
     times.push(performance.now() - t0);
   }
+  const cpu = process.cpuUsage(cpu0);
   const analysis = analyzeBench(doc);
   return [
     {
@@ -67,6 +69,13 @@ export async function runTableBench(): Promise<BenchFigure[]> {
       value: median(times),
       unit: "ms",
       target: "≤ 2 ms",
+    },
+    {
+      // on a shared machine the wall clock counts time the process waited for a core; this is what it used
+      name: "the same, CPU time per run (user + system, mean of 1001)",
+      value: (cpu.user + cpu.system) / 1000 / 1001,
+      unit: "ms",
+      target: "reference",
     },
   ];
 }

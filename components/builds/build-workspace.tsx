@@ -4,8 +4,9 @@
 import { useQuery } from "@tanstack/react-query";
 import { Button } from "@/components/ui/button";
 import { ProfilePlot } from "@/components/sheets/profile-plot";
-import type { BuildView, ObservationView } from "@/lib/server/builds";
+import type { BuildView, ObservationView } from "@/lib/api/contracts/builds";
 import { buildQuery, useSignOff } from "./build-queries";
+import type { CoverageData } from "@/components/eyewear/coverage-list";
 import { Checklist } from "./checklist";
 import { ObservationForm } from "./observation-form";
 import { UploadForm } from "./upload-form";
@@ -60,7 +61,7 @@ function Uploads({ uploads }: { uploads: BuildView["uploads"] }) {
   );
 }
 
-export function BuildWorkspace({ buildId, images }: { buildId: string; images: PredictionImages }) {
+export function BuildWorkspace({ buildId, images, eyewear = null }: { buildId: string; images: PredictionImages; eyewear?: CoverageData | null }) {
   const { data: build } = useQuery(buildQuery(buildId));
   const signOff = useSignOff(buildId);
   if (!build) return <p className="text-muted">Loading the build record…</p>;
@@ -71,7 +72,7 @@ export function BuildWorkspace({ buildId, images }: { buildId: string; images: P
     <div className="flex flex-col gap-10">
       <section aria-labelledby="checklist-heading" className="flex flex-col gap-3">
         <h2 id="checklist-heading" className="text-xl font-semibold">As-built checklist</h2>
-        <Checklist build={build} />
+        <Checklist build={build} eyewear={eyewear} />
       </section>
 
       <section aria-labelledby="seen-heading" className="flex flex-col gap-4">

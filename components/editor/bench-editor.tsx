@@ -25,6 +25,7 @@ import { ProfilePanel } from "./profile-panel";
 import { PropertiesPanel } from "./properties-panel";
 import { laserValuesFrom, type RegisterEntry } from "./register-check";
 import { RevisionsPanel } from "./revisions-panel";
+import type { LabShelfData } from "@/components/eyewear/editor-coverage";
 import { SafetyPanel } from "./safety-panel";
 import { SaveStatus } from "./save-status";
 import { useAnalysis, useProfile } from "./use-analysis";
@@ -40,7 +41,7 @@ const BenchCanvas = dynamic(() => import("./bench-canvas").then((m) => m.BenchCa
   loading: () => <div className="flex h-full items-center justify-center text-muted">Loading the drawing…</div>,
 });
 
-type Props = { benchId: string; labName: string; authorName: string };
+type Props = { benchId: string; labName: string; authorName: string; shelf?: LabShelfData | null };
 
 export function BenchEditor(props: Props) {
   const draft = useQuery(draftQuery(props.benchId));
@@ -51,7 +52,7 @@ export function BenchEditor(props: Props) {
 
 const BUTTON = "inline-flex min-h-10 min-w-10 items-center justify-center gap-1 rounded-md border border-line px-2.5 text-sm hover:bg-raised disabled:cursor-not-allowed disabled:opacity-40";
 
-function EditorBody({ benchId, labName, authorName, initial }: Props & { initial: DraftView }) {
+function EditorBody({ benchId, labName, authorName, initial, shelf = null }: Props & { initial: DraftView }) {
   const canEdit = initial.canEdit;
   const { state, dispatch, selected, canUndo, canRedo } = useEditorState(initial.document);
   const { doc, selection } = state;
@@ -385,7 +386,7 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
             )}
           </section>
           <WarningsList analysis={analysis.data} onSelect={(id) => dispatch({ type: "select", ids: [id] })} />
-          <SafetyPanel safety={analysis.data?.safety} />
+          <SafetyPanel safety={analysis.data?.safety} shelf={shelf} />
         </div>
       </div>
     </div>

@@ -2,11 +2,12 @@
 // The laser safety summary when the analysis carries one: class, MPE, NOHD, required OD and the cautions,
 // always with the sentence that the institution's laser safety officer and local regulations decide.
 import type { BenchSafetyAssessment } from "@/lib/safety";
+import { EditorCoverage, type LabShelfData } from "@/components/eyewear/editor-coverage";
 import { sig } from "./format";
 
 const FINAL_WORD = "The institution's laser safety officer and local regulations decide; these figures advise, they never authorise.";
 
-export function SafetyPanel({ safety }: { safety: BenchSafetyAssessment | undefined }) {
+export function SafetyPanel({ safety, shelf = null }: { safety: BenchSafetyAssessment | undefined; shelf?: LabShelfData | null }) {
   if (!safety) return null;
   const od = safety.governing;
   return (
@@ -35,6 +36,7 @@ export function SafetyPanel({ safety }: { safety: BenchSafetyAssessment | undefi
           </dd>
         </div>
       </dl>
+      {shelf ? <EditorCoverage shelf={shelf} safety={safety} /> : null}
       {safety.cautions?.length ? (
         <details className="mt-3">
           <summary className="cursor-pointer text-sm font-medium">Cautions ({safety.cautions.length})</summary>

@@ -1,4 +1,4 @@
-import type { DecisionView } from "@/lib/server/reviews";
+import type { DecisionView } from "@/lib/api/contracts/reviews";
 import { day, fmt, utc } from "./format";
 
 const TITLES = { approved: "● Signed off", "changes-requested": "◑ Changes asked", rejected: "✕ Turned down" } as const;

@@ -4,7 +4,7 @@ import { useRouter } from "next/navigation";
 import { Button } from "@/components/ui/button";
 import { StateBadge } from "@/components/ui/state-badge";
 import { apiFetch, ApiError, queryKeys } from "@/lib/api/client";
-import type { ReviewDetail } from "@/lib/server/reviews";
+import type { ReviewDetail } from "@/lib/api/contracts/reviews";
 
 // TODO(lead): move this key into queryKeys in lib/api/client.ts (revision: (id) => ["revisions", id]).
 const revisionQueryKey = queryKeys.revision;

@@ -1,5 +1,7 @@
 import { fmt } from "@/components/review/format";
-import type { SheetContent } from "@/lib/server/build-sheets";
+import type { SheetContent } from "@/lib/build/sheet";
+import type { CoverageData } from "@/components/eyewear/coverage-list";
+import { PrintCoverage, PrintStandard } from "@/components/eyewear/print-coverage";
 import { statedOd } from "@/lib/safety/cautions";
 import { ProfilePlot } from "./profile-plot";
 import { ScaleDrawing } from "./scale-drawing";
@@ -70,7 +72,7 @@ function day(d: Date | string | null | undefined): string {
   return (typeof d === "string" ? d : d.toISOString()).slice(0, 10);
 }
 
-export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" | "Letter" }) {
+export function PrintSheet({ sheet, paper, eyewear = null }: { sheet: SheetContent; paper: "A4" | "Letter"; eyewear?: CoverageData | null }) {
   const { revision, decision, safety, analysis } = sheet;
   const governing = safety?.governing ?? null;
   const od = governing?.opticalDensityRequired ?? 0;
@@ -263,6 +265,7 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
       {/* ── Safety and approval ─────────────────────────────────────────────────────────── */}
       <section className="page">
         <h2>Laser safety</h2>
+        {eyewear ? <PrintStandard data={eyewear} safety={safety} /> : null}
         {safety ? (
           <>
             <div className="grid2" style={{ marginBottom: "3mm" }}>
@@ -281,6 +284,7 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
                 <p style={{ margin: 0, fontSize: "9.5pt" }}>{governing ? `${governing.where === "element" ? "at" : "at the focus after"} ${governing.elementId}, ${fmt(governing.positionMm)} mm. ${governing.source}` : "No light reaches anything."}</p>
               </div>
             </div>
+            {eyewear ? <PrintCoverage data={eyewear} asOf={new Date().toISOString().slice(0, 10)} /> : null}
             <table style={{ marginBottom: "3mm" }}>
               <tbody>
                 <tr>

@@ -72,6 +72,8 @@ export const lensSchema = z.object({
   focalLengthMm: finite("Focal length")
     .refine((v) => Math.abs(v) >= 0.1, "Focal length must be at least 0.1 mm in magnitude (a lens cannot have zero focal length)")
     .refine((v) => Math.abs(v) <= 1e6, "Focal length must be at most 1 000 000 mm in magnitude"),
+  /** Mount size: the beam is cut off outside this diameter. Optional; absent means unlimited in version 1. */
+  clearApertureMm: positive("Clear aperture", "mm", 1000).optional(),
 });
 
 export const apertureSchema = z.object({
@@ -90,6 +92,8 @@ export const filterSchema = z.object({
   opticalDensity: finite("Optical density")
     .refine((v) => v >= 0, "Optical density must be 0 or more")
     .refine((v) => v <= 20, "Optical density must be at most 20"),
+  /** Mount size: the beam is cut off outside this diameter. Optional; absent means unlimited in version 1. */
+  clearApertureMm: positive("Clear aperture", "mm", 1000).optional(),
   /** Optional OD per wavelength band; bands must not overlap (checked by checkFilterBands). */
   opticalDensityBands: z
     .array(

@@ -22,6 +22,17 @@ export const UPLOAD_MAX_BYTES = 10 * 1024 * 1024;
 // ── Sign-off status ───────────────────────────────────────────────────────────────────────────
 export type SignOffStatus = "valid" | "expired" | "superseded" | "not-signed-off";
 
+/** The officer's sign-off as a build sees it. */
+export type SignOffRecord = {
+  signerName: string;
+  signerRole: string;
+  meaning: string;
+  conditions: string | null;
+  validUntil: Date | null;
+  decidedAt: Date;
+  contentHash: string;
+};
+
 /** Whether the sign-off holds now. The review clock marks expiry in the database; the date is checked too, so a late clock never lets a build start. */
 export function signOffStatus(r: { state: ReviewState; decision: { validUntil: Date | null } | null }, now = new Date()): SignOffStatus {
   if (r.state === "superseded") return "superseded";
@@ -159,26 +170,45 @@ export function predictionsFor(doc: BenchDocument): Predictions {
 
 const round3 = (v: number) => Number(v.toPrecision(3));
 
-/** Compares what was seen with what was predicted; each difference becomes one sentence. */
-export function compareObservation(
-  predictions: Predictions,
-  seen: { apertureId?: string | null; centreSeen?: "bright" | "dark" | "unclear" | null; spotDiameterMm?: number | null; screenPowerMw?: number | null },
-): { centrePredicted: string | null; predictedSpotDiameterMm: number | null; predictedScreenPowerMw: number | null; reasons: string[] } {
-  const aperture = seen.apertureId ? predictions.apertures.find((a) => a.apertureId === seen.apertureId) : undefined;
-  const centrePredicted = aperture?.centre ?? null;
-  const predictedSpot = aperture ? aperture.spotDiameterMm : (predictions.screen?.beamDiameterMm ?? null);
-  const predictedPower = aperture ? aperture.screenPowerMw : (predictions.screen?.powerMw ?? null);
+/** What an observation is compared with, kept with it so the record never changes when the engine does. */
+export type ObservationPrediction = {
+  centrePredicted: "bright" | "dark" | "between" | null;
+  predictedSpotDiameterMm: number | null;
+  predictedScreenPowerMw: number | null;
+};
+
+export type ObservationReading = { centreSeen?: "bright" | "dark" | "unclear" | null; spotDiameterMm?: number | null; screenPowerMw?: number | null };
+
+/** The prediction for one aperture's pattern, or for the lit screen when no aperture is named. */
+export function predictionFor(predictions: Predictions, apertureId: string | null | undefined): ObservationPrediction {
+  const aperture = apertureId ? predictions.apertures.find((a) => a.apertureId === apertureId) : undefined;
+  return {
+    centrePredicted: aperture?.centre ?? null,
+    predictedSpotDiameterMm: aperture ? aperture.spotDiameterMm : (predictions.screen?.beamDiameterMm ?? null),
+    predictedScreenPowerMw: aperture ? aperture.screenPowerMw : (predictions.screen?.powerMw ?? null),
+  };
+}
+
+/** Each difference between the reading and the prediction, as one sentence; none means they agree. */
+export function differences(prediction: ObservationPrediction, seen: ObservationReading): string[] {
+  const { centrePredicted, predictedSpotDiameterMm: spot, predictedScreenPowerMw: power } = prediction;
   const reasons: string[] = [];
   if (seen.centreSeen && centrePredicted && seen.centreSeen !== "unclear" && centrePredicted !== "between" && seen.centreSeen !== centrePredicted) {
     reasons.push(`Centre: predicted ${centrePredicted}, seen ${seen.centreSeen}.`);
   }
-  if (seen.spotDiameterMm != null && predictedSpot != null && predictedSpot > 0 && Math.abs(seen.spotDiameterMm - predictedSpot) > SPOT_TOLERANCE_FRACTION * predictedSpot) {
-    reasons.push(`Spot or ring diameter: predicted ${round3(predictedSpot)} mm, measured ${seen.spotDiameterMm} mm (more than ${SPOT_TOLERANCE_FRACTION * 100} % apart).`);
+  if (seen.spotDiameterMm != null && spot != null && spot > 0 && Math.abs(seen.spotDiameterMm - spot) > SPOT_TOLERANCE_FRACTION * spot) {
+    reasons.push(`Spot or ring diameter: predicted ${round3(spot)} mm, measured ${seen.spotDiameterMm} mm (more than ${SPOT_TOLERANCE_FRACTION * 100} % apart).`);
   }
-  if (seen.screenPowerMw != null && predictedPower != null && Math.abs(seen.screenPowerMw - predictedPower) > POWER_TOLERANCE_FRACTION * predictedPower) {
-    reasons.push(`Power at the screen: predicted ${round3(predictedPower)} mW, measured ${seen.screenPowerMw} mW (more than ${POWER_TOLERANCE_FRACTION * 100} % apart).`);
+  if (seen.screenPowerMw != null && power != null && Math.abs(seen.screenPowerMw - power) > POWER_TOLERANCE_FRACTION * power) {
+    reasons.push(`Power at the screen: predicted ${round3(power)} mW, measured ${seen.screenPowerMw} mW (more than ${POWER_TOLERANCE_FRACTION * 100} % apart).`);
   }
-  return { centrePredicted, predictedSpotDiameterMm: predictedSpot, predictedScreenPowerMw: predictedPower, reasons };
+  return reasons;
+}
+
+/** Compares what was seen with what was predicted: the prediction used and each difference as one sentence. */
+export function compareObservation(predictions: Predictions, seen: ObservationReading & { apertureId?: string | null }): ObservationPrediction & { reasons: string[] } {
+  const prediction = predictionFor(predictions, seen.apertureId);
+  return { ...prediction, reasons: differences(prediction, seen) };
 }
 
 // ── Uploaded files ────────────────────────────────────────────────────────────────────────────

@@ -60,11 +60,17 @@ export type BenchTrace = {
   readonly stopIndex: number | null;
 };
 
+/** Gaussian power inside a lens or filter mount of the given clear aperture (1 when none is given). */
+const mountFraction = (clearApertureMm: number | undefined, q: BeamParameter, effectiveWavelengthM: number): number =>
+  clearApertureMm === undefined ? 1 : transmittedFraction((clearApertureMm / 2) * M_PER_MM, beamRadiusM(q, effectiveWavelengthM));
+
 /** Power transmission of an element for an incident beam (1 for lenses, 10^−OD for filters, the Gaussian fraction for apertures). */
 export function elementTransmission(e: BenchElement, q: BeamParameter, effectiveWavelengthM: number): number {
   switch (e.kind) {
     case "filter":
-      return Math.pow(10, -e.opticalDensity);
+      return Math.pow(10, -e.opticalDensity) * mountFraction(e.clearApertureMm, q, effectiveWavelengthM);
+    case "lens":
+      return mountFraction(e.clearApertureMm, q, effectiveWavelengthM);
     case "aperture":
       return transmittedFraction((e.diameterMm / 2) * M_PER_MM, beamRadiusM(q, effectiveWavelengthM));
     case "screen":

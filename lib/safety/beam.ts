@@ -131,7 +131,14 @@ export type BeamAssessment = {
 };
 
 /** Extra situations a caller (the bench assessment) knows about, and the standard for MPE/NOHD/OD. */
-export type BeamContext = { situations?: readonly CautionSituation[]; standard?: StandardId };
+export type BeamContext = {
+  situations?: readonly CautionSituation[];
+  standard?: StandardId;
+  /** Skip the cautions and the other-standard comparison (the bench assessment does both itself for further lines). */
+  lean?: boolean;
+  /** Skip the cautions only (the bench assessment selects its own for the whole bench). */
+  skipCautions?: boolean;
+};
 
 /** Validates the input (a ZodError with field paths when it is refused) and assesses the beam. */
 export function assessBeam(input: BeamInput, context: BeamContext = {}): BeamAssessment {
@@ -191,7 +198,7 @@ export function assessBeamUnchecked(input: BeamInput, context: BeamContext = {})
   const main = hazardFigures(input, beamPowerMw, standard);
   const otherId: StandardId = standard === "ANSI Z136.1-2014" ? "IEC 60825-1:2014" : "ANSI Z136.1-2014";
   const otherCovered = coverageProblem(λ, input.pulseDurationS, otherId) === null;
-  const other = otherCovered ? hazardFigures(input, beamPowerMw, otherId) : null;
+  const other = otherCovered && !context.lean ? hazardFigures(input, beamPowerMw, otherId) : null;
   const g = main.governing;
   const apertureMm = g.limitingApertureMm;
   const limit = main.limit;
@@ -235,7 +242,7 @@ export function assessBeamUnchecked(input: BeamInput, context: BeamContext = {})
     notes.push(
       `Where the other standard differs: under ${otherId} the MPE is ${other.mpe !== null ? `${fmt(other.mpe)} W/cm²` : `${fmt(other.perPulse ?? 0)} J/cm² per pulse`} (here ${main.mpe !== null ? `${fmt(main.mpe)} W/cm²` : `${fmt(main.perPulse ?? 0)} J/cm² per pulse`}), the limiting aperture ${fmt(other.aperture)} mm (here ${fmt(main.aperture)} mm), the OD needed ${fmt(other.od)} (here ${fmt(main.od)}) and the NOHD ${fmt(other.nohd)} m (here ${fmt(main.nohd)} m). Your laser safety officer decides which standard applies.`,
     );
-  } else if (!otherCovered) {
+  } else if (!otherCovered && !context.lean) {
     notes.push(`Where the other standard differs: ${coverageProblem(λ, input.pulseDurationS, otherId)}.`);
   }
   const warnings: string[] = [];
@@ -245,12 +252,14 @@ export function assessBeamUnchecked(input: BeamInput, context: BeamContext = {})
   const situations = new Set<CautionSituation>(context.situations ?? []);
   if (main.odRaw > 0) situations.add("eyewear-needed");
   if (input.pulseDurationS !== undefined) situations.add("pulsed");
-  const cautions = selectCautions({
-    hazardClass: classification.hazardClass,
-    wavelengthNm: λ,
-    situations: [...situations],
-    opticalDensityRequired: main.od,
-  });
+  const cautions = context.lean || context.skipCautions
+    ? []
+    : selectCautions({
+        hazardClass: classification.hazardClass,
+        wavelengthNm: λ,
+        situations: [...situations],
+        opticalDensityRequired: main.od,
+      });
   const train = input.pulseRepetitionRateHz !== undefined;
 
   return {
@@ -297,7 +306,7 @@ export function assessBeamUnchecked(input: BeamInput, context: BeamContext = {})
       opticalDensityRequired: other?.od ?? Number.NaN,
       nohdM: other?.nohd ?? Number.NaN,
       limitingApertureMm: other?.aperture ?? Number.NaN,
-      differs: other === null || differs,
+      differs: other === null ? !context.lean : differs,
     },
     classification,
     labelCheck,

@@ -34,7 +34,14 @@ export type BeamAtElement = {
   incident: IncidentBeam | null;
 };
 
-export type BenchBeam = { elements: readonly BeamAtElement[] };
+/**
+ * Power (mW) inside a centred circle of radius radiusMm on the beam axis at positionMm (arriving at elementId when
+ * given), from the propagated field behind a clipping aperture; null where the plain Gaussian holds. The caller hands
+ * it in (lib/optics fieldPowerProbe), so this module never depends on lib/optics. PRODUCT.md revision 2.
+ */
+export type EnclosedPowerMw = (positionMm: number, radiusMm: number, elementId?: string) => number | null;
+
+export type BenchBeam = { elements: readonly BeamAtElement[]; enclosedPowerMw?: EnclosedPowerMw };
 
 /** Options as the API accepts them (field paths with plain messages). */
 export const benchSafetyOptionsSchema = z.object({
@@ -109,6 +116,25 @@ export type BenchSafetyAssessment = {
   lines: LaserLinesAssessment;
   /** Class over all lines (the main line's class when it has no further lines). */
   hazardClass: BeamAssessment["hazardClass"];
+  /**
+   * The same shape as version 2's lasers[]: the one laser with its class and, per line, MPE, NOHD of the free beam and
+   * the OD that line needs anywhere on the bench (the maximum over every element, focus and open end).
+   */
+  lasers: {
+    laserId: string;
+    hazardClass: BeamAssessment["hazardClass"];
+    lines: {
+      wavelengthNm: number;
+      main: boolean;
+      powerMw: number;
+      hazardClass: BeamAssessment["hazardClass"];
+      mpeWPerCm2: number | null;
+      perPulseJPerCm2: number | null;
+      nohdM: number;
+      opticalDensityRequired: number;
+      source: string;
+    }[];
+  }[];
   mpe: Figure;
   limitingAperture: Figure;
   points: HazardPoint[];
@@ -211,7 +237,7 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
     labelClass: options.labelClass,
     standard,
   };
-  const laserAssessment = assessBeamUnchecked(mainInput, { standard });
+  const laserAssessment = assessBeamUnchecked(mainInput, { standard, skipCautions: true });
   const mainBeamPowerMw = laserAssessment.odReference.beamPowerMw;
   // Further lines: the optics engine carries the main line's power; a line's power is a fixed share of it, corrected
   // for filters whose OD differs at the line's wavelength from the single OD the optics engine applied.
@@ -219,7 +245,7 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
     let input = lineInput(mainInput, l);
     input = { ...input, divergenceMrad: divergenceFor(l.wavelengthNm) };
     if (coverageProblem(l.wavelengthNm, pulseDurationS, standard)) input = { ...input, standard: "IEC 60825-1:2014" };
-    return assessBeamUnchecked(input, { standard: input.standard });
+    return assessBeamUnchecked(input, { standard: input.standard, lean: true });
   });
   const lineList: Line[] = [laserAssessment, ...further].map((a) => ({
     wavelengthNm: a.wavelengthNm,
@@ -232,30 +258,19 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
 
   // Filter correction per line, accumulated along the beam (in beam order).
   const filterFactor = lineList.map(() => 1);
-  const correctionAt = new Map<string, number[]>();
+  const correctionAt = new Map<string, readonly number[]>();
 
   const point = (elementId: string, kind: string, where: HazardPoint["where"], positionMm: number, b: BeamState, factors: readonly number[]): HazardPoint => {
-    const perLine = lineList.map((line, i) => {
-      const p = b.powerMw * line.share * factors[i];
-      const worst = worstExceedance(line.limit, p, b.radiusMm);
-      const raw = worst.raw === null ? null : worst.raw + allocation[i];
-      return { wavelengthNm: line.wavelengthNm, powerMw: Math.max(0, p), opticalDensityRaw: raw, opticalDensityRequired: raw === null ? 0 : Math.max(0, raw), averaged: worst.averagedWPerCm2 };
-    });
-    let raw: number | null = null;
-    for (const l of perLine) if (l.opticalDensityRaw !== null && (raw === null || l.opticalDensityRaw > raw)) raw = l.opticalDensityRaw;
-    return {
-      elementId,
-      kind,
-      where,
-      positionMm,
-      powerMw: Math.max(0, b.powerMw),
-      radiusMm: b.radiusMm,
-      peakIrradianceWPerCm2: peakIrradianceWPerCm2(b.powerMw, b.radiusMm),
-      averagedIrradianceWPerCm2: perLine[0].averaged,
-      opticalDensityRaw: raw,
-      opticalDensityRequired: raw === null ? 0 : Math.max(0, raw),
-      lines: perLine.map(({ averaged: _averaged, ...rest }) => rest),
-    };
+    // behind a clipping aperture: the share of the beam inside each limiting aperture from the propagated field, never a rescaled Gaussian
+    const enclosed = beam.enclosedPowerMw;
+    const shareInside =
+      enclosed === undefined
+        ? undefined
+        : (apertureMm: number): number | null => {
+            const inside = enclosed(positionMm, apertureMm / 2, where === "element" ? elementId : undefined);
+            return inside === null ? null : b.powerMw > 0 ? Math.min(1, inside / b.powerMw) : 0;
+          };
+    return hazardPoint(lineList, allocation, elementId, kind, where, positionMm, b, factors, shareInside);
   };
   const dark = (e: BeamAtElement, radiusMm: number): HazardPoint => ({
     elementId: e.id, kind: e.kind, where: "element", positionMm: e.positionMm, powerMw: 0, radiusMm,
@@ -274,13 +289,13 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
   for (let i = 0; i < elements.length; i++) {
     const e = elements[i];
     const state = lit(e);
-    const factors = [...filterFactor];
+    const factors: readonly number[] = filterFactor.slice();
     correctionAt.set(e.id, factors);
     const docElement = byId.get(e.id);
-    if (docElement?.kind === "filter") {
-      lineList.forEach((line, j) => {
-        filterFactor[j] *= 10 ** (docElement.opticalDensity - filterOpticalDensityAt(docElement, line.wavelengthNm));
-      });
+    if (docElement?.kind === "filter" && docElement.opticalDensityBands && docElement.opticalDensityBands.length > 0) {
+      for (let j = 0; j < lineList.length; j++) {
+        filterFactor[j] *= 10 ** (docElement.opticalDensity - filterOpticalDensityAt(docElement, lineList[j].wavelengthNm));
+      }
     }
     if (!state) {
       points.push(dark(e, e.incident?.radiusMm ?? 0));
@@ -306,7 +321,8 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
       let fromFocusM = 0;
       let fromLensM = 0;
       let source = "";
-      lineList.forEach((line, j) => {
+      for (let j = 0; j < lineList.length; j++) {
+        const line = lineList[j];
         for (const site of line.limit.sites) {
           const h = lensNohd({
             powerMw: state.powerMw * line.share * factors[j] * 10 ** allocation[j],
@@ -321,20 +337,23 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
             source = h.source;
           }
         }
-      });
+      }
       lensHazards.push({ elementId: e.id, fromFocusM, fromLensM, source: `${source || SOURCE.ansiAppendixBLens}; b₀ = 1/e² diameter ÷ √2; the worst line — ${UNCHECKED}` });
     }
     if (e.kind === "screen" || e.kind === "beam-block") {
       if (e.kind === "screen") {
         situations.add("screen-in-beam");
         let nhzM = 0;
-        lineList.forEach((line, j) => {
-          const mpe = Math.min(...line.limit.sites.map((x) => x.effectiveWPerCm2));
+        for (let j = 0; j < lineList.length; j++) {
+          const line = lineList[j];
+          let mpe = Number.POSITIVE_INFINITY;
+          for (const x of line.limit.sites) mpe = Math.min(mpe, x.effectiveWPerCm2);
           nhzM = Math.max(nhzM, diffuseReflectionNhz({ powerMw: state.powerMw * line.share * factors[j] * 10 ** allocation[j], mpeWPerCm2: mpe }).distanceM);
-        });
+        }
         screenHazards.push({ elementId: e.id, diffuseReflectionNhzM: nhzM, source: `${SOURCE.ansiAppendixBDiffuse}, ρ = 1, θ = 0 (worst case); the worst line — ${UNCHECKED}` });
       }
-      lineList.forEach((line, j) => {
+      for (let j = 0; j < lineList.length; j++) {
+        const line = lineList[j];
         const v = diffuseView(e, state, line, state.powerMw * line.share * factors[j] * 10 ** allocation[j]);
         diffuseViewing.push(v);
         if (v.exceedsMpe) {
@@ -344,7 +363,7 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
             message: `Looking at the spot on ${e.id} from ${DIFFUSE_VIEWING_DISTANCE_MM / 10} cm exceeds the MPE at ${fmt(line.wavelengthNm)} nm even though it is diffuse (extended source, C_E = ${fmt(v.cE)}); eyewear with OD ≥ ${fmt(Math.ceil(v.opticalDensityRaw * 10) / 10)} at that wavelength is needed to watch it.`,
           });
         }
-      });
+      }
     }
     if (STOPS.has(e.kind)) {
       stopped = true;
@@ -423,10 +442,29 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
     opticalDensityRequired: governing?.opticalDensityRequired ?? 0,
   });
 
+  const lasers: BenchSafetyAssessment["lasers"] = [
+    {
+      laserId: laser.id,
+      hazardClass: linesAssessment.hazardClass,
+      lines: linesAssessment.lines.map((l, j) => ({
+        wavelengthNm: l.wavelengthNm,
+        main: l.main,
+        powerMw: l.powerMw,
+        hazardClass: l.hazardClass,
+        mpeWPerCm2: l.mpeWPerCm2,
+        perPulseJPerCm2: l.perPulseJPerCm2,
+        nohdM: l.nohdM,
+        opticalDensityRequired: Math.max(0, ...points.map((p) => p.lines?.[j]?.opticalDensityRequired ?? 0)),
+        source: `${l.assessment.figures.mpe.source}; OD the maximum over the bench, with the sum-of-fractions share across lines`,
+      })),
+    },
+  ];
+
   return {
     laserId: laser.id,
     wavelengthNm: λ,
     standard,
+    lasers,
     laser: laserAssessment,
     lines: linesAssessment,
     hazardClass: linesAssessment.hazardClass,
@@ -443,6 +481,45 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
     warnings,
     limitations: LIMITATIONS,
     finalSay: FINAL_SAY,
+  };
+}
+
+/** OD per line and overall at one point; plain loops (this runs for every element, focus and line). */
+function hazardPoint(
+  lineList: readonly Line[],
+  allocation: readonly number[],
+  elementId: string,
+  kind: string,
+  where: HazardPoint["where"],
+  positionMm: number,
+  b: BeamState,
+  factors: readonly number[],
+  shareInside?: (limitingApertureMm: number) => number | null,
+): HazardPoint {
+  const lines: NonNullable<HazardPoint["lines"]> = [];
+  let raw: number | null = null;
+  let averagedMain = 0;
+  for (let i = 0; i < lineList.length; i++) {
+    const line = lineList[i];
+    const p = b.powerMw * line.share * factors[i];
+    const worst = worstExceedance(line.limit, p, b.radiusMm, shareInside);
+    const r = worst.raw === null ? null : worst.raw + allocation[i];
+    if (i === 0) averagedMain = worst.averagedWPerCm2;
+    if (r !== null && (raw === null || r > raw)) raw = r;
+    lines.push({ wavelengthNm: line.wavelengthNm, powerMw: Math.max(0, p), opticalDensityRaw: r, opticalDensityRequired: r === null ? 0 : Math.max(0, r) });
+  }
+  return {
+    elementId,
+    kind,
+    where,
+    positionMm,
+    powerMw: Math.max(0, b.powerMw),
+    radiusMm: b.radiusMm,
+    peakIrradianceWPerCm2: Math.max(peakIrradianceWPerCm2(b.powerMw, b.radiusMm), averagedMain),
+    averagedIrradianceWPerCm2: averagedMain,
+    opticalDensityRaw: raw,
+    opticalDensityRequired: raw === null ? 0 : Math.max(0, raw),
+    lines,
   };
 }
 

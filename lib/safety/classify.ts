@@ -187,8 +187,20 @@ const areaCm2 = (diameterMm: number) => Math.PI * (diameterMm / 20) ** 2;
 
 export type PulseTiming = { pulseDurationS: number; pulseRepetitionRateHz?: number };
 
+/** Per-call memo of class1PulseAelJ: the Class 1, 2 and 3R checks and the reported limits share most of their inputs. */
+type AelMemo = Map<string, { energyJ: number; rule: string }>;
+
+function class1PulseAelJ(λ: number, site: MpeSite, pulse: PulseTiming, timeBaseS: number, memo?: AelMemo): { energyJ: number; rule: string } {
+  const key = `${site}|${timeBaseS}`;
+  const hit = memo?.get(key);
+  if (hit) return hit;
+  const value = class1PulseAelJUncached(λ, site, pulse, timeBaseS);
+  memo?.set(key, value);
+  return value;
+}
+
 /** Class 1 per-pulse AEL in J for one site: the lower of rules 1 and 3 over the time base, × the limiting aperture area. */
-function class1PulseAelJ(λ: number, site: MpeSite, pulse: PulseTiming, timeBaseS: number): { energyJ: number; rule: string } {
+function class1PulseAelJUncached(λ: number, site: MpeSite, pulse: PulseTiming, timeBaseS: number): { energyJ: number; rule: string } {
   const p = pulsedEyeMpe({
     wavelengthNm: λ,
     pulseDurationS: pulse.pulseDurationS,
@@ -196,6 +208,7 @@ function class1PulseAelJ(λ: number, site: MpeSite, pulse: PulseTiming, timeBase
     exposureS: Math.max(timeBaseS, pulse.pulseDurationS),
     standard: "IEC 60825-1:2014",
     site,
+    explain: false,
   });
   let best = p.rules[0];
   for (const r of p.rules) if (r.rule !== "average-power" && r.perPulseJPerCm2 < best.perPulseJPerCm2) best = r;
@@ -209,14 +222,14 @@ function timeBaseS(λ: number, forClass: "1" | "2" | "3R"): number {
   return 100;
 }
 
-export function classLimits(wavelengthNm: number, pulsed?: PulseTiming): ClassLimits {
+export function classLimits(wavelengthNm: number, pulsed?: PulseTiming, memo?: AelMemo): ClassLimits {
   const λ = wavelengthNm;
   const class1Mw = class1AelMw(λ);
   const class2Mw = isVisible(λ) ? 1 : null;
   let class1PulseMj: number | null = null;
   let class3BPulseMj: number | null = null;
   if (pulsed) {
-    const values = sitesAt(λ).map((site) => class1PulseAelJ(λ, site, pulsed, timeBaseS(λ, "1")).energyJ);
+    const values = sitesAt(λ).map((site) => class1PulseAelJ(λ, site, pulsed, timeBaseS(λ, "1"), memo).energyJ);
     class1PulseMj = Math.min(...values) * 1e3;
     class3BPulseMj = class3BPulseAelJ(λ, pulsed.pulseDurationS).energyJ * 1e3;
   }
@@ -251,7 +264,8 @@ export function classifyBeam(input: ClassInput): Classification {
   const { averageMw, energyJ } = emissionOf(input);
   const pulse: PulseTiming | undefined =
     input.pulseDurationS !== undefined ? { pulseDurationS: input.pulseDurationS, pulseRepetitionRateHz: input.pulseRepetitionRateHz } : undefined;
-  const limits = classLimits(λ, pulse);
+  const memo: AelMemo = new Map();
+  const limits = classLimits(λ, pulse, memo);
   const reasons: string[] = [];
   const sites = sitesAt(λ);
 
@@ -259,13 +273,14 @@ export function classifyBeam(input: ClassInput): Classification {
     fractionThrough(apertureMm, diameterAtMm(input.beamDiameterMm, input.divergenceMrad, distanceMm));
 
   // Ratios accessible emission ÷ AEL for one class multiple k of the Class 1 limits (k = 5 for 3R).
-  type Ratio = { all: number; condition3: number; what: string };
+  // `what` is built only for the ratio that decides (formatting numbers is the costly part of a classification).
+  type Ratio = { all: number; condition3: number; what: () => string };
   const worst = (a: Ratio, b: Ratio): Ratio => ({
     all: Math.max(a.all, b.all),
     condition3: Math.max(a.condition3, b.condition3),
     what: b.all > a.all ? b.what : a.what,
   });
-  const none: Ratio = { all: 0, condition3: 0, what: "" };
+  const none: Ratio = { all: 0, condition3: 0, what: () => "" };
 
   const accessibleEmission: AccessibleEmission[] = [];
   const class1Like = (forClass: "1" | "2" | "3R"): Ratio => {
@@ -293,12 +308,12 @@ export function classifyBeam(input: ClassInput): Classification {
         out = worst(out, {
           all: (averageMw * Math.max(f1, f3)) / limitMw,
           condition3: (averageMw * f3) / limitMw,
-          what: `average power against ${fmt(limitMw)} mW (${site === "retina" ? "retina" : "cornea/lens"})`,
+          what: () => `average power against ${fmt(limitMw)} mW (${site === "retina" ? "retina" : "cornea/lens"})`,
         });
       }
       // Per-pulse rules 1 and 3.
       if (pulse && energyJ !== null) {
-        const ael = class1PulseAelJ(λ, site, pulse, tb);
+        const ael = class1PulseAelJ(λ, site, pulse, tb, memo);
         const limitJ = multiple * ael.energyJ;
         const g = geometry(λ, site, pulse.pulseDurationS);
         const f3 = fractionAt(g.cond3.apertureMm, g.cond3.distanceMm);
@@ -306,7 +321,7 @@ export function classifyBeam(input: ClassInput): Classification {
         out = worst(out, {
           all: (energyJ * Math.max(f1, f3)) / limitJ,
           condition3: (energyJ * f3) / limitJ,
-          what: `pulse energy against ${fmtJ(limitJ)} per pulse (${ael.rule === "single-pulse" ? "rule 1, single pulse" : "rule 3, C5 = N^−0.25"}, ${site === "retina" ? "retina" : "cornea/lens"})`,
+          what: () => `pulse energy against ${fmtJ(limitJ)} per pulse (${ael.rule === "single-pulse" ? "rule 1, single pulse" : "rule 3, C5 = N^−0.25"}, ${site === "retina" ? "retina" : "cornea/lens"})`,
         });
       }
     }
@@ -317,14 +332,14 @@ export function classifyBeam(input: ClassInput): Classification {
   // Class 2 (400–700 nm): 1 mW average; pulses meet the Class 1 per-pulse limits over the 0.25 s time base.
   // Outside 400–700 nm there is no Class 2: the Class 1 limits stand in (so a line there must meet Class 1 for the
   // laser to be Class 2; on its own it is then Class 1 already).
-  const r2 = isVisible(λ) ? class1Like("2") : { ...r1, what: `${r1.what}; no Class 2 outside 400–700 nm` };
+  const r2 = isVisible(λ) ? class1Like("2") : { ...r1, what: () => `${r1.what()}; no Class 2 outside 400–700 nm` };
   const r3R = class1Like("3R");
   // Class 3B: total emission, no aperture.
   let r3B: Ratio = none;
-  if (averageMw !== null) r3B = worst(r3B, { all: averageMw / limits.class3BMw, condition3: averageMw / limits.class3BMw, what: `total power against the Class 3B limit ${fmt(limits.class3BMw)} mW` });
+  if (averageMw !== null) r3B = worst(r3B, { all: averageMw / limits.class3BMw, condition3: averageMw / limits.class3BMw, what: () => `total power against the Class 3B limit ${fmt(limits.class3BMw)} mW` });
   if (pulse && energyJ !== null) {
     const p3B = class3BPulseAelJ(λ, pulse.pulseDurationS);
-    r3B = worst(r3B, { all: energyJ / p3B.energyJ, condition3: energyJ / p3B.energyJ, what: `pulse energy against the Class 3B per-pulse limit ${fmtJ(p3B.energyJ)} (${p3B.row})` });
+    r3B = worst(r3B, { all: energyJ / p3B.energyJ, condition3: energyJ / p3B.energyJ, what: () => `pulse energy against the Class 3B per-pulse limit ${fmtJ(p3B.energyJ)} (${p3B.row})` });
   }
   const ratios: ClassRatios = {
     "1": { all: r1.all, condition3: r1.condition3 },
@@ -343,7 +358,7 @@ export function classifyBeam(input: ClassInput): Classification {
     pulseEnergyMj: energyJ === null ? null : energyJ * 1e3,
     averagePowerMw: averageMw,
     ratios,
-    governingLimit: deciding.what,
+    governingLimit: deciding.what(),
     reasons,
     conditions: APPLIED_CONDITIONS,
     source: `${SOURCE.iecAel}; ${SOURCE.iecConditions} — ${UNCHECKED}`,
@@ -366,7 +381,9 @@ export function classFromRatios(ratios: ClassRatios, hasCondition1: boolean): Ha
   return "3B";
 }
 
-function reasonFor(c: HazardClass, deciding: { all: number; condition3: number; what: string }, r3B: { all: number; what: string }): string {
+function reasonFor(c: HazardClass, d: { all: number; condition3: number; what: () => string }, b: { all: number; what: () => string }): string {
+  const deciding = { ...d, what: d.what() };
+  const r3B = { ...b, what: c === "4" ? b.what() : "" };
   switch (c) {
     case "4":
       return `Above Class 3B: ${r3B.what} is exceeded ${fmt(r3B.all)}-fold.`;

@@ -95,10 +95,20 @@ function siteLimit(λ: number, site: MpeSite, exposureS: number, emission: Laser
  * log10(E/MPE) for a Gaussian beam of the given power (the power the limit's effectiveWPerCm2 compares with) and 1/e²
  * radius, the worst over the sites; null when no light arrives.
  */
-export function worstExceedance(limit: ExposureLimit, powerMw: number, radiusMm: number): { raw: number | null; site: SiteLimit; averagedWPerCm2: number } {
+export function worstExceedance(
+  limit: ExposureLimit,
+  powerMw: number,
+  radiusMm: number,
+  /** Optional: the share of the power inside a limiting aperture of this diameter from the propagated field (behind a clipping aperture); null → the Gaussian. */
+  shareInside?: (limitingApertureMm: number) => number | null,
+): { raw: number | null; site: SiteLimit; averagedWPerCm2: number } {
   let best: { raw: number | null; site: SiteLimit; averagedWPerCm2: number } | null = null;
   for (const site of limit.sites) {
-    const averaged = apertureAveragedIrradianceWPerCm2(powerMw, radiusMm, site.limitingApertureMm);
+    const share = shareInside?.(site.limitingApertureMm) ?? null;
+    const averaged =
+      share === null || powerMw <= 0
+        ? apertureAveragedIrradianceWPerCm2(powerMw, radiusMm, site.limitingApertureMm)
+        : (powerMw * share) / 1000 / (Math.PI * (site.limitingApertureMm / 20) ** 2);
     const raw = averaged > 0 ? Math.log10(averaged / site.effectiveWPerCm2) : null;
     if (best === null || (raw !== null && (best.raw === null || raw > best.raw))) best = { raw, site, averagedWPerCm2: averaged };
   }

@@ -34,7 +34,7 @@ export function assessBench(doc: AnyBenchDocument, beam: BenchBeam | TableBeam, 
   return assessRail(doc, beam as BenchBeam, options);
 }
 export { assessRail, assessTable };
-export type { LineAssessment, OpenBeam, TableBeam, TableHazardPoint, TableLaserAssessment, TableSafetyAssessment } from "./table";
+export type { TableLineFigures, OpenBeam, TableBeam, TableHazardPoint, TableLaserAssessment, TableSafetyAssessment } from "./table";
 export {
   benchSafetyOptionsSchema,
   filterOpticalDensityAt,

@@ -62,6 +62,8 @@ export type PulsedInput = {
   standard?: StandardId;
   /** Only the retinal or only the corneal/lens limits (dual limits with different apertures). */
   site?: MpeSite;
+  /** false: leave the rules' explanations empty (the class check needs only the numbers). */
+  explain?: boolean;
 };
 
 export function pulsedEyeMpe(input: PulsedInput): PulsedMpe {
@@ -70,12 +72,14 @@ export function pulsedEyeMpe(input: PulsedInput): PulsedMpe {
   const mpeOptions = { standard, site: input.site };
   const prf = input.pulseRepetitionRateHz ?? null;
   const notes: string[] = [];
+  const explain = input.explain !== false;
+  const say = (text: () => string) => (explain ? text() : "");
   const single: EyeMpe = eyeMpe(λ, τ, mpeOptions);
   const rules: PulseRuleResult[] = [
     {
       rule: "single-pulse",
       perPulseJPerCm2: single.radiantExposureJPerCm2,
-      explanation: `Rule 1: any single pulse ≤ the MPE for its duration ${τ} s (${single.governingRow})`,
+      explanation: say(() => `Rule 1: any single pulse ≤ the MPE for its duration ${τ} s (${single.governingRow})`),
     },
   ];
 
@@ -88,7 +92,7 @@ export function pulsedEyeMpe(input: PulsedInput): PulsedMpe {
   rules.push({
     rule: "average-power",
     perPulseJPerCm2: train.radiantExposureJPerCm2 / pulseCount,
-    explanation: `Rule 2: the whole train in ${T} s ≤ the MPE for ${T} s (${train.governingRow}), shared over N = ${fmt(pulseCount)} pulses`,
+    explanation: say(() => `Rule 2: the whole train in ${T} s ≤ the MPE for ${T} s (${train.governingRow}), shared over N = ${fmt(pulseCount)} pulses`),
   });
 
   const tMin = minimumPulseGroupS(λ);
@@ -101,14 +105,14 @@ export function pulsedEyeMpe(input: PulsedInput): PulsedMpe {
       rules.push({
         rule: "pulse-train",
         perPulseJPerCm2: (correctionCP(groups) * groupMpe) / perGroup,
-        explanation: `Rule 3: ${fmt(perGroup)} pulses fall within t_min = ${tMin} s and count as one; C_P = N^−0.25 with N = ${fmt(groups)} groups`,
+        explanation: say(() => `Rule 3: ${fmt(perGroup)} pulses fall within t_min = ${tMin} s and count as one; C_P = N^−0.25 with N = ${fmt(groups)} groups`),
       });
       notes.push(`Pulses closer than t_min = ${tMin} s were grouped and treated as one pulse.`);
     } else {
       rules.push({
         rule: "pulse-train",
         perPulseJPerCm2: correctionCP(pulseCount) * single.thermalJPerCm2,
-        explanation: `Rule 3: single-pulse thermal MPE × C_P, C_P = N^−0.25 = ${fmt(correctionCP(pulseCount))} for N = ${fmt(pulseCount)}`,
+        explanation: say(() => `Rule 3: single-pulse thermal MPE × C_P, C_P = N^−0.25 = ${fmt(correctionCP(pulseCount))} for N = ${fmt(pulseCount)}`),
       });
     }
     if (pulseCount > 1) {

@@ -15,7 +15,7 @@ export const MAX_BODY_BYTES = 256 * 1024;
 export function errorResponse(error: unknown): NextResponse {
   if (error instanceof AppError) {
     return NextResponse.json(
-      { error: { code: error.code, message: error.message, fields: error.fields } },
+      { ...error.extra, error: { code: error.code, message: error.message, fields: error.fields } },
       { status: error.status },
     );
   }
@@ -45,7 +45,7 @@ export async function readBodyLimited(request: Request, maxBytes: number, tooLar
     if (total > maxBytes) {
       await reader.cancel().catch(() => undefined);
       const refused = tooLarge();
-      throw new AppError(refused.code, refused.message, refused.fields, 413);
+      throw new AppError(refused.code, refused.message, refused.fields, refused.extra, 413);
     }
     chunks.push(value);
   }

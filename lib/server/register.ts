@@ -41,6 +41,17 @@ export const laserInput = z
     pulseRepetitionRateHz: positive("Repetition rate", "Hz", 1e12).nullish().transform((v) => v ?? null),
     beamDiameterMm: positive("Beam diameter", "mm", 1000),
     divergenceMrad: positive("Divergence", "mrad", 1000),
+    lines: z
+      .array(
+        z.object({
+          wavelengthNm: positive("Further line wavelength (wavelengthNm)", "nm", 1_000_000).refine((v) => v >= 180, "Further line wavelength (wavelengthNm) must be at least 180 nm"),
+          powerMw: positive("Further line power (powerMw)", "mW", 1e9),
+        }),
+        { error: "Further lines (lines) must be a list of { wavelengthNm, powerMw }" },
+      )
+      .max(8, "Further lines (lines): at most 8")
+      .nullish()
+      .transform((v) => (v && v.length ? v : null)),
     model: safeText({ error: "Give the manufacturer and model" }).trim().min(1, "Give the manufacturer and model").max(200, "The model must be at most 200 characters"),
     serialNumber: optionalText("The serial number", 120),
     location: optionalText("The location", 200),
@@ -85,6 +96,8 @@ export type LaserView = {
   pulseEnergyMj: number | null;
   pulseDurationS: number | null;
   pulseRepetitionRateHz: number | null;
+  /** Further emission lines with their own power (residual pump, other harmonics); null when none. */
+  lines: { wavelengthNm: number; powerMw: number }[] | null;
   beamDiameterMm: number;
   divergenceMrad: number;
   model: string;
@@ -100,7 +113,7 @@ export type LaserView = {
 
 export const STATUS_WORDS: Record<LaserStatus, string> = { "in-service": "In service", "out-of-service": "Out of service", disposed: "Disposed of" };
 
-type LaserFacts = Pick<LaserView, "labelClass" | "wavelengthsNm" | "maxPowerMw" | "pulseDurationS" | "pulseRepetitionRateHz" | "beamDiameterMm" | "divergenceMrad">;
+type LaserFacts = Pick<LaserView, "labelClass" | "wavelengthsNm" | "maxPowerMw" | "pulseDurationS" | "pulseRepetitionRateHz" | "beamDiameterMm" | "divergenceMrad"> & { lines?: LaserView["lines"] };
 
 /** Classifies the laser at its maximum power at each wavelength and keeps the highest class. */
 export function computeClass(facts: LaserFacts): ComputedClass {
@@ -117,6 +130,12 @@ export function computeClass(facts: LaserFacts): ComputedClass {
         ...(facts.pulseDurationS !== null && facts.pulseRepetitionRateHz !== null ? { pulseRepetitionRateHz: facts.pulseRepetitionRateHz } : {}),
       });
       reasons.push(`${wavelengthNm} nm: Class ${c.hazardClass}. ${c.reasons.join(" ")}`);
+      if (worst === null || HAZARD_CLASSES.indexOf(c.hazardClass) > HAZARD_CLASSES.indexOf(worst)) worst = c.hazardClass;
+    }
+    // Further lines, each at its own power, as continuous beams (a residual pump or harmonic); the class is the highest over all.
+    for (const line of facts.lines ?? []) {
+      const c = classifyBeam({ wavelengthNm: line.wavelengthNm, powerMw: line.powerMw, beamDiameterMm: facts.beamDiameterMm, divergenceMrad: facts.divergenceMrad });
+      reasons.push(`Further line ${line.wavelengthNm} nm at ${line.powerMw} mW: Class ${c.hazardClass}. ${c.reasons.join(" ")}`);
       if (worst === null || HAZARD_CLASSES.indexOf(c.hazardClass) > HAZARD_CLASSES.indexOf(worst)) worst = c.hazardClass;
     }
   } catch (error) {
@@ -137,6 +156,7 @@ const columns = {
   pulseEnergyMj: laserRegister.pulseEnergyMj,
   pulseDurationS: laserRegister.pulseDurationS,
   pulseRepetitionRateHz: laserRegister.pulseRepetitionRateHz,
+  lines: laserRegister.lines,
   beamDiameterMm: laserRegister.beamDiameterMm,
   divergenceMrad: laserRegister.divergenceMrad,
   model: laserRegister.model,
@@ -211,6 +231,7 @@ function values(input: LaserInput) {
     pulseEnergyMj: input.pulseEnergyMj,
     pulseDurationS: input.pulseDurationS,
     pulseRepetitionRateHz: input.pulseRepetitionRateHz,
+    lines: input.lines,
     beamDiameterMm: input.beamDiameterMm,
     divergenceMrad: input.divergenceMrad,
     model: input.model,

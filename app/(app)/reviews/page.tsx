@@ -3,7 +3,7 @@ import { getDb } from "@/db";
 import { Refused } from "@/components/shell/refused";
 import { StateBadge } from "@/components/ui/state-badge";
 import { utc, day } from "@/components/review/format";
-import { reviewQueue } from "@/lib/server/reviews";
+import { reviewQueue } from "@/lib/server/review-screen";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 
 export const metadata = { title: "Reviews" };

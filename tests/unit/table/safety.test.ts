@@ -76,11 +76,13 @@ describe("every laser, every line", () => {
     expect(s.lasers.map((l) => l.laserId)).toEqual(["G", "pump"]);
     const pump = s.lasers[1];
     expect(pump.lines.map((l) => l.wavelengthNm)).toEqual([1064, 532]);
-    const alone532 = assessBeam({ wavelengthNm: 532, powerMw: 30, beamDiameterMm: 1e-3, divergenceMrad: 1 });
+    // a further line shares the main beam's size; its divergence is that of its own wavelength: 2M²λ/(π w0)
+    const alone532 = assessBeam({ wavelengthNm: 532, powerMw: 30, beamDiameterMm: 2, divergenceMrad: ((2 * 532e-6) / (Math.PI * 1)) * 1000 });
     const alone1064 = assessBeam({ wavelengthNm: 1064, powerMw: 0.2, beamDiameterMm: 2, divergenceMrad: ((2 * 1064e-6) / (Math.PI * 1)) * 1000 });
     expect(pump.lines[0].hazardClass).toBe(alone1064.hazardClass);
     expect(pump.lines[0].mpeWPerCm2).toBeCloseTo(alone1064.mpeWPerCm2 as number, 12);
     expect(pump.lines[1].hazardClass).toBe(alone532.hazardClass);
+    expect(pump.lines[1].mpeWPerCm2).toBeCloseTo(alone532.mpeWPerCm2 as number, 12);
     const worst = classRank(alone532.hazardClass) > classRank(alone1064.hazardClass) ? alone532.hazardClass : alone1064.hazardClass;
     expect(pump.hazardClass).toBe(worst);
     expect(s.openBeams).toEqual([]);

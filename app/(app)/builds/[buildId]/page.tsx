@@ -6,9 +6,11 @@ import { buildQuery } from "@/components/builds/build-queries";
 import { BuildWorkspace } from "@/components/builds/build-workspace";
 import { SheetDownload } from "@/components/sheets/sheet-download";
 import { Refused } from "@/components/shell/refused";
+import { rolesAllow } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
-import { predictionImages } from "@/lib/server/build-sheets";
+import { predictionImages } from "@/lib/build/sheet";
 import { getBuild, loadSignedRevision } from "@/lib/server/builds";
+import { revisionEyewear } from "@/lib/server/eyewear";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 
 export const metadata = { title: "Build" };
@@ -24,6 +26,7 @@ export default async function BuildPage({ params }: { params: Promise<{ buildId:
     throw error;
   });
   const revision = await loadSignedRevision(db, actor, build.revision.id);
+  const eyewear = rolesAllow(actor.roles, { eyewear: ["read"] }) ? await revisionEyewear(db, actor, build.revision.id) : null;
   const queryClient = new QueryClient();
   queryClient.setQueryData(buildQuery(buildId).queryKey, build);
   const valid = build.revision.status === "valid";
@@ -48,7 +51,7 @@ export default async function BuildPage({ params }: { params: Promise<{ buildId:
       </header>
       {valid ? <SheetDownload revisionId={build.revision.id} /> : null}
       <HydrationBoundary state={dehydrate(queryClient)}>
-        <BuildWorkspace buildId={buildId} images={predictionImages(revision.document)} />
+        <BuildWorkspace buildId={buildId} images={predictionImages(revision.document)} eyewear={eyewear} />
       </HydrationBoundary>
     </div>
   );

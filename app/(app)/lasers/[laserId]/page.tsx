@@ -37,6 +37,7 @@ export default async function LaserPage({ params }: { params: Promise<{ laserId:
     ["Wavelengths", `${laser.wavelengthsNm.map((w) => fmt(w, 4)).join(", ")} nm`],
     ["Maximum power", `${fmt(laser.maxPowerMw)} mW`],
     ["Pulses", pulseText(laser) ?? "Continuous-wave"],
+    ["Further lines", laser.lines?.length ? laser.lines.map((l) => `${fmt(l.wavelengthNm, 4)} nm at ${fmt(l.powerMw)} mW`).join("; ") : "None recorded"],
     ["Beam diameter (1/e²)", `${fmt(laser.beamDiameterMm)} mm`],
     ["Divergence (1/e², full angle)", `${fmt(laser.divergenceMrad)} mrad`],
     ["Last changed", `${utc(laser.updatedAt)} · version ${laser.version}`],

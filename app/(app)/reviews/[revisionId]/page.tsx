@@ -18,7 +18,8 @@ import { AppError } from "@/lib/errors";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 import { revisionEyewear } from "@/lib/server/eyewear";
 import { assessRevision } from "@/lib/review/hazard";
-import { getReview, SIGN_OFF_MEANING } from "@/lib/server/reviews";
+import { SIGN_OFF_MEANING } from "@/lib/review/transitions";
+import { getReview } from "@/lib/server/review-screen";
 
 export const metadata = { title: "Review" };
 

@@ -2,7 +2,8 @@ import { getDb } from "@/db";
 import { AppError } from "@/lib/errors";
 import { apiRoute, parseWith, readBodyLimited } from "@/lib/server/api";
 import { assertUploadSize, UPLOAD_MAX_BYTES } from "@/lib/build/rules";
-import { addUpload, uploadKindInput } from "@/lib/server/builds";
+import { uploadKindInput } from "@/lib/api/contracts/builds";
+import { addUpload } from "@/lib/server/build-uploads";
 import { unsafeTextProblem } from "@/lib/validation/text";
 
 // The form's own fields and boundaries around the file.

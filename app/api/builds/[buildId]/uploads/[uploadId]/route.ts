@@ -1,6 +1,6 @@
 import { getDb } from "@/db";
 import { apiRoute, contentDisposition } from "@/lib/server/api";
-import { readUpload } from "@/lib/server/builds";
+import { readUpload } from "@/lib/server/build-uploads";
 
 // One stored upload, served with the type its content was checked to be.
 export const GET = apiRoute<{ buildId: string; uploadId: string }>({ build: ["read"] }, async ({ actor, params }) => {
