@@ -90,10 +90,10 @@ describe("sign-in limits", () => {
     expect(await lastSignInAddress(person.id)).toBe("127.0.0.1");
     // Guessing many accounts while rotating the header still counts against the one real address.
     const statuses: number[] = [];
-    for (let i = 0; i < 34; i++) statuses.push(await signInAt(UNTRUSTING_URL, `rotating-${i}-${Date.now()}@northmere.example.edu`, "wrong-password-x", `198.51.100.${i + 1}`));
+    for (let i = 0; i < 34; i++) statuses.push(await signInAt(UNTRUSTING_URL, `rotating-${i}-${Date.now()}@northmere.example.edu`, "wrong-password-x", `198.18.77.${i + 1}`));
     expect(statuses.slice(0, 25).every((s) => s === 401)).toBe(true);
     expect(statuses.slice(-3)).toEqual([429, 429, 429]);
-    const { rows } = await pool.query<{ n: number }>("select count(*)::int as n from auth_attempt where subject like 'address:198.51.100.%' and attempted_at > now() - interval '1 minute'");
+    const { rows } = await pool.query<{ n: number }>("select count(*)::int as n from auth_attempt where subject like 'address:198.18.77.%' and attempted_at > now() - interval '1 minute'");
     expect(rows[0].n).toBe(0);
   });
 });
