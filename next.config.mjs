@@ -13,7 +13,7 @@ const NOTHING_RUNS = { key: "Content-Security-Policy", value: "default-src 'none
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   // Server-only packages with native or Node-specific code stay outside the bundle.
-  serverExternalPackages: ["pg", "puppeteer-core", "nodemailer"],
+  serverExternalPackages: ["pg", "puppeteer-core", "nodemailer", "pino"],
   poweredByHeader: false,
   typedRoutes: false,
   // The build checks the app's own code; scripts and tests are checked by `tsc` in npm test.
@@ -22,10 +22,12 @@ const nextConfig = {
     return [
       { source: "/:path*", headers: SECURITY_HEADERS },
       { source: "/api/:path*", headers: [NOTHING_RUNS] },
-      { source: "/_next/static/:path*", headers: [NOTHING_RUNS] },
+      { source: "/_next/:path*", headers: [NOTHING_RUNS] },
       { source: "/favicon.ico", headers: [NOTHING_RUNS] },
     ];
   },
+  // forbidden() from next/navigation: a page a role may not open answers 403 (app/forbidden.tsx), not 200.
+  experimental: { authInterrupts: true },
 };
 
 export default nextConfig;

@@ -7,6 +7,9 @@ import { Providers } from "@/components/providers";
 export const metadata: Metadata = {
   title: { default: "Benchwarden", template: "%s · Benchwarden" },
   description: "Plan a laser bench, predict the beam and its diffraction, assess the hazard, and get it signed off.",
+  // public/icon.svg (our own mark) and public/manifest.webmanifest
+  icons: { icon: [{ url: "/icon.svg", type: "image/svg+xml" }], apple: [{ url: "/icon.svg" }] },
+  manifest: "/manifest.webmanifest",
 };
 
 export const viewport: Viewport = { themeColor: "#0e1316", width: "device-width", initialScale: 1 };

@@ -16,7 +16,6 @@ import { ringImage, screenProfile, type ApertureAnalysis, type BenchAnalysis } f
 import { greyPng, pngDataUrl } from "@/lib/pdf/png";
 import { renderPdf, PdfRenderError, PdfTimeoutError, type Paper } from "@/lib/pdf";
 import type { BenchSafetyAssessment } from "@/lib/safety";
-import { statedOd } from "@/lib/safety/cautions";
 import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
@@ -347,6 +346,8 @@ export async function sheetContent(db: Database, actor: Actor, revisionId: strin
   const [drawing, entry] = await Promise.all([drawingContent(doc, r.contentHash), laser?.registerId ? registerEntry(db, laser.registerId) : null]);
   return {
     ...drawing,
+    // the officer's conditions are lines to tick too; they belong to the sign-off, not to the drawing
+    checklist: checklistFor(doc, drawing.safety, r.decision?.conditions),
     revision: { id: r.id, number: r.number, contentHash: r.contentHash, benchTitle: r.benchTitle, labName: r.labName, authorName: r.authorName, status, statusSentence: signOffSentence(r, status) },
     decision: r.decision,
     document: doc,

@@ -178,7 +178,7 @@ function observationView(row: typeof buildObservation.$inferSelect, name: string
 
 export async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revision: SignedRevision): Promise<BuildView> {
   const assessed = assessRevision(revision.document);
-  const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null);
+  const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions);
   const checks = await db.select().from(buildCheck).where(eq(buildCheck.buildId, build.id));
   const byKey = new Map(checks.map((c) => [c.itemKey, c]));
   const checklist: CheckView[] = items.map((i) => {
@@ -208,7 +208,7 @@ export async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revis
   const [technician] = await db.select({ name: user.name }).from(user).where(eq(user.id, build.technicianId));
   const status = signOffStatus(revision);
   const mayRecord = build.state === "in-progress" && status === "valid" && canRecord(actor);
-  const why = canRecord(actor) ? whyNotSignOff(build, revision, checklist, actor.userId) : "Only a technician can sign off a build.";
+  const why = canRecord(actor) ? whyNotSignOff(build, revision, checklist, actor.userId) : "Only a technician can complete a build.";
   return {
     id: build.id,
     state: build.state,
@@ -304,7 +304,7 @@ async function startBuildOnce(db: Database, actor: Actor, input: z.infer<typeof 
       .values({ revisionId: revision.id, benchId: revision.benchId, contentHash: revision.contentHash, technicianId: actor.userId })
       .returning();
     const assessed = assessRevision(revision.document);
-    const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null);
+    const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions);
     await tx.insert(buildCheck).values(items.map((i) => ({ buildId: build.id, itemKey: i.itemKey })));
     await recordAudit(tx, actor, { ...aboutRevision(revision), action: "build-started", detail: { buildId: build.id, number: revision.number, items: items.length } });
     return { build: await buildView(tx, actor, build, revision), created: true };
@@ -323,7 +323,7 @@ export async function updateCheck(db: Database, actor: Actor, buildId: string, i
     const { build, revision } = await loadBuild(tx, actor, buildId, true);
     assertRecordable(build, revision);
     const assessed = assessRevision(revision.document);
-    const item = checklistFor(revision.document, assessed.ok ? assessed.safety : null).find((i) => i.itemKey === input.itemKey);
+    const item = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions).find((i) => i.itemKey === input.itemKey);
     if (!item) throw new AppError("bad-request", `There is no checklist item "${input.itemKey}" on this build.`, [{ path: "itemKey", message: "No such item" }]);
     if (input.measuredPositionMm !== undefined && item.expectedPositionMm === null) {
       throw new AppError("bad-request", `"${item.label}" has no position to measure.`, [{ path: "measuredPositionMm", message: "This item has no position" }]);

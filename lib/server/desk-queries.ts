@@ -6,6 +6,7 @@ import { safeText } from "@/lib/validation/text";
 import type { Database } from "@/db";
 import { bench, benchRevision, lab, reviewDecision } from "@/db/schema";
 import { HAZARD_CLASSES, type HazardClass } from "@/lib/safety/types";
+import { REVIEW_STATE_WORDS } from "@/lib/format/words";
 import { inScope, scopeHolds, type LabScope } from "./scope";
 
 export type { LabScope };
@@ -201,6 +202,7 @@ export const APPROVAL_HEADER = [
   "revision",
   "content_hash",
   "state",
+  "state_words",
   "hazard_class_at_signing",
   "signed_by",
   "signer_role",
@@ -260,7 +262,7 @@ export function approvalsCsvStream(db: Database, scope: LabScope, q: DeskQuery, 
     for await (const batch of approvalBatches(db, scope, q, now, batchSize)) {
       yield batch
         .map((r) =>
-          csvLine([r.decidedAt, r.title, r.labName, r.number, r.contentHash, r.state, r.hazardClass, r.signerName, r.signerRole, r.meaning, r.conditions, r.validUntil, r.stepUpVerified ? "yes" : "no", r.benchId, r.revisionId, r.decisionId]),
+          csvLine([r.decidedAt, r.title, r.labName, r.number, r.contentHash, r.state, REVIEW_STATE_WORDS[r.state] ?? r.state, r.hazardClass, r.signerName, r.signerRole, r.meaning, r.conditions, r.validUntil, r.stepUpVerified ? "yes" : "no", r.benchId, r.revisionId, r.decisionId]),
         )
         .join("");
     }

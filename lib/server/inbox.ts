@@ -121,7 +121,7 @@ async function researcherSection(db: Database, actor: Actor, now: Date): Promise
   // One line per bench: a bench sent back with comments on it waits once, not twice.
   const byBench = new Map<string, InboxItem & { sortAt: number }>();
   for (const b of sentBack) {
-    const what = b.state === "rejected" ? "Turned down" : "Changes asked for";
+    const what = b.state === "rejected" ? "Turned down" : "Changes asked";
     byBench.set(b.benchId, { id: `bench-${b.benchId}`, title: b.title, detail: `${what} on revision ${b.number}`, href: `/reviews/${b.revisionId}`, at: b.at.toISOString(), sortAt: b.at.getTime() });
   }
   for (const c of comments) {

@@ -355,7 +355,7 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
 
       const ctx = mailContext(r);
       const recipients = new Map<string, Recipient>([[r.authorEmail, { email: r.authorEmail, name: r.authorName }]]);
-      for (const t of await usersWithRole(tx, "technician", r.labId)) recipients.set(t.email, t);
+      for (const t of await usersWithRole(tx, "technician", r.labId)) recipients.set(t.email, { ...t, builds: true });
       for (const to of recipients.values()) {
         await enqueueMail(
           tx,

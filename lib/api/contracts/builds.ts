@@ -31,7 +31,8 @@ export type CheckView = ChecklistItem & { done: boolean; measuredPositionMm: num
 export type ObservationView = {
   id: string;
   apertureId: string | null;
-  centreSeen: "bright" | "dark" | "unclear" | null;
+  /** "unclear" is the older code of "between". */
+  centreSeen: "bright" | "dark" | "between" | "unclear" | null;
   centrePredicted: string | null;
   spotDiameterMm: number | null;
   predictedSpotDiameterMm: number | null;
@@ -96,7 +97,7 @@ export const checkInput = z
 export const observationInput = z
   .object({
     apertureId: safeText().min(1).max(64).nullable().optional(),
-    centreSeen: z.enum(["bright", "dark", "unclear"], { error: "The centre is bright, dark or unclear" }).nullable().optional(),
+    centreSeen: z.enum(["bright", "dark", "between", "unclear"], { error: "The centre is bright, dark or between" }).nullable().optional(),
     spotDiameterMm: z
       .number({ error: "The spot or ring diameter must be a number of millimetres" })
       .refine((v) => Number.isFinite(v) && v > 0 && v <= 10_000, "The spot or ring diameter must be between 0 and 10000 mm")
