@@ -7,7 +7,7 @@
 // the drawing redraws per pointer move: the elements that moved and the dimension lines); the editor hears of it
 // once, on drag end (select the dragged element if needed, then one set-positions: one undo step, one analysis).
 import Konva from "konva";
-import { memo, useEffect, useMemo, useRef, useState } from "react";
+import { memo, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import { Group, Layer, Line, Rect, Shape, Stage, Text, Circle, Wedge } from "react-konva";
 import type { BenchDocument, BenchElement } from "@/lib/bench/schema";
 import type { KeyedAnalysis } from "@/lib/api/bench-queries";
@@ -186,14 +186,16 @@ export function BenchCanvas(props: BenchCanvasProps) {
 
   // Finder ticks: labels that would overlap the previous one are lifted a row.
   const ticks = useMemo(() => {
+    const placed: { tick: (typeof finderTicks)[number]; x: number; labelY: number }[] = [];
     let lastX = -Infinity;
     let lifted = false;
-    return finderTicks.map((t) => {
+    for (const t of finderTicks) {
       const x = t.positionMm * pxPerMm;
       lifted = x - lastX < 46 ? !lifted : false;
       lastX = x;
-      return { tick: t, x, labelY: TICK_LABEL_Y - (lifted ? 16 : 0) };
-    });
+      placed.push({ tick: t, x, labelY: TICK_LABEL_Y - (lifted ? 16 : 0) });
+    }
+    return placed;
   }, [finderTicks, pxPerMm]);
 
   const onWheel = (e: Konva.KonvaEventObject<WheelEvent>) => {
@@ -243,7 +245,9 @@ export function BenchCanvas(props: BenchCanvasProps) {
 
   // Stable handlers for the memoised element nodes: they read the latest props through a ref.
   const latest = useRef({ startDrag, moveDrag, endDrag, props });
-  latest.current = { startDrag, moveDrag, endDrag, props };
+  useLayoutEffect(() => {
+    latest.current = { startDrag, moveDrag, endDrag, props };
+  });
   const handlers = useMemo<ElementHandlers>(
     () => ({
       dragStart: (e, evt) => latest.current.startDrag(e, evt),
@@ -288,7 +292,9 @@ export function BenchCanvas(props: BenchCanvasProps) {
   };
   // The stage's handlers as stable functions (reading the latest through a ref), so a re-render does not rebind them.
   const stageLatest = useRef({ onWheel, onTouchMove, onTouchEnd, onStageDragMove, onStageClick });
-  stageLatest.current = { onWheel, onTouchMove, onTouchEnd, onStageDragMove, onStageClick };
+  useLayoutEffect(() => {
+    stageLatest.current = { onWheel, onTouchMove, onTouchEnd, onStageDragMove, onStageClick };
+  });
   const stageHandlers = useMemo(
     () => ({
       onWheel: (e: Konva.KonvaEventObject<WheelEvent>) => stageLatest.current.onWheel(e),

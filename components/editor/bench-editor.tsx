@@ -85,16 +85,22 @@ function EditorBody({ benchId, labName, authorName, initial, shelf = null }: Pro
   const frame = useRef<HTMLDivElement>(null);
   const queryClient = useQueryClient();
 
+  // The first measured width fits the whole bench into view; later resizes keep the user's zoom and pan.
+  const elementsNow = useRef(doc.elements);
+  useEffect(() => {
+    elementsNow.current = doc.elements;
+  }, [doc.elements]);
   useEffect(() => {
     const el = frame.current;
     if (!el) return;
-    const observer = new ResizeObserver(([entry]) => setWidth(Math.floor(entry.contentRect.width)));
+    const observer = new ResizeObserver(([entry]) => {
+      const measured = Math.floor(entry.contentRect.width);
+      setWidth(measured);
+      if (measured > 0) setView((v) => v ?? fitAll(elementsNow.current, measured));
+    });
     observer.observe(el);
     return () => observer.disconnect();
   }, []);
-  useEffect(() => {
-    if (width > 0 && view === null) setView(fitAll(doc.elements, width));
-  }, [width, view, doc.elements]);
 
   const currentView = view ?? { pxPerMm: 1, panPx: 40 };
   const fit = useCallback(() => setView(fitAll(doc.elements, width || 800)), [doc.elements, width]);

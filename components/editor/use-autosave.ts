@@ -3,7 +3,7 @@
 // based on (its provenance, set at load and after each save); a save on an older base comes back as a conflict
 // with the server's draft, and nothing is saved until the user chooses. Leaving the page (reload, close, another
 // page) sends the pending change at once with keepalive, and a copy stays in this browser until the server has it.
-import { useCallback, useEffect, useMemo, useRef, useState } from "react";
+import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import { useQueryClient } from "@tanstack/react-query";
 import { putDraft, useSaveDraft, type DraftView, type SaveDraftOutcome } from "@/lib/api/bench-queries";
 import { ApiError, queryKeys } from "@/lib/api/client";
@@ -50,7 +50,9 @@ export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocum
 
   // What the leave handlers need, current at the moment the page is left.
   const latest = useRef({ canEdit, dirty, key, base, conflict, document: validity.success ? validity.data : null });
-  latest.current = { canEdit, dirty, key, base, conflict, document: validity.success ? validity.data : null };
+  useLayoutEffect(() => {
+    latest.current = { canEdit, dirty, key, base, conflict, document: validity.success ? validity.data : null };
+  });
   const sentOnLeave = useRef<string | null>(null);
 
   /** A save's answer: saved → the new base; a 409 whose server document is the one here (a save on leaving got there first) is no conflict. */
@@ -135,7 +137,9 @@ export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocum
 
   // Leaving the editor inside the app (a link to another page) unmounts it: send what is pending then too.
   const flushRef = useRef(flushOnLeave);
-  flushRef.current = flushOnLeave;
+  useLayoutEffect(() => {
+    flushRef.current = flushOnLeave;
+  });
   useEffect(() => () => void flushRef.current(), []);
 
   // Debounced autosave: a quiet period after the last change, never while a save or a conflict is open.

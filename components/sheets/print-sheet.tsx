@@ -246,6 +246,8 @@ export function PrintSheet({ sheet, paper, eyewear = null }: { sheet: SheetConte
             {a.profile ? (
               <div className="aperture-figs">
                 <figure style={{ margin: 0 }}>
+                  {/* A data-URL PNG on a page chromium prints: next/image would neither optimise it nor load it before printing. */}
+                  {/* eslint-disable-next-line @next/next/no-img-element */}
                   {a.ringPng ? <img className="ring" src={a.ringPng} alt={`Expected ring pattern behind ${a.id}`} /> : null}
                   <figcaption style={{ fontSize: "10pt", textAlign: "center" }}>
                     Expected pattern, {fmt(2 * (a.ringMaxRadiusMm ?? 0))} mm across (bright = light)

@@ -11,8 +11,6 @@ import {
   laserSchema,
   lensSchema,
   MAX_POSITION_MM,
-  MAX_WAVELENGTH_NM,
-  MIN_WAVELENGTH_NM,
   screenSchema,
   benchDocumentSchema,
   type BenchDocument,

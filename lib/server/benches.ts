@@ -1,7 +1,7 @@
 // Benches and their revisions, as the signed-in actor may see them: researchers and technicians
 // see their labs' benches, safety officers and auditors see every lab. Authorization is checked here.
 import "server-only";
-import { and, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { and, desc, eq, sql } from "drizzle-orm";
 import { z } from "zod";
 import { safeText } from "@/lib/validation/text";
 import type { Database } from "@/db";
@@ -10,7 +10,7 @@ import { contentHash } from "@/lib/bench/canonical";
 import type { BenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
-import { authorize, authorizeLab, type Actor } from "./authorize";
+import { authorize, type Actor } from "./authorize";
 import { inScope, visibleOr404 } from "./scope";
 
 export type BenchSummary = {

@@ -2,55 +2,22 @@
 // checks and observations, signing off, each with its audit row (uploads: build-uploads.ts). The rules themselves (status,
 // checklist, predictions, comparison, file types) are the build rules in lib/build/rules.ts.
 import "server-only";
-import { createHash, randomUUID } from "node:crypto";
-import { and, asc, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, inArray } from "drizzle-orm";
 import { z } from "zod";
 import type { Database, DbOrTx } from "@/db";
-import {
-  bench,
-  benchRevision,
-  buildCheck,
-  buildObservation,
-  buildRecord,
-  lab,
-  reviewDecision,
-  upload,
-  user,
-  UPLOAD_KINDS,
-  type BuildState,
-  type ReviewState,
-  type UploadKind,
-} from "@/db/schema";
+import { bench, benchRevision, buildCheck, buildObservation, buildRecord, lab, reviewDecision, upload, user, type ReviewState } from "@/db/schema";
 import type { BenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { observationMismatchMail } from "@/lib/mail/build-mail";
 import { enqueueMail } from "@/lib/mail/outbox";
-import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
-import {
-  checklistFor,
-  compareObservation,
-  positionWithinTolerance,
-  POSITION_TOLERANCE_MM,
-  POWER_TOLERANCE_FRACTION,
-  predictionsFor,
-  safeFileName,
-  signOffSentence,
-  signOffStatus,
-  assertUploadSize,
-  sniffFileType,
-  SPOT_TOLERANCE_FRACTION,
-  whyNotSignOff,
-  type ChecklistItem,
-  type Predictions,
-  type SignOffStatus,
-} from "@/lib/build/rules";
+import { checklistFor, compareObservation, positionWithinTolerance, POSITION_TOLERANCE_MM, POWER_TOLERANCE_FRACTION, predictionsFor, signOffSentence, signOffStatus, SPOT_TOLERANCE_FRACTION, whyNotSignOff, type SignOffStatus } from "@/lib/build/rules";
 import { assessRevision } from "@/lib/review/hazard";
 import { OPTICS_ENGINE_VERSION } from "@/lib/optics/version";
 import { loadRevision } from "./reviews";
 import { inScope, notFoundAs } from "./scope";
-import type { BuildableRow, BuildView, CheckView, checkInput, ObservationView, observationInput, startBuildInput, UploadView } from "@/lib/api/contracts/builds";
+import type { BuildableRow, BuildView, CheckView, checkInput, ObservationView, observationInput, startBuildInput } from "@/lib/api/contracts/builds";
 
 // ── Signed-off revisions ──────────────────────────────────────────────────────────────────────
 export type SignedRevision = {

@@ -1,13 +1,13 @@
 // The auditor's desk queries: the approvals filter/sort/page SQL, keyset batches and CSV encoding.
 // Kept free of 'server-only' (like review-clock.ts) so scripts/bench-desk.ts times the same SQL; callers pass the lab scope.
-import { and, asc, desc, eq, gte, ilike, inArray, lt, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, gte, ilike, lt, or, sql, type SQL } from "drizzle-orm";
 import { z } from "zod";
 import { safeText } from "@/lib/validation/text";
 import type { Database } from "@/db";
 import { bench, benchRevision, lab, reviewDecision } from "@/db/schema";
 import { HAZARD_CLASSES, type HazardClass } from "@/lib/safety/types";
 import { REVIEW_STATE_WORDS } from "@/lib/format/words";
-import { inScope, scopeHolds, type LabScope } from "./scope";
+import { inScope, type LabScope } from "./scope";
 
 export type { LabScope };
 

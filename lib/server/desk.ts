@@ -4,7 +4,7 @@ import "server-only";
 import { ACTION_WORDS, OUTCOME_WORDS, REVIEW_STATE_WORDS } from "@/lib/format/words";
 import { asc, eq, sql } from "drizzle-orm";
 import type { Database } from "@/db";
-import { lab, reviewDecision, type ReviewState } from "@/db/schema";
+import { lab, reviewDecision } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
@@ -20,7 +20,7 @@ import {
   type ApprovalsPage,
   type DeskQuery,
 } from "./desk-queries";
-import { inScope, scopeHolds } from "./scope";
+import { scopeHolds } from "./scope";
 
 export * from "./desk-queries";
 

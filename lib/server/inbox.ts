@@ -1,12 +1,12 @@
 // "Waiting for you": per role, what waits for the signed-in person (submissions to review, benches sent
 // back, signed-off benches not yet built, sign-offs about to expire), with counts for the navigation.
 import "server-only";
-import { and, desc, eq, gt, gte, inArray, isNull, lt, ne, or, sql, type SQL } from "drizzle-orm";
+import { and, desc, eq, gt, gte, inArray, isNull, lt, ne, or, sql } from "drizzle-orm";
 import type { Database } from "@/db";
 import { bench, benchRevision, buildRecord, lab, reviewComment, reviewDecision, user, type ReviewState } from "@/db/schema";
 import { ROLE_LABELS, type Permission, type RoleName } from "@/lib/auth/permissions";
 import { authorize, type Actor } from "./authorize";
-import { inScope, scopeHolds } from "./scope";
+import { inScope } from "./scope";
 
 /** How far back comments on one's benches count as new, and how far ahead an expiry counts as near. */
 export const COMMENT_WINDOW_DAYS = 7;

@@ -2,7 +2,7 @@
 // everyone in the labs. Computed classes come from lib/safety (IEC 60825-1:2014 class limits); labels are never changed.
 import { laserAveragePowerMw } from "@/lib/bench/laser-power";
 import "server-only";
-import { and, asc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { and, asc, eq, sql } from "drizzle-orm";
 import { z } from "zod";
 import { safeText } from "@/lib/validation/text";
 import type { Database, DbOrTx } from "@/db";

@@ -1,7 +1,7 @@
 // Verifying a printed build sheet by its content hash: does it belong to a signed-off revision, does that
 // sign-off still hold (or has it expired or been replaced), and who signed it when. Lab scope applies.
 import "server-only";
-import { and, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { and, desc, eq } from "drizzle-orm";
 import { z } from "zod";
 import { safeText } from "@/lib/validation/text";
 import type { Database } from "@/db";
@@ -11,7 +11,7 @@ import { AppError } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import type { Actor } from "./authorize";
 import { signOffSentence, signOffStatus, type SignOffStatus } from "@/lib/build/rules";
-import { inScope, scopeHolds } from "./scope";
+import { inScope } from "./scope";
 
 export type Verdict = "valid" | "expired" | "superseded" | "not-signed-off" | "unknown";
 
