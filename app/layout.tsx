@@ -1,4 +1,5 @@
 import type { Metadata, Viewport } from "next";
+import { headers } from "next/headers";
 import "@fontsource-variable/inter";
 import "./globals.css";
 import { Providers } from "@/components/providers";
@@ -13,7 +14,10 @@ export const metadata: Metadata = {
 
 export const viewport: Viewport = { themeColor: "#0e1316", width: "device-width", initialScale: 1 };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // Every page renders per request: Next.js puts proxy.ts's fresh CSP nonce on its scripts, which a
+  // page prerendered at build time could not carry.
+  await headers();
   return (
     <html lang="en">
       <body className="antialiased">

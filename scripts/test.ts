@@ -49,7 +49,10 @@ async function main(): Promise<number> {
   for (const f of ["vitest.json", "playwright.json"]) rmSync(path.join(resultsDir, f), { force: true });
 
   const { cluster, env, superUrl } = await provision({ dataDir, ports, dbName: "benchwarden_test", seed: true, rateLimitMax: 60 });
-  const testEnv = { ...env, TEST_SUPERUSER_URL: superUrl, MAIL_WORKER_INTERVAL_MS: "300" };
+  // The tests stand where a reverse proxy would: they sign in from distinct documentation-range
+  // addresses through X-Forwarded-For, so the app trusts one proxy hop (tests/integration/security-*
+  // also start a second server with the setting off).
+  const testEnv = { ...env, TEST_SUPERUSER_URL: superUrl, MAIL_WORKER_INTERVAL_MS: "300", TRUSTED_PROXY_COUNT: "1" };
   try {
     startChild("mail catcher", TSX, ["scripts/mail-catcher.ts"], { env: testEnv });
     buildIfStale();

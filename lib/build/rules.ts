@@ -230,9 +230,12 @@ export function sniffFileType(bytes: Uint8Array): { contentType: string; extensi
 }
 
 
-/** A file name safe to keep and show: no control characters or path separators, at most 200 characters. */
+/** The file name to keep and show: the given one, or upload.<extension> when there is none. */
 export function safeFileName(name: string, extension: string): string {
-  return name.replace(/[\u0000-\u001f\u007f/\\]/g, "_").slice(0, 200) || `upload.${extension}`;
+  // Kept exactly as the person's computer named it: it is only ever shown and sent back (RFC 6266
+  // filename*), never used as a path (the storage key is the upload's id). The upload route refuses
+  // what cannot be stored (NUL, lone surrogates) and names over 255 characters.
+  return name || `upload.${extension}`;
 }
 
 // ── Positions and signing off a build ─────────────────────────────────────────────────────────

@@ -237,8 +237,24 @@ export function aboutRevision(revision: SignedRevision) {
 }
 
 /** Starts a build of a valid sign-off; a technician's unfinished build of the same revision is returned instead of a second one. */
-export async function startBuild(db: Database, actor: Actor, input: z.infer<typeof startBuildInput>): Promise<{ build: BuildView; created: boolean }> {
+export async function startBuild(db: Database, actor: Actor, input: z.infer<typeof startBuildInput>, retried = false): Promise<{ build: BuildView; created: boolean }> {
   authorize(actor, { build: ["record"] });
+  // A simultaneous start that won the race made the one open build (build_record_one_open_idx): answer with it.
+  return startBuildOnce(db, actor, input).catch((error: unknown) => {
+    if (!retried && isUniqueViolation(error, "build_record_one_open_idx")) return startBuild(db, actor, input, true);
+    throw error;
+  });
+}
+
+function isUniqueViolation(error: unknown, constraint: string): boolean {
+  for (let e: unknown = error; e && typeof e === "object"; e = (e as { cause?: unknown }).cause) {
+    const pgError = e as { code?: string; constraint?: string };
+    if (pgError.code === "23505" && pgError.constraint === constraint) return true;
+  }
+  return false;
+}
+
+async function startBuildOnce(db: Database, actor: Actor, input: z.infer<typeof startBuildInput>): Promise<{ build: BuildView; created: boolean }> {
   return db.transaction(async (tx) => {
     const revision = await loadSignedRevision(tx, actor, input.revisionId);
     await tx.select({ id: benchRevision.id }).from(benchRevision).where(eq(benchRevision.id, revision.id)).for("share");

@@ -6,6 +6,7 @@ import "server-only";
 import { assertRegisterAllowsSubmission } from "./register";
 import { and, eq, gt, lt, ne, sql } from "drizzle-orm";
 import { verifyPassword } from "better-auth/crypto";
+import { reserveAttempt } from "@/lib/auth/rate-limit";
 import { z } from "zod";
 import type { Database, DbOrTx } from "@/db";
 import { account, bench, benchRevision, lab, labMember, reviewComment, reviewDecision, user, type DecisionOutcome, type HazardSummary, type ReviewState } from "@/db/schema";
@@ -215,7 +216,14 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
   }
   if (!canMove(input.outcome, first.state)) throw await notWaiting(db, first);
   if (input.outcome === "approve") {
-    if (!(await checkPassword(db, actor.userId, input.password))) {
+    // The step-up is limited like sign-in: per account and per address, counted in the database.
+    const attempt = await reserveAttempt(db, "step-up", { account: actor.userId, address: actor.ipAddress });
+    if (!attempt.allowed) {
+      await recordAudit(db, actor, { action: "sign-off-password-limited", benchId: first.benchId, revisionId: first.id, contentHash: first.contentHash });
+      throw new AppError("rate-limited", attempt.refusal ?? "Too many wrong signing password attempts; wait, then try again.");
+    }
+    if (await checkPassword(db, actor.userId, input.password)) await attempt.release();
+    else {
       await recordAudit(db, actor, {
         action: "sign-off-password-refused",
         benchId: first.benchId,

