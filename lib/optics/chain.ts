@@ -173,6 +173,8 @@ export class FieldChain {
   private readonly start: ChainStart;
   private readonly refinement: number;
   private readonly exactBessel: boolean;
+  /** MAX_HOP_WORK, scaled by refinement² so a refined reference never falls back where the normal run integrates. */
+  private readonly maxHopWork: number;
   /** Coherent q (true λ) just before element i, and the beam position. */
   private readonly coherentQ: BeamParameter[];
   private readonly firstPlaneQ: BeamParameter | null;
@@ -183,6 +185,7 @@ export class FieldChain {
     this.effectiveWavelengthM = wavelengthM * m2;
     this.refinement = options.refinement ?? 1;
     this.exactBessel = options.exactBessel ?? false;
+    this.maxHopWork = MAX_HOP_WORK * this.refinement * this.refinement;
     const lambda = wavelengthM;
     const states: PlaneState[] = [];
     const results: ChainElementResult[] = [];
@@ -287,7 +290,7 @@ export class FieldChain {
     // quadrature hop if affordable
     const panelsHere = this.panelsFor(prev, matrix, reach, "power", null);
     const source = this.sourceNodesFor(prev, matrix, reach);
-    if (source !== null && Number.isFinite(panelsHere) && source.rho.length * panelsHere * GL_ORDER <= MAX_HOP_WORK) {
+    if (source !== null && Number.isFinite(panelsHere) && source.rho.length * panelsHere * GL_ORDER <= this.maxHopWork) {
       const plane: PlaneState = { ...base, method: "quadrature", powerOutRel: 0, cutM: radius, amplitudeScale: 1, from: { plane: prev, matrix, source }, reachM: reach };
       const nodes = quadratureNodes(reach, panelsHere);
       const field = this.evaluate(plane, nodes.rho);
@@ -343,8 +346,8 @@ export class FieldChain {
     const panels = this.panelsFor(plane, matrix, plane.reachM, "hop", rOutM);
     if (!Number.isFinite(panels) || !(Math.abs(matrix.b) > 0)) return null;
     const count = panels * GL_ORDER;
-    if (count > MAX_PLANE_NODES) return null;
-    if (plane.from !== null && plane.from.source.rho.length * count > MAX_HOP_WORK) return null;
+    if (count > MAX_PLANE_NODES * this.refinement) return null;
+    if (plane.from !== null && plane.from.source.rho.length * count > this.maxHopWork) return null;
     const nodes = quadratureNodes(plane.reachM, panels);
     const field = this.evaluate(plane, nodes.rho);
     const lambda = this.wavelengthM;
@@ -445,7 +448,7 @@ export class FieldChain {
     for (let i = 0; i < radiiM.length; i++) rMax = Math.max(rMax, radiiM[i]);
     const source = this.sourceNodesFor(plane, matrix, rMax);
     const values = new Float64Array(radiiM.length);
-    if (source === null || source.rho.length * radiiM.length > 4 * MAX_HOP_WORK) {
+    if (source === null || source.rho.length * radiiM.length > 4 * this.maxHopWork) {
       // geometric limit at the screen: the Gaussian inside the projected edge (only r = 0 is ever asked of it here)
       const w = beamRadiusM(this.coherentQ[this.stopIndex], this.wavelengthM);
       const shadow = plane.cutM * Math.abs(matrix.a + matrix.b * plane.gaussianCurvaturePerM);
@@ -486,7 +489,7 @@ export class FieldChain {
     const panels = this.panelsFor(plane, matrix, radiusM, "power", null);
     const source = Number.isFinite(panels) ? this.sourceNodesFor(plane, matrix, radiusM) : null;
     let rel: number;
-    if (source !== null && source.rho.length * panels * GL_ORDER <= MAX_HOP_WORK) {
+    if (source !== null && source.rho.length * panels * GL_ORDER <= this.maxHopWork) {
       const nodes = quadratureNodes(radiusM, panels);
       const out = hop(source, matrix, this.wavelengthM, nodes.rho, this.exactBessel);
       rel = 0;

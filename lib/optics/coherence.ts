@@ -1,7 +1,7 @@
 // Partial coherence for M² > 1: the beam as a Gaussian Schell-model source of the same size and divergence, and its Fresnel pattern behind one circular aperture.
-// Sources: Friberg & Sudol, Opt. Commun. 41, 383 (1982) and Mandel & Wolf, Optical Coherence and Quantum Optics (1995) §5.6 (Gaussian Schell-model: M² = √(1 + 4σ_S²/σ_g²)); the Hankel closure ∫₀^∞ e^{−px²} I₀(cx) x dx = e^{c²/4p}/(2p) (Gradshteyn & Ryzhik 6.631.4, from memory).
+// Sources: Friberg & Sudol, Opt. Commun. 41, 383 (1982) and Mandel & Wolf, Optical Coherence and Quantum Optics (1995) §5.6 (Gaussian Schell-model: M² = √(1 + 4σ_S²/σ_g²)); Weber's second integral ∫₀^∞ e^{−p²x²}J₀(αx)J₀(βx)x dx = e^{−(α²+β²)/4p²}I₀(αβ/2p²)/(2p²) (Watson §13.31, from memory; checked numerically in tests).
 //
-// A GSM beam of 1/e² radius W (σ_S = W/2) and M² has the coherence width σ_g = W/√(M⁴ − 1) — at every plane, as both
+// A GSM beam of 1/e² radius W (σ_S = W/2) and beam quality M² has the coherence width σ_g = W/√(M⁴ − 1) — at every plane, as both
 // widths scale alike under paraxial propagation and a thin lens changes neither. Its cross-spectral density is a
 // Gaussian mixture of tilted coherent beams (tilt wavenumbers with standard deviation 1/σ_g per axis), so behind a
 // centred aperture the screen intensity is the coherent pattern I_coh(v) blurred by a 2-D Gaussian of standard
@@ -9,7 +9,7 @@
 //   I(v_r) = ∫₀^∞ I_coh(v) (1/t²) e^{−(v − v_r)²/(2t²)} Ĩ₀(v·v_r/t²) v dv,   Ĩ₀(x) = e^{−x} I₀(x).
 // The reference (no aperture) is the same blur of the coherent Gaussian e^{−v²/(2σ_v²)}, σ_v = πR·w_s/(λ|B|), whose
 // centre is σ_v²/(σ_v² + t²). On axis, I(0) is evaluated as the equivalent double integral over the aperture
-//   I(0) = 4|β|² ∫₀¹∫₀¹ g(s₁) g*(s₂) e^{−t²(s₁−s₂)²/2} Ĩ₀(t²s₁s₂) t² s₁s₂ ds₁ds₂,  g(s) = e^{−βs²}, β = a − iπN,
+//   I(0) = 4|β|² ∫₀¹∫₀¹ g(s₁) g*(s₂) e^{−t²(s₁−s₂)²/2} Ĩ₀(t²s₁s₂) s₁s₂ ds₁ds₂,  g(s) = e^{−βs²}, β = a − iπN,
 // by Gauss–Legendre panels resolving both the zones and the coherence width 1/t (≤ 16 nodes per 2/t).
 import { fresnelRadialIntensity, panelsFor } from "./profile";
 
@@ -73,8 +73,8 @@ export function scaledBesselI0(x: number): number {
   return sum / Math.sqrt(2 * Math.PI * x);
 }
 
-/** t = R/σ_g for a GSM beam of R²/W² = a and quality m2. */
-export const gsmBlurWidth = (radiusRatioSquared: number, m2: number): number => Math.sqrt(radiusRatioSquared) * Math.sqrt(Math.max(0, m2 ** 4 - 1));
+/** t = R/σ_g for a GSM beam of R²/W² = a and beam quality m2 = M² (so M⁴ = m2²). */
+export const gsmBlurWidth = (radiusRatioSquared: number, m2: number): number => Math.sqrt(radiusRatioSquared) * Math.sqrt(Math.max(0, m2 * m2 - 1));
 
 function nodes(sMax: number, panels: number): { s: Float64Array; w: Float64Array } {
   const count = panels * GL_ORDER;
@@ -133,12 +133,12 @@ export function gsmCentreRatio(a: number, n: number, t: number, sigmaV: number, 
   let sum = 0;
   for (let i = 0; i < count; i++) {
     // diagonal once, off-diagonal twice (the kernel is symmetric, g g* + g* g = 2 Re)
-    sum += (gr[i] * gr[i] + gi[i] * gi[i]) * t2 * scaledBesselI0(t2 * s[i] * s[i]);
+    sum += (gr[i] * gr[i] + gi[i] * gi[i]) * scaledBesselI0(t2 * s[i] * s[i]);
     const cut = 9 / t;
     for (let j = i + 1; j < count; j++) {
       const d = s[i] - s[j];
       if (-d > cut) break; // nodes ascend: e^{−t²d²/2} < e^{−40} from here on
-      const k = t2 * Math.exp(-0.5 * t2 * d * d) * scaledBesselI0(t2 * s[i] * s[j]);
+      const k = Math.exp(-0.5 * t2 * d * d) * scaledBesselI0(t2 * s[i] * s[j]);
       sum += 2 * k * (gr[i] * gr[j] + gi[i] * gi[j]);
     }
   }

@@ -5,21 +5,27 @@ import { NextResponse } from "next/server";
 import type { z } from "zod";
 import type { Permission } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
+import { log, requestFields, requestIdOf } from "@/lib/log";
 import { requireActor, type Actor } from "./authorize";
 
 export const MAX_BODY_BYTES = 256 * 1024;
 
-export function errorResponse(error: unknown): NextResponse {
+/** Where an error happened, for the log: the request and, once known, the actor. */
+type ErrorContext = { request: Request; requestId: string; actor?: Actor | null };
+
+export function errorResponse(error: unknown, context?: ErrorContext): NextResponse {
   if (error instanceof AppError) {
     return NextResponse.json(
       { ...error.extra, error: { code: error.code, message: error.message, fields: error.fields } },
       { status: error.status },
     );
   }
-  console.error("[benchwarden] unexpected error", error);
+  const requestId = context?.requestId ?? null;
+  log.error({ err: error, ...(context ? requestFields(context.request, context.requestId, context.actor) : {}) }, "unexpected error in a route handler");
+  const reference = requestId ? ` If it keeps happening, give your administrator this reference: ${requestId}.` : "";
   return NextResponse.json(
-    { error: { code: "internal", message: "Something went wrong on the server; nothing was changed. Please try again.", fields: [] } },
-    { status: 500 },
+    { error: { code: "internal", message: `Something went wrong on the server; nothing was changed. Please try again.${reference}`, fields: [] } },
+    { status: 500, headers: requestId ? { "x-request-id": requestId } : undefined },
   );
 }
 
@@ -53,13 +59,15 @@ type Handler<P> = (input: { request: Request; actor: Actor; params: P }) => Prom
 /** Wraps a route handler: the permission is checked before the body runs. */
 export function apiRoute<P = Record<string, string>>(permission: Permission | null, handler: Handler<P>) {
   return async (request: Request, context: { params: Promise<P> }): Promise<Response> => {
+    const requestId = requestIdOf(request);
+    let actor: Actor | null = null;
     try {
-      const actor = await requireActor(permission ?? undefined, request.headers);
+      actor = await requireActor(permission ?? undefined, request.headers);
       const params = context?.params ? await context.params : ({} as P);
       const result = await handler({ request, actor, params });
       return result instanceof Response ? result : NextResponse.json(result);
     } catch (error) {
-      return errorResponse(error);
+      return errorResponse(error, { request, requestId, actor });
     }
   };
 }
@@ -71,7 +79,7 @@ export function publicRoute(handler: (input: { request: Request }) => Promise<Re
       const result = await handler({ request });
       return result instanceof Response ? result : NextResponse.json(result);
     } catch (error) {
-      return errorResponse(error);
+      return errorResponse(error, { request, requestId: requestIdOf(request) });
     }
   };
 }

@@ -105,10 +105,14 @@ describe("the build sheet PDF", () => {
     const first = res.json!.sheet as Sheet;
     expect(res.json!.reused).toBe(false);
     expect(["queued", "rendering"]).toContain(first.state);
-    const { sheet } = await waitReady(approved.revisionId, cookie.technician);
+    const { sheet, seen } = await waitReady(approved.revisionId, cookie.technician);
     expect(sheet.error).toBeNull();
     expect(sheet.state).toBe("ready");
-    expect(sheet.progressPercent).toBe(100);
+    // The order the name claims: the progress seen while polling never goes back, and ends at 100.
+    const progress = [first.progressPercent, ...seen];
+    for (let i = 1; i < progress.length; i++) expect(progress[i], `progress ${progress.join(" → ")}`).toBeGreaterThanOrEqual(progress[i - 1]);
+    expect(progress.at(-1)).toBe(100);
+    expect(progress[0]).toBeLessThan(100);
     expect(sheet.downloadUrl).toBe(`/api/sheets/${sheet.id}/download`);
     sheetId = sheet.id;
   }, 180_000);

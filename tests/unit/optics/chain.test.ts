@@ -5,7 +5,7 @@
 // matrix and no Gauss–Legendre node is shared with lib/optics/chain.ts.
 import { describe, expect, it } from "vitest";
 import type { BenchDocument, BenchElement } from "@/lib/bench/schema";
-import { analyzeBench, fieldPowerProbe, screenProfile } from "@/lib/optics";
+import { analyzeBench, fieldPowerProbe, findScreenPositions, screenProfile } from "@/lib/optics";
 import { assessBench } from "@/lib/safety";
 
 type Field = { r: Float64Array; re: Float64Array; im: Float64Array };
@@ -329,5 +329,27 @@ describe("honest limits", () => {
     const far = analyzeBench({ ...doc, elements: [...doc.elements.slice(0, 2), { id: "s", kind: "screen", positionMm: 5000 }] });
     expect(far.apertures[0].nonParaxialZoneShift).toBeLessThan(0.1);
     expect(far.warnings.map((w) => w.code)).not.toContain("zone-count-non-paraxial");
+  });
+});
+
+describe("the finder with several apertures", () => {
+  it("searches the last iris's screen distance with the first in place, each answer checked by re-analysis", () => {
+    const elements: BenchElement[] = [
+      laser(),
+      { id: "i1", kind: "aperture", positionMm: 100, diameterMm: 2 },
+      { id: "i2", kind: "aperture", positionMm: 400, diameterMm: 1.6 },
+      { id: "s", kind: "screen", positionMm: 900 },
+    ];
+    const found = findScreenPositions({ version: 1, elements }, "i2", { fromMm: 450, toMm: 4000, maxResults: 4 });
+    expect(found.bright.length + found.dark.length).toBeGreaterThan(0);
+    for (const [list, want] of [[found.bright, "bright"], [found.dark, "dark"]] as const) {
+      for (const c of list) {
+        const moved = analyzeBench({ version: 1, elements: elements.map((e) => (e.id === "s" ? { ...e, positionMm: c.positionMm } : e)) });
+        expect(moved.screens[0].centre).toBe(want);
+        expect(moved.screens[0].centreIntensityRatio).toBeCloseTo(c.centreIntensityRatio, 9);
+        expect(Math.abs(moved.apertures[1].fresnelNumber)).toBeCloseTo(c.zoneCount, 6);
+      }
+    }
+    expect(found.notes.join(" ")).toMatch(/upstream/);
   });
 });
