@@ -452,7 +452,7 @@ export const buildObservation = pgTable(
       .notNull()
       .references(() => buildRecord.id, { onDelete: "cascade" }),
     apertureId: text("aperture_id"),
-    centreSeen: text("centre_seen").$type<"bright" | "dark" | "unclear">(),
+    centreSeen: text("centre_seen").$type<"bright" | "dark" | "between" | "unclear">(),
     centrePredicted: text("centre_predicted"),
     spotDiameterMm: doublePrecision("spot_diameter_mm"),
     screenPowerMw: doublePrecision("screen_power_mw"),

@@ -26,7 +26,7 @@ export function useCheck(buildId: string) {
   return useBuildMutation(buildId, (input: CheckPatch) => apiFetch<{ build: BuildView }>(`/api/builds/${buildId}/checks`, { method: "PATCH", body: JSON.stringify(input) }));
 }
 
-export type ObservationInput = { apertureId: string | null; centreSeen: "bright" | "dark" | "unclear" | null; spotDiameterMm: number | null; screenPowerMw: number | null; note: string | null };
+export type ObservationInput = { apertureId: string | null; centreSeen: "bright" | "dark" | "between" | null; spotDiameterMm: number | null; screenPowerMw: number | null; note: string | null };
 export function useObservation(buildId: string) {
   return useBuildMutation(buildId, (input: ObservationInput) =>
     apiFetch<{ build: BuildView; observation: ObservationView }>(`/api/builds/${buildId}/observations`, { method: "POST", body: JSON.stringify(input) }),

@@ -5,6 +5,7 @@ import { useState } from "react";
 import { CoverageList, type CoverageData } from "@/components/eyewear/coverage-list";
 import { fieldError } from "@/lib/api/client";
 import type { BuildView } from "@/lib/api/contracts/builds";
+import { HazardNotes } from "@/components/ui/hazard-notes";
 import { useCheck } from "./build-queries";
 
 type Item = BuildView["checklist"][number];
@@ -83,6 +84,7 @@ export function Checklist({ build, eyewear = null }: { build: BuildView; eyewear
   const groups: { title: string; group: Item["group"] }[] = [
     { title: "Elements at their positions", group: "element" },
     { title: "Controls in place", group: "control" },
+    { title: "Conditions of the sign-off", group: "condition" },
     { title: "Eyewear", group: "eyewear" },
   ];
   const done = build.checklist.filter((c) => c.done).length;
@@ -91,7 +93,7 @@ export function Checklist({ build, eyewear = null }: { build: BuildView; eyewear
       <p className="text-muted">
         {done} of {build.checklist.length} ticked. Each element must sit within ±{build.tolerance.positionMm} mm of its drawn position, measured along the beam.
       </p>
-      {groups.map((g) => (
+      {groups.filter((g) => build.checklist.some((c) => c.group === g.group)).map((g) => (
         <section key={g.group} className="flex flex-col gap-2">
           <h3 className="font-semibold">{g.title}</h3>
           {g.group === "eyewear" && eyewear ? <CoverageList data={eyewear} /> : null}
@@ -104,6 +106,7 @@ export function Checklist({ build, eyewear = null }: { build: BuildView; eyewear
           </ul>
         </section>
       ))}
+      <HazardNotes />
     </div>
   );
 }

@@ -80,11 +80,13 @@ export type SaveDraftRequest = { document: BenchDocument; baseRevision: number; 
 export type SaveDraftOutcome = { kind: "saved"; draft: DraftView; createdRevision: boolean } | { kind: "conflict"; current: DraftView; message: string };
 
 /** PUT the draft. A 409 is an answer (the server's draft), not an error; other failures throw ApiError (status 0 = offline). */
-export async function putDraft(benchId: string, request: SaveDraftRequest): Promise<SaveDraftOutcome> {
+export async function putDraft(benchId: string, request: SaveDraftRequest, options: { keepalive?: boolean } = {}): Promise<SaveDraftOutcome> {
   try {
     const body = await apiFetch<{ draft: DraftView; createdRevision?: boolean }>(`/api/benches/${benchId}/draft`, {
       method: "PUT",
       body: json(request),
+      // keepalive: a save sent while the page is being left still reaches the server
+      keepalive: options.keepalive,
       offlineMessage: "The server cannot be reached. Your changes are kept here and saved when it answers.",
     });
     return { kind: "saved", draft: body.draft, createdRevision: Boolean(body.createdRevision) };

@@ -1,6 +1,7 @@
 // The bench document, version 2: an optical table seen from above, with mirrors, beam splitters, windows and several lasers.
 // Contract: PRODUCT.md "The table in two dimensions"; coordinates in mm from the table's left front corner, angles counter-clockwise from +x.
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import {
   apertureSchema,
   beamBlockSchema,
@@ -10,8 +11,6 @@ import {
   laserSchema,
   lensSchema,
   MAX_POSITION_MM,
-  MAX_WAVELENGTH_NM,
-  MIN_WAVELENGTH_NM,
   screenSchema,
   benchDocumentSchema,
   type BenchDocument,
@@ -69,8 +68,7 @@ export const filterV2Schema = filterSchema.omit({ positionMm: true }).extend({ .
 export const beamBlockV2Schema = beamBlockSchema.omit({ positionMm: true }).extend({ ...placement, ...clearAperture });
 export const screenV2Schema = screenSchema.omit({ positionMm: true }).extend({ ...placement, ...clearAperture });
 
-const elementId = z
-  .string({ error: "Element id must be text" })
+const elementId = safeText({ error: "Element id must be text" })
   .min(1, "Element id must not be empty")
   .max(64, "Element id must be at most 64 characters");
 
@@ -125,7 +123,7 @@ const fmt = (v: number) => String(Number(v.toPrecision(6)));
 export const benchDocumentV2Schema = z
   .object({
     version: z.literal(2, { error: "version must be 2" }),
-    title: z.string().max(200, "Title must be at most 200 characters").optional(),
+    title: safeText().max(200, "Title must be at most 200 characters").optional(),
     table: tableSchema,
     elements: z
       .array(tableElementSchema, { error: "elements must be a list" })

@@ -1,6 +1,7 @@
 // The bench document, version 1: the one contract the editor, the analysis API and the export share.
 // Units are in the field names; the beam travels toward increasing positionMm from the single laser.
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 
 export const MAX_ELEMENTS = 200;
 export const MIN_WAVELENGTH_NM = 180;
@@ -20,8 +21,7 @@ const position = finite("Position").refine(
   `Position must lie within ±${MAX_POSITION_MM} mm`,
 );
 
-const elementId = z
-  .string({ error: "Element id must be text" })
+const elementId = safeText({ error: "Element id must be text" })
   .min(1, "Element id must not be empty")
   .max(64, "Element id must be at most 64 characters");
 
@@ -41,7 +41,7 @@ export const laserSchema = z.object({
   /** 1/e² diameter of the waist, which sits at the laser's position. */
   beamDiameterMm: positive("Beam diameter", "mm", 1000),
   m2: finite("M²").refine((v) => v >= 1, "M² must be at least 1").refine((v) => v <= 1000, "M² must be at most 1000").optional(),
-  registerId: z.string().max(64, "Register id must be at most 64 characters").optional(),
+  registerId: safeText().max(64, "Register id must be at most 64 characters").optional(),
   /** Pulsed lasers only: pulse duration (FWHM) in seconds. With it, powerMw is the average power. */
   pulseDurationS: positive("Pulse duration", "s", 10).optional(),
   /** Pulsed lasers only: pulse repetition rate in hertz; absent for a single pulse. */
@@ -125,7 +125,7 @@ export const benchElementSchema = z.discriminatedUnion(
 export const benchDocumentSchema = z
   .object({
     version: z.literal(1, { error: "version must be 1" }),
-    title: z.string().max(200, "Title must be at most 200 characters").optional(),
+    title: safeText().max(200, "Title must be at most 200 characters").optional(),
     elements: z
       .array(benchElementSchema, { error: "elements must be a list" })
       .max(MAX_ELEMENTS, `A bench may hold at most ${MAX_ELEMENTS} elements`),

@@ -8,7 +8,8 @@ import type { BenchDocument } from "@/lib/bench/schema";
 import { screenProfile } from "@/lib/optics";
 import { assessRevision } from "@/lib/review/hazard";
 import type { BenchSafetyAssessment } from "@/lib/safety";
-import { statedOd } from "@/lib/safety/cautions";
+import { capitalise, eyewearWords, formatDate } from "@/lib/format";
+import { conditionLines } from "./conditions";
 import { AppError } from "@/lib/errors";
 
 /** How far a mount may sit from its drawn position and still count as placed (measured along the rail). */
@@ -43,7 +44,7 @@ export function signOffStatus(r: { state: ReviewState; decision: { validUntil: D
 }
 
 export function signOffSentence(r: { number: number; decision: { validUntil: Date | null } | null }, status: SignOffStatus): string {
-  const until = r.decision?.validUntil ? r.decision.validUntil.toISOString().slice(0, 10) : null;
+  const until = r.decision?.validUntil ? formatDate(r.decision.validUntil) : null;
   switch (status) {
     case "valid":
       return until ? `Signed off, valid until ${until}.` : "Signed off.";
@@ -59,7 +60,7 @@ export function signOffSentence(r: { number: number; decision: { validUntil: Dat
 // ── The checklist, generated from the bench ───────────────────────────────────────────────────
 export type ChecklistItem = {
   itemKey: string;
-  group: "element" | "control" | "eyewear";
+  group: "element" | "control" | "condition" | "eyewear";
   label: string;
   detail: string;
   elementId: string | null;
@@ -85,8 +86,11 @@ export function elementSettings(e: BenchDocument["elements"][number]): string {
   }
 }
 
-/** The items to tick: each element at its position (±POSITION_TOLERANCE_MM), each control the cautions call for, the eyewear. */
-export function checklistFor(doc: BenchDocument, safety: BenchSafetyAssessment | null): ChecklistItem[] {
+/**
+ * The items to tick: each element at its position (±POSITION_TOLERANCE_MM), each control the cautions call for, each
+ * condition of the officer's sign-off, the eyewear (worded by the one OD rule, lib/format eyewearWords).
+ */
+export function checklistFor(doc: BenchDocument, safety: BenchSafetyAssessment | null, conditions?: string | null): ChecklistItem[] {
   const elements = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm || a.id.localeCompare(b.id));
   const items: ChecklistItem[] = elements.map((e) => ({
     itemKey: `element:${e.id}`,
@@ -100,16 +104,17 @@ export function checklistFor(doc: BenchDocument, safety: BenchSafetyAssessment |
     if (c.id === "eyewear-od") continue; // the eyewear line below covers it, with the figure
     items.push({ itemKey: `control:${c.id}`, group: "control", label: c.title, detail: c.text, elementId: null, expectedPositionMm: null });
   }
+  conditionLines(conditions).forEach((line, i) => {
+    items.push({ itemKey: `condition:${i + 1}`, group: "condition", label: line, detail: "A condition of the laser safety officer's sign-off.", elementId: null, expectedPositionMm: null });
+  });
   const od = safety?.governing?.opticalDensityRequired ?? 0;
   const wavelength = safety?.wavelengthNm ?? doc.elements.find((e) => e.kind === "laser")?.wavelengthNm;
+  const eyewear = eyewearWords(od, wavelength);
   items.push({
     itemKey: "eyewear",
     group: "eyewear",
-    label: od > 0 ? `Eyewear of OD ${statedOd(od)} or more at ${wavelength} nm, for everyone present` : "Eyewear: none needed by the estimate",
-    detail:
-      od > 0
-        ? `Check the marking on each pair for ${wavelength} nm; eyewear made for another laser may not protect at all.`
-        : "The estimate needs no eyewear (OD 0); follow local rules, which may ask for it anyway.",
+    label: eyewear.wholeOd > 0 ? `${eyewear.wear}, for everyone present` : eyewear.wear,
+    detail: eyewear.wholeOd > 0 ? `${capitalise(eyewear.need)}. ${eyewear.check}` : `${capitalise(eyewear.need)}; follow local rules, which may ask for eyewear anyway.`,
     elementId: null,
     expectedPositionMm: null,
   });
@@ -177,7 +182,7 @@ export type ObservationPrediction = {
   predictedScreenPowerMw: number | null;
 };
 
-export type ObservationReading = { centreSeen?: "bright" | "dark" | "unclear" | null; spotDiameterMm?: number | null; screenPowerMw?: number | null };
+export type ObservationReading = { centreSeen?: "bright" | "dark" | "between" | "unclear" | null; spotDiameterMm?: number | null; screenPowerMw?: number | null };
 
 /** The prediction for one aperture's pattern, or for the lit screen when no aperture is named. */
 export function predictionFor(predictions: Predictions, apertureId: string | null | undefined): ObservationPrediction {
@@ -193,7 +198,7 @@ export function predictionFor(predictions: Predictions, apertureId: string | nul
 export function differences(prediction: ObservationPrediction, seen: ObservationReading): string[] {
   const { centrePredicted, predictedSpotDiameterMm: spot, predictedScreenPowerMw: power } = prediction;
   const reasons: string[] = [];
-  if (seen.centreSeen && centrePredicted && seen.centreSeen !== "unclear" && centrePredicted !== "between" && seen.centreSeen !== centrePredicted) {
+  if (seen.centreSeen && centrePredicted && seen.centreSeen !== "unclear" && seen.centreSeen !== "between" && centrePredicted !== "between" && seen.centreSeen !== centrePredicted) {
     reasons.push(`Centre: predicted ${centrePredicted}, seen ${seen.centreSeen}.`);
   }
   if (seen.spotDiameterMm != null && spot != null && spot > 0 && Math.abs(seen.spotDiameterMm - spot) > SPOT_TOLERANCE_FRACTION * spot) {
@@ -225,9 +230,12 @@ export function sniffFileType(bytes: Uint8Array): { contentType: string; extensi
 }
 
 
-/** A file name safe to keep and show: no control characters or path separators, at most 200 characters. */
+/** The file name to keep and show: the given one, or upload.<extension> when there is none. */
 export function safeFileName(name: string, extension: string): string {
-  return name.replace(/[\u0000-\u001f\u007f/\\]/g, "_").slice(0, 200) || `upload.${extension}`;
+  // Kept exactly as the person's computer named it: it is only ever shown and sent back (RFC 6266
+  // filename*), never used as a path (the storage key is the upload's id). The upload route refuses
+  // what cannot be stored (NUL, lone surrogates) and names over 255 characters.
+  return name || `upload.${extension}`;
 }
 
 // ── Positions and signing off a build ─────────────────────────────────────────────────────────
@@ -245,8 +253,8 @@ export function whyNotSignOff(
   userId: string,
   now = new Date(),
 ): string | null {
-  if (build.state === "completed") return "This build is already signed off.";
-  if (build.technicianId !== userId) return "Only the technician who started this build can sign it off.";
+  if (build.state === "completed") return "This build is already completed.";
+  if (build.technicianId !== userId) return "Only the technician who started this build can complete it.";
   const status = signOffStatus(revision, now);
   if (status !== "valid") return signOffSentence(revision, status);
   const open = checklist.filter((c) => !c.done);

@@ -7,7 +7,7 @@ import { ringImage, screenProfile, type ApertureAnalysis, type BenchAnalysis } f
 import { greyPng, pngDataUrl } from "@/lib/pdf/png";
 import { assessRevision } from "@/lib/review/hazard";
 import type { BenchSafetyAssessment } from "@/lib/safety";
-import { statedOd } from "@/lib/safety/cautions";
+import { eyewearWords } from "@/lib/format/eyewear";
 import { elementSettings, POSITION_TOLERANCE_MM, type ChecklistItem, type SignOffRecord, type SignOffStatus } from "./rules";
 
 // ── The sheet's content, for the print route ──────────────────────────────────────────────────
@@ -57,11 +57,23 @@ const RING_PX = 220;
 /** Points of the printed radial profile: a smooth line at 90 mm wide, without a path of a thousand segments. */
 export const PROFILE_POINTS = 200;
 const RING_GAMMA = 0.6;
+/** Radius of the disc painted with the on-axis value (pixels). */
+const RING_CENTRE_PX = 2.5;
 
 export function ringPngFor(doc: BenchDocument, apertureId: string, maxRadiusMm: number): string | null {
   try {
     const image = ringImage(doc, apertureId, { sizePx: RING_PX, maxRadiusMm });
     const levels = Float32Array.from(image.intensity, (v) => Math.pow(Math.max(0, v), RING_GAMMA));
+    // The central spot can be smaller than a pixel, and pixel centres never sit on the axis: paint a small disc with
+    // the on-axis value so a dark centre reads dark and a bright one bright, whatever the resolution.
+    const onAxis = screenProfile(doc, apertureId, { radiiMm: [0] }).relativeIntensity[0];
+    if (image.peakRelativeIntensity > 0 && Number.isFinite(onAxis)) {
+      const centreLevel = Math.pow(Math.min(1, Math.max(0, onAxis / image.peakRelativeIntensity)), RING_GAMMA);
+      const half = image.widthPx / 2;
+      for (let y = 0; y < image.heightPx; y++)
+        for (let x = 0; x < image.widthPx; x++)
+          if (Math.hypot(x + 0.5 - half, y + 0.5 - half) <= RING_CENTRE_PX) levels[y * image.widthPx + x] = centreLevel;
+    }
     return pngDataUrl(greyPng(image.widthPx, image.heightPx, levels));
   } catch {
     return null;
@@ -73,7 +85,8 @@ export function buildSteps(doc: BenchDocument, safety: BenchSafetyAssessment | n
   const elements = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm || a.id.localeCompare(b.id));
   const laser = elements.find((e): e is LaserElement => e.kind === "laser");
   const od = safety?.governing?.opticalDensityRequired ?? 0;
-  const eyewear = od > 0 ? `eyewear of OD ${statedOd(od)} or more at ${laser?.wavelengthNm} nm` : "the eyewear your local rules ask for (the estimate needs none)";
+  const words = eyewearWords(od, laser?.wavelengthNm);
+  const eyewear = words.wholeOd > 0 ? `eyewear of OD ${words.wholeOd} or more at ${laser?.wavelengthNm} nm (${words.need})` : "the eyewear your local rules ask for (no eyewear needed for the direct beam)";
   const cautionIds = new Set(safety?.cautions.map((c) => c.id) ?? []);
   const prep = safety?.cautions.filter((c) => ["sign-caution", "sign-warning", "no-reflective-items", "engineering-controls", "sop-and-approval", "local-rules-sop", "beam-height"].includes(c.id)).map((c) => c.title) ?? [];
   const stops = elements.filter((e) => e.kind === "beam-block" || e.kind === "screen");

@@ -196,7 +196,6 @@ export class FieldChain {
     let last = start.positionMm;
     let powerMw = start.powerMw;
     let referencePowerMw = start.powerMw;
-    let filterProduct = 1;
     let qc: BeamParameter | null = null; // coherent q from the first clip plane on
     let firstPlaneQ: BeamParameter | null = null;
     let sinceLast: AbcdMatrix = IDENTITY; // from the last clip plane to here
@@ -224,7 +223,6 @@ export class FieldChain {
             qc = qHere;
             firstPlaneQ = qHere;
             referencePowerMw = powerMw;
-            filterProduct = 1;
             const w = beamRadiusM(qHere, lambda);
             const out = -Math.expm1(-2 * a);
             plane = {
@@ -253,7 +251,6 @@ export class FieldChain {
       if (e.kind === "filter") {
         const t = Math.pow(10, -e.opticalDensity);
         outgoing *= t;
-        filterProduct *= t;
       }
       if (e.kind === "screen" || e.kind === "beam-block") outgoing = 0;
       powerMw = outgoing;

@@ -8,6 +8,7 @@ import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import type { BenchDocument, FilterElement, LaserElement } from "@/lib/bench/schema";
 import { assessBeamUnchecked, coverageProblem, standardSchema, type BeamAssessment, type BeamInput } from "./beam";
 import { selectCautions, type CautionSituation, type SelectedCaution } from "./cautions";
+import { compareLabel } from "./classify";
 import { type ExposureLimit, worstExceedance } from "./exposure-limit";
 import { SQRT2, diffuseReflectionNhz, lensNohd } from "./hazard-distance";
 import { apertureAveragedIrradianceWPerCm2, peakIrradianceWPerCm2 } from "./irradiance";
@@ -431,8 +432,20 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
     }
   }
 
-  if (laserAssessment.labelCheck?.warning) {
-    warnings.push({ code: "label-class-mismatch", elementId: laser.id, message: laserAssessment.labelCheck.warning });
+  // With further lines, screens that read laser.hazardClass must see the class over all lines, never the main line's
+  // alone (which can be lower); the label is compared with that class too.
+  const overall = linesAssessment.hazardClass;
+  const shownLaser: BeamAssessment =
+    further.length === 0
+      ? laserAssessment
+      : {
+          ...laserAssessment,
+          hazardClass: overall,
+          figures: { ...laserAssessment.figures, hazardClass: { value: overall, source: linesAssessment.classSource } },
+          labelCheck: options.labelClass ? compareLabel(options.labelClass, overall) : null,
+        };
+  if (shownLaser.labelCheck?.warning) {
+    warnings.push({ code: "label-class-mismatch", elementId: laser.id, message: shownLaser.labelCheck.warning });
   }
 
   const cautions = selectCautions({
@@ -465,7 +478,7 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
     wavelengthNm: λ,
     standard,
     lasers,
-    laser: laserAssessment,
+    laser: shownLaser,
     lines: linesAssessment,
     hazardClass: linesAssessment.hazardClass,
     mpe: laserAssessment.figures.mpe,

@@ -2,6 +2,7 @@
 // Sources: OD = −log10(τ) (ANSI Z136.1-2014 §4.6.2.5 / Appendix B, "optical density"); EN 207:2009 scale numbers LB n ⇒ τ ≤ 10^−n (from memory).
 
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 
 /** Highest optical density an item may declare; eyewear is not rated beyond this (common practice). */
 export const MAX_EYEWEAR_OD = 10;
@@ -77,8 +78,7 @@ export const eyewearBandsSchema = z
     }
   });
 
-export const eyewearNameSchema = z
-  .string({ error: "Name (name) must be text" })
+export const eyewearNameSchema = safeText({ error: "Name (name) must be text" })
   .trim()
   .min(1, "Name (name) must not be empty")
   .max(200, "Name (name) must be at most 200 characters");

@@ -59,6 +59,6 @@ export function unchecked(source: string): string {
   return source.includes(UNCHECKED) ? source : `${source} — ${UNCHECKED}`;
 }
 
-/** The sentence every safety output carries. */
+/** The one sentence every hazard figure carries, on every screen, e-mail and sheet (components use it as it is). */
 export const FINAL_SAY =
-  "Advisory only: the institution's laser safety officer and local regulations have the final word; Benchwarden never authorises work on its own.";
+  "These figures are advice: the institution's laser safety officer and local regulations decide.";

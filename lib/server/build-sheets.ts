@@ -12,26 +12,14 @@ import { rolesAllow } from "@/lib/auth/permissions";
 import type { BenchDocument, LaserElement } from "@/lib/bench/schema";
 import { env } from "@/lib/env";
 import { AppError, notFound } from "@/lib/errors";
-import { ringImage, screenProfile, type ApertureAnalysis, type BenchAnalysis } from "@/lib/optics";
-import { greyPng, pngDataUrl } from "@/lib/pdf/png";
+import { screenProfile } from "@/lib/optics";
 import { renderPdf, PdfRenderError, PdfTimeoutError, type Paper } from "@/lib/pdf";
-import type { BenchSafetyAssessment } from "@/lib/safety";
-import { statedOd } from "@/lib/safety/cautions";
 import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
 import { loadSignedRevision, type SignedRevision } from "./builds";
 import { buildSteps, PROFILE_POINTS, ringPngFor, type RegisterEntry, type SheetAperture, type SheetContent } from "@/lib/build/sheet";
-import {
-  checklistFor,
-  elementSettings,
-  POSITION_TOLERANCE_MM,
-  predictionsFor,
-  signOffSentence,
-  signOffStatus,
-  type ChecklistItem,
-  type SignOffStatus,
-} from "@/lib/build/rules";
+import { checklistFor, elementSettings, POSITION_TOLERANCE_MM, predictionsFor, signOffSentence, signOffStatus, type SignOffStatus } from "@/lib/build/rules";
 import { kindTitle } from "@/lib/bench/kinds";
 import { assessRevision } from "@/lib/review/hazard";
 import { notFoundAs } from "./scope";
@@ -347,6 +335,8 @@ export async function sheetContent(db: Database, actor: Actor, revisionId: strin
   const [drawing, entry] = await Promise.all([drawingContent(doc, r.contentHash), laser?.registerId ? registerEntry(db, laser.registerId) : null]);
   return {
     ...drawing,
+    // the officer's conditions are lines to tick too; they belong to the sign-off, not to the drawing
+    checklist: checklistFor(doc, drawing.safety, r.decision?.conditions),
     revision: { id: r.id, number: r.number, contentHash: r.contentHash, benchTitle: r.benchTitle, labName: r.labName, authorName: r.authorName, status, statusSentence: signOffSentence(r, status) },
     decision: r.decision,
     document: doc,

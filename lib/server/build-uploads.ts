@@ -2,53 +2,16 @@
 // stored through lib/storage, recorded with an audit row; the bytes are removed again if the row is not written.
 import "server-only";
 import { createHash, randomUUID } from "node:crypto";
-import { and, asc, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { z } from "zod";
-import type { Database, DbOrTx } from "@/db";
-import {
-  bench,
-  benchRevision,
-  buildCheck,
-  buildObservation,
-  buildRecord,
-  lab,
-  reviewDecision,
-  upload,
-  user,
-  UPLOAD_KINDS,
-  type BuildState,
-  type ReviewState,
-  type UploadKind,
-} from "@/db/schema";
-import type { BenchDocument } from "@/lib/bench/schema";
+import type { Database } from "@/db";
+import { upload, type UploadKind } from "@/db/schema";
 import { AppError, notFound } from "@/lib/errors";
-import { observationMismatchMail } from "@/lib/mail/build-mail";
-import { enqueueMail } from "@/lib/mail/outbox";
 import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
-import {
-  checklistFor,
-  compareObservation,
-  positionWithinTolerance,
-  POSITION_TOLERANCE_MM,
-  POWER_TOLERANCE_FRACTION,
-  predictionsFor,
-  safeFileName,
-  signOffSentence,
-  signOffStatus,
-  assertUploadSize,
-  sniffFileType,
-  SPOT_TOLERANCE_FRACTION,
-  whyNotSignOff,
-  type ChecklistItem,
-  type Predictions,
-  type SignOffStatus,
-} from "@/lib/build/rules";
-import { assessRevision } from "@/lib/review/hazard";
-import { loadRevision } from "./reviews";
-import { inScope, notFoundAs } from "./scope";
-import type { BuildableRow, BuildView, CheckView, checkInput, ObservationView, observationInput, startBuildInput, UploadView } from "@/lib/api/contracts/builds";
+import { safeFileName, assertUploadSize, sniffFileType } from "@/lib/build/rules";
+import type { BuildView, UploadView } from "@/lib/api/contracts/builds";
 
 import { aboutRevision, assertRecordable, buildView, loadBuild } from "./builds";
 

@@ -2,55 +2,22 @@
 // checks and observations, signing off, each with its audit row (uploads: build-uploads.ts). The rules themselves (status,
 // checklist, predictions, comparison, file types) are the build rules in lib/build/rules.ts.
 import "server-only";
-import { createHash, randomUUID } from "node:crypto";
-import { and, asc, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, inArray } from "drizzle-orm";
 import { z } from "zod";
 import type { Database, DbOrTx } from "@/db";
-import {
-  bench,
-  benchRevision,
-  buildCheck,
-  buildObservation,
-  buildRecord,
-  lab,
-  reviewDecision,
-  upload,
-  user,
-  UPLOAD_KINDS,
-  type BuildState,
-  type ReviewState,
-  type UploadKind,
-} from "@/db/schema";
+import { bench, benchRevision, buildCheck, buildObservation, buildRecord, lab, reviewDecision, upload, user, type ReviewState } from "@/db/schema";
 import type { BenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { observationMismatchMail } from "@/lib/mail/build-mail";
 import { enqueueMail } from "@/lib/mail/outbox";
-import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
-import {
-  checklistFor,
-  compareObservation,
-  positionWithinTolerance,
-  POSITION_TOLERANCE_MM,
-  POWER_TOLERANCE_FRACTION,
-  predictionsFor,
-  safeFileName,
-  signOffSentence,
-  signOffStatus,
-  assertUploadSize,
-  sniffFileType,
-  SPOT_TOLERANCE_FRACTION,
-  whyNotSignOff,
-  type ChecklistItem,
-  type Predictions,
-  type SignOffStatus,
-} from "@/lib/build/rules";
+import { checklistFor, compareObservation, positionWithinTolerance, POSITION_TOLERANCE_MM, POWER_TOLERANCE_FRACTION, predictionsFor, signOffSentence, signOffStatus, SPOT_TOLERANCE_FRACTION, whyNotSignOff, type SignOffStatus } from "@/lib/build/rules";
 import { assessRevision } from "@/lib/review/hazard";
 import { OPTICS_ENGINE_VERSION } from "@/lib/optics/version";
 import { loadRevision } from "./reviews";
 import { inScope, notFoundAs } from "./scope";
-import type { BuildableRow, BuildView, CheckView, checkInput, ObservationView, observationInput, startBuildInput, UploadView } from "@/lib/api/contracts/builds";
+import type { BuildableRow, BuildView, CheckView, checkInput, ObservationView, observationInput, startBuildInput } from "@/lib/api/contracts/builds";
 
 // ── Signed-off revisions ──────────────────────────────────────────────────────────────────────
 export type SignedRevision = {
@@ -178,7 +145,7 @@ function observationView(row: typeof buildObservation.$inferSelect, name: string
 
 export async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revision: SignedRevision): Promise<BuildView> {
   const assessed = assessRevision(revision.document);
-  const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null);
+  const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions);
   const checks = await db.select().from(buildCheck).where(eq(buildCheck.buildId, build.id));
   const byKey = new Map(checks.map((c) => [c.itemKey, c]));
   const checklist: CheckView[] = items.map((i) => {
@@ -208,7 +175,7 @@ export async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revis
   const [technician] = await db.select({ name: user.name }).from(user).where(eq(user.id, build.technicianId));
   const status = signOffStatus(revision);
   const mayRecord = build.state === "in-progress" && status === "valid" && canRecord(actor);
-  const why = canRecord(actor) ? whyNotSignOff(build, revision, checklist, actor.userId) : "Only a technician can sign off a build.";
+  const why = canRecord(actor) ? whyNotSignOff(build, revision, checklist, actor.userId) : "Only a technician can complete a build.";
   return {
     id: build.id,
     state: build.state,
@@ -270,8 +237,24 @@ export function aboutRevision(revision: SignedRevision) {
 }
 
 /** Starts a build of a valid sign-off; a technician's unfinished build of the same revision is returned instead of a second one. */
-export async function startBuild(db: Database, actor: Actor, input: z.infer<typeof startBuildInput>): Promise<{ build: BuildView; created: boolean }> {
+export async function startBuild(db: Database, actor: Actor, input: z.infer<typeof startBuildInput>, retried = false): Promise<{ build: BuildView; created: boolean }> {
   authorize(actor, { build: ["record"] });
+  // A simultaneous start that won the race made the one open build (build_record_one_open_idx): answer with it.
+  return startBuildOnce(db, actor, input).catch((error: unknown) => {
+    if (!retried && isUniqueViolation(error, "build_record_one_open_idx")) return startBuild(db, actor, input, true);
+    throw error;
+  });
+}
+
+function isUniqueViolation(error: unknown, constraint: string): boolean {
+  for (let e: unknown = error; e && typeof e === "object"; e = (e as { cause?: unknown }).cause) {
+    const pgError = e as { code?: string; constraint?: string };
+    if (pgError.code === "23505" && pgError.constraint === constraint) return true;
+  }
+  return false;
+}
+
+async function startBuildOnce(db: Database, actor: Actor, input: z.infer<typeof startBuildInput>): Promise<{ build: BuildView; created: boolean }> {
   return db.transaction(async (tx) => {
     const revision = await loadSignedRevision(tx, actor, input.revisionId);
     await tx.select({ id: benchRevision.id }).from(benchRevision).where(eq(benchRevision.id, revision.id)).for("share");
@@ -288,7 +271,7 @@ export async function startBuild(db: Database, actor: Actor, input: z.infer<type
       .values({ revisionId: revision.id, benchId: revision.benchId, contentHash: revision.contentHash, technicianId: actor.userId })
       .returning();
     const assessed = assessRevision(revision.document);
-    const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null);
+    const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions);
     await tx.insert(buildCheck).values(items.map((i) => ({ buildId: build.id, itemKey: i.itemKey })));
     await recordAudit(tx, actor, { ...aboutRevision(revision), action: "build-started", detail: { buildId: build.id, number: revision.number, items: items.length } });
     return { build: await buildView(tx, actor, build, revision), created: true };
@@ -307,7 +290,7 @@ export async function updateCheck(db: Database, actor: Actor, buildId: string, i
     const { build, revision } = await loadBuild(tx, actor, buildId, true);
     assertRecordable(build, revision);
     const assessed = assessRevision(revision.document);
-    const item = checklistFor(revision.document, assessed.ok ? assessed.safety : null).find((i) => i.itemKey === input.itemKey);
+    const item = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions).find((i) => i.itemKey === input.itemKey);
     if (!item) throw new AppError("bad-request", `There is no checklist item "${input.itemKey}" on this build.`, [{ path: "itemKey", message: "No such item" }]);
     if (input.measuredPositionMm !== undefined && item.expectedPositionMm === null) {
       throw new AppError("bad-request", `"${item.label}" has no position to measure.`, [{ path: "measuredPositionMm", message: "This item has no position" }]);

@@ -3,6 +3,7 @@
 import "server-only";
 import { and, asc, eq, inArray, sql, type SQL } from "drizzle-orm";
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import type { Database, DbOrTx } from "@/db";
 import { eyewearBand, eyewearItem, lab, SAFETY_STANDARDS, type SafetyStandard } from "@/db/schema";
 import { AppError, notFound } from "@/lib/errors";
@@ -24,8 +25,7 @@ export const eyewearInput = z.object({
     .min(1, "Quantity (quantity) must be at least 1")
     .max(1000, "Quantity (quantity) must be at most 1000")
     .default(1),
-  note: z
-    .string({ error: "Note (note) must be text" })
+  note: safeText({ error: "Note (note) must be text" })
     .trim()
     .max(500, "Note (note) must be at most 500 characters")
     .nullish()

@@ -2,8 +2,9 @@
 // everyone in the labs. Computed classes come from lib/safety (IEC 60825-1:2014 class limits); labels are never changed.
 import { laserAveragePowerMw } from "@/lib/bench/laser-power";
 import "server-only";
-import { and, asc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { and, asc, eq, sql } from "drizzle-orm";
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import type { Database, DbOrTx } from "@/db";
 import { lab, laserRegister, LASER_STATUSES, user, type LaserStatus } from "@/db/schema";
 import type { BenchDocument, LaserElement } from "@/lib/bench/schema";
@@ -20,8 +21,7 @@ const positive = (field: string, unit: string, max: number) =>
     .refine((v) => v > 0, `${field} must be greater than 0 ${unit}`)
     .refine((v) => v <= max, `${field} must be at most ${max} ${unit}`);
 const optionalText = (field: string, max: number) =>
-  z
-    .string()
+  safeText()
     .trim()
     .max(max, `${field} must be at most ${max} characters`)
     .nullish()
@@ -52,11 +52,11 @@ export const laserInput = z
       .max(8, "Further lines (lines): at most 8")
       .nullish()
       .transform((v) => (v && v.length ? v : null)),
-    model: z.string({ error: "Give the manufacturer and model" }).trim().min(1, "Give the manufacturer and model").max(200, "The model must be at most 200 characters"),
+    model: safeText({ error: "Give the manufacturer and model" }).trim().min(1, "Give the manufacturer and model").max(200, "The model must be at most 200 characters"),
     serialNumber: optionalText("The serial number", 120),
     location: optionalText("The location", 200),
     status: z.enum(LASER_STATUSES, { error: "Status must be in service, out of service or disposed" }).default("in-service"),
-    responsibleUserId: z.string().max(64).nullish().transform((v) => v || null),
+    responsibleUserId: safeText().max(64).nullish().transform((v) => v || null),
   })
   .superRefine((v, ctx) => {
     if (v.pulseRepetitionRateHz !== null && v.pulseDurationS === null) {

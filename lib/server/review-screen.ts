@@ -1,48 +1,18 @@
 // The review screen and the officer's queue: what a revision looks like to the reader, with its decision,
 // the last signed-off revision and the diff, the threads, its trail and what the reader may do.
 import "server-only";
-import { assertRegisterAllowsSubmission } from "./register";
-import { and, asc, desc, eq, gt, inArray, lt, ne, sql } from "drizzle-orm";
-import { verifyPassword } from "better-auth/crypto";
-import { z } from "zod";
-import type { Database, DbOrTx } from "@/db";
-import {
-  account,
-  auditEvent,
-  bench,
-  benchRevision,
-  lab,
-  labMember,
-  reviewComment,
-  reviewDecision,
-  user,
-  type DecisionOutcome,
-  type HazardSummary,
-  type ReviewState,
-} from "@/db/schema";
-import { ROLE_LABELS, parseRoles, rolesAllow } from "@/lib/auth/permissions";
-import { contentHash } from "@/lib/bench/canonical";
-import { diffBenches, type BenchDiff } from "@/lib/bench/diff";
-import { benchDocumentSchema, describeIssues, type BenchDocument } from "@/lib/bench/schema";
-import { AppError, notFound } from "@/lib/errors";
-import { enqueueMail } from "@/lib/mail/outbox";
-import {
-  reviewCommentMail,
-  reviewDecisionMail,
-  reviewSubmittedMail,
-  reviewWithdrawnMail,
-  type Recipient,
-  type RevisionMailContext,
-} from "@/lib/mail/review-mail";
-import { recordAudit } from "./audit";
-import { authorize, authorizeLab, type Actor } from "./authorize";
-import { hazardSummary } from "@/lib/review/hazard";
-import { COMMENTS_OPEN, DECISIONS, ONCE_APPROVED, SIGN_OFF_MEANING, TRANSITIONS, canMove, refusal, stateSentence } from "@/lib/review/transitions";
-import { validityEnd } from "@/lib/review/validity";
-import { inScope, visibleOr404 } from "./scope";
-import type { CommentInput, CommentThread, CommentView, DecidedRow, DecisionInput, DecisionView, QueueRow, ReviewDetail, submitInput } from "@/lib/api/contracts/reviews";
+import { and, asc, desc, eq, inArray, lt, sql } from "drizzle-orm";
+import type { Database } from "@/db";
+import { auditEvent, bench, benchRevision, lab, reviewDecision, user } from "@/db/schema";
+import { rolesAllow } from "@/lib/auth/permissions";
+import { diffBenches } from "@/lib/bench/diff";
+import { type BenchDocument } from "@/lib/bench/schema";
+import { authorize, type Actor } from "./authorize";
+import { COMMENTS_OPEN, ONCE_APPROVED, canMove, stateSentence } from "@/lib/review/transitions";
+import { inScope } from "./scope";
+import type { DecidedRow, QueueRow, ReviewDetail } from "@/lib/api/contracts/reviews";
 
-import { decisionView, isAuthor, loadRevision, mailContext, usersWithRole } from "./reviews";
+import { decisionView, isAuthor, loadRevision } from "./reviews";
 import { threadsOf } from "./review-comments";
 
 export async function getReview(db: Database, actor: Actor, revisionId: string): Promise<ReviewDetail> {

@@ -4,46 +4,26 @@
 // Comments: review-comments.ts; the review screen and queue: review-screen.ts; expiry: review-clock.ts.
 import "server-only";
 import { assertRegisterAllowsSubmission } from "./register";
-import { and, asc, desc, eq, gt, inArray, lt, ne, sql } from "drizzle-orm";
+import { and, eq, gt, lt, ne, sql } from "drizzle-orm";
 import { verifyPassword } from "better-auth/crypto";
+import { reserveAttempt } from "@/lib/auth/rate-limit";
 import { z } from "zod";
 import type { Database, DbOrTx } from "@/db";
-import {
-  account,
-  auditEvent,
-  bench,
-  benchRevision,
-  lab,
-  labMember,
-  reviewComment,
-  reviewDecision,
-  user,
-  type DecisionOutcome,
-  type HazardSummary,
-  type ReviewState,
-} from "@/db/schema";
-import { ROLE_LABELS, parseRoles, rolesAllow } from "@/lib/auth/permissions";
+import { account, bench, benchRevision, lab, labMember, reviewComment, reviewDecision, user, type DecisionOutcome, type HazardSummary, type ReviewState } from "@/db/schema";
+import { ROLE_LABELS, parseRoles } from "@/lib/auth/permissions";
 import { contentHash } from "@/lib/bench/canonical";
-import { diffBenches, type BenchDiff } from "@/lib/bench/diff";
 import { benchDocumentSchema, describeIssues, type BenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { enqueueMail } from "@/lib/mail/outbox";
-import {
-  reviewCommentMail,
-  reviewDecisionMail,
-  reviewSubmittedMail,
-  reviewWithdrawnMail,
-  type Recipient,
-  type RevisionMailContext,
-} from "@/lib/mail/review-mail";
+import { reviewDecisionMail, reviewSubmittedMail, reviewWithdrawnMail, type Recipient, type RevisionMailContext } from "@/lib/mail/review-mail";
 import { labStandard } from "./lab-standard";
 import { recordAudit } from "./audit";
-import { authorize, authorizeLab, type Actor } from "./authorize";
+import { authorize, type Actor } from "./authorize";
 import { hazardSummary } from "@/lib/review/hazard";
-import { COMMENTS_OPEN, DECISIONS, ONCE_APPROVED, SIGN_OFF_MEANING, TRANSITIONS, canMove, refusal, stateSentence } from "@/lib/review/transitions";
+import { DECISIONS, TRANSITIONS, canMove, refusal, stateSentence } from "@/lib/review/transitions";
 import { validityEnd } from "@/lib/review/validity";
-import { inScope, visibleOr404 } from "./scope";
-import type { CommentInput, CommentThread, CommentView, DecidedRow, DecisionInput, DecisionView, QueueRow, ReviewDetail, submitInput } from "@/lib/api/contracts/reviews";
+import { visibleOr404 } from "./scope";
+import type { DecisionInput, DecisionView, submitInput } from "@/lib/api/contracts/reviews";
 
 export { expireApprovals, runReviewClock, sendExpiryReminders } from "./review-clock";
 
@@ -236,7 +216,14 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
   }
   if (!canMove(input.outcome, first.state)) throw await notWaiting(db, first);
   if (input.outcome === "approve") {
-    if (!(await checkPassword(db, actor.userId, input.password))) {
+    // The step-up is limited like sign-in: per account and per address, counted in the database.
+    const attempt = await reserveAttempt(db, "step-up", { account: actor.userId, address: actor.ipAddress });
+    if (!attempt.allowed) {
+      await recordAudit(db, actor, { action: "sign-off-password-limited", benchId: first.benchId, revisionId: first.id, contentHash: first.contentHash });
+      throw new AppError("rate-limited", attempt.refusal ?? "Too many wrong signing password attempts; wait, then try again.");
+    }
+    if (await checkPassword(db, actor.userId, input.password)) await attempt.release();
+    else {
       await recordAudit(db, actor, {
         action: "sign-off-password-refused",
         benchId: first.benchId,
@@ -347,7 +334,7 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
 
       const ctx = mailContext(r);
       const recipients = new Map<string, Recipient>([[r.authorEmail, { email: r.authorEmail, name: r.authorName }]]);
-      for (const t of await usersWithRole(tx, "technician", r.labId)) recipients.set(t.email, t);
+      for (const t of await usersWithRole(tx, "technician", r.labId)) recipients.set(t.email, { ...t, builds: true });
       for (const to of recipients.values()) {
         await enqueueMail(
           tx,

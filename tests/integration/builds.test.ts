@@ -16,7 +16,7 @@ type Build = { id: string; state: string; checklist: Check[]; observations: Json
 const errorOf = (res: { json: Json | null }) => (res.json?.error ?? {}) as { message: string; fields: { path: string }[] };
 
 async function approvedRevision(title: string) {
-  const labId = await labIdByName(cookie.researcher, "Coherent Imaging Lab");
+  const labId = await labIdByName(cookie.researcher, "Wrenfield Imaging Lab");
   const b = await createDrawnBench(pool, cookie.researcher, labId, sampleBench(title));
   expect((await call("POST", `/api/revisions/${b.revisionId}/submit`, cookie.researcher, { contentHash: b.contentHash })).status).toBe(200);
   const decided = await call("POST", `/api/revisions/${b.revisionId}/decision`, cookie.officer, { outcome: "approve", contentHash: b.contentHash, password: DEMO_PASSWORD });

@@ -38,7 +38,7 @@ async function auditRows(eyewearId: string) {
 beforeAll(async () => {
   pool = new pg.Pool({ connectionString: databaseUrl(), max: 2 });
   for (const key of Object.keys(DEMO) as DemoKey[]) cookies[key] = (await signIn(DEMO[key])).cookie;
-  imagingLabId = await labIdByName(cookies.officer, "Coherent Imaging Lab");
+  imagingLabId = await labIdByName(cookies.officer, "Wrenfield Imaging Lab");
 });
 
 afterAll(async () => {

@@ -18,7 +18,7 @@ beforeAll(async () => {
     cookies[key] = cookie;
   }
   const labs = await call("GET", "/api/labs", cookies.admin);
-  imagingLabId = (labs.json!.labs as { id: string; name: string }[]).find((l) => l.name === "Coherent Imaging Lab")!.id;
+  imagingLabId = (labs.json!.labs as { id: string; name: string }[]).find((l) => l.name === "Wrenfield Imaging Lab")!.id;
   const benches = await call("GET", "/api/benches", cookies.researcher);
   imagingBenchId = (benches.json!.benches as { id: string; labId: string }[]).find((b) => b.labId === imagingLabId)!.id;
 });
@@ -28,14 +28,14 @@ type Row = { label: string; method: string; path: () => string; body?: () => unk
 const matrix: Row[] = [
   { label: "list benches", method: "GET", path: () => "/api/benches", expect: { anonymous: 401, researcher: 200, officer: 200, technician: 200, auditor: 200, admin: 403, student: 200 } },
   {
-    label: "create a bench in the Coherent Imaging Lab",
+    label: "create a bench in the Wrenfield Imaging Lab",
     method: "POST",
     path: () => "/api/benches",
     body: () => ({ labId: imagingLabId, title: "Matrix test bench" }),
     expect: { anonymous: 401, researcher: 201, officer: 403, technician: 403, auditor: 403, admin: 403, student: 403 },
   },
   {
-    label: "read a Coherent Imaging Lab bench",
+    label: "read a Wrenfield Imaging Lab bench",
     method: "GET",
     path: () => `/api/benches/${imagingBenchId}`,
     expect: { anonymous: 401, researcher: 200, officer: 200, technician: 200, auditor: 200, admin: 403, student: 404 },
@@ -50,7 +50,7 @@ const matrix: Row[] = [
   },
   { label: "what waits for me", method: "GET", path: () => "/api/inbox", expect: { anonymous: 401, researcher: 200, officer: 200, technician: 200, auditor: 200, admin: 200, student: 200 } },
   {
-    label: "make a revision of a Coherent Imaging Lab bench (stale base: 409 for the author's lab)",
+    label: "make a revision of a Wrenfield Imaging Lab bench (stale base: 409 for the author's lab)",
     method: "POST",
     path: () => `/api/benches/${imagingBenchId}/revisions`,
     body: () => ({ baseRevision: 1, baseVersion: 999_999 }),
@@ -66,7 +66,7 @@ const matrix: Row[] = [
   },
   { label: "list eyewear", method: "GET", path: () => "/api/eyewear", expect: { anonymous: 401, researcher: 200, officer: 200, technician: 200, auditor: 200, admin: 403, student: 200 } },
   {
-    label: "read the Coherent Imaging Lab's eyewear",
+    label: "read the Wrenfield Imaging Lab's eyewear",
     method: "GET",
     path: () => `/api/eyewear?labId=${imagingLabId}`,
     expect: { anonymous: 401, researcher: 200, officer: 200, technician: 200, auditor: 200, admin: 403, student: 403 },
@@ -116,7 +116,7 @@ describe("what responses reveal", () => {
 
   it("a researcher cannot create a bench in a lab they do not belong to", async () => {
     const labs = await call("GET", "/api/labs", cookies.student);
-    const imaging = (labs.json!.labs as { id: string; name: string }[]).find((l) => l.name === "Coherent Imaging Lab")!;
+    const imaging = (labs.json!.labs as { id: string; name: string }[]).find((l) => l.name === "Wrenfield Imaging Lab")!;
     const res = await call("POST", "/api/benches", cookies.student, { labId: imaging.id, title: "Not mine" });
     expect(res.status).toBe(403);
     expect((res.json!.error as { message: string }).message).toBe("You can only create benches in a lab you belong to.");

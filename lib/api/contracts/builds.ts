@@ -1,6 +1,7 @@
 // The build contract: request bodies of the as-built routes (zod) and the shapes they answer with, imported by
 // the route handlers, lib/server/builds.ts and the browser alike (no server-only code here).
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import { UPLOAD_KINDS, type BuildState, type ReviewState, type UploadKind } from "@/db/schema";
 import type { ChecklistItem, Predictions, SignOffStatus } from "@/lib/build/rules";
 
@@ -30,7 +31,8 @@ export type CheckView = ChecklistItem & { done: boolean; measuredPositionMm: num
 export type ObservationView = {
   id: string;
   apertureId: string | null;
-  centreSeen: "bright" | "dark" | "unclear" | null;
+  /** "unclear" is the older code of "between". */
+  centreSeen: "bright" | "dark" | "between" | "unclear" | null;
   centrePredicted: string | null;
   spotDiameterMm: number | null;
   predictedSpotDiameterMm: number | null;
@@ -80,7 +82,7 @@ export const startBuildInput = z.object({ revisionId: z.uuid({ error: "Choose th
 
 export const checkInput = z
   .object({
-    itemKey: z.string({ error: "Say which checklist item" }).min(1, "Say which checklist item").max(200, "The item key is too long"),
+    itemKey: safeText({ error: "Say which checklist item" }).min(1, "Say which checklist item").max(200, "The item key is too long"),
     done: z.boolean({ error: "Done must be true or false" }).optional(),
     measuredPositionMm: z
       .number({ error: "The measured position must be a number of millimetres" })
@@ -88,14 +90,14 @@ export const checkInput = z
       .refine((v) => Math.abs(v) <= 100_000, "The measured position must lie within ±100000 mm")
       .nullable()
       .optional(),
-    note: z.string().trim().max(2000, "A note must be at most 2000 characters").nullable().optional(),
+    note: safeText().trim().max(2000, "A note must be at most 2000 characters").nullable().optional(),
   })
   .refine((v) => v.done !== undefined || v.measuredPositionMm !== undefined || v.note !== undefined, { message: "Send done, a measured position or a note" });
 
 export const observationInput = z
   .object({
-    apertureId: z.string().min(1).max(64).nullable().optional(),
-    centreSeen: z.enum(["bright", "dark", "unclear"], { error: "The centre is bright, dark or unclear" }).nullable().optional(),
+    apertureId: safeText().min(1).max(64).nullable().optional(),
+    centreSeen: z.enum(["bright", "dark", "between", "unclear"], { error: "The centre is bright, dark or between" }).nullable().optional(),
     spotDiameterMm: z
       .number({ error: "The spot or ring diameter must be a number of millimetres" })
       .refine((v) => Number.isFinite(v) && v > 0 && v <= 10_000, "The spot or ring diameter must be between 0 and 10000 mm")
@@ -106,7 +108,7 @@ export const observationInput = z
       .refine((v) => Number.isFinite(v) && v >= 0 && v <= 1e9, "The power must be between 0 and 10⁹ mW")
       .nullable()
       .optional(),
-    note: z.string().trim().max(2000, "A note must be at most 2000 characters").nullable().optional(),
+    note: safeText().trim().max(2000, "A note must be at most 2000 characters").nullable().optional(),
   })
   .refine((v) => v.centreSeen != null || v.spotDiameterMm != null || v.screenPowerMw != null, { message: "Record at least one of: the centre, the spot or ring size, the power at the screen" });
 

@@ -1,12 +1,13 @@
 // The review contract: request bodies of the review routes (zod) and the shapes they answer with, imported by
 // the route handlers, lib/server/reviews.ts and the browser alike (no server-only code here).
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import type { DecisionOutcome, HazardSummary, ReviewState } from "@/db/schema";
 import type { BenchDiff } from "@/lib/bench/diff";
 import type { BenchDocument } from "@/lib/bench/schema";
 
 // ── Inputs (the one contract for routes and client forms) ─────────────────────────────────────
-export const hashField = z.string({ error: "Send the content hash of the revision you reviewed" }).regex(/^[0-9a-f]{64}$/, "The content hash must be 64 hexadecimal characters");
+export const hashField = safeText({ error: "Send the content hash of the revision you reviewed" }).regex(/^[0-9a-f]{64}$/, "The content hash must be 64 hexadecimal characters");
 
 export const submitInput = z.object({ contentHash: hashField.optional() });
 
@@ -18,20 +19,20 @@ export const decisionInput = z.discriminatedUnion(
     z.object({
       outcome: z.literal("approve"),
       contentHash: hashField,
-      password: z.string({ error: "Enter your password to sign" }).min(1, "Enter your password to sign"),
-      conditions: z.string().trim().max(4000, "Conditions must be at most 4000 characters").optional(),
+      password: safeText({ error: "Enter your password to sign" }).min(1, "Enter your password to sign"),
+      conditions: safeText().trim().max(4000, "Conditions must be at most 4000 characters").optional(),
       /** The last day the sign-off holds (YYYY-MM-DD); 12 months from today when left out. */
       validUntil: z.iso.date({ error: "Valid until must be a date (YYYY-MM-DD)" }).optional(),
     }),
     z.object({
       outcome: z.literal("request-changes"),
       contentHash: hashField,
-      comment: z.string({ error: "Say what has to change" }).trim().min(1, "Say what has to change").max(4000, "The comment must be at most 4000 characters"),
+      comment: safeText({ error: "Say what has to change" }).trim().min(1, "Say what has to change").max(4000, "The comment must be at most 4000 characters"),
     }),
     z.object({
       outcome: z.literal("reject"),
       contentHash: hashField,
-      reason: z.string({ error: "Give the reason for turning it down" }).trim().min(1, "Give the reason for turning it down").max(4000, "The reason must be at most 4000 characters"),
+      reason: safeText({ error: "Give the reason for turning it down" }).trim().min(1, "Give the reason for turning it down").max(4000, "The reason must be at most 4000 characters"),
     }),
   ],
   { error: "Choose approve, request-changes or reject" },
@@ -40,8 +41,8 @@ export const decisionInput = z.discriminatedUnion(
 export type DecisionInput = z.infer<typeof decisionInput>;
 
 export const commentInput = z.object({
-  body: z.string({ error: "Write the comment" }).trim().min(1, "Write the comment").max(4000, "A comment must be at most 4000 characters"),
-  elementId: z.string().min(1).max(64).optional(),
+  body: safeText({ error: "Write the comment" }).trim().min(1, "Write the comment").max(4000, "A comment must be at most 4000 characters"),
+  elementId: safeText().min(1).max(64).optional(),
   parentId: z.uuid({ error: "The comment to answer is not a valid id" }).optional(),
 });
 

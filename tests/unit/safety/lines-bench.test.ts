@@ -109,6 +109,23 @@ describe("assessBench with lines, filter bands, diffuse viewing and skin near fo
     expect(s.lasers[0].lines[1].opticalDensityRequired).toBeGreaterThan(0);
   });
 
+  it("laser.hazardClass is the class over all lines (a screen reading it never sees the lower main-line class)", () => {
+    const weak: BenchDocument = {
+      version: 1,
+      elements: [
+        { id: "L", kind: "laser", positionMm: 0, wavelengthNm: 532, powerMw: 0.5, beamDiameterMm: 1, lines: [{ wavelengthNm: 1064, powerMw: 100 }] },
+        { id: "B", kind: "beam-block", positionMm: 100 },
+      ],
+    };
+    const r = assessBench(weak, handBeam(weak), { labelClass: "2" });
+    // 0.5 mW at 532 nm alone is Class 2; 100 mW at 1064 nm is above 5 × 1.95 mW (IEC 60825-1:2014 Table 3, from memory) → 3B
+    expect(r.lines.lines[0].hazardClass).toBe("2");
+    expect(r.hazardClass).toBe("3B");
+    expect(r.laser.hazardClass).toBe("3B");
+    expect(r.laser.figures.hazardClass.value).toBe("3B");
+    expect(r.warnings.some((w) => w.code === "label-class-mismatch")).toBe(true);
+  });
+
   it("a diffuse spot is an extended source: C_E = α/1.5 mrad with α = spot ÷ 100 mm", () => {
     const v = s.diffuseViewing.find((d) => d.elementId === "S" && d.wavelengthNm === 1064);
     expect(v).toBeDefined();

@@ -2,7 +2,6 @@ import { dehydrate, HydrationBoundary, QueryClient } from "@tanstack/react-query
 import { notFound } from "next/navigation";
 import { getDb } from "@/db";
 import { BenchEditor } from "@/components/editor/bench-editor";
-import { SubmitForReview } from "@/components/review/submit-for-review";
 import { Refused } from "@/components/shell/refused";
 import { StateBadge } from "@/components/ui/state-badge";
 import { draftQuery } from "@/lib/api/bench-queries";
@@ -34,7 +33,6 @@ export default async function BenchPage({ params }: { params: Promise<{ benchId:
       <HydrationBoundary state={dehydrate(queryClient)}>
         <BenchEditor benchId={benchId} labName={detail.labName} authorName={detail.authorName} shelf={shelf} />
       </HydrationBoundary>
-      {detail.revisions[0] ? <SubmitForReview revisionId={detail.revisions[0].id} /> : null}
       <section aria-labelledby="revisions-heading">
         <div className="mb-2 flex flex-wrap items-baseline gap-4">
           <h2 id="revisions-heading" className="text-lg font-semibold">Revisions</h2>

@@ -116,7 +116,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ revisio
             </p>
           )}
 
-          <Section id="diff-heading" title={lastApproved ? `Changes since revision ${lastApproved.number}, the last one signed off` : "Changes since the last sign-off"}>
+          <Section id="diff-heading" title={lastApproved ? `Changes since revision ${lastApproved.number}, the last one signed off` : "Changes since the last revision signed off"}>
             {lastApproved ? <RevisionDiff diff={lastApproved.diff} againstNumber={lastApproved.number} /> : <p className="text-muted">No earlier revision of this bench was signed off, so the whole drawing is new to review.</p>}
           </Section>
 
