@@ -12,7 +12,7 @@ import { observationMismatchMail } from "@/lib/mail/build-mail";
 import { enqueueMail } from "@/lib/mail/outbox";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
-import { checklistFor, compareObservation, positionWithinTolerance, POSITION_TOLERANCE_MM, POWER_TOLERANCE_FRACTION, predictionsFor, signOffSentence, signOffStatus, SPOT_TOLERANCE_FRACTION, whyNotSignOff, type SignOffStatus } from "@/lib/build/rules";
+import { checklistFor, compareObservation, positionWithinTolerance, POSITION_TOLERANCE_MM, POWER_TOLERANCE_FRACTION, predictionsFor, signOffSentence, signOffStatus, SPOT_TOLERANCE_FRACTION, whyNotSignOff, type SignOffRecord, type SignOffStatus } from "@/lib/build/rules";
 import { assessRevision } from "@/lib/review/hazard";
 import { OPTICS_ENGINE_VERSION } from "@/lib/optics/version";
 import { loadRevision } from "./reviews";
@@ -33,15 +33,7 @@ export type SignedRevision = {
   authorId: string;
   authorName: string;
   authorEmail: string;
-  decision: {
-    signerName: string;
-    signerRole: string;
-    meaning: string;
-    conditions: string | null;
-    validUntil: Date | null;
-    decidedAt: Date;
-    contentHash: string;
-  } | null;
+  decision: SignOffRecord | null;
 };
 
 /** One revision with its sign-off, as the actor may see it (outside their labs it does not exist). */
