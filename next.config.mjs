@@ -1,11 +1,33 @@
+// Headers every response carries. Pages get their Content-Security-Policy, with a per-request nonce,
+// from proxy.ts; API answers and static files get a fixed one here that allows nothing to run or frame.
+const SECURITY_HEADERS = [
+  { key: "X-Content-Type-Options", value: "nosniff" },
+  { key: "Referrer-Policy", value: "same-origin" },
+  { key: "Permissions-Policy", value: "camera=(), microphone=(), geolocation=(), payment=(), usb=()" },
+  { key: "X-Frame-Options", value: "DENY" },
+  { key: "Cross-Origin-Opener-Policy", value: "same-origin" },
+];
+
+const NOTHING_RUNS = { key: "Content-Security-Policy", value: "default-src 'none'; frame-ancestors 'none'" };
+
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   // Server-only packages with native or Node-specific code stay outside the bundle.
-  serverExternalPackages: ["pg", "puppeteer-core", "nodemailer"],
+  serverExternalPackages: ["pg", "puppeteer-core", "nodemailer", "pino"],
   poweredByHeader: false,
   typedRoutes: false,
   // The build checks the app's own code; scripts and tests are checked by `tsc` in npm test.
   typescript: { tsconfigPath: "tsconfig.build.json" },
+  async headers() {
+    return [
+      { source: "/:path*", headers: SECURITY_HEADERS },
+      { source: "/api/:path*", headers: [NOTHING_RUNS] },
+      { source: "/_next/:path*", headers: [NOTHING_RUNS] },
+      { source: "/favicon.ico", headers: [NOTHING_RUNS] },
+    ];
+  },
+  // forbidden() from next/navigation: a page a role may not open answers 403 (app/forbidden.tsx), not 200.
+  experimental: { authInterrupts: true },
 };
 
 export default nextConfig;

@@ -452,11 +452,16 @@ export const buildObservation = pgTable(
       .notNull()
       .references(() => buildRecord.id, { onDelete: "cascade" }),
     apertureId: text("aperture_id"),
-    centreSeen: text("centre_seen").$type<"bright" | "dark" | "unclear">(),
+    centreSeen: text("centre_seen").$type<"bright" | "dark" | "between" | "unclear">(),
     centrePredicted: text("centre_predicted"),
     spotDiameterMm: doublePrecision("spot_diameter_mm"),
     screenPowerMw: doublePrecision("screen_power_mw"),
     predictedScreenPowerMw: doublePrecision("predicted_screen_power_mw"),
+    /** The prediction the reading was compared with, kept so the record never changes with the engine. */
+    predictedSpotDiameterMm: doublePrecision("predicted_spot_diameter_mm"),
+    predictionEngine: text("prediction_engine"),
+    /** The sentences shown when it was recorded (each difference); empty when it matched. */
+    reasons: jsonb("reasons").$type<string[]>().notNull().default([]),
     mismatch: boolean("mismatch").notNull().default(false),
     note: text("note"),
     recordedBy: text("recorded_by")

@@ -4,7 +4,9 @@ import { randomUUID } from "node:crypto";
 import { hashPassword } from "better-auth/crypto";
 import { eq } from "drizzle-orm";
 import type { Database } from "@/db";
-import { account, bench, benchRevision, eyewearBand, eyewearItem, lab, labMember, user, type ReviewState, type SafetyStandard } from "@/db/schema";
+import { account, auditEvent, bench, benchRevision, eyewearBand, eyewearItem, lab, labMember, reviewDecision, user, type ReviewState, type SafetyStandard } from "@/db/schema";
+import { endOfDayInZone } from "@/lib/format/date";
+import { hazardSummary } from "@/lib/review/hazard";
 import { contentHash } from "@/lib/bench/canonical";
 import type { BenchDocument } from "@/lib/bench/schema";
 import type { RoleName } from "@/lib/auth/permissions";
@@ -12,7 +14,7 @@ import type { RoleName } from "@/lib/auth/permissions";
 export const DEMO_PASSWORD = "northmere-demo-2026";
 
 export const DEMO_LABS = [
-  { key: "imaging", name: "Coherent Imaging Lab", room: "Harbour Building B214" },
+  { key: "imaging", name: "Wrenfield Imaging Lab", room: "Harbour Building B214" },
   { key: "spectro", name: "Spectroscopy Teaching Lab", room: "Harbour Building C108" },
 ] as const;
 
@@ -71,6 +73,23 @@ const teachingBench: BenchDocument = {
     { id: "iris-1", kind: "aperture", positionMm: 350, diameterMm: 1.5 },
     { id: "screen-1", kind: "screen", positionMm: 1100 },
   ],
+};
+
+const OFFICER_EMAIL = "officer@northmere.example.edu";
+const DAY_MS = 86_400_000;
+
+/** What the officer decided on a seeded revision, as the review workflow would have recorded it. */
+const SEEDED_DECISIONS: Partial<Record<ReviewState, { outcome: "approved" | "changes-requested"; meaning: string; conditions?: string; reason?: string }>> = {
+  approved: {
+    outcome: "approved",
+    meaning: "Approved for operation as drawn, with the conditions listed.",
+    conditions: "Laser eyewear for 633 nm worn by everyone at the table; door sign lit while the laser is on",
+  },
+  "changes-requested": {
+    outcome: "changes-requested",
+    meaning: "Not approved: changes are asked for before this bench may be operated.",
+    reason: "Put a beam block behind the screen, so nothing passes the end of the rail.",
+  },
 };
 
 /** Invented eyewear for the demo labs' shelves (no real products): bands in nm with their OD and, where marked, EN 207 scale number. */
@@ -132,16 +151,61 @@ export async function seedDemo(db: Database): Promise<boolean> {
         .insert(bench)
         .values({ labId: labIds.get(b.lab)!, title: b.doc.title ?? "Untitled bench", authorId })
         .returning({ id: bench.id });
+      // Each revision with the trail and decision the workflow would have left, dated in the past, so every
+      // role's home, the desk, the builds list and the bench's trail tell the same story.
+      const hash = contentHash(b.doc);
+      const officerId = userIds.get(OFFICER_EMAIL)!;
+      const start = Date.now() - 30 * DAY_MS;
       let number = 1;
-      for (const state of b.states) {
-        await tx.insert(benchRevision).values({
-          benchId: row.id,
-          number: number++,
-          document: b.doc,
-          contentHash: contentHash(b.doc),
-          state,
-          createdBy: authorId,
-        });
+      for (const [i, state] of b.states.entries()) {
+        const createdAt = new Date(start + i * 10 * DAY_MS);
+        const [revision] = await tx
+          .insert(benchRevision)
+          .values({ benchId: row.id, number, document: b.doc, contentHash: hash, state, createdBy: authorId, createdAt, updatedAt: createdAt })
+          .returning({ id: benchRevision.id });
+        const audit = (at: Date, actorId: string, actorRole: string, action: string, detail: Record<string, unknown>) =>
+          tx.insert(auditEvent).values({ at, actorId, actorRole, action, benchId: row.id, revisionId: revision.id, contentHash: hash, detail });
+        await audit(createdAt, authorId, "researcher", number === 1 ? "bench-created" : "draft-revision-started", { number, seeded: true });
+        if (state !== "draft") {
+          const sentAt = new Date(createdAt.getTime() + DAY_MS);
+          await audit(sentAt, authorId, "researcher", "review-submitted", { from: "draft", to: "submitted", number, seeded: true });
+          const decided = SEEDED_DECISIONS[state];
+          if (decided) {
+            const decidedAt = new Date(sentAt.getTime() + 2 * DAY_MS);
+            const validUntil = decided.outcome === "approved" ? endOfDayInZone(new Date(decidedAt.getTime() + 365 * DAY_MS).toISOString().slice(0, 10)) : null;
+            const [decision] = await tx
+              .insert(reviewDecision)
+              .values({
+                revisionId: revision.id,
+                benchId: row.id,
+                outcome: decided.outcome,
+                signerId: officerId,
+                signerName: "Rafe Dunmore",
+                signerRole: "Laser safety officer",
+                meaning: decided.meaning,
+                conditions: decided.conditions ?? null,
+                reason: decided.reason ?? null,
+                validUntil,
+                contentHash: hash,
+                hazardSummary: hazardSummary(b.doc),
+                stepUpVerified: decided.outcome === "approved",
+                decidedAt,
+              })
+              .returning({ id: reviewDecision.id });
+            await audit(decidedAt, officerId, "officer", `review-${decided.outcome}`, {
+              from: "submitted",
+              to: decided.outcome,
+              number,
+              decisionId: decision.id,
+              meaning: decided.meaning,
+              conditions: decided.conditions ?? null,
+              reason: decided.reason ?? null,
+              validUntil: validUntil?.toISOString() ?? null,
+              seeded: true,
+            });
+          }
+        }
+        number += 1;
       }
     }
   });

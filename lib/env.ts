@@ -22,6 +22,18 @@ const envSchema = z.object({
   SMTP_SECURE: z.enum(["true", "false"], { error: "SMTP_SECURE must be true or false" }).default("false"),
   MAIL_FROM: z.string().min(3, "MAIL_FROM must be a sender address").default("Benchwarden <benchwarden@optics.example.edu>"),
   MAIL_CATCHER_URL: z.url({ error: "MAIL_CATCHER_URL must be a URL" }).optional(),
+  /**
+   * How many reverse proxies of our own stand in front of the app. 0 (the default): the client is the
+   * socket's peer and X-Forwarded-For is ignored. n ≥ 1: the client is the n-th address from the right
+   * of X-Forwarded-For (each trusted proxy appends the address it saw). Set it only behind proxies
+   * that append to X-Forwarded-For, or any client can choose its own address.
+   */
+  TRUSTED_PROXY_COUNT: z.coerce
+    .number({ error: "TRUSTED_PROXY_COUNT must be a whole number (0 when no proxy of yours stands in front of the app)" })
+    .int("TRUSTED_PROXY_COUNT must be a whole number")
+    .min(0, "TRUSTED_PROXY_COUNT must be 0 or more")
+    .max(10, "TRUSTED_PROXY_COUNT must be at most 10")
+    .default(0),
   /** Tests lower better-auth's sign-in rate limit window; the product keeps it on. */
   AUTH_RATE_LIMIT_MAX: z.coerce.number().int().min(1).default(10),
   /** Where uploads and build sheets are kept: "local" (STORAGE_DIR) or "s3" (the S3_* settings). */

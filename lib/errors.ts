@@ -29,9 +29,13 @@ export class AppError extends Error {
     readonly code: ErrorCode,
     message: string,
     readonly fields: FieldProblem[] = [],
+    /** Data the client needs beside the sentence, sent at the top level of the body (a 409 sends the server's `current` copy). */
+    readonly extra: Record<string, unknown> = {},
+    /** Only where one code has two answers: a body cut off while streaming is a 413, not a 400. */
+    status?: number,
   ) {
     super(message);
-    this.status = STATUS[code];
+    this.status = status ?? STATUS[code];
   }
 }
 

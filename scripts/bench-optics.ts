@@ -4,6 +4,8 @@ import { pathToFileURL } from "node:url";
 import type { BenchDocument, BenchElement } from "@/lib/bench/schema";
 import { analyzeBench, screenProfile } from "@/lib/optics";
 import { fresnelRadialIntensity } from "@/lib/optics/profile";
+import { FieldChain, type ChainElement } from "@/lib/optics/chain";
+import { qAtWaist } from "@/lib/optics/gaussian";
 
 export type BenchFigure = { name: string; value: number; unit: string; target: string };
 
@@ -51,6 +53,27 @@ export function twentyElementBench(): BenchDocument {
   return { version: 1, title: "benchmark: 20 elements", elements };
 }
 
+/** The same 20 elements with every aperture opened far beyond the beam: nothing clips (issue 12's speed floor). */
+export function twentyElementBenchNoClipping(): BenchDocument {
+  const doc = twentyElementBench();
+  return { ...doc, title: "benchmark: 20 elements, no clipping aperture", elements: doc.elements.map((e) => (e.kind === "aperture" ? { ...e, diameterMm: 200 } : e)) };
+}
+
+/** Three irises in series in a collimated 4 mm beam (N ≈ 2–6 each), a screen 1 m behind the last. */
+export function threeIrisBench(): BenchDocument {
+  return {
+    version: 1,
+    title: "benchmark: three apertures in series",
+    elements: [
+      { id: "laser", kind: "laser", positionMm: 0, wavelengthNm: 632.8, powerMw: 5, beamDiameterMm: 4 },
+      { id: "i1", kind: "aperture", positionMm: 100, diameterMm: 2.5 },
+      { id: "i2", kind: "aperture", positionMm: 350, diameterMm: 2 },
+      { id: "i3", kind: "aperture", positionMm: 600, diameterMm: 1.5 },
+      { id: "screen", kind: "screen", positionMm: 1600 },
+    ],
+  };
+}
+
 /** A wide, flat beam on a 5 mm aperture with the screen where N = 200. */
 export function fresnel200Bench(): BenchDocument {
   const wavelengthNm = 632.8;
@@ -86,8 +109,36 @@ export async function runOpticsBench(): Promise<BenchFigure[]> {
     peak = Math.max(peak, reference[i]);
     maxError = Math.max(maxError, Math.abs(reference[i] - fast.relativeIntensity[i]));
   }
+  // issue 12: three apertures in series, centre values and a 1024-point profile at the screen
+  const three = threeIrisBench();
+  const seriesMs = timeMedianMs(() => {
+    analyzeBench(three);
+    screenProfile(three, "i3", { points: 1024 });
+  }, 21, 3);
+  const seriesFast = screenProfile(three, "i3", { points: 1024 });
+  const laser = three.elements[0] as Extract<BenchElement, { kind: "laser" }>;
+  const chainElements = three.elements.slice(1) as ChainElement[];
+  const start = { positionMm: 0, q: qAtWaist(laser.beamDiameterMm * 0.5e-3, laser.wavelengthNm * 1e-9), powerMw: laser.powerMw ?? 0 };
+  const fine = new FieldChain(start, chainElements, laser.wavelengthNm * 1e-9, 1, { refinement: 16, exactBessel: true });
+  const seriesRef = fine.screenIntensity(3, seriesFast.radiusMm.map((r) => r * 1e-3))!.values;
+  let seriesPeak = 0;
+  let seriesError = 0;
+  for (let i = 0; i < seriesRef.length; i++) {
+    seriesPeak = Math.max(seriesPeak, seriesRef[i]);
+    seriesError = Math.max(seriesError, Math.abs(seriesRef[i] - seriesFast.relativeIntensity[i]));
+  }
+  const seriesAnalysis = analyzeBench(three);
+  const centreError = Math.max(
+    ...seriesAnalysis.apertures.slice(1).map((ap, k) => Math.abs(fine.screenIntensity(k + 1, [0])!.values[0] - ap.centreIntensityRatio)),
+  );
+  const noClip = twentyElementBenchNoClipping();
+  const noClipMs = timeMedianMs(() => analyzeBench(noClip), 2001, 500);
   return [
-    { name: "analyzeBench, 20-element bench (median)", value: analyzeMs, unit: "ms", target: "≤ 0.2 ms" },
+    { name: "analyzeBench, 20-element bench with no clipping aperture (median)", value: noClipMs, unit: "ms", target: "≤ 0.2 ms" },
+    { name: "three apertures in series: analyzeBench + 1024-point screenProfile (median)", value: seriesMs, unit: "ms", target: "≤ 30 ms" },
+    { name: "three apertures in series: profile max error vs 16× finer reference (exact J0)", value: seriesError / seriesPeak, unit: "of peak", target: "≤ 1e-4" },
+    { name: "three apertures in series: centre values max error vs 16× finer reference", value: centreError / seriesPeak, unit: "of peak", target: "≤ 1e-4" },
+    { name: "analyzeBench, 20-element bench, three clipping apertures (median)", value: analyzeMs, unit: "ms", target: "none (was ≤ 0.2 ms before the field chain)" },
     { name: `screenProfile, 1024 points at N = ${fresnelNumber.toFixed(1)} (median)`, value: profileMs, unit: "ms", target: "≤ 20 ms" },
     { name: "screenProfile max error vs 16× finer reference", value: maxError / peak, unit: "of peak", target: "≤ 1e-4" },
   ];

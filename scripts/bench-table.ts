@@ -13,8 +13,8 @@ function median(xs: number[]): number {
 }
 
 /**
- * One laser along y = 100 mm on a 3 × 1.5 m table: 28 lenses, filters and irises on the main line, 4 tilted windows
- * (their ghosts go back across the table), 6 splitters each sending an arm of 9 optics and a block up the table,
+ * One laser along y = 100 mm on a 3 × 1.5 m table: 26 lenses and filters and 2 irises on the main line, 4 tilted windows
+ * (their ghosts go back across the table), 6 splitters each sending an arm of 8 lenses and filters, an iris and a block up the table,
  * and a block at the end: 100 elements.
  */
 export function hundredElementTable(): BenchDocumentV2 {
@@ -30,9 +30,9 @@ export function hundredElementTable(): BenchDocumentV2 {
       for (let j = 0; j < 9; j++) {
         const y = 250 + j * 110;
         const id = `arm${k}-${j}`;
-        if (j % 3 === 0) elements.push({ id, kind: "lens", xMm: x, yMm: y, angleDeg: 270, focalLengthMm: j === 0 ? 150 : 300 });
-        else if (j % 3 === 1) elements.push({ id, kind: "filter", xMm: x, yMm: y, angleDeg: 270, opticalDensity: 0.2 });
-        else elements.push({ id, kind: "aperture", xMm: x, yMm: y, angleDeg: 270, diameterMm: 4 + j });
+        if (j === 4) elements.push({ id, kind: "aperture", xMm: x, yMm: y, angleDeg: 270, diameterMm: 6 });
+        else if (j % 2 === 0) elements.push({ id, kind: "lens", xMm: x, yMm: y, angleDeg: 270, focalLengthMm: j === 0 ? 150 : 300 });
+        else elements.push({ id, kind: "filter", xMm: x, yMm: y, angleDeg: 270, opticalDensity: 0.2 });
       }
       elements.push({ id: `arm${k}-block`, kind: "beam-block", xMm: x, yMm: 1300, angleDeg: 270 });
     } else if (windowSlots.has(slot)) {
@@ -40,9 +40,9 @@ export function hundredElementTable(): BenchDocumentV2 {
       elements.push({ id: `w${k}`, kind: "window", xMm: x, yMm: 100, angleDeg: 184 });
     } else {
       const id = `main-${main++}`;
-      if (main % 4 === 0) elements.push({ id, kind: "lens", xMm: x, yMm: 100, angleDeg: 180, focalLengthMm: main % 8 === 0 ? 200 : -200 });
-      else if (main % 4 === 1) elements.push({ id, kind: "filter", xMm: x, yMm: 100, angleDeg: 180, opticalDensity: 0.05 });
-      else elements.push({ id, kind: "aperture", xMm: x, yMm: 100, angleDeg: 180, diameterMm: 6 });
+      if (main === 2 || main === 20) elements.push({ id, kind: "aperture", xMm: x, yMm: 100, angleDeg: 180, diameterMm: 6 });
+      else if (main % 2 === 0) elements.push({ id, kind: "lens", xMm: x, yMm: 100, angleDeg: 180, focalLengthMm: main % 4 === 0 ? 200 : -200 });
+      else elements.push({ id, kind: "filter", xMm: x, yMm: 100, angleDeg: 180, opticalDensity: 0.05 });
     }
   }
   elements.push({ id: "end-block", kind: "beam-block", xMm: 2900, yMm: 100, angleDeg: 180 });
@@ -53,13 +53,17 @@ export async function runTableBench(): Promise<BenchFigure[]> {
   const doc = hundredElementTable();
   if (doc.elements.length !== 100) throw new Error(`the benchmark table has ${doc.elements.length} elements, not 100`);
   const run = () => assessBench(doc, analyzeBench(doc));
-  for (let i = 0; i < 200; i++) run();
+  // warm up, then time up to 1001 runs or 20 s, whichever comes first
+  for (let i = 0; i < 20; i++) run();
   const times: number[] = [];
-  for (let i = 0; i < 1001; i++) {
+  const cpu0 = process.cpuUsage();
+  const until = performance.now() + 20_000;
+  for (let i = 0; i < 1001 && performance.now() < until; i++) {
     const t0 = performance.now();
     run();
     times.push(performance.now() - t0);
   }
+  const cpu = process.cpuUsage(cpu0);
   const analysis = analyzeBench(doc);
   return [
     {
@@ -67,6 +71,13 @@ export async function runTableBench(): Promise<BenchFigure[]> {
       value: median(times),
       unit: "ms",
       target: "≤ 2 ms",
+    },
+    {
+      // on a shared machine the wall clock counts time the process waited for a core; this is what it used
+      name: `the same, CPU time per run (user + system, mean of ${times.length})`,
+      value: (cpu.user + cpu.system) / 1000 / times.length,
+      unit: "ms",
+      target: "reference",
     },
   ];
 }

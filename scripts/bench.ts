@@ -25,7 +25,7 @@ async function httpFigures(): Promise<Figure[]> {
   const ports = { app: 3300, postgres: 5435, smtp: 2527, catcherWeb: 1082 };
   const dataDir = path.join(ROOT, ".data/bench");
   rmSync(dataDir, { recursive: true, force: true });
-  const { cluster, env } = await provision({ dataDir, ports, dbName: "benchwarden_bench", seed: true, rateLimitMax: 1000 });
+  const { cluster, env, ownerUrl } = await provision({ dataDir, ports, dbName: "benchwarden_bench", seed: true, rateLimitMax: 1000 });
   try {
     buildIfStale();
     const app = startChild("app", NEXT, ["start", "-H", "127.0.0.1", "-p", String(ports.app)], { env, stdio: ["ignore", "ignore", "inherit"] });
@@ -65,7 +65,8 @@ async function httpFigures(): Promise<Figure[]> {
     // The sign-off desk at scale: 10 000 benches and 100 000+ trail rows in this throwaway database.
     const { seedScale } = await import("./seed-scale");
     const { runDeskBench } = await import("./bench-desk");
-    await seedScale(env.DATABASE_URL!);
+    // As the owning role: the scale seed ends with VACUUM ANALYZE, which only a table's owner may run.
+    await seedScale(ownerUrl);
     const desk = await runDeskBench(env.DATABASE_URL!);
     return [
       ...editor,
@@ -87,6 +88,8 @@ async function main() {
   const figures: Figure[] = [];
   const { runOpticsBench } = await import("./bench-optics");
   figures.push(...(await runOpticsBench()));
+  const { runPhotoBench } = await import("./bench-photo");
+  figures.push(...(await runPhotoBench()));
   const { runSafetyBench } = await import("./bench-safety");
   figures.push(...(await runSafetyBench()));
   const { runTableBench } = await import("./bench-table");

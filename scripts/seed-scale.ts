@@ -128,7 +128,7 @@ export async function seedScale(databaseUrl: string, options: { benches?: number
       B.title.push(`${pick(THINGS)} ${source.nm} nm #${b + 1}`);
       B.author.push(author.id);
       B.at.push(started);
-      A.bench.push(benchId), A.revision.push(null), A.hash.push(null), A.actor.push(author.id), A.role.push("researcher"), A.action.push("bench-created"), A.detail.push("{}"), A.at.push(started);
+      A.bench.push(benchId); A.revision.push(null); A.hash.push(null); A.actor.push(author.id); A.role.push("researcher"); A.action.push("bench-created"); A.detail.push("{}"); A.at.push(started);
 
       const revisions = 1 + Math.floor(Math.pow(random(), 1.6) * 4);
       let t = started.getTime();
@@ -151,30 +151,32 @@ export async function seedScale(databaseUrl: string, options: { benches?: number
         // The newest revision may still be in draft or waiting; earlier ones were all decided.
         const roll = random();
         const outcome = last ? (roll < 0.1 ? "draft" : roll < 0.18 ? "submitted" : roll < 0.85 ? "approved" : roll < 0.95 ? "changes-requested" : "rejected") : roll < 0.55 ? "approved" : roll < 0.9 ? "changes-requested" : "rejected";
-        R.id.push(revId), R.bench.push(benchId), R.number.push(n), R.doc.push(docText), R.hash.push(hash), R.state.push(outcome), R.by.push(author.id), R.at.push(new Date(t));
+        R.id.push(revId); R.bench.push(benchId); R.number.push(n); R.doc.push(docText); R.hash.push(hash); R.state.push(outcome); R.by.push(author.id); R.at.push(new Date(t));
         const saves = random() < 0.4 ? 1 : 0;
-        for (let s = 0; s < saves; s++) A.bench.push(benchId), A.revision.push(revId), A.hash.push(hash), A.actor.push(author.id), A.role.push("researcher"), A.action.push("draft-saved"), A.detail.push(`{"number":${n}}`), A.at.push(new Date(t + (s + 1) * 60_000));
+        for (let s = 0; s < saves; s++) {
+          A.bench.push(benchId); A.revision.push(revId); A.hash.push(hash); A.actor.push(author.id); A.role.push("researcher"); A.action.push("draft-saved"); A.detail.push(`{"number":${n}}`); A.at.push(new Date(t + (s + 1) * 60_000));
+        }
         if (outcome !== "draft") {
           const sentAt = t + DAY_MS * (0.2 + random());
-          A.bench.push(benchId), A.revision.push(revId), A.hash.push(hash), A.actor.push(author.id), A.role.push("researcher"), A.action.push("review-submitted"), A.detail.push(`{"from":"draft","to":"submitted","number":${n}}`), A.at.push(new Date(sentAt));
+          A.bench.push(benchId); A.revision.push(revId); A.hash.push(hash); A.actor.push(author.id); A.role.push("researcher"); A.action.push("review-submitted"); A.detail.push(`{"from":"draft","to":"submitted","number":${n}}`); A.at.push(new Date(sentAt));
           if (outcome !== "submitted") {
             const officer = pick(officers);
             const decidedAt = new Date(sentAt + DAY_MS * (0.5 + random() * 9));
             const months = pick([12, 12, 12, 6, 24]);
             const validUntil = outcome === "approved" ? new Date(decidedAt.getTime() + months * 30.4 * DAY_MS) : null;
             const cls = source.cls;
-            D.id.push(randomUUID()), D.revision.push(revId), D.bench.push(benchId), D.outcome.push(outcome), D.signer.push(officer.id), D.signerName.push(officer.name), D.meaning.push(MEANING[outcome]);
+            D.id.push(randomUUID()); D.revision.push(revId); D.bench.push(benchId); D.outcome.push(outcome); D.signer.push(officer.id); D.signerName.push(officer.name); D.meaning.push(MEANING[outcome]);
             D.conditions.push(outcome === "approved" && random() < 0.6 ? pick(["Eyewear OD 3 at the laser wavelength for everyone in the room.", "Beam enclosure closed during use.", "Door interlock on; sign lit.", "Alignment at under 1 mW only."]) : null);
             D.reason.push(outcome === "approved" ? null : pick(COMMENT_BODIES));
-            D.validUntil.push(validUntil), D.hash.push(hash), D.summary.push(JSON.stringify({ engine: "scale seed", hazardClass: { value: cls, source: "IEC 60825-1:2014 Tables 3–8" }, laser: { wavelengthNm: source.nm, powerMw: source.mw } })), D.at.push(decidedAt);
+            D.validUntil.push(validUntil); D.hash.push(hash); D.summary.push(JSON.stringify({ engine: "scale seed", hazardClass: { value: cls, source: "IEC 60825-1:2014 Tables 3–8" }, laser: { wavelengthNm: source.nm, powerMw: source.mw } })); D.at.push(decidedAt);
             benchDecisions.push({ idx: D.id.length - 1, outcome });
             if (outcome === "approved") lastApprovedIndex = R.id.length - 1;
-            A.bench.push(benchId), A.revision.push(revId), A.hash.push(hash), A.actor.push(officer.id), A.role.push("officer"), A.action.push(`review-${outcome}`), A.detail.push(`{"from":"submitted","to":"${outcome}","number":${n}}`), A.at.push(decidedAt);
+            A.bench.push(benchId); A.revision.push(revId); A.hash.push(hash); A.actor.push(officer.id); A.role.push("officer"); A.action.push(`review-${outcome}`); A.detail.push(`{"from":"submitted","to":"${outcome}","number":${n}}`); A.at.push(decidedAt);
             const comments = outcome === "approved" ? (random() < 0.3 ? 1 : 0) : 1 + Math.floor(random() * 2);
             for (let c = 0; c < comments; c++) {
               const id = randomUUID();
               const fromOfficer = c % 2 === 0;
-              C.id.push(id), C.revision.push(revId), C.bench.push(benchId), C.author.push(fromOfficer ? officer.id : author.id), C.authorName.push(fromOfficer ? officer.name : author.name), C.role.push(fromOfficer ? "Laser safety officer" : "Researcher"), C.body.push(pick(COMMENT_BODIES)), C.at.push(new Date(decidedAt.getTime() - 3600_000 + c * 600_000));
+              C.id.push(id); C.revision.push(revId); C.bench.push(benchId); C.author.push(fromOfficer ? officer.id : author.id); C.authorName.push(fromOfficer ? officer.name : author.name); C.role.push(fromOfficer ? "Laser safety officer" : "Researcher"); C.body.push(pick(COMMENT_BODIES)); C.at.push(new Date(decidedAt.getTime() - 3600_000 + c * 600_000));
             }
             t = decidedAt.getTime();
           } else t = sentAt;
@@ -197,7 +199,7 @@ export async function seedScale(databaseUrl: string, options: { benches?: number
     const actions = ["build-sheet-requested", "build-sheet-exported", "build-started", "build-check-recorded", "build-observation-recorded", "sheet-verified"];
     while (base + A.bench.length < trailTarget && approvedRevisions.length) {
       const r = pick(approvedRevisions);
-      A.bench.push(R.bench[r.i]), A.revision.push(r.id), A.hash.push(R.hash[r.i]), A.actor.push(pick(researchers).id), A.role.push("technician"), A.action.push(pick(actions)), A.detail.push("{}"), A.at.push(new Date(R.at[r.i].getTime() + DAY_MS * (5 + random() * 30)));
+      A.bench.push(R.bench[r.i]); A.revision.push(r.id); A.hash.push(R.hash[r.i]); A.actor.push(pick(researchers).id); A.role.push("technician"); A.action.push(pick(actions)); A.detail.push("{}"); A.at.push(new Date(R.at[r.i].getTime() + DAY_MS * (5 + random() * 30)));
     }
 
     await insertColumns(client, "bench", { id: { type: "uuid", values: B.id }, lab_id: { type: "uuid", values: B.lab }, title: { type: "text", values: B.title }, author_id: { type: "text", values: B.author }, created_at: { type: "timestamptz", values: B.at }, updated_at: { type: "timestamptz", values: B.at } });

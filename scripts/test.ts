@@ -46,13 +46,17 @@ function run(command: string, args: string[], env: NodeJS.ProcessEnv): number {
 async function main(): Promise<number> {
   const started = Date.now();
   let typecheck: Counts = { passed: 0, failed: 1 };
+  let lint: Counts = { passed: 0, failed: 1 };
   rmSync(dataDir, { recursive: true, force: true });
   mkdirSync(resultsDir, { recursive: true });
   for (const f of ["vitest.json", "playwright.json"]) rmSync(path.join(resultsDir, f), { force: true });
 
   const { cluster, env, superUrl } = await provision({ dataDir, ports, dbName: "benchwarden_test", seed: true, rateLimitMax: 60 });
+  // The tests stand where a reverse proxy would: they sign in from distinct documentation-range
+  // addresses through X-Forwarded-For, so the app trusts one proxy hop (tests/integration/security-*
+  // also start a server with the setting off).
   const secondAppUrl = `http://127.0.0.1:${SECOND_APP_PORT}`;
-  const testEnv = { ...env, TEST_SUPERUSER_URL: superUrl, MAIL_WORKER_INTERVAL_MS: "300", SECOND_APP_URL: secondAppUrl };
+  const testEnv = { ...env, TEST_SUPERUSER_URL: superUrl, MAIL_WORKER_INTERVAL_MS: "300", TRUSTED_PROXY_COUNT: "1", SECOND_APP_URL: secondAppUrl };
   try {
     startChild("mail catcher", TSX, ["scripts/mail-catcher.ts"], { env: testEnv });
     buildIfStale();
@@ -66,6 +70,8 @@ async function main(): Promise<number> {
 
     log("type check of the whole project (tsc --noEmit)");
     typecheck = run(path.join(ROOT, "node_modules/.bin/tsc"), ["--noEmit", "-p", "tsconfig.json"], testEnv) === 0 ? { passed: 1, failed: 0 } : { passed: 0, failed: 1 };
+    log("lint of the whole project (eslint, no warnings allowed)");
+    lint = run(path.join(ROOT, "node_modules/.bin/eslint"), [".", "--max-warnings", "0", "--cache", "--cache-location", "node_modules/.cache/eslint/"], testEnv) === 0 ? { passed: 1, failed: 0 } : { passed: 0, failed: 1 };
     log("vitest: unit, integration and HTTP tests");
     run(path.join(ROOT, "node_modules/.bin/vitest"), ["run", "--reporter=default", "--reporter=json", `--outputFile.json=${path.join(resultsDir, "vitest.json")}`, ...vitestFilter], testEnv);
     if (playwrightFilter[0] === "none") {
@@ -84,9 +90,9 @@ async function main(): Promise<number> {
 
   const v = vitestCounts(path.join(resultsDir, "vitest.json"));
   const p = playwrightCounts(path.join(resultsDir, "playwright.json"));
-  const passed = v.passed + p.passed + typecheck.passed;
-  const failed = v.failed + p.failed + typecheck.failed;
-  log(`type check ${typecheck.failed ? "failed" : "passed"}; vitest ${v.passed} passed, ${v.failed} failed; Playwright ${p.passed} passed, ${p.failed} failed; ${((Date.now() - started) / 1000).toFixed(0)} s`);
+  const passed = v.passed + p.passed + typecheck.passed + lint.passed;
+  const failed = v.failed + p.failed + typecheck.failed + lint.failed;
+  log(`type check ${typecheck.failed ? "failed" : "passed"}; lint ${lint.failed ? "failed" : "passed"}; vitest ${v.passed} passed, ${v.failed} failed; Playwright ${p.passed} passed, ${p.failed} failed; ${((Date.now() - started) / 1000).toFixed(0)} s`);
   process.stdout.write(`${passed} passed, ${failed} failed\n`);
   return failed === 0 && passed > 0 ? 0 : 1;
 }

@@ -4,10 +4,13 @@ import { useState } from "react";
 import { authClient } from "@/lib/auth/auth-client";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
+import { safeCallbackPath } from "./safe-callback";
 
 export function SignInForm() {
   const router = useRouter();
-  const passwordSaved = useSearchParams().get("done") === "1";
+  const params = useSearchParams();
+  const passwordSaved = params.get("done") === "1";
+  const callback = safeCallbackPath(params.get("callbackURL"));
   const [email, setEmail] = useState("");
   const [password, setPassword] = useState("");
   const [error, setError] = useState<string | null>(null);
@@ -26,7 +29,7 @@ export function SignInForm() {
       setError(failure.status === 429 ? "Too many attempts. Wait a minute, then try again." : "Wrong e-mail or password.");
       return;
     }
-    router.replace("/");
+    router.replace(callback);
     router.refresh();
   }
 

@@ -1,3 +1,4 @@
+import { formatDateTime } from "@/lib/format";
 import Link from "next/link";
 import type { ReviewState } from "@/db/schema";
 import { StateBadge } from "@/components/ui/state-badge";
@@ -7,7 +8,7 @@ export type BenchRow = { href?: string; benchId: string; title: string; labName:
 export function BenchTable({ rows, empty, caption }: { rows: BenchRow[]; empty: string; caption: string }) {
   if (rows.length === 0) return <p className="rounded-lg border border-dashed border-line p-4 text-muted">{empty}</p>;
   return (
-    <div className="overflow-x-auto rounded-lg border border-line">
+    <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
       <table className="w-full text-left">
         <caption className="sr-only">{caption}</caption>
         <thead className="bg-raised text-sm text-muted">
@@ -34,7 +35,7 @@ export function BenchTable({ rows, empty, caption }: { rows: BenchRow[]; empty: 
                 #{r.number} · {r.contentHash.slice(0, 10)}
               </td>
               <td className="px-3 py-3">{r.state ? <StateBadge state={r.state} /> : null}</td>
-              <td className="px-3 py-3 text-sm text-muted">{r.updatedAt.slice(0, 16).replace("T", " ")} UTC</td>
+              <td className="px-3 py-3 text-sm text-muted">{formatDateTime(r.updatedAt)}</td>
             </tr>
           ))}
         </tbody>

@@ -1,20 +1,14 @@
 // Query options and mutations of the as-built record, shared by the server prefetch (same keys) and the
 // browser. Every mutation answers with the whole build, which replaces the cached one.
 import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
-import { ApiError, apiFetch } from "@/lib/api/client";
-import type { BuildView, ObservationView } from "@/lib/server/builds";
+import { apiFetch, queryKeys } from "@/lib/api/client";
+import type { BuildView, ObservationView } from "@/lib/api/contracts/builds";
 
 export type { BuildView, ObservationView };
 
-export const buildKeys = {
-  all: () => ["builds"] as const,
-  one: (buildId: string) => ["builds", buildId] as const,
-  sheet: (revisionId: string, paper: string) => ["sheets", revisionId, paper] as const,
-};
-
 export const buildQuery = (buildId: string) =>
   queryOptions({
-    queryKey: buildKeys.one(buildId),
+    queryKey: queryKeys.build(buildId),
     queryFn: ({ signal }) => apiFetch<{ build: BuildView }>(`/api/builds/${buildId}`, { signal }).then((r) => r.build),
     staleTime: 10_000,
   });
@@ -23,7 +17,7 @@ function useBuildMutation<I, R extends { build: BuildView }>(buildId: string, se
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: send,
-    onSuccess: (result) => queryClient.setQueryData(buildKeys.one(buildId), result.build),
+    onSuccess: (result) => queryClient.setQueryData(queryKeys.build(buildId), result.build),
   });
 }
 
@@ -32,7 +26,7 @@ export function useCheck(buildId: string) {
   return useBuildMutation(buildId, (input: CheckPatch) => apiFetch<{ build: BuildView }>(`/api/builds/${buildId}/checks`, { method: "PATCH", body: JSON.stringify(input) }));
 }
 
-export type ObservationInput = { apertureId: string | null; centreSeen: "bright" | "dark" | "unclear" | null; spotDiameterMm: number | null; screenPowerMw: number | null; note: string | null };
+export type ObservationInput = { apertureId: string | null; centreSeen: "bright" | "dark" | "between" | null; spotDiameterMm: number | null; screenPowerMw: number | null; note: string | null };
 export function useObservation(buildId: string) {
   return useBuildMutation(buildId, (input: ObservationInput) =>
     apiFetch<{ build: BuildView; observation: ObservationView }>(`/api/builds/${buildId}/observations`, { method: "POST", body: JSON.stringify(input) }),
@@ -43,20 +37,12 @@ export function useSignOff(buildId: string) {
   return useBuildMutation(buildId, () => apiFetch<{ build: BuildView }>(`/api/builds/${buildId}/sign-off`, { method: "POST", body: "{}" }));
 }
 
-/** Multipart, so not through apiFetch (which sets a JSON content type). */
+/** Multipart: apiFetch sends a FormData body as it is. */
 export function useUpload(buildId: string) {
-  return useBuildMutation(buildId, async (input: { file: File; kind: string }) => {
+  return useBuildMutation(buildId, (input: { file: File; kind: string }) => {
     const form = new FormData();
     form.set("file", input.file);
     form.set("kind", input.kind);
-    let response: Response;
-    try {
-      response = await fetch(`/api/builds/${buildId}/uploads`, { method: "POST", body: form });
-    } catch {
-      throw new ApiError("The server cannot be reached. Check the connection and try again.", 0, []);
-    }
-    const body = (await response.json().catch(() => null)) as { build?: BuildView; error?: { message: string; fields?: { path: string; message: string }[] } } | null;
-    if (!response.ok || !body?.build) throw new ApiError(body?.error?.message ?? `The server answered ${response.status}.`, response.status, body?.error?.fields ?? []);
-    return { build: body.build };
+    return apiFetch<{ build: BuildView }>(`/api/builds/${buildId}/uploads`, { method: "POST", body: form });
   });
 }

@@ -1,29 +1,35 @@
 "use client";
 // The build page's working area: the checklist, then each aperture's prediction beside what was seen
-// (observations and photos), other uploads, and the technician's sign-off of the build.
+// (observations and photos), other uploads, and the technician completing the build.
 import { useQuery } from "@tanstack/react-query";
 import { Button } from "@/components/ui/button";
 import { ProfilePlot } from "@/components/sheets/profile-plot";
-import type { BuildView, ObservationView } from "@/lib/server/builds";
+import type { BuildView, ObservationView } from "@/lib/api/contracts/builds";
+import { BUILD_DONE, capitalise, CENTRE_MARKS, centreWords, formatDateTime, formatNumber, type CentreState } from "@/lib/format";
 import { buildQuery, useSignOff } from "./build-queries";
+import type { CoverageData } from "@/components/eyewear/coverage-list";
 import { Checklist } from "./checklist";
 import { ObservationForm } from "./observation-form";
 import { UploadForm } from "./upload-form";
 
 export type PredictionImages = Record<string, { ringPng: string | null; profile: { radiusMm: number[]; relativeIntensity: number[]; shadowRadiusMm: number } | null; acrossMm: number | null }>;
 
-const fmt = (v: number | null | undefined) => (v === null || v === undefined ? "—" : String(Number(v.toPrecision(3))));
-const CENTRE = { bright: "● Bright centre", dark: "○ Dark centre", between: "◐ Neither clearly bright nor dark", unclear: "? Unclear" } as const;
+const fmt = (v: number | null | undefined) => formatNumber(v);
+const centreLabel = (c: string | null | undefined) => {
+  if (!c) return "—";
+  const state = c === "unclear" ? "between" : (c as CentreState);
+  return `${CENTRE_MARKS[state] ?? ""} ${capitalise(centreWords(state))}`;
+};
 
 function ObservationItem({ o }: { o: ObservationView }) {
   return (
     <li className={`rounded-md border px-3 py-2 ${o.mismatch ? "border-danger" : "border-line"}`} data-testid="observation">
       <p className="font-medium">
         {o.mismatch ? <span className="text-danger">✕ Mismatch</span> : <span className="text-ok">✓ Matches</span>}
-        <span className="text-sm text-muted"> · {o.recordedByName}, {o.createdAt.slice(0, 16).replace("T", " ")} UTC</span>
+        <span className="text-sm text-muted"> · {o.recordedByName}, {formatDateTime(o.createdAt)}</span>
       </p>
       <ul className="text-sm">
-        {o.centreSeen ? <li>Centre seen: {CENTRE[o.centreSeen]} (predicted: {o.centrePredicted ? CENTRE[o.centrePredicted as keyof typeof CENTRE] : "—"})</li> : null}
+        {o.centreSeen ? <li>Centre seen: {centreLabel(o.centreSeen)} (predicted: {centreLabel(o.centrePredicted)})</li> : null}
         {o.spotDiameterMm !== null ? <li>Diameter: {o.spotDiameterMm} mm (predicted {fmt(o.predictedSpotDiameterMm)} mm)</li> : null}
         {o.screenPowerMw !== null ? <li>Power at the screen: {o.screenPowerMw} mW (predicted {fmt(o.predictedScreenPowerMw)} mW)</li> : null}
       </ul>
@@ -60,7 +66,7 @@ function Uploads({ uploads }: { uploads: BuildView["uploads"] }) {
   );
 }
 
-export function BuildWorkspace({ buildId, images }: { buildId: string; images: PredictionImages }) {
+export function BuildWorkspace({ buildId, images, eyewear = null }: { buildId: string; images: PredictionImages; eyewear?: CoverageData | null }) {
   const { data: build } = useQuery(buildQuery(buildId));
   const signOff = useSignOff(buildId);
   if (!build) return <p className="text-muted">Loading the build record…</p>;
@@ -71,7 +77,7 @@ export function BuildWorkspace({ buildId, images }: { buildId: string; images: P
     <div className="flex flex-col gap-10">
       <section aria-labelledby="checklist-heading" className="flex flex-col gap-3">
         <h2 id="checklist-heading" className="text-xl font-semibold">As-built checklist</h2>
-        <Checklist build={build} />
+        <Checklist build={build} eyewear={eyewear} />
       </section>
 
       <section aria-labelledby="seen-heading" className="flex flex-col gap-4">
@@ -88,9 +94,9 @@ export function BuildWorkspace({ buildId, images }: { buildId: string; images: P
                 <h3 className="text-lg font-semibold">
                   Predicted behind {a.apertureId} <span className="text-muted">(⌀ {a.diameterMm} mm{a.screenId ? `, on ${a.screenId}` : ""})</span>
                 </h3>
-                <p className="text-2xl font-semibold">{CENTRE[a.centre]}</p>
+                <p className="text-2xl font-semibold">{centreLabel(a.centre)}</p>
                 <dl className="grid grid-cols-2 gap-2 text-sm">
-                  <dt className="text-muted">Half-period zones (Fresnel number)</dt>
+                  <dt className="text-muted">Half-period zones</dt>
                   <dd className="font-mono">{fmt(a.fresnelNumber)}</dd>
                   <dt className="text-muted">Centre intensity</dt>
                   <dd className="font-mono">×{fmt(a.centreIntensityRatio)} of the open beam</dd>
@@ -160,16 +166,16 @@ export function BuildWorkspace({ buildId, images }: { buildId: string; images: P
       </section>
 
       <section aria-labelledby="signoff-heading" className="flex flex-col gap-3 rounded-xl border border-line bg-panel p-4">
-        <h2 id="signoff-heading" className="text-xl font-semibold">Sign off the build</h2>
+        <h2 id="signoff-heading" className="text-xl font-semibold">{BUILD_DONE.verb}</h2>
         {build.state === "completed" ? (
-          <p className="text-lg text-ok">● Signed off by {build.technicianName} on {build.signedOffAt?.slice(0, 16).replace("T", " ")} UTC.</p>
+          <p className="text-lg text-ok">● {BUILD_DONE.done} by {build.technicianName}, {formatDateTime(build.signedOffAt)}.</p>
         ) : (
           <>
-            <p className="text-muted">Signing off says: the bench was built as drawn, every control is in place and the eyewear is available.</p>
+            <p className="text-muted">Completing the build records that the bench was built as drawn, every control and condition is in place and the eyewear is available.</p>
             {build.may.whyNotSignOff ? <p className="text-warn">▲ {build.may.whyNotSignOff}</p> : null}
             <div>
               <Button type="button" disabled={!build.may.signOff || signOff.isPending} onClick={() => signOff.mutate()}>
-                Sign off the build
+                {BUILD_DONE.verb}
               </Button>
             </div>
             {signOff.error ? <p role="alert" className="text-danger">{signOff.error.message}</p> : null}

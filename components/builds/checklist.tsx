@@ -2,8 +2,10 @@
 // The as-built checklist: each element's measured position (the server says whether it is within the
 // stated tolerance), each control and the eyewear ticked. Flags carry a word and a shape, not colour alone.
 import { useState } from "react";
+import { CoverageList, type CoverageData } from "@/components/eyewear/coverage-list";
 import { fieldError } from "@/lib/api/client";
-import type { BuildView } from "@/lib/server/builds";
+import type { BuildView } from "@/lib/api/contracts/builds";
+import { HazardNotes } from "@/components/ui/hazard-notes";
 import { useCheck } from "./build-queries";
 
 type Item = BuildView["checklist"][number];
@@ -78,10 +80,11 @@ function Row({ buildId, item, editable, toleranceMm }: { buildId: string; item: 
   );
 }
 
-export function Checklist({ build }: { build: BuildView }) {
+export function Checklist({ build, eyewear = null }: { build: BuildView; eyewear?: CoverageData | null }) {
   const groups: { title: string; group: Item["group"] }[] = [
     { title: "Elements at their positions", group: "element" },
     { title: "Controls in place", group: "control" },
+    { title: "Conditions of the sign-off", group: "condition" },
     { title: "Eyewear", group: "eyewear" },
   ];
   const done = build.checklist.filter((c) => c.done).length;
@@ -90,9 +93,10 @@ export function Checklist({ build }: { build: BuildView }) {
       <p className="text-muted">
         {done} of {build.checklist.length} ticked. Each element must sit within ±{build.tolerance.positionMm} mm of its drawn position, measured along the beam.
       </p>
-      {groups.map((g) => (
+      {groups.filter((g) => build.checklist.some((c) => c.group === g.group)).map((g) => (
         <section key={g.group} className="flex flex-col gap-2">
           <h3 className="font-semibold">{g.title}</h3>
+          {g.group === "eyewear" && eyewear ? <CoverageList data={eyewear} /> : null}
           <ul className="flex flex-col gap-2">
             {build.checklist
               .filter((c) => c.group === g.group)
@@ -102,6 +106,7 @@ export function Checklist({ build }: { build: BuildView }) {
           </ul>
         </section>
       ))}
+      <HazardNotes />
     </div>
   );
 }

@@ -1,17 +1,18 @@
 "use client";
-// Record what was seen on the screen: centre bright/dark/unclear, spot or ring size, power at the screen.
+// Record what was seen on the screen: centre bright/dark/between, spot or ring size, power at the screen.
 // The server compares it with the prediction and flags a mismatch (and e-mails the bench's author).
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { fieldError } from "@/lib/api/client";
+import { capitalise, CENTRE_MARKS, CENTRE_WORDS } from "@/lib/format";
 import { useObservation } from "./build-queries";
 
 const toNumber = (v: string) => (v.trim() === "" ? null : Number(v.replace(",", ".")));
 
 export function ObservationForm({ buildId, apertureId, label }: { buildId: string; apertureId: string | null; label: string }) {
   const record = useObservation(buildId);
-  const [centre, setCentre] = useState<"bright" | "dark" | "unclear" | "">("");
+  const [centre, setCentre] = useState<"bright" | "dark" | "between" | "">("");
   const [spot, setSpot] = useState("");
   const [power, setPower] = useState("");
   const [note, setNote] = useState("");
@@ -33,10 +34,10 @@ export function ObservationForm({ buildId, apertureId, label }: { buildId: strin
       {apertureId ? (
         <fieldset className="flex flex-wrap gap-4">
           <legend className="mb-1 text-sm font-medium text-muted">Centre of the pattern</legend>
-          {(["bright", "dark", "unclear"] as const).map((c) => (
+          {(["bright", "dark", "between"] as const).map((c) => (
             <label key={c} className="flex min-h-11 items-center gap-2">
               <input type="radio" name={`centre-${id}`} value={c} checked={centre === c} onChange={() => setCentre(c)} className="h-5 w-5" />
-              {c === "bright" ? "● Bright" : c === "dark" ? "○ Dark" : "? Unclear"}
+              {CENTRE_MARKS[c]} {capitalise(CENTRE_WORDS[c])}
             </label>
           ))}
         </fieldset>

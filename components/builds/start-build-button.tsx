@@ -3,7 +3,7 @@ import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { Button } from "@/components/ui/button";
 import { apiFetch } from "@/lib/api/client";
-import type { BuildView } from "@/lib/server/builds";
+import type { BuildView } from "@/lib/api/contracts/builds";
 
 /** Starts (or reopens) the technician's build of a signed-off revision and goes to it. */
 export function StartBuildButton({ revisionId, label = "Start the build" }: { revisionId: string; label?: string }) {

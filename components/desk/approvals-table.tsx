@@ -1,4 +1,5 @@
 "use client";
+import { formatDate, formatDateTime } from "@/lib/format";
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 import Link from "next/link";
 import { Button } from "@/components/ui/button";
@@ -8,12 +9,12 @@ import { useDeskUrl } from "./use-desk-url";
 
 const DAY_MS = 86_400_000;
 const column = createColumnHelper<ApprovalRow>();
-const utc = (iso: string) => `${iso.slice(0, 16).replace("T", " ")} UTC`;
+const utc = (iso: string) => formatDateTime(iso);
 
 function validity(row: ApprovalRow, nowMs: number) {
   if (!row.validUntil) return <span className="text-muted">—</span>;
   const days = Math.ceil((Date.parse(row.validUntil) - nowMs) / DAY_MS);
-  const when = row.validUntil.slice(0, 10);
+  const when = formatDate(row.validUntil);
   if (row.state !== "approved") return <span className="text-muted">{when}</span>;
   if (days <= 30) {
     return (
@@ -67,6 +68,8 @@ export function ApprovalsTable({ rows, total, page, pageSize, pageCount, sort, d
     }),
   ];
   const sorting: SortingState = [{ id: sort, desc: dir === "desc" }];
+  // TanStack Table returns functions the React Compiler cannot memoise; this app does not use the compiler.
+  // eslint-disable-next-line react-hooks/incompatible-library
   const table = useReactTable({
     data: rows,
     columns,
@@ -98,7 +101,7 @@ export function ApprovalsTable({ rows, total, page, pageSize, pageCount, sort, d
       <p role="status" className="text-muted" data-testid="desk-count">
         {total === 0 ? "No sign-off matches these filters." : `Showing ${first}–${last} of ${total} sign-off${total === 1 ? "" : "s"}.`}
       </p>
-      <div className={`overflow-x-auto rounded-lg border border-line ${pending ? "opacity-60" : ""}`}>
+      <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className={`overflow-x-auto rounded-lg border border-line ${pending ? "opacity-60" : ""}`}>
         <table className="w-full text-left" data-testid="approvals-table">
           <caption className="sr-only">Sign-offs, {sort} {dir === "asc" ? "ascending" : "descending"}</caption>
           <thead className="bg-raised text-sm text-muted">

@@ -1,35 +1,15 @@
 import type { TrailEntry } from "@/lib/server/trail";
 
-const utc = (iso: string) => `${iso.slice(0, 19).replace("T", " ")} UTC`;
+import { ACTION_WORDS, centreWords, formatDate, formatDateTime, formatNumber } from "@/lib/format";
 
-export const ACTION_WORDS: Record<string, string> = {
-  "bench-created": "Bench created",
-  "draft-saved": "Draft saved",
-  "draft-revision-started": "New draft revision started",
-  "revision-made": "Revision made",
-  "review-submitted": "Sent for review",
-  "review-withdrawn": "Withdrawn from review",
-  "review-approved": "Signed off",
-  "review-changes-requested": "Changes asked for",
-  "review-rejected": "Turned down",
-  "review-superseded": "Sign-off replaced by a newer one",
-  "review-expired": "Sign-off expired",
-  "review-comment": "Comment written",
-  "sign-off-password-refused": "Signing refused: wrong password",
-  "build-sheet-requested": "Build sheet requested",
-  "build-sheet-exported": "Build sheet downloaded",
-  "sheet-verified": "Printed sheet checked against its hash",
-  "build-started": "Rebuild started",
-  "build-check-recorded": "Checklist line recorded",
-  "build-observation-recorded": "Observation recorded",
-  "build-upload-stored": "Photo or file uploaded",
-  "build-signed-off": "Rebuild completed",
-  "desk-exported-trail": "Trail exported",
-};
+export { ACTION_WORDS };
+
+const utc = (iso: string) => formatDateTime(iso);
+
 
 const OUTCOME_WORDS: Record<string, { label: string; shape: string; className: string }> = {
   approved: { label: "Signed off", shape: "●", className: "border-ok text-ok" },
-  "changes-requested": { label: "Changes asked for", shape: "◑", className: "border-warn text-warn" },
+  "changes-requested": { label: "Changes asked", shape: "◑", className: "border-warn text-warn" },
   rejected: { label: "Turned down", shape: "✕", className: "border-danger text-danger" },
 };
 
@@ -69,7 +49,9 @@ function Body({ e }: { e: Shown }) {
       return (
         <>
           <p className="font-semibold">Revision {e.revisionNumber} created{e.by ? ` by ${e.by}` : ""}</p>
-          <p className="break-all font-mono text-sm text-muted">Content hash {e.contentHash}</p>
+          <p className="break-all font-mono text-sm text-muted">
+            {e.state === "draft" ? "Content hash as last saved" : "Content hash as sent for review"} {e.contentHash}
+          </p>
         </>
       );
     case "decision": {
@@ -101,7 +83,7 @@ function Body({ e }: { e: Shown }) {
             </p>
           ) : null}
           <p className="mt-1 text-sm text-muted">
-            {e.validUntil ? `Valid until ${e.validUntil.slice(0, 10)} · ` : ""}
+            {e.validUntil ? `Valid until ${formatDate(e.validUntil)} · ` : ""}
             {e.hazardClass ? `Class ${e.hazardClass} at signing · ` : ""}
             {e.stepUpVerified ? "password re-entered to sign" : "signed without re-entering the password"}
           </p>
@@ -135,10 +117,34 @@ function Body({ e }: { e: Shown }) {
             {e.revisionNumber ? ` · revision ${e.revisionNumber}` : ""}
             {e.by ? ` · ${e.by}` : ""}
           </p>
+          {eventDetail(e.action, e.detail) ? <p className="text-sm text-muted" data-testid="trail-event-detail">{eventDetail(e.action, e.detail)}</p> : null}
           {e.contentHash ? <p className="break-all font-mono text-xs text-muted">{e.contentHash}</p> : null}
         </>
       );
   }
+}
+
+/** What a checklist line or an observation recorded, in words (the audit row's detail). */
+export function eventDetail(action: string, detail: unknown): string | null {
+  if (!detail || typeof detail !== "object") return null;
+  const d = detail as Record<string, unknown>;
+  if (action === "build-check-recorded") {
+    const parts = [`Line ${String(d.itemKey ?? "—")}: ${d.done ? "ticked" : "not ticked"}`];
+    if (typeof d.measuredPositionMm === "number") {
+      parts.push(`measured ${formatNumber(d.measuredPositionMm, { digits: 6 })} mm${typeof d.expectedPositionMm === "number" ? ` (drawn ${formatNumber(d.expectedPositionMm, { digits: 6 })} mm)` : ""}`);
+      if (d.withinTolerance === false) parts.push("out of tolerance");
+    }
+    if (typeof d.note === "string" && d.note) parts.push(`note “${d.note}”`);
+    return parts.join(", ");
+  }
+  if (action === "build-observation-recorded") {
+    const parts = [d.mismatch ? "✕ Mismatch with the prediction" : "✓ Matches the prediction"];
+    if (d.apertureId) parts.push(`behind ${String(d.apertureId)}`);
+    if (d.centreSeen) parts.push(`centre seen: ${centreWords(d.centreSeen === "unclear" ? "between" : String(d.centreSeen))} (predicted ${centreWords(d.centrePredicted as string | null)})`);
+    if (Array.isArray(d.reasons) && d.reasons.length) parts.push(d.reasons.join(" "));
+    return parts.join("; ");
+  }
+  return null;
 }
 
 export function TrailTimeline({ entries }: { entries: TrailEntry[] }) {

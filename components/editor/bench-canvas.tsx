@@ -7,7 +7,7 @@
 // the drawing redraws per pointer move: the elements that moved and the dimension lines); the editor hears of it
 // once, on drag end (select the dragged element if needed, then one set-positions: one undo step, one analysis).
 import Konva from "konva";
-import { memo, useEffect, useMemo, useRef, useState } from "react";
+import { memo, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import { Group, Layer, Line, Rect, Shape, Stage, Text, Circle, Wedge } from "react-konva";
 import type { BenchDocument, BenchElement } from "@/lib/bench/schema";
 import type { KeyedAnalysis } from "@/lib/api/bench-queries";
@@ -19,6 +19,7 @@ import { envelopeSlice, type HazardSegment } from "./hazard-bands";
 import { BAND_STYLES, THEME, type HatchKind } from "./palette-colours";
 import { CENTRE_SYMBOL, type FinderTick } from "./screen-finder";
 import { clampScale, pinchZoom, touchPair, type View } from "./view";
+import { computedOdText } from "@/lib/format/eyewear";
 
 // Touch moves must reach the stage while it is being dragged, or a second finger could never start a pinch.
 Konva.hitOnDragEnabled = true;
@@ -36,6 +37,13 @@ const BADGE_Y = RAIL_Y - SYMBOL_HALF_HEIGHT - 52;
 // The beam stays above the rail bar (and so off the labels and the ruler below it), the same height up and down.
 const MAX_BEAM_PX = Math.min(RAIL_Y - DIM_Y - 20, RAIL_BAR_Y - RAIL_Y - 4);
 const TICK_LABEL_Y = RULER_Y - 34;
+/** A second row of element labels sits this far below the first. */
+const LABEL_ROW_PX = 30;
+
+/** Half the width a label takes under the rail (id and short description), estimated from the characters. */
+function labelHalfWidthPx(e: BenchDocument["elements"][number]): number {
+  return Math.max(e.id.length * 7.5, shortLabel(e).length * 6.5, 24) / 2;
+}
 
 export type BenchCanvasProps = {
   doc: BenchDocument;
@@ -89,6 +97,19 @@ export function BenchCanvas(props: BenchCanvasProps) {
   );
   const shownSelection = preview?.selection ?? selection;
   const sorted = useMemo(() => [...shown].sort((a, b) => a.positionMm - b.positionMm), [shown]);
+  // Labels under the rail: a label that would run into its left neighbour's drops to a second row.
+  const labelRows = useMemo(() => {
+    const rows = new Map<string, number>();
+    const rightEdge = [-Infinity, -Infinity];
+    for (const e of sorted) {
+      const x = e.positionMm * pxPerMm;
+      const half = labelHalfWidthPx(e);
+      const row = rightEdge[0] + 6 <= x - half ? 0 : rightEdge[1] + 6 <= x - half ? 1 : rightEdge[0] <= rightEdge[1] ? 0 : 1;
+      rightEdge[row] = x + half;
+      rows.set(e.id, row);
+    }
+    return rows;
+  }, [sorted, pxPerMm]);
   const warningsById = useMemo(() => {
     const m = new Map<string, number>();
     for (const w of analysis?.analysis.warnings ?? []) if (w.elementId) m.set(w.elementId, (m.get(w.elementId) ?? 0) + 1);
@@ -96,6 +117,7 @@ export function BenchCanvas(props: BenchCanvasProps) {
   }, [analysis]);
 
   const ruler = useMemo(() => {
+    // a figure that would run past the right edge is written to the left of its tick, so the last one is never cut
     const major = stepFor(pxPerMm, 90);
     const minor = stepFor(pxPerMm, 9);
     const ticks: { x: number; major: boolean; label?: string }[] = [];
@@ -111,13 +133,19 @@ export function BenchCanvas(props: BenchCanvasProps) {
   // The same element objects while the view stands still (e.g. during an element drag), so React skips them.
   const rulerNodes = useMemo(
     () =>
-      ruler.map((t) => (
-        <Group key={t.x} listening={false}>
-          <Line points={[t.x, RULER_Y, t.x, RULER_Y + (t.major ? 12 : 5)]} stroke={t.major ? THEME.text : THEME.muted} strokeWidth={1} />
-          {t.label !== undefined ? <Text x={t.x + 3} y={RULER_Y + 15} text={t.label} fontSize={12} fill={THEME.muted} /> : null}
-        </Group>
-      )),
-    [ruler],
+      ruler.map((t) => {
+        const labelWidthPx = (t.label?.length ?? 0) * 7 + 4;
+        const flip = t.x + panPx + 3 + labelWidthPx > width;
+        return (
+          <Group key={t.x} listening={false}>
+            <Line points={[t.x, RULER_Y, t.x, RULER_Y + (t.major ? 12 : 5)]} stroke={t.major ? THEME.text : THEME.muted} strokeWidth={1} />
+            {t.label !== undefined ? (
+              <Text x={flip ? t.x - 3 - labelWidthPx : t.x + 3} y={RULER_Y + 15} width={labelWidthPx} align={flip ? "right" : "left"} text={t.label} fontSize={12} fill={THEME.muted} />
+            ) : null}
+          </Group>
+        );
+      }),
+    [ruler, panPx, width],
   );
 
   const envelope = useMemo(() => {
@@ -158,14 +186,16 @@ export function BenchCanvas(props: BenchCanvasProps) {
 
   // Finder ticks: labels that would overlap the previous one are lifted a row.
   const ticks = useMemo(() => {
+    const placed: { tick: (typeof finderTicks)[number]; x: number; labelY: number }[] = [];
     let lastX = -Infinity;
     let lifted = false;
-    return finderTicks.map((t) => {
+    for (const t of finderTicks) {
       const x = t.positionMm * pxPerMm;
       lifted = x - lastX < 46 ? !lifted : false;
       lastX = x;
-      return { tick: t, x, labelY: TICK_LABEL_Y - (lifted ? 16 : 0) };
-    });
+      placed.push({ tick: t, x, labelY: TICK_LABEL_Y - (lifted ? 16 : 0) });
+    }
+    return placed;
   }, [finderTicks, pxPerMm]);
 
   const onWheel = (e: Konva.KonvaEventObject<WheelEvent>) => {
@@ -215,7 +245,9 @@ export function BenchCanvas(props: BenchCanvasProps) {
 
   // Stable handlers for the memoised element nodes: they read the latest props through a ref.
   const latest = useRef({ startDrag, moveDrag, endDrag, props });
-  latest.current = { startDrag, moveDrag, endDrag, props };
+  useLayoutEffect(() => {
+    latest.current = { startDrag, moveDrag, endDrag, props };
+  });
   const handlers = useMemo<ElementHandlers>(
     () => ({
       dragStart: (e, evt) => latest.current.startDrag(e, evt),
@@ -260,7 +292,9 @@ export function BenchCanvas(props: BenchCanvasProps) {
   };
   // The stage's handlers as stable functions (reading the latest through a ref), so a re-render does not rebind them.
   const stageLatest = useRef({ onWheel, onTouchMove, onTouchEnd, onStageDragMove, onStageClick });
-  stageLatest.current = { onWheel, onTouchMove, onTouchEnd, onStageDragMove, onStageClick };
+  useLayoutEffect(() => {
+    stageLatest.current = { onWheel, onTouchMove, onTouchEnd, onStageDragMove, onStageClick };
+  });
   const stageHandlers = useMemo(
     () => ({
       onWheel: (e: Konva.KonvaEventObject<WheelEvent>) => stageLatest.current.onWheel(e),
@@ -338,7 +372,7 @@ export function BenchCanvas(props: BenchCanvasProps) {
               <Line points={upper} stroke={style.edge} strokeWidth={style.edgeWidth} dash={stale ? [4, 4] : style.dash} />
               <Line points={lower} stroke={style.edge} strokeWidth={style.edgeWidth} dash={stale ? [4, 4] : style.dash} />
               {x2 - x1 > 120 ? (
-                <Text x={(x1 + x2) / 2 - 60} y={labelY} width={120} align="center" text={segment.opticalDensity > 0 ? `OD ${segment.opticalDensity.toFixed(1)}` : "below MPE"} fontSize={12} fontStyle={segment.band.id === "high" ? "bold" : "normal"} fill={THEME.text} />
+                <Text x={(x1 + x2) / 2 - 60} y={labelY} width={120} align="center" text={segment.opticalDensity > 0 ? `need OD ${computedOdText(segment.opticalDensity)}` : "below the MPE"} fontSize={12} fontStyle={segment.band.id === "high" ? "bold" : "normal"} fill={THEME.text} />
               ) : null}
             </Group>
           );
@@ -409,6 +443,7 @@ export function BenchCanvas(props: BenchCanvasProps) {
             element={e}
             selected={shownSelection.includes(e.id)}
             warnings={warningsById.get(e.id) ?? 0}
+            labelRow={labelRows.get(e.id) ?? 0}
             canEdit={canEdit}
             pxPerMm={pxPerMm}
             panPx={panPx}
@@ -449,6 +484,7 @@ type ElementNodeProps = {
   element: BenchElement;
   selected: boolean;
   warnings: number;
+  labelRow: number;
   canEdit: boolean;
   pxPerMm: number;
   panPx: number;
@@ -458,7 +494,7 @@ type ElementNodeProps = {
 };
 
 /** One element on the rail; memoised, so a drag re-renders only the elements that moved. */
-const ElementNode = memo(function ElementNode({ element: e, selected, warnings, canEdit, pxPerMm, panPx, snapStepMm, exaggeration, handlers }: ElementNodeProps) {
+const ElementNode = memo(function ElementNode({ element: e, selected, warnings, labelRow, canEdit, pxPerMm, panPx, snapStepMm, exaggeration, handlers }: ElementNodeProps) {
   return (
     <Group
       name="element"
@@ -490,10 +526,12 @@ const ElementNode = memo(function ElementNode({ element: e, selected, warnings, 
       ) : null}
       <CanvasSymbol element={e} apertureHalfPx={e.kind === "aperture" ? (e.diameterMm / 2) * pxPerMm * exaggeration : undefined} />
       <Line points={[0, SYMBOL_HALF_HEIGHT, 0, RAIL_BAR_Y - RAIL_Y]} stroke={THEME.line} strokeWidth={2} />
-      <Text x={-60} y={LABEL_Y - RAIL_Y} width={120} align="center" text={e.id} fontSize={13} fontStyle={selected ? "bold" : "normal"} fill={selected ? THEME.accentStrong : THEME.text} />
-      <Text x={-60} y={LABEL_Y - RAIL_Y + 16} width={120} align="center" text={shortLabel(e)} fontSize={12} fill={THEME.muted} />
+      {labelRow > 0 ? <Line points={[0, RAIL_BAR_Y - RAIL_Y + 8, 0, LABEL_Y - RAIL_Y + LABEL_ROW_PX * labelRow - 2]} stroke={THEME.line} strokeWidth={1} dash={[2, 3]} /> : null}
+      <Text x={-60} y={LABEL_Y - RAIL_Y + LABEL_ROW_PX * labelRow} width={120} align="center" text={e.id} fontSize={13} fontStyle={selected ? "bold" : "normal"} fill={selected ? THEME.accentStrong : THEME.text} />
+      <Text x={-60} y={LABEL_Y - RAIL_Y + LABEL_ROW_PX * labelRow + 16} width={120} align="center" text={shortLabel(e)} fontSize={12} fill={THEME.muted} />
       {warnings > 0 ? (
-        <Group x={20} y={-SYMBOL_HALF_HEIGHT - 2}>
+        // beside the symbol, below the zone badge (which sits above the symbol), so it never covers it
+        <Group x={36} y={-SYMBOL_HALF_HEIGHT + 14}>
           <Line points={[0, -10, 9, 6, -9, 6]} closed fill={THEME.warn} />
           <Text x={-3} y={-5} text="!" fontSize={11} fontStyle="bold" fill={THEME.ink} />
         </Group>

@@ -9,6 +9,7 @@ import { draftQuery, inServiceLasersQuery, type DraftView } from "@/lib/api/benc
 import { ELEMENT_KINDS, type BenchDocument, type ElementKind } from "@/lib/bench/schema";
 import { StateBadge } from "@/components/ui/state-badge";
 import { ApertureTable } from "./aperture-table";
+import { ScreenTable } from "./screen-table";
 import { CANVAS_HEIGHT } from "./canvas-constants";
 import { ChangesSinceReview } from "./changes-since-review";
 import { ConflictDialog } from "./conflict-dialog";
@@ -25,22 +26,27 @@ import { ProfilePanel } from "./profile-panel";
 import { PropertiesPanel } from "./properties-panel";
 import { laserValuesFrom, type RegisterEntry } from "./register-check";
 import { RevisionsPanel } from "./revisions-panel";
+import type { LabShelfData } from "@/components/eyewear/editor-coverage";
 import { SafetyPanel } from "./safety-panel";
 import { SaveStatus } from "./save-status";
 import { useAnalysis, useProfile } from "./use-analysis";
 import { useAutosave } from "./use-autosave";
 import { useEditorState } from "./use-editor-state";
+import { documentKey } from "./document-key";
+import { forgetUnsaved, readUnsaved } from "./unsaved-copy";
+import { SubmitForReview } from "@/components/review/submit-for-review";
 import { useScreenFinder } from "./use-screen-finder";
 import { fitAll, mmAt, zoomAbout, type View } from "./view";
 import type { ElementPatch } from "./editor-reducer";
 import { sig } from "./format";
+import { CENTRE_WORDS, VERTICAL_EXAGGERATION, plainText } from "@/lib/format";
 
 const BenchCanvas = dynamic(() => import("./bench-canvas").then((m) => m.BenchCanvas), {
   ssr: false,
   loading: () => <div className="flex h-full items-center justify-center text-muted">Loading the drawing…</div>,
 });
 
-type Props = { benchId: string; labName: string; authorName: string };
+type Props = { benchId: string; labName: string; authorName: string; shelf?: LabShelfData | null };
 
 export function BenchEditor(props: Props) {
   const draft = useQuery(draftQuery(props.benchId));
@@ -51,12 +57,25 @@ export function BenchEditor(props: Props) {
 
 const BUTTON = "inline-flex min-h-10 min-w-10 items-center justify-center gap-1 rounded-md border border-line px-2.5 text-sm hover:bg-raised disabled:cursor-not-allowed disabled:opacity-40";
 
-function EditorBody({ benchId, labName, authorName, initial }: Props & { initial: DraftView }) {
+function EditorBody({ benchId, labName, authorName, initial, shelf = null }: Props & { initial: DraftView }) {
   const canEdit = initial.canEdit;
   const { state, dispatch, selected, canUndo, canRedo } = useEditorState(initial.document);
   const { doc, selection } = state;
   const analysis = useAnalysis(doc);
   const save = useAutosave(benchId, initial, doc, canEdit);
+
+  // A drawing left unsaved in this browser (the page was closed before the server had it) comes back as it was,
+  // if the bench has not moved on since; autosave then sends it.
+  const restoreChecked = useRef(false);
+  useEffect(() => {
+    if (restoreChecked.current || !canEdit) return;
+    restoreChecked.current = true;
+    const copy = readUnsaved(benchId);
+    if (!copy) return;
+    if (copy.baseRevision === initial.revisionNumber && copy.baseVersion === initial.version && copy.key !== documentKey(initial.document)) {
+      dispatch({ type: "replace", doc: copy.document });
+    } else forgetUnsaved(benchId);
+  }, [benchId, canEdit, initial, dispatch]);
 
   const [snapStepMm, setSnapStepMm] = useState<number>(1);
   const [exaggeration, setExaggeration] = useState(40);
@@ -66,16 +85,22 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
   const frame = useRef<HTMLDivElement>(null);
   const queryClient = useQueryClient();
 
+  // The first measured width fits the whole bench into view; later resizes keep the user's zoom and pan.
+  const elementsNow = useRef(doc.elements);
+  useEffect(() => {
+    elementsNow.current = doc.elements;
+  }, [doc.elements]);
   useEffect(() => {
     const el = frame.current;
     if (!el) return;
-    const observer = new ResizeObserver(([entry]) => setWidth(Math.floor(entry.contentRect.width)));
+    const observer = new ResizeObserver(([entry]) => {
+      const measured = Math.floor(entry.contentRect.width);
+      setWidth(measured);
+      if (measured > 0) setView((v) => v ?? fitAll(elementsNow.current, measured));
+    });
     observer.observe(el);
     return () => observer.disconnect();
   }, []);
-  useEffect(() => {
-    if (width > 0 && view === null) setView(fitAll(doc.elements, width));
-  }, [width, view, doc.elements]);
 
   const currentView = view ?? { pxPerMm: 1, panPx: 40 };
   const fit = useCallback(() => setView(fitAll(doc.elements, width || 800)), [doc.elements, width]);
@@ -279,8 +304,10 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
             </span>
           </div>
           <label className="flex items-center gap-2">
-            <span className="text-muted">Beam height ×{exaggeration}</span>
-            <input type="range" min={1} max={400} step={1} value={exaggeration} onChange={(e) => setExaggeration(Number(e.target.value))} aria-label="Vertical exaggeration of the beam radius" />
+            <span className="text-muted">
+              {VERTICAL_EXAGGERATION} ×{exaggeration}
+            </span>
+            <input type="range" min={1} max={400} step={1} value={exaggeration} onChange={(e) => setExaggeration(Number(e.target.value))} aria-label={VERTICAL_EXAGGERATION} />
           </label>
         </div>
         <div
@@ -341,6 +368,16 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
             onToggle={(id) => dispatch({ type: "toggle-select", id })}
           />
           <PropertiesPanel selected={selected} canEdit={canEdit} dispatch={dispatch} warnings={elementWarnings} labId={initial.labId} labName={labName} />
+          <SubmitForReview
+            revisionId={save.base.revisionId}
+            contentHash={save.state.kind === "saved" ? save.base.contentHash : null}
+            waitingFor={canEdit && save.state.kind !== "saved" ? "Waiting until your changes are saved…" : null}
+            onChanged={async () => {
+              // the revision changed state on the server (sent, withdrawn): the editor continues from it as it is now
+              const fresh = await queryClient.fetchQuery({ ...draftQuery(benchId), staleTime: 0 });
+              save.adopt(fresh);
+            }}
+          />
           <RevisionsPanel benchId={benchId} canEdit={canEdit} doc={doc} base={save.base} saveState={save.state} onMade={save.adopt} />
           <ChangesSinceReview benchId={benchId} doc={doc} />
         </div>
@@ -353,6 +390,7 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
             {analysis.data ? (
               <>
                 <ApertureTable apertures={analysis.data.analysis.apertures} selectedId={selectedAperture?.id ?? null} onSelect={(id) => dispatch({ type: "select", ids: [id] })} />
+                <ScreenTable screens={analysis.data.analysis.screens} />
                 {selectedAperture ? (
                   <div className="mt-4">
                     <ProfilePanel
@@ -368,6 +406,11 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
                 {selectedApertureId ? (
                   <FinderPanel
                     apertureId={selectedApertureId}
+                    current={
+                      selectedAperture && selectedAperture.screenId && selectedAperture.observationDistanceMm !== null
+                        ? { positionMm: selectedAperture.positionMm + selectedAperture.observationDistanceMm, centre: selectedAperture.centre, zones: selectedAperture.zonesExposed }
+                        : null
+                    }
                     range={finder.range}
                     data={finder.data}
                     stale={finder.stale || staleLook}
@@ -385,7 +428,7 @@ function EditorBody({ benchId, labName, authorName, initial }: Props & { initial
             )}
           </section>
           <WarningsList analysis={analysis.data} onSelect={(id) => dispatch({ type: "select", ids: [id] })} />
-          <SafetyPanel safety={analysis.data?.safety} />
+          <SafetyPanel safety={analysis.data?.safety} shelf={shelf} />
         </div>
       </div>
     </div>
@@ -402,7 +445,7 @@ function PredictionState({ analysis }: { analysis: ReturnType<typeof useAnalysis
     text = `Predictions failed: ${analysis.error}`;
     tone = "border-danger text-danger";
   } else if (analysis.stale || (analysis.fetching && !analysis.data)) text = "◌ updating…";
-  const summary = (analysis.data?.analysis.apertures ?? []).map((a) => `${a.id}: ${sig(a.zonesExposed)} zones, ${a.centre} centre`).join("; ");
+  const summary = (analysis.data?.analysis.apertures ?? []).map((a) => `${a.id}: ${sig(a.zonesExposed)} zones, ${CENTRE_WORDS[a.centre]}`).join("; ");
   return (
     <>
       {text ? (
@@ -433,7 +476,7 @@ function WarningsList({ analysis, onSelect }: { analysis: ReturnType<typeof useA
                 {w.elementId}
               </button>
             ) : null}
-            {w.message}
+            {plainText(w.message)}
           </li>
         ))}
       </ul>

@@ -41,7 +41,7 @@ export function ChangesSinceReview({ benchId, doc }: Props) {
             Changes since revision {sent.number} <StateBadge state={sent.state} />
           </>
         ) : (
-          "Changes since the last review"
+          "Changes since the last revision sent for review"
         )}
       </h2>
       {bench.error ? <p className="text-sm text-danger">✕ {bench.error.message}</p> : null}

@@ -18,7 +18,7 @@ export type EditorState = {
 };
 
 /** Field values to set on an element; undefined removes an optional field (e.g. registerId for an ad hoc laser). */
-export type ElementPatch = Partial<Record<string, number | string | undefined>>;
+export type ElementPatch = Partial<Record<string, number | string | readonly { wavelengthNm: number; powerMw: number }[] | undefined>>;
 
 function applyPatch(element: BenchElement, patch: ElementPatch): BenchElement {
   const next = { ...element } as Record<string, unknown>;

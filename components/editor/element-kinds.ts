@@ -1,5 +1,6 @@
 // What the editor knows about each element kind: its name, the id prefix, a new element's values and the
 // editable fields with their units. Validation itself is the shared zod schema (lib/bench/schema.ts).
+import { laserPowerText } from "@/lib/bench/laser-power";
 import {
   apertureSchema,
   beamBlockSchema,
@@ -7,9 +8,11 @@ import {
   laserSchema,
   lensSchema,
   screenSchema,
+  ELEMENT_KINDS,
   type BenchElement,
   type ElementKind,
 } from "@/lib/bench/schema";
+import { ELEMENT_KIND_RECORDS } from "@/lib/bench/element-kinds";
 
 export type NumericField = {
   key: string;
@@ -29,40 +32,13 @@ type KindInfo = {
 
 const position: NumericField = { key: "positionMm", label: "Position on the rail", unit: "mm", step: 1 };
 
-export const KIND_INFO: Record<ElementKind, KindInfo> = {
-  laser: {
-    label: "Laser",
-    idPrefix: "laser",
-    defaults: { wavelengthNm: 632.8, powerMw: 1, beamDiameterMm: 0.8 },
-    fields: [
-      position,
-      { key: "wavelengthNm", label: "Wavelength", unit: "nm", step: 0.1 },
-      { key: "powerMw", label: "Power", unit: "mW", step: 0.1 },
-      { key: "beamDiameterMm", label: "Beam diameter (1/e², at the waist)", unit: "mm", step: 0.1 },
-      { key: "m2", label: "Beam quality M²", unit: "", optional: true, hint: "Leave empty for an ideal beam (M² = 1).", step: 0.1 },
-    ],
-  },
-  lens: {
-    label: "Lens",
-    idPrefix: "lens",
-    defaults: { focalLengthMm: 100 },
-    fields: [position, { key: "focalLengthMm", label: "Focal length", unit: "mm", hint: "Negative for a diverging lens.", step: 1 }],
-  },
-  aperture: {
-    label: "Aperture / iris",
-    idPrefix: "iris",
-    defaults: { diameterMm: 2 },
-    fields: [position, { key: "diameterMm", label: "Diameter", unit: "mm", step: 0.1 }],
-  },
-  filter: {
-    label: "Filter",
-    idPrefix: "filter",
-    defaults: { opticalDensity: 1 },
-    fields: [position, { key: "opticalDensity", label: "Optical density", unit: "OD", hint: "Transmits 10^−OD of the power.", step: 0.1 }],
-  },
-  "beam-block": { label: "Beam block", idPrefix: "block", defaults: {}, fields: [position] },
-  screen: { label: "Screen", idPrefix: "screen", defaults: {}, fields: [position] },
-};
+/** The editor's view of each rail kind, from the one record per kind (lib/bench/element-kinds.ts) plus the rail position. */
+export const KIND_INFO: Record<ElementKind, KindInfo> = Object.fromEntries(
+  ELEMENT_KINDS.map((kind) => {
+    const record = ELEMENT_KIND_RECORDS[kind];
+    return [kind, { label: record.label, idPrefix: record.idPrefix, defaults: record.defaults, fields: [position, ...record.fields] }];
+  }),
+) as Record<ElementKind, KindInfo>;
 
 export const ELEMENT_SCHEMAS = {
   laser: laserSchema,
@@ -77,7 +53,7 @@ export const ELEMENT_SCHEMAS = {
 export function shortLabel(e: BenchElement): string {
   switch (e.kind) {
     case "laser":
-      return `${e.wavelengthNm} nm · ${e.powerMw} mW`;
+      return `${e.wavelengthNm} nm · ${laserPowerText(e)}`;
     case "lens":
       return `f ${e.focalLengthMm > 0 ? "+" : "−"}${Math.abs(e.focalLengthMm)} mm`;
     case "aperture":

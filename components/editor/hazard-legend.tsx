@@ -1,5 +1,6 @@
 // How to read the beam on the drawing: the required eyewear OD bands in words, each with its swatch (fill, hatching,
 // edge dash — not colour alone), and the finder's tick marks when an aperture is selected.
+import { FINAL_SAY } from "@/lib/safety/types";
 import { HAZARD_BANDS, type HazardSegment } from "./hazard-bands";
 import { BAND_STYLES } from "./palette-colours";
 
@@ -30,7 +31,7 @@ export function HazardLegend({ assessed, shown, finderFor }: Props) {
     <div className="flex flex-wrap items-center gap-x-4 gap-y-1.5 px-1 text-sm" data-testid="hazard-legend" data-bands-shown={[...present].join(" ")}>
       {assessed ? (
         <>
-          <span className="text-muted">Beam by eyewear OD needed (advice; the laser safety officer decides):</span>
+          <span className="text-muted">Beam by the computed eyewear OD need:</span>
           {HAZARD_BANDS.map((b) => (
             <span key={b.id} className={`inline-flex items-center gap-1.5 ${present.has(b.id) ? "" : "opacity-50"}`} title={b.pattern} data-band={b.id}>
               <Swatch band={b} />
@@ -40,11 +41,16 @@ export function HazardLegend({ assessed, shown, finderFor }: Props) {
           ))}
         </>
       ) : (
-        <span className="text-muted">Beam drawn plain: there is no safety assessment for this drawing yet.</span>
+        <span className="text-muted">Beam drawn plain: there is no hazard assessment for this drawing yet.</span>
       )}
+      {assessed ? (
+        <span className="basis-full text-xs text-muted" data-testid="legend-final-say">
+          {FINAL_SAY}
+        </span>
+      ) : null}
       {finderFor ? (
         <span className="inline-flex items-center gap-1.5">
-          <span className="text-muted">Ruler ticks for {finderFor}:</span> ● bright · ○ dark · ◐ in between, number = zones
+          <span className="text-muted">Ruler ticks for {finderFor}:</span> ● bright · ○ dark · ◐ between, number = half-period zones
         </span>
       ) : null}
     </div>

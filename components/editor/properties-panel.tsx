@@ -4,6 +4,7 @@
 import type { BenchElement } from "@/lib/bench/schema";
 import { ElementIcon } from "./element-icon";
 import { ELEMENT_SCHEMAS, KIND_INFO } from "./element-kinds";
+import { LaserLines } from "./laser-lines";
 import { NumberField } from "./number-field";
 import { RegisterEntryBox } from "./register-entry";
 import type { EditorAction } from "./editor-reducer";
@@ -76,6 +77,7 @@ export function PropertiesPanel({ selected, canEdit, dispatch, warnings, labId, 
           />
         ))}
       </div>
+      {element.kind === "laser" ? <LaserLines laser={element} canEdit={canEdit} dispatch={dispatch} /> : null}
       {warnings.length > 0 ? (
         <ul className="mt-3 flex flex-col gap-1 text-sm text-warn" aria-label={`Warnings about ${element.id}`}>
           {warnings.map((w, i) => (

@@ -1,6 +1,7 @@
 // A laser taken from the laser register: the values it sets on the bench's laser, and the plain-words differences
 // between what the drawing says and what the register lists. The same tolerances as the server's register check
 // (lib/server/register.ts), which says the same on submission; this is the editor's early word, not the decision.
+import { laserAveragePowerMw } from "@/lib/bench/laser-power";
 import type { LaserElement } from "@/lib/bench/schema";
 
 /** The register facts the editor uses (a subset of the server's LaserView). */
@@ -46,16 +47,17 @@ export const listsWavelength = (entry: Pick<RegisterEntry, "wavelengthsNm">, wav
 export type RegisterMismatch = { code: "power-above-register" | "wavelength-not-registered" | "diameter-differs" | "laser-not-in-service"; message: string };
 
 /** What the drawing's laser says that its register entry does not, in plain words. */
-export function registerMismatches(laser: Pick<LaserElement, "powerMw" | "wavelengthNm" | "beamDiameterMm">, entry: RegisterEntry): RegisterMismatch[] {
+export function registerMismatches(laser: Pick<LaserElement, "powerMw" | "pulseEnergyJ" | "pulseDurationS" | "pulseRepetitionRateHz" | "wavelengthNm" | "beamDiameterMm">, entry: RegisterEntry): RegisterMismatch[] {
   const out: RegisterMismatch[] = [];
   const name = entryName(entry);
   if (entry.status !== "in-service") {
     out.push({ code: "laser-not-in-service", message: `The register says ${name} is not in service, so a bench using it cannot be sent for review. Ask the laser safety officer, or pick another laser.` });
   }
-  if (laser.powerMw > entry.maxPowerMw * (1 + 1e-9)) {
+  const averageMw = laserAveragePowerMw(laser);
+  if (averageMw !== null && averageMw > entry.maxPowerMw * (1 + 1e-9)) {
     out.push({
       code: "power-above-register",
-      message: `${fmt(laser.powerMw)} mW is more than this laser can give: the register's maximum for ${name} is ${fmt(entry.maxPowerMw)} mW. Check the power, or pick the laser you will really use.`,
+      message: `${fmt(averageMw)} mW is more than this laser can give: the register's maximum for ${name} is ${fmt(entry.maxPowerMw)} mW. Check the power, or pick the laser you will really use.`,
     });
   }
   if (!listsWavelength(entry, laser.wavelengthNm)) {

@@ -5,6 +5,8 @@ import { useEffect, useRef } from "react";
 
 const SIZE_PX = 220;
 const GAMMA = 0.6;
+/** Radius (pixels) of the disc painted with the value at r = 0. */
+const CENTRE_DISC_PX = 2.5;
 
 /** An approximate sRGB tint for a visible wavelength; white outside 380–750 nm. */
 export function wavelengthTint(nm: number | null): [number, number, number] {
@@ -37,7 +39,9 @@ export function RingImage({ radiusMm, intensity, wavelengthNm, label }: { radius
         const d = Math.hypot(x + 0.5 - half, y + 0.5 - half) / half;
         const r = d * maxR;
         let v = 0;
-        if (r <= maxR) {
+        // within a few pixels of the axis, the on-axis value: a central spot smaller than a pixel still shows true
+        if (Math.hypot(x + 0.5 - half, y + 0.5 - half) <= CENTRE_DISC_PX) v = intensity[0];
+        else if (r <= maxR) {
           const f = r / step;
           const i = Math.min(radiusMm.length - 2, Math.floor(f));
           const t = f - i;

@@ -1,45 +1,53 @@
 "use client";
-// The laser safety summary when the analysis carries one: class, MPE, NOHD, required OD and the cautions,
-// always with the sentence that the institution's laser safety officer and local regulations decide.
+// The laser safety summary when the analysis carries one: class, MPE, NOHD, the eyewear (one OD rule) and the cautions,
+// with the scope limits of the figures and the sentence that the laser safety officer and local regulations decide.
 import type { BenchSafetyAssessment } from "@/lib/safety";
-import { sig } from "./format";
+import { eyewearWords, formatNumber, HAZARD_LABELS, nohdWords, plainText } from "@/lib/format";
+import { HazardNotes } from "@/components/ui/hazard-notes";
+import { displayedCautions } from "@/components/ui/cautions";
+import { EditorCoverage, type LabShelfData } from "@/components/eyewear/editor-coverage";
 
-const FINAL_WORD = "The institution's laser safety officer and local regulations decide; these figures advise, they never authorise.";
-
-export function SafetyPanel({ safety }: { safety: BenchSafetyAssessment | undefined }) {
+export function SafetyPanel({ safety, shelf = null }: { safety: BenchSafetyAssessment | undefined; shelf?: LabShelfData | null }) {
   if (!safety) return null;
   const od = safety.governing;
+  const eyewear = eyewearWords(od?.opticalDensityRequired ?? 0, safety.wavelengthNm);
+  const cautions = displayedCautions(safety.cautions);
   return (
     <section aria-labelledby="safety-heading" className="rounded-lg border border-warn/60 bg-panel p-4" data-testid="safety">
       <h2 id="safety-heading" className="mb-2 text-lg font-semibold">Laser safety (advice)</h2>
       <dl className="grid grid-cols-2 gap-x-4 gap-y-2 text-sm sm:grid-cols-4">
         <div>
-          <dt className="text-muted">Hazard class</dt>
-          <dd className="text-xl font-semibold" title={safety.laser?.figures?.hazardClass?.source}>Class {safety.laser?.hazardClass ?? "—"}</dd>
+          <dt className="text-muted">{HAZARD_LABELS.hazardClass}</dt>
+          <dd className="text-xl font-semibold" title={plainText(safety.laser?.figures?.hazardClass?.source ?? "")}>Class {safety.laser?.hazardClass ?? "—"}</dd>
         </div>
         <div>
-          <dt className="text-muted">MPE (eye)</dt>
-          <dd className="font-mono" title={safety.mpe?.source}>
-            {sig(safety.mpe?.value)} {safety.mpe?.unit}
+          <dt className="text-muted">{HAZARD_LABELS.mpe}</dt>
+          <dd className="font-mono" title={plainText(safety.mpe?.source ?? "")}>
+            {formatNumber(safety.mpe?.value)} {safety.mpe?.unit}
           </dd>
         </div>
         <div>
-          <dt className="text-muted">NOHD</dt>
-          <dd className="font-mono" title={safety.laser?.figures?.nohd?.source}>{sig(safety.laser?.nohdM)} m</dd>
+          <dt className="text-muted">{HAZARD_LABELS.nohd}</dt>
+          <dd className="font-mono" title={plainText(safety.laser?.figures?.nohd?.source ?? "")}>{nohdWords(safety.laser?.nohdM, (v) => formatNumber(v))}</dd>
         </div>
-        <div>
-          <dt className="text-muted">Eyewear OD needed</dt>
-          <dd className="font-mono" title={od?.source}>
-            {od ? `OD ${sig(od.opticalDensityRequired, 2)}` : "—"}
-            {od ? <span className="block text-xs text-muted">highest at {od.elementId} ({od.positionMm} mm)</span> : null}
+        <div className="col-span-2 sm:col-span-1">
+          <dt className="text-muted">{HAZARD_LABELS.eyewear}</dt>
+          <dd title={plainText(od?.source ?? "")} data-testid="eyewear-od">
+            <span className="font-semibold">{eyewear.wear}</span>
+            <span className="block text-xs text-muted">
+              {eyewear.need}
+              {od ? ` — highest at ${od.elementId} (${formatNumber(od.positionMm, { digits: 6 })} mm)` : ""}
+            </span>
+            {eyewear.check ? <span className="block text-xs text-muted">{eyewear.check}</span> : null}
           </dd>
         </div>
       </dl>
-      {safety.cautions?.length ? (
+      {shelf ? <EditorCoverage shelf={shelf} safety={safety} /> : null}
+      {cautions.length ? (
         <details className="mt-3">
-          <summary className="cursor-pointer text-sm font-medium">Cautions ({safety.cautions.length})</summary>
+          <summary className="cursor-pointer text-sm font-medium">Cautions ({cautions.length})</summary>
           <ul className="mt-2 flex flex-col gap-2 text-sm">
-            {safety.cautions.map((c) => (
+            {cautions.map((c) => (
               <li key={c.id}>
                 <span className="font-medium">{c.title}.</span> {c.text} <span className="text-xs text-muted">({c.reference})</span>
               </li>
@@ -47,10 +55,9 @@ export function SafetyPanel({ safety }: { safety: BenchSafetyAssessment | undefi
           </ul>
         </details>
       ) : null}
-      <p className="mt-3 text-sm font-medium text-warn">
-        <span aria-hidden="true">⚠ </span>
-        {safety.finalSay || FINAL_WORD}
-      </p>
+      <div className="mt-3">
+        <HazardNotes />
+      </div>
     </section>
   );
 }

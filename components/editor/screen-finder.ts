@@ -49,7 +49,7 @@ export function finderTicks(search: Pick<ScreenSearch, "bright" | "dark"> | unde
   return ticks.sort((a, b) => a.positionMm - b.positionMm);
 }
 
-/** The tick's mark: the predicted centre as a shape (● bright, ○ dark, ◐ in between) — never colour alone. */
+/** The tick's mark: the predicted centre as a shape (● bright, ○ dark, ◐ between) — never colour alone. */
 export const CENTRE_SYMBOL: Record<ScreenCandidate["centre"], string> = { bright: "●", dark: "○", between: "◐" };
 
 /** The position the screen is moved to (kept to the micrometre like every other position). */

@@ -1,13 +1,15 @@
 "use client";
 // Autosave of the working draft with optimistic concurrency. The edit remembers which revision and version it is
 // based on (its provenance, set at load and after each save); a save on an older base comes back as a conflict
-// with the server's draft, and nothing is saved until the user chooses.
-import { useCallback, useEffect, useMemo, useState } from "react";
+// with the server's draft, and nothing is saved until the user chooses. Leaving the page (reload, close, another
+// page) sends the pending change at once with keepalive, and a copy stays in this browser until the server has it.
+import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import { useQueryClient } from "@tanstack/react-query";
-import { useSaveDraft, type DraftView } from "@/lib/api/bench-queries";
+import { putDraft, useSaveDraft, type DraftView, type SaveDraftOutcome } from "@/lib/api/bench-queries";
 import { ApiError, queryKeys } from "@/lib/api/client";
 import { benchDocumentSchema, describeIssues, type BenchDocument } from "@/lib/bench/schema";
 import { documentKey } from "./document-key";
+import { forgetUnsaved, keepUnsaved } from "./unsaved-copy";
 
 export const AUTOSAVE_DELAY_MS = 800;
 const OFFLINE_RETRY_MS = 5_000;
@@ -22,9 +24,11 @@ export type SaveState =
   | { kind: "error"; message: string }
   | { kind: "read-only" };
 
-type Base = Pick<DraftView, "revisionNumber" | "version" | "state" | "updatedAt"> & { key: string };
+type Base = Pick<DraftView, "revisionId" | "revisionNumber" | "version" | "state" | "updatedAt" | "contentHash"> & { key: string };
 
 const baseOf = (draft: DraftView): Base => ({
+  revisionId: draft.revisionId,
+  contentHash: draft.contentHash,
   revisionNumber: draft.revisionNumber,
   version: draft.version,
   state: draft.state,
@@ -44,24 +48,99 @@ export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocum
   const validity = useMemo(() => benchDocumentSchema.safeParse(doc), [doc]);
   const dirty = key !== base.key;
 
+  // What the leave handlers need, current at the moment the page is left.
+  const latest = useRef({ canEdit, dirty, key, base, conflict, document: validity.success ? validity.data : null });
+  useLayoutEffect(() => {
+    latest.current = { canEdit, dirty, key, base, conflict, document: validity.success ? validity.data : null };
+  });
+  const sentOnLeave = useRef<string | null>(null);
+
+  /** A save's answer: saved → the new base; a 409 whose server document is the one here (a save on leaving got there first) is no conflict. */
+  const settle = useCallback(
+    (outcome: SaveDraftOutcome, sentKey: string) => {
+      setFailure(null);
+      if (outcome.kind === "saved") {
+        setBase({ ...baseOf(outcome.draft), key: sentKey });
+        return;
+      }
+      const theirs = documentKey(outcome.current.document);
+      if (theirs === sentKey || theirs === latest.current.key) {
+        queryClient.setQueryData(queryKeys.draft(benchId), outcome.current);
+        setBase(baseOf(outcome.current));
+      } else setConflict({ current: outcome.current, message: outcome.message });
+    },
+    [queryClient, benchId],
+  );
+
   const saveNow = useCallback(() => {
     if (!validity.success) return;
     const sentKey = key;
     save.mutate(
       { document: validity.data, baseRevision: base.revisionNumber, baseVersion: base.version },
       {
-        onSuccess: (outcome) => {
-          setFailure(null);
-          if (outcome.kind === "saved") setBase({ ...baseOf(outcome.draft), key: sentKey });
-          else setConflict({ current: outcome.current, message: outcome.message });
-        },
+        onSuccess: (outcome) => settle(outcome, sentKey),
         onError: (error) => {
           const offline = error instanceof ApiError && error.status === 0;
           setFailure({ offline, message: error.message });
         },
       },
     );
-  }, [validity, key, base, save]);
+  }, [validity, key, base, save, settle]);
+
+  // A copy of an unsaved drawing stays in this browser until the server has it (unsaved-copy.ts).
+  useEffect(() => {
+    if (!canEdit) return;
+    if (dirty) keepUnsaved(benchId, { document: doc, baseRevision: base.revisionNumber, baseVersion: base.version, key, savedAtMs: Date.now() });
+    else forgetUnsaved(benchId);
+  }, [canEdit, dirty, doc, key, base.revisionNumber, base.version, benchId]);
+
+  // Leaving the page: send what is pending at once (keepalive outlives the page). Returns false when it cannot be
+  // sent (an incomplete drawing, an open conflict), so the browser asks before the page goes.
+  const flushOnLeave = useCallback((): boolean => {
+    const l = latest.current;
+    if (!l.canEdit || !l.dirty) return true;
+    if (!l.document || l.conflict) return false;
+    if (sentOnLeave.current === l.key) return true;
+    sentOnLeave.current = l.key;
+    const sentKey = l.key;
+    putDraft(benchId, { document: l.document, baseRevision: l.base.revisionNumber, baseVersion: l.base.version }, { keepalive: true })
+      .then((outcome) => {
+        if (outcome.kind === "saved") queryClient.setQueryData(queryKeys.draft(benchId), outcome.draft);
+        settle(outcome, sentKey);
+      })
+      .catch(() => {
+        sentOnLeave.current = null;
+      });
+    return true;
+  }, [benchId, queryClient, settle]);
+
+  useEffect(() => {
+    const onHidden = () => {
+      if (document.visibilityState === "hidden") flushOnLeave();
+    };
+    const onPageHide = () => flushOnLeave();
+    const onBeforeUnload = (event: BeforeUnloadEvent) => {
+      if (!flushOnLeave()) {
+        event.preventDefault();
+        event.returnValue = "";
+      }
+    };
+    document.addEventListener("visibilitychange", onHidden);
+    window.addEventListener("pagehide", onPageHide);
+    window.addEventListener("beforeunload", onBeforeUnload);
+    return () => {
+      document.removeEventListener("visibilitychange", onHidden);
+      window.removeEventListener("pagehide", onPageHide);
+      window.removeEventListener("beforeunload", onBeforeUnload);
+    };
+  }, [flushOnLeave]);
+
+  // Leaving the editor inside the app (a link to another page) unmounts it: send what is pending then too.
+  const flushRef = useRef(flushOnLeave);
+  useLayoutEffect(() => {
+    flushRef.current = flushOnLeave;
+  });
+  useEffect(() => () => void flushRef.current(), []);
 
   // Debounced autosave: a quiet period after the last change, never while a save or a conflict is open.
   useEffect(() => {

@@ -1,5 +1,5 @@
 import type { EyewearCoverage } from "@/lib/safety/eyewear";
-import { standardSentence, type StandardName } from "./standard-words";
+import { otherStandardNotes, standardSentence, type StandardName } from "./standard-words";
 
 export type CoverageData = { standard: StandardName; itemCount: number; coverage: EyewearCoverage };
 
@@ -15,10 +15,18 @@ function nm(value: number): string {
 /** The lab's standard in one sentence (screens and the sheet). */
 export function StandardLine({ standard, safety, className = "" }: { standard: StandardName; safety: unknown; className?: string }) {
   return (
-    <p className={`text-sm ${className}`} data-testid="safety-standard">
-      <span className="font-medium">Standard: </span>
-      {standardSentence(standard, safety)}
-    </p>
+    <div className={`text-sm ${className}`} data-testid="safety-standard">
+      <p>
+        <span className="font-medium">Standard: </span>
+        {standardSentence(standard, safety)}
+      </p>
+      {otherStandardNotes(safety).map((n, i) => (
+        <p key={i} className="mt-1">
+          <span aria-hidden="true">◇ </span>
+          {n}
+        </p>
+      ))}
+    </div>
   );
 }
 

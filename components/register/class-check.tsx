@@ -1,3 +1,4 @@
+import { plainText } from "@/lib/format";
 import type { ComputedClass } from "@/lib/server/register";
 
 /** The label class beside the engine's estimate; a mismatch is a warning in words and a shape, never a correction. */
@@ -17,7 +18,7 @@ export function ClassCheck({ labelClass, computed, long = false }: { labelClass:
       <span className="inline-flex items-center gap-1 rounded-full border border-warn px-2 py-0.5 text-sm text-warn">
         <span aria-hidden="true">▲</span> Label {labelClass} · estimate {computed.hazardClass}: they differ
       </span>
-      {long && computed.warning ? <span className="text-sm text-muted">{computed.warning}</span> : null}
+      {long && computed.warning ? <span className="text-sm text-muted">{plainText(computed.warning)}</span> : null}
     </span>
   );
 }

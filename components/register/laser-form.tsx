@@ -16,6 +16,7 @@ export type LaserFormValues = {
   pulseEnergyMj: number | null;
   pulseDurationS: number | null;
   pulseRepetitionRateHz: number | null;
+  lines?: { wavelengthNm: number; powerMw: number }[] | null;
   beamDiameterMm: number;
   divergenceMrad: number;
   model: string;
@@ -76,6 +77,8 @@ export function LaserForm({ labs, people, initial, laserId, version }: { labs: O
     status: initial?.status ?? "in-service",
     responsibleUserId: initial?.responsibleUserId ?? "",
   });
+  // Further emission lines (a doubled laser's residual fundamental and pump): wavelength and power, as text until sent.
+  const [lines, setLines] = useState<{ wavelengthNm: string; powerMw: string }[]>((initial?.lines ?? []).map((l) => ({ wavelengthNm: String(l.wavelengthNm), powerMw: String(l.powerMw) })));
   const set = (key: keyof typeof v) => (value: string | boolean) => setV((old) => ({ ...old, [key]: value }));
   const save = useMutation({
     mutationFn: () => {
@@ -97,6 +100,7 @@ export function LaserForm({ labs, people, initial, laserId, version }: { labs: O
         location: v.location,
         status: v.status,
         responsibleUserId: v.responsibleUserId || null,
+        lines: lines.map((l) => ({ wavelengthNm: numberOrNull(l.wavelengthNm), powerMw: numberOrNull(l.powerMw) })),
         ...(laserId ? { version } : {}),
       };
       return apiFetch<{ id: string }>(laserId ? `/api/lasers/${laserId}` : "/api/lasers", { method: laserId ? "PUT" : "POST", body: JSON.stringify(body) });
@@ -151,6 +155,25 @@ export function LaserForm({ labs, people, initial, laserId, version }: { labs: O
             <Field id="laser-pulse-rate" label="Repetition rate (Hz)" value={v.pulseRepetitionRateHz} onChange={(e) => set("pulseRepetitionRateHz")(e.target.value)} error={err("pulseRepetitionRateHz")} inputMode="decimal" />
           </div>
         ) : null}
+      </fieldset>
+      <fieldset className="flex flex-col gap-3">
+        <legend className="mb-1 font-medium">Further emission lines</legend>
+        <p className="text-sm text-muted">Lines that leave with the main beam, each with its own power — e.g. the residual 1064 nm and the pump of a doubled 532 nm laser.</p>
+        {lines.map((l, i) => (
+          <div key={i} className="grid items-start gap-3 sm:grid-cols-[1fr_1fr_auto]">
+            <Field id={`laser-line-${i}-wavelength`} label={`Line ${i + 2} wavelength (nm)`} value={l.wavelengthNm} onChange={(e) => setLines((old) => old.map((x, j) => (j === i ? { ...x, wavelengthNm: e.target.value } : x)))} error={err(`lines.${i}.wavelengthNm`)} inputMode="decimal" />
+            <Field id={`laser-line-${i}-power`} label={`Line ${i + 2} power (mW)`} value={l.powerMw} onChange={(e) => setLines((old) => old.map((x, j) => (j === i ? { ...x, powerMw: e.target.value } : x)))} error={err(`lines.${i}.powerMw`)} inputMode="decimal" />
+            <Button type="button" variant="quiet" className="sm:mt-6" onClick={() => setLines((old) => old.filter((_, j) => j !== i))}>
+              Remove line {i + 2}
+            </Button>
+          </div>
+        ))}
+        {err("lines") && !lines.some((_, i) => err(`lines.${i}.wavelengthNm`) || err(`lines.${i}.powerMw`)) ? <p className="text-sm text-danger" role="alert">{err("lines")}</p> : null}
+        <div>
+          <Button type="button" variant="quiet" onClick={() => setLines((old) => [...old, { wavelengthNm: "", powerMw: "" }])}>
+            Add a further line
+          </Button>
+        </div>
       </fieldset>
       {save.error instanceof ApiError ? (
         <div role="alert" className="rounded-md border border-danger p-3 text-danger">

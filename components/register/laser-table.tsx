@@ -13,7 +13,7 @@ export function pulseText(l: Pick<LaserView, "pulseEnergyMj" | "pulseDurationS" 
 export function LaserTable({ lasers }: { lasers: LaserView[] }) {
   if (lasers.length === 0) return <p className="rounded-lg border border-dashed border-line p-4 text-muted">No laser is registered in your labs yet.</p>;
   return (
-    <div className="overflow-x-auto rounded-lg border border-line">
+    <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
       <table className="w-full text-left" data-testid="laser-table">
         <caption className="sr-only">Registered lasers</caption>
         <thead className="bg-raised text-sm text-muted">

@@ -3,10 +3,13 @@ import { KIND_WORDS } from "./format";
 
 // A static side view of the bench: the rail, each element at its position, the beam from the laser
 // to the first beam block or screen. Positions are to scale along the rail; heights are not.
-const WIDTH = 1000;
-const HEIGHT = 170;
-const MARGIN = 48;
-const AXIS_Y = 70;
+// Drawn at about its printed size (never shrunk below MIN_WIDTH_PX: on a narrow screen it scrolls sideways instead), so
+// the labels stay as large as the page's own small text.
+const WIDTH = 760;
+const HEIGHT = 196;
+const MARGIN = 52;
+const AXIS_Y = 80;
+const MIN_WIDTH_PX = 640;
 
 function Symbol({ element, x, pinned }: { element: BenchElement; x: number; pinned: boolean }) {
   const stroke = pinned ? "stroke-warn" : "stroke-text";
@@ -49,7 +52,8 @@ export function BenchDrawing({ doc, pinnedElementId }: { doc: BenchDocument; pin
   // Labels alternate above and below so neighbours do not overlap.
   return (
     <figure className="rounded-lg border border-line bg-panel p-3">
-      <svg viewBox={`0 0 ${WIDTH} ${HEIGHT}`} className="h-auto w-full" role="img" aria-label={`Side view of the bench: ${elements.map((e) => `${KIND_WORDS[e.kind] ?? e.kind} ${e.id} at ${e.positionMm} mm`).join(", ")}`}>
+      <div className="overflow-x-auto" tabIndex={0} aria-label="Side view of the bench (scrolls sideways on a narrow screen)">
+      <svg viewBox={`0 0 ${WIDTH} ${HEIGHT}`} className="h-auto w-full" style={{ minWidth: MIN_WIDTH_PX }} role="img" aria-label={`Side view of the bench: ${elements.map((e) => `${KIND_WORDS[e.kind] ?? e.kind} ${e.id} at ${e.positionMm} mm`).join(", ")}`}>
         <line x1={MARGIN - 30} y1={AXIS_Y + 46} x2={WIDTH - MARGIN + 30} y2={AXIS_Y + 46} className="stroke-line" strokeWidth={6} strokeLinecap="round" />
         {laser ? <line x1={x(laser.positionMm)} y1={AXIS_Y} x2={beamEnd} y2={AXIS_Y} className="stroke-accent" strokeWidth={2.5} strokeDasharray={stop ? undefined : "8 6"} /> : null}
         {elements.map((e, i) => {
@@ -58,16 +62,17 @@ export function BenchDrawing({ doc, pinnedElementId }: { doc: BenchDocument; pin
           return (
             <g key={e.id} data-element-id={e.id}>
               <Symbol element={e} x={ex} pinned={pinnedElementId === e.id} />
-              <text x={ex} y={below ? AXIS_Y + 68 : 16} textAnchor="middle" className="fill-text text-[13px] font-medium">
+              <text x={ex} y={below ? AXIS_Y + 76 : 18} textAnchor="middle" className="fill-text text-[16px] font-medium">
                 {e.id}
               </text>
-              <text x={ex} y={below ? AXIS_Y + 84 : 30} textAnchor="middle" className="fill-muted text-[12px]">
+              <text x={ex} y={below ? AXIS_Y + 95 : 36} textAnchor="middle" className="fill-muted text-[14px]">
                 {e.positionMm} mm
               </text>
             </g>
           );
         })}
       </svg>
+      </div>
       <figcaption className="mt-1 text-sm text-muted">
         Side view, to scale along the rail only. {stop ? `The beam ends at ${stop.id}.` : "No beam block or screen stops the beam (dashed)."}
       </figcaption>

@@ -4,7 +4,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { apiFetch, ApiError } from "@/lib/api/client";
-import type { CommentThread } from "@/lib/server/reviews";
+import type { CommentThread } from "@/lib/api/contracts/reviews";
 import { utc } from "./format";
 
 type ElementOption = { id: string; label: string };

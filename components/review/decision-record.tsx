@@ -1,4 +1,6 @@
-import type { DecisionView } from "@/lib/server/reviews";
+import type { DecisionView } from "@/lib/api/contracts/reviews";
+import { FinalSay } from "@/components/ui/hazard-notes";
+import { eyewearWords, nohdWords } from "@/lib/format";
 import { day, fmt, utc } from "./format";
 
 const TITLES = { approved: "● Signed off", "changes-requested": "◑ Changes asked", rejected: "✕ Turned down" } as const;
@@ -22,11 +24,11 @@ export function DecisionRecord({ decision, expiredOrReplaced }: { decision: Deci
           {decision.signerName}, {decision.signerRole}
         </dd>
         <dt className="text-muted">At</dt>
-        <dd>{utc(decision.decidedAt)} (server time)</dd>
+        <dd>{utc(decision.decidedAt)}</dd>
         {decision.validUntil ? (
           <>
             <dt className="text-muted">Valid until</dt>
-            <dd>{day(decision.validUntil)}</dd>
+            <dd>{day(decision.validUntil)}, to the end of that day</dd>
           </>
         ) : null}
         <dt className="text-muted">Content hash</dt>
@@ -53,9 +55,10 @@ export function DecisionRecord({ decision, expiredOrReplaced }: { decision: Deci
           Hazard picture when signed:{" "}
           {h.problem
             ? h.problem
-            : `Class ${h.hazardClass?.value ?? "—"}, MPE ${fmt(h.mpe?.value)} ${h.mpe?.unit ?? ""}, NOHD ${fmt(h.nohd?.value)} m, eyewear OD ${h.governingOd ? `${fmt(h.governingOd.value, 2)} (at ${h.governingOd.elementId})` : "—"}.`}
+            : `Class ${h.hazardClass?.value ?? "—"}, MPE ${fmt(h.mpe?.value)} ${h.mpe?.unit ?? ""}, NOHD ${nohdWords(h.nohd?.value, (v) => fmt(v))}, ${h.governingOd ? `${eyewearWords(h.governingOd.value).line} at ${h.governingOd.elementId}` : "eyewear —"}.`}
         </p>
       ) : null}
+      {h && !h.problem ? <FinalSay className="mt-2 text-muted" /> : null}
     </section>
   );
 }

@@ -1,14 +1,19 @@
 import type { BenchSafetyAssessment } from "@/lib/safety";
+import { eyewearWords, HAZARD_LABELS, nohdWords, plainText } from "@/lib/format";
+import { displayedCautions } from "@/components/ui/cautions";
+import { HazardNotes } from "@/components/ui/hazard-notes";
 import { fmt } from "./format";
 
 const WHERE_WORDS = { element: "at", focus: "at the focus after", "open-end-focus": "at the focus beyond the open end after" } as const;
 
-function Figure({ label, value, source, strong }: { label: string; value: string; source: string; strong?: boolean }) {
+function Figure({ label, value, source, strong, testId }: { label: string; value: string; source: string; strong?: boolean; testId?: string }) {
   return (
     <div className="rounded-lg border border-line bg-panel p-3">
       <dt className="text-sm text-muted">{label}</dt>
-      <dd className={`font-mono ${strong ? "text-2xl font-semibold" : "text-lg"}`}>{value}</dd>
-      <dd className="mt-1 text-xs text-muted">{source}</dd>
+      <dd className={strong ? "text-xl font-semibold" : "font-mono text-lg"} data-testid={testId}>
+        {value}
+      </dd>
+      <dd className="mt-1 text-xs text-muted">{plainText(source)}</dd>
     </div>
   );
 }
@@ -17,17 +22,20 @@ function Figure({ label, value, source, strong }: { label: string; value: string
 export function HazardPanel({ safety }: { safety: BenchSafetyAssessment }) {
   const g = safety.governing;
   const label = safety.laser.labelCheck;
+  const eyewear = eyewearWords(g?.opticalDensityRequired ?? 0, safety.wavelengthNm);
+  const cautions = displayedCautions(safety.cautions);
   return (
     <div className="flex flex-col gap-4" data-testid="hazard-panel">
       <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
-        <Figure label="Laser class (estimated)" value={`Class ${safety.laser.hazardClass}`} source={safety.laser.figures.hazardClass.source} strong />
-        <Figure label={`MPE (eye, ${fmt(safety.laser.exposureS)} s)`} value={`${fmt(safety.mpe.value)} ${safety.mpe.unit}`} source={safety.mpe.source} />
-        <Figure label="NOHD of the free beam" value={`${fmt(safety.laser.nohdM)} m`} source={safety.laser.figures.nohd.source} />
+        <Figure label={HAZARD_LABELS.hazardClass} value={`Class ${safety.laser.hazardClass}`} source={safety.laser.figures.hazardClass.source} strong />
+        <Figure label={`${HAZARD_LABELS.mpe} (${fmt(safety.laser.exposureS)} s)`} value={`${fmt(safety.mpe.value)} ${safety.mpe.unit}`} source={safety.mpe.source} />
+        <Figure label={HAZARD_LABELS.nohd} value={nohdWords(safety.laser.nohdM, (v) => fmt(v))} source={safety.laser.figures.nohd.source} />
         <Figure
-          label="Eyewear OD needed (highest on the bench)"
-          value={g ? fmt(g.opticalDensityRequired, 2) : "—"}
-          source={g ? `${WHERE_WORDS[g.where]} ${g.elementId}, ${fmt(g.positionMm)} mm. ${g.source}` : "No light reaches anything."}
+          label={HAZARD_LABELS.eyewear}
+          value={eyewear.wear}
+          source={g ? `${eyewear.need}, ${WHERE_WORDS[g.where]} ${g.elementId}, ${fmt(g.positionMm)} mm. ${g.source}` : "No light reaches anything."}
           strong
+          testId="eyewear-od"
         />
       </dl>
       <p className={`rounded-md border px-3 py-2 text-sm ${label && !label.matches ? "border-danger" : "border-line"}`}>
@@ -37,7 +45,7 @@ export function HazardPanel({ safety }: { safety: BenchSafetyAssessment }) {
           ) : (
             <>
               <span aria-hidden="true" className="text-danger">✕ </span>
-              <strong>Class mismatch:</strong> {label.warning}
+              <strong>Class mismatch:</strong> {plainText(label.warning ?? "")}
             </>
           )
         ) : (
@@ -49,7 +57,7 @@ export function HazardPanel({ safety }: { safety: BenchSafetyAssessment }) {
           {safety.warnings.map((w, i) => (
             <li key={`${w.code}-${i}`} className="rounded-md border border-warn/60 px-3 py-2">
               <span aria-hidden="true" className="text-warn">▲ </span>
-              {w.message}
+              {plainText(w.message)}
             </li>
           ))}
         </ul>
@@ -58,20 +66,20 @@ export function HazardPanel({ safety }: { safety: BenchSafetyAssessment }) {
         <ul className="text-sm text-muted">
           {safety.lensHazards.map((h) => (
             <li key={`lens-${h.elementId}`}>
-              Behind {h.elementId}: hazard distance {fmt(h.fromLensM)} m from the lens ({h.source}).
+              Behind {h.elementId}: hazard distance {fmt(h.fromLensM)} m from the lens ({plainText(h.source)}).
             </li>
           ))}
           {safety.screenHazards.map((h) => (
             <li key={`screen-${h.elementId}`}>
-              Off {h.elementId}: diffuse reflection hazard zone {fmt(h.diffuseReflectionNhzM)} m ({h.source}).
+              Off {h.elementId}: diffuse reflection hazard zone {fmt(h.diffuseReflectionNhzM)} m ({plainText(h.source)}).
             </li>
           ))}
         </ul>
       ) : null}
       <details className="rounded-lg border border-line bg-panel p-3" open>
-        <summary className="cursor-pointer font-medium">Cautions ({safety.cautions.length})</summary>
+        <summary className="cursor-pointer font-medium">Cautions ({cautions.length})</summary>
         <ul className="mt-2 flex flex-col gap-2 text-sm">
-          {safety.cautions.map((c) => (
+          {cautions.map((c) => (
             <li key={c.id}>
               <p className="font-medium">{c.title}</p>
               <p className="text-muted">
@@ -81,7 +89,7 @@ export function HazardPanel({ safety }: { safety: BenchSafetyAssessment }) {
           ))}
         </ul>
       </details>
-      <p className="text-sm text-muted">{safety.finalSay}</p>
+      <HazardNotes />
     </div>
   );
 }

@@ -8,7 +8,7 @@ export function PredictionsTable({ analysis, safety }: { analysis: BenchAnalysis
   const odAt = new Map(safety.points.filter((p) => p.where === "element").map((p) => [p.elementId, p]));
   return (
     <div className="flex flex-col gap-4">
-      <div className="overflow-x-auto rounded-lg border border-line">
+      <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
         <table className="w-full text-left text-sm">
           <caption className="sr-only">The beam arriving at each element</caption>
           <thead className="bg-raised text-muted">
@@ -40,7 +40,7 @@ export function PredictionsTable({ analysis, safety }: { analysis: BenchAnalysis
         </table>
       </div>
       {analysis.apertures.length ? (
-        <div className="overflow-x-auto rounded-lg border border-line">
+        <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
           <table className="w-full text-left text-sm">
             <caption className="sr-only">Fresnel zones at each aperture</caption>
             <thead className="bg-raised text-muted">
@@ -64,6 +64,31 @@ export function PredictionsTable({ analysis, safety }: { analysis: BenchAnalysis
                     {a.centre === "bright" ? "● bright" : a.centre === "dark" ? "○ dark" : "◐ between"} <span className="text-muted">(×{fmt(a.centreIntensityRatio)} of the open beam)</span>
                   </td>
                   <td className="px-3 py-2 font-mono">{fmt(a.transmittedFraction * 100)} %</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      ) : null}
+      {analysis.screens?.length ? (
+        <div className="overflow-x-auto rounded-lg border border-line">
+          <table className="w-full text-left text-sm" data-testid="review-screens">
+            <caption className="sr-only">What reaches each screen</caption>
+            <thead className="bg-raised text-muted">
+              <tr>
+                <th className="px-3 py-2 font-medium">Screen</th>
+                <th className="px-3 py-2 font-medium">Centre, every aperture in place</th>
+                <th className="px-3 py-2 font-medium">Power arriving</th>
+              </tr>
+            </thead>
+            <tbody>
+              {analysis.screens.map((s) => (
+                <tr key={s.id} className="border-t border-line">
+                  <td className="px-3 py-2">{s.id}</td>
+                  <td className="px-3 py-2">
+                    {s.centre === "bright" ? "● bright" : s.centre === "dark" ? "○ dark" : "◐ between"} <span className="text-muted">(×{fmt(s.centreIntensityRatio)} of the open beam)</span>
+                  </td>
+                  <td className="px-3 py-2 font-mono">{fmt(s.powerMw)} mW</td>
                 </tr>
               ))}
             </tbody>

@@ -4,7 +4,7 @@ import { useRouter } from "next/navigation";
 import { Button } from "@/components/ui/button";
 import { StateBadge } from "@/components/ui/state-badge";
 import { apiFetch, ApiError, queryKeys } from "@/lib/api/client";
-import type { ReviewDetail } from "@/lib/server/reviews";
+import type { ReviewDetail } from "@/lib/api/contracts/reviews";
 
 // TODO(lead): move this key into queryKeys in lib/api/client.ts (revision: (id) => ["revisions", id]).
 const revisionQueryKey = queryKeys.revision;
@@ -13,7 +13,22 @@ const revisionQueryKey = queryKeys.revision;
  * The revision's review state, with "Send for review" for its author while it is a draft (or withdrawn)
  * and "Withdraw" while it waits. Drop it on any page that knows the revision id.
  */
-export function SubmitForReview({ revisionId, initial }: { revisionId: string; initial?: ReviewDetail }) {
+export function SubmitForReview({
+  revisionId,
+  initial,
+  contentHash,
+  waitingFor = null,
+  onChanged,
+}: {
+  revisionId: string;
+  initial?: ReviewDetail;
+  /** The content hash of the revision as the sender sees it (the editor's last save); null while a save is pending. */
+  contentHash?: string | null;
+  /** Why sending has to wait (e.g. a save still pending), or null. */
+  waitingFor?: string | null;
+  /** After a submit or withdraw: the editor reloads its draft so its state and version are the server's. */
+  onChanged?: () => Promise<void> | void;
+}) {
   const router = useRouter();
   const queryClient = useQueryClient();
   const review = useQuery({
@@ -25,9 +40,10 @@ export function SubmitForReview({ revisionId, initial }: { revisionId: string; i
     mutationFn: (action: "submit" | "withdraw") =>
       apiFetch(`/api/revisions/${revisionId}/${action}`, {
         method: "POST",
-        body: JSON.stringify(action === "submit" ? { contentHash: review.data?.revision.contentHash } : {}),
+        body: JSON.stringify(action === "submit" ? { contentHash: contentHash ?? review.data?.revision.contentHash } : {}),
       }),
     onSettled: async () => {
+      if (onChanged) await onChanged();
       await queryClient.invalidateQueries({ queryKey: revisionQueryKey(revisionId) });
       // The editor reads the bench (its revisions) and the draft under the "benches" keys.
       await queryClient.invalidateQueries({ queryKey: queryKeys.benches() });
@@ -50,10 +66,11 @@ export function SubmitForReview({ revisionId, initial }: { revisionId: string; i
       {decision?.conditions && revision.state === "approved" ? <p className="text-sm">Conditions: {decision.conditions}</p> : null}
       <div className="flex flex-wrap gap-2">
         {may.submit ? (
-          <Button type="button" onClick={() => act.mutate("submit")} disabled={act.isPending}>
+          <Button type="button" onClick={() => act.mutate("submit")} disabled={act.isPending || waitingFor !== null || contentHash === null}>
             Send for review
           </Button>
         ) : null}
+        {may.submit && waitingFor ? <span className="self-center text-sm text-muted">{waitingFor}</span> : null}
         {may.withdraw ? (
           <Button type="button" variant="quiet" onClick={() => act.mutate("withdraw")} disabled={act.isPending}>
             Withdraw from review

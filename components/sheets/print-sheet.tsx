@@ -1,6 +1,10 @@
 import { fmt } from "@/components/review/format";
-import type { SheetContent } from "@/lib/server/build-sheets";
-import { statedOd } from "@/lib/safety/cautions";
+import { displayedCautions } from "@/components/ui/cautions";
+import { capitalise, CENTRE_WORDS, eyewearWords, formatDate, formatDateTime, HAZARD_LABELS, nohdWords, ONE_OVER_E_NOTE, plainText, limitationText } from "@/lib/format";
+import { FINAL_SAY, LIMITATIONS } from "@/lib/safety";
+import type { SheetContent } from "@/lib/build/sheet";
+import type { CoverageData } from "@/components/eyewear/coverage-list";
+import { PrintCoverage, PrintStandard } from "@/components/eyewear/print-coverage";
 import { ProfilePlot } from "./profile-plot";
 import { ScaleDrawing } from "./scale-drawing";
 
@@ -26,7 +30,12 @@ body { font-size: 12.5pt; line-height: 1.35; -webkit-print-color-adjust: exact; 
 .sheet tr { break-inside: avoid; }
 .sheet .num { font-variant-numeric: tabular-nums; white-space: nowrap; }
 .sheet .big { font-size: 15pt; font-weight: 800; }
-.sheet .mono { font-family: ui-monospace, "DejaVu Sans Mono", monospace; font-size: 10.5pt; word-break: break-all; }
+.sheet .mono { font-family: ui-monospace, "DejaVu Sans Mono", monospace; font-size: 10.5pt; overflow-wrap: anywhere; }
+/* a hash is read and compared as one unbroken string: small enough to fit the column on one line */
+.sheet .hash { font-family: ui-monospace, "DejaVu Sans Mono", monospace; font-size: 8.6pt; white-space: nowrap; letter-spacing: -0.1pt; }
+.sheet .nowrap { white-space: nowrap; }
+.sheet .scope { font-size: 9.5pt; margin: 1mm 0 0; padding-left: 5mm; }
+.sheet .scope li { margin-bottom: 0.8mm; break-inside: avoid; }
 .sheet .box { border: 0.5mm solid #000; padding: 3mm; border-radius: 1.5mm; break-inside: avoid; }
 .sheet .warn { border: 0.8mm solid #000; background: #f2f2f2; padding: 3mm; font-weight: 700; }
 .sheet .grid2 { display: grid; grid-template-columns: 1fr 1fr; gap: 4mm; }
@@ -51,7 +60,6 @@ body { font-size: 12.5pt; line-height: 1.35; -webkit-print-color-adjust: exact; 
 @media screen { body { padding: 10mm; } }
 `;
 
-const CENTRE_WORDS = { bright: "BRIGHT centre", dark: "DARK centre", between: "centre neither clearly bright nor dark" } as const;
 
 function RegisterLine({ register }: { register: SheetContent["register"] }) {
   if (!register) return <div style={{ fontSize: "10.5pt", marginTop: "1mm" }}>Laser register: not linked — ask the laser safety officer which registered laser this is.</div>;
@@ -66,15 +74,16 @@ function RegisterLine({ register }: { register: SheetContent["register"] }) {
 }
 
 function day(d: Date | string | null | undefined): string {
-  if (!d) return "—";
-  return (typeof d === "string" ? d : d.toISOString()).slice(0, 10);
+  return formatDate(d);
 }
 
-export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" | "Letter" }) {
+export function PrintSheet({ sheet, paper, eyewear = null }: { sheet: SheetContent; paper: "A4" | "Letter"; eyewear?: CoverageData | null }) {
   const { revision, decision, safety, analysis } = sheet;
   const governing = safety?.governing ?? null;
   const od = governing?.opticalDensityRequired ?? 0;
   const wavelength = sheet.laser?.wavelengthNm;
+  const eyewearText = eyewearWords(od, wavelength);
+  const cautions = safety ? displayedCautions(safety.cautions) : [];
   return (
     <div className="sheet" data-print-ready="" data-paper={paper}>
       <style dangerouslySetInnerHTML={{ __html: CSS }} />
@@ -88,11 +97,11 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
             Revision {revision.number} · {revision.status === "valid" ? "SIGNED OFF" : revision.status === "expired" ? "SIGN-OFF EXPIRED — DO NOT BUILD" : "REPLACED — DO NOT BUILD"}
           </p>
           <p style={{ margin: 0 }}>
-            Signed off by <strong>{decision?.signerName ?? "—"}</strong> on <strong>{day(decision?.decidedAt)}</strong>
+            Signed off by <strong>{decision?.signerName ?? "—"}</strong> on <strong className="nowrap">{day(decision?.decidedAt)}</strong>
             {decision?.validUntil ? (
               <>
                 {" "}
-                · valid until <strong>{day(decision.validUntil)}</strong>
+                · valid until <strong className="nowrap">{day(decision.validUntil)}</strong>
               </>
             ) : null}{" "}
             · drawn by {revision.authorName}
@@ -100,7 +109,7 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
           <p style={{ margin: "2mm 0 0" }}>
             Content hash (SHA-256):
             <br />
-            <span className="mono" data-testid="sheet-hash">
+            <span className="hash" data-testid="sheet-hash">
               {revision.contentHash}
             </span>
           </p>
@@ -139,6 +148,7 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
                   <br />
                   {p.kindWord}
                 </td>
+                {/* positions as the ruler reads them, the same digits as the build order (no grouping) */}
                 <td className="num big">{p.positionMm} mm</td>
                 <td className="num">{Number(p.fromLaserMm.toFixed(2))} mm</td>
                 <td>
@@ -154,8 +164,9 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
         </p>
       </section>
 
-      {/* ── Build order and the paper checklist ────────────────────────────────────────── */}
-      <section className="page">
+      {/* ── Build order and the paper checklist (flows on after the parts list: a forced page break here left
+          page 2 nearly empty whenever the parts list ran over page 1) ──────────────────────────────────── */}
+      <section>
         <h2>Build order</h2>
         <ol className="steps">
           {sheet.steps.map((s, i) => (
@@ -171,7 +182,7 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
 
       <section>
         <h2>As-built checklist (also in Benchwarden)</h2>
-        <p style={{ margin: "0 0 2mm" }}>Each element within ±{sheet.toleranceMm} mm of its position; each control as described on the safety page.</p>
+        <p style={{ margin: "0 0 2mm" }}>Each element within ±{sheet.toleranceMm} mm of its position; each control as described on the safety page; each condition of the sign-off.</p>
         <table>
           <thead>
             <tr>
@@ -188,7 +199,7 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
                 </td>
                 <td>
                   <strong>{c.label}</strong>
-                  {c.group === "eyewear" ? <div style={{ fontSize: "10.5pt" }}>{c.detail}</div> : null}
+                  {c.group === "eyewear" || c.group === "condition" ? <div style={{ fontSize: "10.5pt" }}>{c.detail}</div> : null}
                 </td>
                 <td>{c.expectedPositionMm !== null ? <span className="write" /> : "—"} {c.expectedPositionMm !== null ? "mm" : ""}</td>
               </tr>
@@ -214,7 +225,7 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
               Aperture {a.id} (⌀ {a.diameterMm} mm at {a.positionMm} mm){a.screenId ? ` seen on ${a.screenId}, ${fmt(a.observationDistanceMm)} mm away` : " — no screen (far field)"}
             </h3>
             <p className="big" style={{ margin: "0 0 2mm" }}>
-              Expect a {CENTRE_WORDS[a.centre]} — {fmt(a.fresnelNumber)} half-period zones (Fresnel number)
+              Expect a {CENTRE_WORDS[a.centre]} — {fmt(a.fresnelNumber)} half-period zones
             </p>
             <table style={{ marginBottom: "3mm" }}>
               <tbody>
@@ -235,6 +246,8 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
             {a.profile ? (
               <div className="aperture-figs">
                 <figure style={{ margin: 0 }}>
+                  {/* A data-URL PNG on a page chromium prints: next/image would neither optimise it nor load it before printing. */}
+                  {/* eslint-disable-next-line @next/next/no-img-element */}
                   {a.ringPng ? <img className="ring" src={a.ringPng} alt={`Expected ring pattern behind ${a.id}`} /> : null}
                   <figcaption style={{ fontSize: "10pt", textAlign: "center" }}>
                     Expected pattern, {fmt(2 * (a.ringMaxRadiusMm ?? 0))} mm across (bright = light)
@@ -250,10 +263,10 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
         ))}
         {analysis?.warnings.length ? (
           <div className="box">
-            <h3 style={{ marginTop: 0 }}>Notes from the optics engine</h3>
+            <h3 style={{ marginTop: 0 }}>Notes on the predictions</h3>
             <ul>
               {analysis.warnings.map((w, i) => (
-                <li key={i}>{w.message}</li>
+                <li key={i}>{plainText(w.message)}</li>
               ))}
             </ul>
           </div>
@@ -263,50 +276,53 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
       {/* ── Safety and approval ─────────────────────────────────────────────────────────── */}
       <section className="page">
         <h2>Laser safety</h2>
+        {eyewear ? <PrintStandard data={eyewear} safety={safety} /> : null}
         {safety ? (
           <>
             <div className="grid2" style={{ marginBottom: "3mm" }}>
               <div className="box">
-                <p style={{ margin: 0 }}>Laser class (estimated)</p>
+                <p style={{ margin: 0 }}>{HAZARD_LABELS.hazardClass}</p>
                 <p className="big" style={{ fontSize: "20pt", margin: 0 }}>
                   Class {safety.laser.hazardClass}
                 </p>
-                <p style={{ margin: 0, fontSize: "9.5pt" }}>{safety.laser.figures.hazardClass.source}</p>
+                <p style={{ margin: 0, fontSize: "9.5pt" }}>{plainText(safety.laser.figures.hazardClass.source)}</p>
               </div>
               <div className="box">
-                <p style={{ margin: 0 }}>Eyewear needed (highest on the bench)</p>
-                <p className="big" style={{ fontSize: "20pt", margin: 0 }}>
-                  {od > 0 ? `OD ${statedOd(od)} at ${wavelength} nm` : "OD 0 — none by the estimate"}
+                <p style={{ margin: 0 }}>{HAZARD_LABELS.eyewear}</p>
+                <p className="big" style={{ fontSize: "16pt", margin: 0 }} data-testid="sheet-eyewear">
+                  {eyewearText.wear}
                 </p>
-                <p style={{ margin: 0, fontSize: "9.5pt" }}>{governing ? `${governing.where === "element" ? "at" : "at the focus after"} ${governing.elementId}, ${fmt(governing.positionMm)} mm. ${governing.source}` : "No light reaches anything."}</p>
+                <p style={{ margin: 0 }}>{capitalise(eyewearText.need)}</p>
+                <p style={{ margin: 0, fontSize: "9.5pt" }}>{governing ? `Highest ${governing.where === "element" ? "at" : "at the focus after"} ${governing.elementId}, ${fmt(governing.positionMm)} mm. ${plainText(governing.source)}` : "No light reaches anything."}</p>
               </div>
             </div>
+            {eyewear ? <PrintCoverage data={eyewear} asOf={new Date().toISOString().slice(0, 10)} /> : null}
             <table style={{ marginBottom: "3mm" }}>
               <tbody>
                 <tr>
-                  <th>MPE (eye, {fmt(safety.laser.exposureS)} s)</th>
+                  <th>{HAZARD_LABELS.mpe} ({fmt(safety.laser.exposureS)} s)</th>
                   <td className="num">
                     {fmt(safety.mpe.value)} {safety.mpe.unit}
                   </td>
-                  <td style={{ fontSize: "9.5pt" }}>{safety.mpe.source}</td>
+                  <td style={{ fontSize: "9.5pt" }}>{plainText(safety.mpe.source)}</td>
                 </tr>
                 <tr>
-                  <th>NOHD of the free beam</th>
-                  <td className="num">{fmt(safety.laser.nohdM)} m</td>
-                  <td style={{ fontSize: "9.5pt" }}>{safety.laser.figures.nohd.source}</td>
+                  <th>{HAZARD_LABELS.nohd}</th>
+                  <td className="num">{nohdWords(safety.laser.nohdM, (v) => fmt(v))}</td>
+                  <td style={{ fontSize: "9.5pt" }}>{plainText(safety.laser.figures.nohd.source)}</td>
                 </tr>
                 {safety.laser.labelCheck ? (
                   <tr>
                     <th>Label class</th>
                     <td>Class {safety.laser.labelCheck.labelClass}</td>
-                    <td>{safety.laser.labelCheck.matches ? "matches the estimate" : safety.laser.labelCheck.warning}</td>
+                    <td>{safety.laser.labelCheck.matches ? "matches the estimate" : plainText(safety.laser.labelCheck.warning ?? "")}</td>
                   </tr>
                 ) : null}
               </tbody>
             </table>
             <h3>Controls and cautions</h3>
             <ul className="cautions">
-              {safety.cautions.map((c) => (
+              {cautions.map((c) => (
                 <li key={c.id}>
                   <strong>{c.title}.</strong> {c.text} <span style={{ fontSize: "9.5pt" }}>({c.reference})</span>
                 </li>
@@ -315,7 +331,7 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
             {safety.warnings.length ? (
               <ul>
                 {safety.warnings.map((w, i) => (
-                  <li key={i}>{w.message}</li>
+                  <li key={i}>{plainText(w.message)}</li>
                 ))}
               </ul>
             ) : null}
@@ -323,7 +339,14 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
         ) : (
           <p className="warn">The hazard figures cannot be computed for this drawing: {sheet.problem}. Ask the laser safety officer before switching on.</p>
         )}
-        <p className="warn">The institution&apos;s laser safety officer and local regulations decide. This sheet advises; it never authorises work on its own.</p>
+        <h3>What these hazard figures do not cover</h3>
+        <ul className="scope">
+          <li>{ONE_OVER_E_NOTE}</li>
+          {LIMITATIONS.map((l) => (
+            <li key={l.id}>{limitationText(l)}</li>
+          ))}
+        </ul>
+        <p className="warn">{FINAL_SAY}</p>
       </section>
 
       <section className="box">
@@ -335,22 +358,25 @@ export function PrintSheet({ sheet, paper }: { sheet: SheetContent; paper: "A4" 
             {decision ? `, ${decision.signerRole}` : ""}
           </dd>
           <dt>Signed on</dt>
-          <dd>{decision ? `${decision.decidedAt.toISOString().slice(0, 16).replace("T", " ")} UTC` : "—"}</dd>
+          <dd className="nowrap">{decision ? formatDateTime(decision.decidedAt) : "—"}</dd>
           <dt>Meaning</dt>
           <dd>{decision?.meaning ?? "—"}</dd>
           <dt>Conditions</dt>
           <dd>{decision?.conditions || "None"}</dd>
           <dt>Valid until</dt>
-          <dd>{decision?.validUntil ? day(decision.validUntil) : "No end date"}</dd>
+          <dd className="nowrap">{decision?.validUntil ? `${day(decision.validUntil)} (to the end of that day)` : "No end date"}</dd>
           <dt>Revision</dt>
           <dd>
             {revision.number} of “{revision.benchTitle}”, {revision.labName}
           </dd>
           <dt>Content hash</dt>
-          <dd className="mono">{revision.contentHash}</dd>
+          <dd className="hash">{revision.contentHash}</dd>
           <dt>Check online</dt>
           <dd className="mono">{sheet.verifyUrl}</dd>
         </dl>
+        <p style={{ margin: "3mm 0 0" }}>
+          The figures on this sheet are advice. Work is authorised by the sign-off above, under its conditions, for as long as it is valid.
+        </p>
         <p style={{ margin: "3mm 0 0", fontWeight: 700 }}>Uncontrolled when printed — check the online record before use (scan the QR code on page 1).</p>
       </section>
     </div>

@@ -4,15 +4,14 @@
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
-import { apiFetch } from "@/lib/api/client";
+import { apiFetch, queryKeys } from "@/lib/api/client";
 import type { SheetView } from "@/lib/server/build-sheets";
-import { buildKeys } from "@/components/builds/build-queries";
 
 export function SheetDownload({ revisionId, compact = false }: { revisionId: string; compact?: boolean }) {
   const [paper, setPaper] = useState<"A4" | "Letter">("A4");
   const [asked, setAsked] = useState(false);
   const queryClient = useQueryClient();
-  const key = buildKeys.sheet(revisionId, paper);
+  const key = queryKeys.sheet(revisionId, paper);
   const status = useQuery({
     queryKey: key,
     queryFn: ({ signal }) => apiFetch<{ sheet: SheetView | null }>(`/api/revisions/${revisionId}/sheet?paper=${paper}`, { signal }).then((r) => r.sheet),

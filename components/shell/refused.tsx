@@ -1,8 +1,7 @@
-export function Refused({ reason }: { reason: string }) {
-  return (
-    <div role="alert" className="rounded-xl border border-danger bg-panel p-6">
-      <h1 className="text-xl font-semibold">Not open to your role</h1>
-      <p className="mt-2 text-muted">{reason}</p>
-    </div>
-  );
+import { forbidden } from "next/navigation";
+
+/** A page the caller's roles do not open answers 403 with app/forbidden.tsx; the reason is logged, not shown twice. */
+export function Refused({ reason }: { reason: string }): never {
+  void reason;
+  forbidden();
 }

@@ -1,5 +1,6 @@
 // A bench's trail for everyone who may read it: who did what to which revision (and hash), oldest first.
 // The timeline itself is the auditor's desk's (components/desk/trail-timeline.tsx), so both read alike.
+import { formatDate } from "@/lib/format";
 import Link from "next/link";
 import { TrailTimeline } from "@/components/desk/trail-timeline";
 import type { ReaderTrail } from "@/lib/server/trail";
@@ -16,7 +17,7 @@ export function BenchTrailView({ trail, exportHref }: { trail: ReaderTrail; expo
         <div>
           <h1 className="text-2xl font-semibold">Trail of {bench.title}</h1>
           <p className="text-muted">
-            {bench.labName} · drawn by {bench.authorName} · started {bench.createdAt.slice(0, 10)} · {trail.entries.length} {trail.entries.length === 1 ? "entry" : "entries"}
+            {bench.labName} · drawn by {bench.authorName} · started {formatDate(bench.createdAt)} · {trail.entries.length} {trail.entries.length === 1 ? "entry" : "entries"}
           </p>
         </div>
         {exportHref ? (
@@ -26,8 +27,8 @@ export function BenchTrailView({ trail, exportHref }: { trail: ReaderTrail; expo
         ) : null}
       </div>
       <p className="max-w-3xl text-muted">
-        Every change of state, decision, comment, build sheet and rebuild of this bench, as the audit trail keeps it: nothing in it can be changed or removed. Times are the
-        server&apos;s, in UTC.
+        Every change of state, decision, comment, build sheet and rebuild of this bench, as the audit trail keeps it: nothing in it can be changed or removed. Times are
+        the lab&apos;s local time.
       </p>
       <section aria-labelledby="trail-revisions-heading">
         <h2 id="trail-revisions-heading" className="mb-2 text-lg font-semibold">

@@ -1,3 +1,4 @@
+import { formatDateTime } from "@/lib/format";
 import Link from "next/link";
 import { StateBadge } from "@/components/ui/state-badge";
 import type { BenchTrail } from "@/lib/server/trail";
@@ -5,7 +6,7 @@ import type { BenchTrail } from "@/lib/server/trail";
 /** The bench's revisions with their content hashes and where each stands now; drafts have no review page. */
 export function RevisionList({ revisions }: { revisions: BenchTrail["revisions"] }) {
   return (
-    <div className="overflow-x-auto rounded-lg border border-line">
+    <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
       <table className="w-full text-left">
         <caption className="sr-only">Revisions of this bench</caption>
         <thead className="bg-raised text-sm text-muted">
@@ -24,7 +25,7 @@ export function RevisionList({ revisions }: { revisions: BenchTrail["revisions"]
               <td className="px-3 py-2">
                 <StateBadge state={r.state} />
               </td>
-              <td className="px-3 py-2 text-sm text-muted">{r.createdAt.slice(0, 16).replace("T", " ")} UTC</td>
+              <td className="px-3 py-2 text-sm text-muted">{formatDateTime(r.createdAt)}</td>
             </tr>
           ))}
         </tbody>

@@ -1,6 +1,7 @@
 // Request bodies of the analysis endpoints (finder, beam safety), shared by the route handlers
 // and the browser. The bench document itself is lib/bench/schema.ts.
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import { benchDocumentSchema, MAX_POSITION_MM } from "@/lib/bench/schema";
 import { anyBenchDocumentSchema } from "@/lib/bench/schema-v2";
 
@@ -20,7 +21,7 @@ export const finderRequestSchema = z.discriminatedUnion(
     z.object({
       goal: z.literal("screen-positions"),
       document: benchDocumentSchema,
-      apertureId: z.string().min(1, "apertureId must name an aperture"),
+      apertureId: safeText().min(1, "apertureId must name an aperture"),
       fromMm: positionMm("fromMm"),
       toMm: positionMm("toMm"),
       maxResults: z.number().int().min(1, "maxResults must be at least 1").max(50, "maxResults must be at most 50").optional(),
@@ -28,14 +29,14 @@ export const finderRequestSchema = z.discriminatedUnion(
     z.object({
       goal: z.literal("aperture-diameter"),
       document: benchDocumentSchema,
-      apertureId: z.string().min(1, "apertureId must name an aperture"),
+      apertureId: safeText().min(1, "apertureId must name an aperture"),
       zones: z.number().int("zones must be a whole number").min(1, "zones must be at least 1").max(10_000, "zones must be at most 10 000"),
       screenPositionMm: positionMm("screenPositionMm").optional(),
     }),
     z.object({
       goal: z.literal("aperture-position"),
       document: benchDocumentSchema,
-      apertureId: z.string().min(1, "apertureId must name an aperture"),
+      apertureId: safeText().min(1, "apertureId must name an aperture"),
       zones: z.number().int("zones must be a whole number").min(1, "zones must be at least 1").max(10_000, "zones must be at most 10 000"),
       screenPositionMm: positionMm("screenPositionMm").optional(),
       fromMm: positionMm("fromMm").optional(),

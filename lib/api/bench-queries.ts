@@ -7,7 +7,7 @@ import type { BenchSafetyAssessment } from "@/lib/safety";
 import type { BenchDetail } from "@/lib/server/benches";
 import type { DraftView, FrozenRevision } from "@/lib/server/drafts";
 import type { LaserView } from "@/lib/server/register";
-import { ApiError, apiFetch, queryKeys, type FieldProblem } from "./client";
+import { apiFetch, conflictCurrent, queryKeys, type ApiError } from "./client";
 
 export type { BenchDetail, DraftView, FrozenRevision, LaserView };
 
@@ -80,22 +80,21 @@ export type SaveDraftRequest = { document: BenchDocument; baseRevision: number; 
 export type SaveDraftOutcome = { kind: "saved"; draft: DraftView; createdRevision: boolean } | { kind: "conflict"; current: DraftView; message: string };
 
 /** PUT the draft. A 409 is an answer (the server's draft), not an error; other failures throw ApiError (status 0 = offline). */
-export async function putDraft(benchId: string, request: SaveDraftRequest): Promise<SaveDraftOutcome> {
-  let response: Response;
+export async function putDraft(benchId: string, request: SaveDraftRequest, options: { keepalive?: boolean } = {}): Promise<SaveDraftOutcome> {
   try {
-    response = await fetch(`/api/benches/${benchId}/draft`, { method: "PUT", headers: { "content-type": "application/json" }, body: json(request) });
-  } catch {
-    throw new ApiError("The server cannot be reached. Your changes are kept here and saved when it answers.", 0, []);
+    const body = await apiFetch<{ draft: DraftView; createdRevision?: boolean }>(`/api/benches/${benchId}/draft`, {
+      method: "PUT",
+      body: json(request),
+      // keepalive: a save sent while the page is being left still reaches the server
+      keepalive: options.keepalive,
+      offlineMessage: "The server cannot be reached. Your changes are kept here and saved when it answers.",
+    });
+    return { kind: "saved", draft: body.draft, createdRevision: Boolean(body.createdRevision) };
+  } catch (error) {
+    const current = conflictCurrent<DraftView>(error);
+    if (current) return { kind: "conflict", current, message: (error as ApiError).message };
+    throw error;
   }
-  const body = (await response.json().catch(() => null)) as {
-    draft?: DraftView;
-    createdRevision?: boolean;
-    current?: DraftView;
-    error?: { message: string; fields?: FieldProblem[] };
-  } | null;
-  if (response.status === 409 && body?.current) return { kind: "conflict", current: body.current, message: body.error?.message ?? "Someone else saved first." };
-  if (!response.ok || !body?.draft) throw new ApiError(body?.error?.message ?? `The server answered ${response.status}.`, response.status, body?.error?.fields ?? []);
-  return { kind: "saved", draft: body.draft, createdRevision: Boolean(body.createdRevision) };
 }
 
 export function useSaveDraft(benchId: string) {
@@ -126,16 +125,18 @@ export type MakeRevisionOutcome = { kind: "made"; draft: DraftView; frozen: Froz
 
 /** POST a "make a revision". A 409 with the server's draft is an answer (stale base); other failures throw ApiError. */
 export async function postRevision(benchId: string, request: MakeRevisionRequest): Promise<MakeRevisionOutcome> {
-  let response: Response;
   try {
-    response = await fetch(`/api/benches/${benchId}/revisions`, { method: "POST", headers: { "content-type": "application/json" }, body: json(request) });
-  } catch {
-    throw new ApiError("The server cannot be reached; no revision was made. Try again when it answers.", 0, []);
+    const body = await apiFetch<{ draft: DraftView; frozen: FrozenRevision }>(`/api/benches/${benchId}/revisions`, {
+      method: "POST",
+      body: json(request),
+      offlineMessage: "The server cannot be reached; no revision was made. Try again when it answers.",
+    });
+    return { kind: "made", draft: body.draft, frozen: body.frozen };
+  } catch (error) {
+    const current = conflictCurrent<DraftView>(error);
+    if (current) return { kind: "conflict", current, message: (error as ApiError).message };
+    throw error;
   }
-  const body = (await response.json().catch(() => null)) as { draft?: DraftView; frozen?: FrozenRevision; current?: DraftView; error?: { message: string; fields?: FieldProblem[] } } | null;
-  if (response.status === 409 && body?.current) return { kind: "conflict", current: body.current, message: body.error?.message ?? "The bench changed after you opened it." };
-  if (!response.ok || !body?.draft || !body.frozen) throw new ApiError(body?.error?.message ?? `The server answered ${response.status}.`, response.status, body?.error?.fields ?? []);
-  return { kind: "made", draft: body.draft, frozen: body.frozen };
 }
 
 export function useMakeRevision(benchId: string) {

@@ -1,5 +1,5 @@
-// Browser-side fetch helpers and the one query-key factory. Errors come back as ApiError with the
-// server's sentence and field list, ready to show beside the fields.
+// The browser's one fetch helper and the one query-key factory. Every error answer — a 409 conflict included —
+// comes back as ApiError with the server's sentence, its field list and any data sent beside them (`extra`).
 export type FieldProblem = { path: string; message: string };
 
 export class ApiError extends Error {
@@ -7,21 +7,40 @@ export class ApiError extends Error {
     message: string,
     readonly status: number,
     readonly fields: FieldProblem[],
+    /** What the server sent beside the error (e.g. `current`, its copy, with a 409). */
+    readonly extra: Record<string, unknown> = {},
   ) {
     super(message);
   }
 }
 
-export async function apiFetch<T>(url: string, init?: RequestInit): Promise<T> {
+type ErrorBody = { error?: { message?: string; fields?: FieldProblem[] } } & Record<string, unknown>;
+
+/**
+ * Calls a route and returns its JSON; any non-2xx answer throws ApiError (status 0 when the server cannot be
+ * reached, with `offlineMessage`). A JSON body is sent with its content type; a FormData body as multipart.
+ */
+export async function apiFetch<T>(url: string, init?: RequestInit & { offlineMessage?: string }): Promise<T> {
+  const { offlineMessage, ...rest } = init ?? {};
+  const isForm = typeof FormData !== "undefined" && rest.body instanceof FormData;
   let response: Response;
   try {
-    response = await fetch(url, { ...init, headers: { "content-type": "application/json", ...init?.headers } });
-  } catch {
-    throw new ApiError("The server cannot be reached. Check the connection and try again.", 0, []);
+    response = await fetch(url, { ...rest, headers: isForm ? rest.headers : { "content-type": "application/json", ...rest.headers } });
+  } catch (error) {
+    if (error instanceof DOMException && error.name === "AbortError") throw error;
+    throw new ApiError(offlineMessage ?? "The server cannot be reached. Check the connection and try again.", 0, []);
   }
-  const body = (await response.json().catch(() => null)) as { error?: { message: string; fields?: FieldProblem[] } } | null;
-  if (!response.ok) throw new ApiError(body?.error?.message ?? `The server answered ${response.status}.`, response.status, body?.error?.fields ?? []);
+  const body = (await response.json().catch(() => null)) as ErrorBody | null;
+  if (!response.ok) {
+    const { error, ...extra } = body ?? {};
+    throw new ApiError(error?.message ?? `The server answered ${response.status}.`, response.status, error?.fields ?? [], extra);
+  }
   return body as T;
+}
+
+/** The server's copy sent with a 409, when there is one. */
+export function conflictCurrent<T>(error: unknown): T | null {
+  return error instanceof ApiError && error.status === 409 && error.extra.current ? (error.extra.current as T) : null;
 }
 
 export function fieldError(error: unknown, path: string): string | undefined {
@@ -38,4 +57,7 @@ export const queryKeys = {
   inbox: () => ["inbox"] as const,
   draft: (benchId: string) => ["benches", benchId, "draft"] as const,
   profile: (hash: string, apertureId: string) => ["analysis", hash, "profile", apertureId] as const,
+  build: (buildId: string) => ["builds", buildId] as const,
+  builds: () => ["builds"] as const,
+  sheet: (revisionId: string, paper: string) => ["sheets", revisionId, paper] as const,
 };

@@ -1,5 +1,6 @@
 // better-auth on the server: e-mail + password sign-in, sessions in PostgreSQL (Drizzle adapter),
-// roles from lib/auth/permissions.ts through the admin plugin. Accounts come only from invitations.
+// roles from lib/auth/permissions.ts through the admin plugin (its own endpoints closed: see
+// lib/auth/endpoints.ts). Accounts come only from invitations.
 import "server-only";
 import { betterAuth } from "better-auth";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
@@ -10,17 +11,20 @@ import { env } from "@/lib/env";
 import { recordAudit } from "@/lib/server/audit";
 import { enqueueMail } from "@/lib/mail/outbox";
 import { passwordResetMail } from "@/lib/mail/templates";
+import { CLIENT_ADDRESS_HEADER } from "./client-address";
+import { CLOSED_AUTH_PATHS } from "./endpoints";
+import { appOrigins } from "./origins";
 import { ac, roles } from "./permissions";
 
 function createAuth() {
   const e = env();
-  const origin = new URL(e.APP_URL);
-  const alternates = [e.APP_URL, `${origin.protocol}//127.0.0.1:${origin.port}`, `${origin.protocol}//localhost:${origin.port}`];
   return betterAuth({
     appName: "Benchwarden",
     baseURL: e.APP_URL,
     secret: e.BETTER_AUTH_SECRET,
-    trustedOrigins: [...new Set(alternates)],
+    trustedOrigins: appOrigins(),
+    // Closed inside the library as well; lib/auth/handler.ts opens only OPEN_AUTH_ENDPOINTS.
+    disabledPaths: [...CLOSED_AUTH_PATHS],
     database: drizzleAdapter(getDb(), {
       provider: "pg",
       schema: { user: schema.user, session: schema.session, account: schema.account, verification: schema.verification },
@@ -46,7 +50,8 @@ function createAuth() {
       },
     },
     advanced: {
-      ipAddress: { ipAddressHeaders: ["x-forwarded-for", "x-real-ip"] },
+      // The address lib/auth/handler.ts decided (trusted proxies or the socket), never a client's header.
+      ipAddress: { ipAddressHeaders: [CLIENT_ADDRESS_HEADER] },
     },
     databaseHooks: {
       session: {

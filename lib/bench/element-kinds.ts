@@ -31,8 +31,10 @@ export type SymbolGeometry = {
 
 export type ElementKindRecord = {
   kind: TableElementKind;
-  /** What people call it, for lists, drawings and sheets. */
+  /** What people call it, as a heading: lists, drawings and sheets. */
   label: string;
+  /** The lower-case noun for sentences ("beam block"). */
+  noun: string;
   /** The id prefix of a new element ("lens" → "lens-3"). */
   idPrefix: string;
   /** Whether a version 1 (straight rail) document may hold it. */
@@ -59,6 +61,7 @@ const clearApertureField: KindField = {
 export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> = {
   laser: {
     kind: "laser",
+    noun: "laser",
     label: "Laser",
     idPrefix: "laser",
     onRail: true,
@@ -67,14 +70,18 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
     defaults: { wavelengthNm: 632.8, powerMw: 1, beamDiameterMm: 0.8 },
     fields: [
       { key: "wavelengthNm", label: "Wavelength", unit: "nm", step: 0.1 },
-      { key: "powerMw", label: "Power", unit: "mW", step: 0.1 },
+      { key: "powerMw", label: "Power", unit: "mW", optional: true, hint: "Average power for a pulse train; leave empty for a single pulse given by its energy.", step: 0.1 },
       { key: "beamDiameterMm", label: "Beam diameter (1/e², at the waist)", unit: "mm", step: 0.1 },
       { key: "m2", label: "Beam quality M²", unit: "", optional: true, hint: "Leave empty for an ideal beam (M² = 1).", step: 0.1 },
+      { key: "pulseEnergyJ", label: "Pulse energy", unit: "J", optional: true, hint: "Pulsed lasers: energy of one pulse (e.g. 1e-3 for 1 mJ). Leave empty for a continuous laser." },
+      { key: "pulseDurationS", label: "Pulse duration", unit: "s", optional: true, hint: "Pulsed lasers: e.g. 1e-8 for 10 ns, 1e-13 for 100 fs." },
+      { key: "pulseRepetitionRateHz", label: "Repetition rate", unit: "Hz", optional: true, hint: "Pulse trains only; empty for a single pulse." },
     ],
     effect: "Emits the beam along its direction.",
   },
   lens: {
     kind: "lens",
+    noun: "lens",
     label: "Lens",
     idPrefix: "lens",
     onRail: true,
@@ -86,7 +93,8 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   aperture: {
     kind: "aperture",
-    label: "Aperture / iris",
+    noun: "aperture",
+    label: "Aperture (iris)",
     idPrefix: "iris",
     onRail: true,
     action: "transmit",
@@ -97,6 +105,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   filter: {
     kind: "filter",
+    noun: "filter",
     label: "Filter",
     idPrefix: "filter",
     onRail: true,
@@ -108,6 +117,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   "beam-block": {
     kind: "beam-block",
+    noun: "beam block",
     label: "Beam block",
     idPrefix: "block",
     onRail: true,
@@ -119,6 +129,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   screen: {
     kind: "screen",
+    noun: "screen",
     label: "Screen",
     idPrefix: "screen",
     onRail: true,
@@ -130,6 +141,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   mirror: {
     kind: "mirror",
+    noun: "mirror",
     label: "Mirror",
     idPrefix: "mirror",
     onRail: false,
@@ -141,6 +153,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   "beam-splitter": {
     kind: "beam-splitter",
+    noun: "beam splitter",
     label: "Beam splitter",
     idPrefix: "splitter",
     onRail: false,
@@ -152,6 +165,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
   },
   window: {
     kind: "window",
+    noun: "window",
     label: "Window",
     idPrefix: "window",
     onRail: false,
@@ -171,11 +185,8 @@ export const kindRecord = (kind: string): ElementKindRecord | undefined =>
 /** The label of a kind ("beam-block" → "Beam block"); unknown kinds read as given. */
 export const kindLabel = (kind: string): string => kindRecord(kind)?.label ?? kind;
 
-/** The kind in running text ("beam block", "beam splitter"). */
-export const kindWord = (kind: string): string => {
-  const label = kindLabel(kind);
-  return kind === "aperture" ? "aperture" : label.toLowerCase();
-};
+/** The kind in running text ("beam block", "beam splitter"); unknown kinds read as given. */
+export const kindWord = (kind: string): string => kindRecord(kind)?.noun ?? kind;
 
 /** Editable fields of a kind, with the clear aperture for every optical element on a table. */
 export function tableFieldsOf(kind: TableElementKind): KindField[] {

@@ -1,15 +1,16 @@
 // The bench document, version 2: an optical table seen from above, with mirrors, beam splitters, windows and several lasers.
 // Contract: PRODUCT.md "The table in two dimensions"; coordinates in mm from the table's left front corner, angles counter-clockwise from +x.
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import {
   apertureSchema,
   beamBlockSchema,
+  checkFilterBands,
+  checkLaserFields,
   filterSchema,
   laserSchema,
   lensSchema,
   MAX_POSITION_MM,
-  MAX_WAVELENGTH_NM,
-  MIN_WAVELENGTH_NM,
   screenSchema,
   benchDocumentSchema,
   type BenchDocument,
@@ -24,7 +25,6 @@ export const MAX_TABLE_SIDE_MM = 20_000;
 export const SAME_SPOT_MM = 1;
 /** Clear aperture of an optical element when the document gives none: one inch (common practice). */
 export const DEFAULT_CLEAR_APERTURE_MM = 25.4;
-export const MAX_LASER_LINES = 8;
 
 const finite = (field: string) =>
   z.number({ error: `${field} must be a number` }).refine(Number.isFinite, `${field} must be a finite number`);
@@ -60,27 +60,15 @@ export const tableSchema = z.object(
   { error: "table must give widthMm, depthMm and holePitchMm" },
 );
 
-export const laserLineSchema = z.object({
-  wavelengthNm: finite("Line wavelength").refine(
-    (v) => v >= MIN_WAVELENGTH_NM && v <= MAX_WAVELENGTH_NM,
-    `Line wavelength must be between ${MIN_WAVELENGTH_NM} nm and 1 mm (${MAX_WAVELENGTH_NM} nm)`,
-  ),
-  powerMw: positive("Line power", "mW", 1e9),
-});
-
-export const laserV2Schema = laserSchema.omit({ positionMm: true }).extend({
-  ...placement,
-  /** Further emission lines leaving with the main beam (residual pump, other harmonics). */
-  lines: z.array(laserLineSchema, { error: "lines must be a list" }).max(MAX_LASER_LINES, `A laser may list at most ${MAX_LASER_LINES} further lines`).optional(),
-});
+/** The version 1 laser (with its further `lines`) less positionMm, placed on the table. */
+export const laserV2Schema = laserSchema.omit({ positionMm: true }).extend(placement);
 export const lensV2Schema = lensSchema.omit({ positionMm: true }).extend({ ...placement, ...clearAperture });
 export const apertureV2Schema = apertureSchema.omit({ positionMm: true }).extend({ ...placement, ...clearAperture });
 export const filterV2Schema = filterSchema.omit({ positionMm: true }).extend({ ...placement, ...clearAperture });
 export const beamBlockV2Schema = beamBlockSchema.omit({ positionMm: true }).extend({ ...placement, ...clearAperture });
 export const screenV2Schema = screenSchema.omit({ positionMm: true }).extend({ ...placement, ...clearAperture });
 
-const elementId = z
-  .string({ error: "Element id must be text" })
+const elementId = safeText({ error: "Element id must be text" })
   .min(1, "Element id must not be empty")
   .max(64, "Element id must be at most 64 characters");
 
@@ -135,7 +123,7 @@ const fmt = (v: number) => String(Number(v.toPrecision(6)));
 export const benchDocumentV2Schema = z
   .object({
     version: z.literal(2, { error: "version must be 2" }),
-    title: z.string().max(200, "Title must be at most 200 characters").optional(),
+    title: safeText().max(200, "Title must be at most 200 characters").optional(),
     table: tableSchema,
     elements: z
       .array(tableElementSchema, { error: "elements must be a list" })
@@ -159,6 +147,9 @@ export const benchDocumentV2Schema = z
           message: `${name} at (${fmt(e.xMm)}, ${fmt(e.yMm)}) mm is off the table, which spans 0–${fmt(widthMm)} mm in x and 0–${fmt(depthMm)} mm in y`,
         });
       }
+      // The pulse and band rules of version 1 (contract revision 2) hold for version 2 too.
+      if (e.kind === "laser") checkLaserFields(e, ctx, ["elements", i]);
+      if (e.kind === "filter") checkFilterBands(e, ctx, ["elements", i]);
       if (e.kind === "beam-splitter" && !(e.reflectance >= 0 && e.reflectance <= 1)) {
         ctx.addIssue({ code: "custom", path: ["elements", i, "reflectance"], message: `${name}: reflectance must be between 0 and 1 (it is ${fmt(e.reflectance)})` });
       }

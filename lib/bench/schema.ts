@@ -1,6 +1,7 @@
 // The bench document, version 1: the one contract the editor, the analysis API and the export share.
 // Units are in the field names; the beam travels toward increasing positionMm from the single laser.
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 
 export const MAX_ELEMENTS = 200;
 export const MIN_WAVELENGTH_NM = 180;
@@ -20,8 +21,7 @@ const position = finite("Position").refine(
   `Position must lie within ±${MAX_POSITION_MM} mm`,
 );
 
-const elementId = z
-  .string({ error: "Element id must be text" })
+const elementId = safeText({ error: "Element id must be text" })
   .min(1, "Element id must not be empty")
   .max(64, "Element id must be at most 64 characters");
 
@@ -33,16 +33,35 @@ export const laserSchema = z.object({
     (v) => v >= MIN_WAVELENGTH_NM && v <= MAX_WAVELENGTH_NM,
     `Wavelength must be between ${MIN_WAVELENGTH_NM} nm and 1 mm (${MAX_WAVELENGTH_NM} nm)`,
   ),
-  /** Continuous-wave output, or the average power of a pulsed laser. */
-  powerMw: positive("Power", "mW", 1e9),
+  /**
+   * Continuous-wave output, or the average power of a pulse train. Omitted for a single pulse given by its energy
+   * (pulseEnergyJ); required otherwise (checked by checkLaserFields, which the document schemas call).
+   */
+  powerMw: positive("Power", "mW", 1e9).optional(),
   /** 1/e² diameter of the waist, which sits at the laser's position. */
   beamDiameterMm: positive("Beam diameter", "mm", 1000),
   m2: finite("M²").refine((v) => v >= 1, "M² must be at least 1").refine((v) => v <= 1000, "M² must be at most 1000").optional(),
-  registerId: z.string().max(64, "Register id must be at most 64 characters").optional(),
+  registerId: safeText().max(64, "Register id must be at most 64 characters").optional(),
   /** Pulsed lasers only: pulse duration (FWHM) in seconds. With it, powerMw is the average power. */
   pulseDurationS: positive("Pulse duration", "s", 10).optional(),
   /** Pulsed lasers only: pulse repetition rate in hertz; absent for a single pulse. */
   pulseRepetitionRateHz: positive("Pulse repetition rate", "Hz", 1e12).optional(),
+  /** Pulsed lasers only: energy of one pulse in joules. Peak power (energy ÷ duration) has no upper cap. */
+  pulseEnergyJ: positive("Pulse energy", "J", 1e6).optional(),
+  /** Further emission lines leaving with the main beam (residual pump, other harmonics); powerMw as for the main line. */
+  lines: z
+    .array(
+      z.object({
+        wavelengthNm: finite("Line wavelength").refine(
+          (v) => v >= MIN_WAVELENGTH_NM && v <= MAX_WAVELENGTH_NM,
+          `Line wavelength must be between ${MIN_WAVELENGTH_NM} nm and 1 mm (${MAX_WAVELENGTH_NM} nm)`,
+        ),
+        powerMw: positive("Line power", "mW", 1e9),
+      }),
+      { error: "lines must be a list" },
+    )
+    .max(16, "A laser may list at most 16 further lines")
+    .optional(),
 });
 
 export const lensSchema = z.object({
@@ -53,6 +72,8 @@ export const lensSchema = z.object({
   focalLengthMm: finite("Focal length")
     .refine((v) => Math.abs(v) >= 0.1, "Focal length must be at least 0.1 mm in magnitude (a lens cannot have zero focal length)")
     .refine((v) => Math.abs(v) <= 1e6, "Focal length must be at most 1 000 000 mm in magnitude"),
+  /** Mount size: the beam is cut off outside this diameter. Optional; absent means unlimited in version 1. */
+  clearApertureMm: positive("Clear aperture", "mm", 1000).optional(),
 });
 
 export const apertureSchema = z.object({
@@ -67,10 +88,26 @@ export const filterSchema = z.object({
   id: elementId,
   kind: z.literal("filter"),
   positionMm: position,
-  /** Transmits 10^-OD. */
+  /** Transmits 10^-OD (outside the bands below, if any are given). */
   opticalDensity: finite("Optical density")
     .refine((v) => v >= 0, "Optical density must be 0 or more")
     .refine((v) => v <= 20, "Optical density must be at most 20"),
+  /** Mount size: the beam is cut off outside this diameter. Optional; absent means unlimited in version 1. */
+  clearApertureMm: positive("Clear aperture", "mm", 1000).optional(),
+  /** Optional OD per wavelength band; bands must not overlap (checked by checkFilterBands). */
+  opticalDensityBands: z
+    .array(
+      z.object({
+        fromNm: finite("Band start").refine((v) => v >= MIN_WAVELENGTH_NM && v <= MAX_WAVELENGTH_NM, `Band start must be between ${MIN_WAVELENGTH_NM} nm and ${MAX_WAVELENGTH_NM} nm`),
+        toNm: finite("Band end").refine((v) => v >= MIN_WAVELENGTH_NM && v <= MAX_WAVELENGTH_NM, `Band end must be between ${MIN_WAVELENGTH_NM} nm and ${MAX_WAVELENGTH_NM} nm`),
+        opticalDensity: finite("Band optical density")
+          .refine((v) => v >= 0, "Band optical density must be 0 or more")
+          .refine((v) => v <= 10, "Band optical density must be at most 10"),
+      }),
+      { error: "opticalDensityBands must be a list" },
+    )
+    .max(32, "A filter may list at most 32 bands")
+    .optional(),
 });
 
 export const beamBlockSchema = z.object({ id: elementId, kind: z.literal("beam-block"), positionMm: position });
@@ -88,7 +125,7 @@ export const benchElementSchema = z.discriminatedUnion(
 export const benchDocumentSchema = z
   .object({
     version: z.literal(1, { error: "version must be 1" }),
-    title: z.string().max(200, "Title must be at most 200 characters").optional(),
+    title: safeText().max(200, "Title must be at most 200 characters").optional(),
     elements: z
       .array(benchElementSchema, { error: "elements must be a list" })
       .max(MAX_ELEMENTS, `A bench may hold at most ${MAX_ELEMENTS} elements`),
@@ -104,6 +141,10 @@ export const benchDocumentSchema = z
         message: `The bench needs exactly one laser; it has ${lasers.length}`,
       });
     }
+    doc.elements.forEach((e, i) => {
+      if (e.kind === "laser") checkLaserFields(e, ctx, ["elements", i]);
+      if (e.kind === "filter") checkFilterBands(e, ctx, ["elements", i]);
+    });
     const seen = new Map<string, number>();
     doc.elements.forEach((e, i) => {
       const first = seen.get(e.id);
@@ -123,6 +164,80 @@ export type LaserElement = z.infer<typeof laserSchema>;
 export type LensElement = z.infer<typeof lensSchema>;
 export type ApertureElement = z.infer<typeof apertureSchema>;
 export type FilterElement = z.infer<typeof filterSchema>;
+
+type IssueSink = { addIssue: (issue: { code: "custom"; path: (string | number)[]; message: string }) => void };
+
+/**
+ * Cross-field rules of a laser (kept out of laserSchema so it stays a plain object that can be picked or omitted):
+ * power is needed unless a pulse energy is given; energy needs a duration; powerMw, pulseEnergyJ and
+ * pulseRepetitionRateHz given together must agree within 1 %; pulses may not overlap (duration × rate < 1).
+ */
+export function checkLaserFields(
+  laser: Pick<LaserElement, "powerMw" | "pulseEnergyJ" | "pulseDurationS" | "pulseRepetitionRateHz">,
+  ctx: IssueSink,
+  basePath: (string | number)[] = [],
+): void {
+  const { powerMw, pulseEnergyJ, pulseDurationS: τ, pulseRepetitionRateHz: f } = laser;
+  if (powerMw === undefined && pulseEnergyJ === undefined) {
+    ctx.addIssue({ code: "custom", path: [...basePath, "powerMw"], message: "Power (powerMw) is required unless a single pulse is given by its energy (pulseEnergyJ)" });
+  }
+  if (pulseEnergyJ !== undefined && τ === undefined) {
+    ctx.addIssue({ code: "custom", path: [...basePath, "pulseDurationS"], message: "A pulse energy needs a pulse duration" });
+  }
+  if (f !== undefined && τ === undefined) {
+    ctx.addIssue({ code: "custom", path: [...basePath, "pulseDurationS"], message: "A pulse repetition rate needs a pulse duration" });
+  }
+  if (powerMw !== undefined && pulseEnergyJ !== undefined) {
+    if (f === undefined) {
+      ctx.addIssue({
+        code: "custom",
+        path: [...basePath, "powerMw"],
+        message: "A single pulse has no average power: leave powerMw out, or give the pulse repetition rate of the train",
+      });
+    } else {
+      const fromEnergyMw = pulseEnergyJ * f * 1000;
+      const mismatch = Math.abs(powerMw - fromEnergyMw) / Math.max(powerMw, fromEnergyMw);
+      if (mismatch > 0.01) {
+        ctx.addIssue({
+          code: "custom",
+          path: [...basePath, "powerMw"],
+          message: `Average power powerMw ${fmtNumber(powerMw)} mW disagrees with pulse energy × repetition rate (${fmtNumber(fromEnergyMw)} mW) by ${fmtNumber(mismatch * 100)} %; they must agree within 1 %`,
+        });
+      }
+    }
+  }
+  if (τ !== undefined && f !== undefined && τ * f >= 1) {
+    ctx.addIssue({
+      code: "custom",
+      path: [...basePath, "pulseRepetitionRateHz"],
+      message: "Pulse duration × repetition rate must be below 1: at this rate the pulses would overlap. Enter the laser as continuous-wave instead",
+    });
+  }
+}
+
+/** Bands of a filter: from < to, no two bands overlapping. */
+export function checkFilterBands(filter: Pick<FilterElement, "opticalDensityBands">, ctx: IssueSink, basePath: (string | number)[] = []): void {
+  const bands = filter.opticalDensityBands ?? [];
+  bands.forEach((b, i) => {
+    if (!(b.fromNm < b.toNm)) {
+      ctx.addIssue({ code: "custom", path: [...basePath, "opticalDensityBands", i, "toNm"], message: "A band's end must be above its start" });
+    }
+  });
+  const order = bands.map((b, i) => ({ ...b, i })).sort((a, b) => a.fromNm - b.fromNm);
+  for (let k = 1; k < order.length; k++) {
+    if (order[k].fromNm < order[k - 1].toNm) {
+      ctx.addIssue({
+        code: "custom",
+        path: [...basePath, "opticalDensityBands", order[k].i, "fromNm"],
+        message: `Band ${order[k].fromNm}–${order[k].toNm} nm overlaps band ${order[k - 1].fromNm}–${order[k - 1].toNm} nm`,
+      });
+    }
+  }
+}
+
+function fmtNumber(x: number): string {
+  return Number(x.toPrecision(4)).toString();
+}
 
 /** Field path + plain sentence, the shape every 400 response lists. */
 export type FieldProblem = { path: string; message: string };

@@ -1,13 +1,15 @@
 // The build rules: whether a sign-off still holds, the checklist a bench asks for, the predictions an
 // as-built record is compared with, the comparison itself, and which uploaded files are accepted.
 // Pure (no database); the figures come from lib/optics (analyzeBench, screenProfile) and lib/safety, which name their sources.
+import { laserPowerText } from "@/lib/bench/laser-power";
 import type { ReviewState } from "@/db/schema";
 import { kindTitle } from "@/lib/bench/kinds";
 import type { BenchDocument } from "@/lib/bench/schema";
 import { screenProfile } from "@/lib/optics";
 import { assessRevision } from "@/lib/review/hazard";
 import type { BenchSafetyAssessment } from "@/lib/safety";
-import { statedOd } from "@/lib/safety/cautions";
+import { capitalise, eyewearWords, formatDate } from "@/lib/format";
+import { conditionLines } from "./conditions";
 import { AppError } from "@/lib/errors";
 
 /** How far a mount may sit from its drawn position and still count as placed (measured along the rail). */
@@ -21,6 +23,17 @@ export const UPLOAD_MAX_BYTES = 10 * 1024 * 1024;
 // ── Sign-off status ───────────────────────────────────────────────────────────────────────────
 export type SignOffStatus = "valid" | "expired" | "superseded" | "not-signed-off";
 
+/** The officer's sign-off as a build sees it. */
+export type SignOffRecord = {
+  signerName: string;
+  signerRole: string;
+  meaning: string;
+  conditions: string | null;
+  validUntil: Date | null;
+  decidedAt: Date;
+  contentHash: string;
+};
+
 /** Whether the sign-off holds now. The review clock marks expiry in the database; the date is checked too, so a late clock never lets a build start. */
 export function signOffStatus(r: { state: ReviewState; decision: { validUntil: Date | null } | null }, now = new Date()): SignOffStatus {
   if (r.state === "superseded") return "superseded";
@@ -31,7 +44,7 @@ export function signOffStatus(r: { state: ReviewState; decision: { validUntil: D
 }
 
 export function signOffSentence(r: { number: number; decision: { validUntil: Date | null } | null }, status: SignOffStatus): string {
-  const until = r.decision?.validUntil ? r.decision.validUntil.toISOString().slice(0, 10) : null;
+  const until = r.decision?.validUntil ? formatDate(r.decision.validUntil) : null;
   switch (status) {
     case "valid":
       return until ? `Signed off, valid until ${until}.` : "Signed off.";
@@ -47,7 +60,7 @@ export function signOffSentence(r: { number: number; decision: { validUntil: Dat
 // ── The checklist, generated from the bench ───────────────────────────────────────────────────
 export type ChecklistItem = {
   itemKey: string;
-  group: "element" | "control" | "eyewear";
+  group: "element" | "control" | "condition" | "eyewear";
   label: string;
   detail: string;
   elementId: string | null;
@@ -57,7 +70,7 @@ export type ChecklistItem = {
 export function elementSettings(e: BenchDocument["elements"][number]): string {
   switch (e.kind) {
     case "laser":
-      return `${e.wavelengthNm} nm, ${e.powerMw} mW, beam ⌀ ${e.beamDiameterMm} mm${e.m2 && e.m2 !== 1 ? `, M² ${e.m2}` : ""}`;
+      return `${e.wavelengthNm} nm, ${laserPowerText(e)}, beam ⌀ ${e.beamDiameterMm} mm${e.m2 && e.m2 !== 1 ? `, M² ${e.m2}` : ""}`;
     case "lens":
       return `focal length ${e.focalLengthMm} mm (${e.focalLengthMm > 0 ? "converging" : "diverging"})`;
     case "aperture":
@@ -73,8 +86,11 @@ export function elementSettings(e: BenchDocument["elements"][number]): string {
   }
 }
 
-/** The items to tick: each element at its position (±POSITION_TOLERANCE_MM), each control the cautions call for, the eyewear. */
-export function checklistFor(doc: BenchDocument, safety: BenchSafetyAssessment | null): ChecklistItem[] {
+/**
+ * The items to tick: each element at its position (±POSITION_TOLERANCE_MM), each control the cautions call for, each
+ * condition of the officer's sign-off, the eyewear (worded by the one OD rule, lib/format eyewearWords).
+ */
+export function checklistFor(doc: BenchDocument, safety: BenchSafetyAssessment | null, conditions?: string | null): ChecklistItem[] {
   const elements = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm || a.id.localeCompare(b.id));
   const items: ChecklistItem[] = elements.map((e) => ({
     itemKey: `element:${e.id}`,
@@ -88,16 +104,17 @@ export function checklistFor(doc: BenchDocument, safety: BenchSafetyAssessment |
     if (c.id === "eyewear-od") continue; // the eyewear line below covers it, with the figure
     items.push({ itemKey: `control:${c.id}`, group: "control", label: c.title, detail: c.text, elementId: null, expectedPositionMm: null });
   }
+  conditionLines(conditions).forEach((line, i) => {
+    items.push({ itemKey: `condition:${i + 1}`, group: "condition", label: line, detail: "A condition of the laser safety officer's sign-off.", elementId: null, expectedPositionMm: null });
+  });
   const od = safety?.governing?.opticalDensityRequired ?? 0;
   const wavelength = safety?.wavelengthNm ?? doc.elements.find((e) => e.kind === "laser")?.wavelengthNm;
+  const eyewear = eyewearWords(od, wavelength);
   items.push({
     itemKey: "eyewear",
     group: "eyewear",
-    label: od > 0 ? `Eyewear of OD ${statedOd(od)} or more at ${wavelength} nm, for everyone present` : "Eyewear: none needed by the estimate",
-    detail:
-      od > 0
-        ? `Check the marking on each pair for ${wavelength} nm; eyewear made for another laser may not protect at all.`
-        : "The estimate needs no eyewear (OD 0); follow local rules, which may ask for it anyway.",
+    label: eyewear.wholeOd > 0 ? `${eyewear.wear}, for everyone present` : eyewear.wear,
+    detail: eyewear.wholeOd > 0 ? `${capitalise(eyewear.need)}. ${eyewear.check}` : `${capitalise(eyewear.need)}; follow local rules, which may ask for eyewear anyway.`,
     elementId: null,
     expectedPositionMm: null,
   });
@@ -158,26 +175,45 @@ export function predictionsFor(doc: BenchDocument): Predictions {
 
 const round3 = (v: number) => Number(v.toPrecision(3));
 
-/** Compares what was seen with what was predicted; each difference becomes one sentence. */
-export function compareObservation(
-  predictions: Predictions,
-  seen: { apertureId?: string | null; centreSeen?: "bright" | "dark" | "unclear" | null; spotDiameterMm?: number | null; screenPowerMw?: number | null },
-): { centrePredicted: string | null; predictedSpotDiameterMm: number | null; predictedScreenPowerMw: number | null; reasons: string[] } {
-  const aperture = seen.apertureId ? predictions.apertures.find((a) => a.apertureId === seen.apertureId) : undefined;
-  const centrePredicted = aperture?.centre ?? null;
-  const predictedSpot = aperture ? aperture.spotDiameterMm : (predictions.screen?.beamDiameterMm ?? null);
-  const predictedPower = aperture ? aperture.screenPowerMw : (predictions.screen?.powerMw ?? null);
+/** What an observation is compared with, kept with it so the record never changes when the engine does. */
+export type ObservationPrediction = {
+  centrePredicted: "bright" | "dark" | "between" | null;
+  predictedSpotDiameterMm: number | null;
+  predictedScreenPowerMw: number | null;
+};
+
+export type ObservationReading = { centreSeen?: "bright" | "dark" | "between" | "unclear" | null; spotDiameterMm?: number | null; screenPowerMw?: number | null };
+
+/** The prediction for one aperture's pattern, or for the lit screen when no aperture is named. */
+export function predictionFor(predictions: Predictions, apertureId: string | null | undefined): ObservationPrediction {
+  const aperture = apertureId ? predictions.apertures.find((a) => a.apertureId === apertureId) : undefined;
+  return {
+    centrePredicted: aperture?.centre ?? null,
+    predictedSpotDiameterMm: aperture ? aperture.spotDiameterMm : (predictions.screen?.beamDiameterMm ?? null),
+    predictedScreenPowerMw: aperture ? aperture.screenPowerMw : (predictions.screen?.powerMw ?? null),
+  };
+}
+
+/** Each difference between the reading and the prediction, as one sentence; none means they agree. */
+export function differences(prediction: ObservationPrediction, seen: ObservationReading): string[] {
+  const { centrePredicted, predictedSpotDiameterMm: spot, predictedScreenPowerMw: power } = prediction;
   const reasons: string[] = [];
-  if (seen.centreSeen && centrePredicted && seen.centreSeen !== "unclear" && centrePredicted !== "between" && seen.centreSeen !== centrePredicted) {
+  if (seen.centreSeen && centrePredicted && seen.centreSeen !== "unclear" && seen.centreSeen !== "between" && centrePredicted !== "between" && seen.centreSeen !== centrePredicted) {
     reasons.push(`Centre: predicted ${centrePredicted}, seen ${seen.centreSeen}.`);
   }
-  if (seen.spotDiameterMm != null && predictedSpot != null && predictedSpot > 0 && Math.abs(seen.spotDiameterMm - predictedSpot) > SPOT_TOLERANCE_FRACTION * predictedSpot) {
-    reasons.push(`Spot or ring diameter: predicted ${round3(predictedSpot)} mm, measured ${seen.spotDiameterMm} mm (more than ${SPOT_TOLERANCE_FRACTION * 100} % apart).`);
+  if (seen.spotDiameterMm != null && spot != null && spot > 0 && Math.abs(seen.spotDiameterMm - spot) > SPOT_TOLERANCE_FRACTION * spot) {
+    reasons.push(`Spot or ring diameter: predicted ${round3(spot)} mm, measured ${seen.spotDiameterMm} mm (more than ${SPOT_TOLERANCE_FRACTION * 100} % apart).`);
   }
-  if (seen.screenPowerMw != null && predictedPower != null && Math.abs(seen.screenPowerMw - predictedPower) > POWER_TOLERANCE_FRACTION * predictedPower) {
-    reasons.push(`Power at the screen: predicted ${round3(predictedPower)} mW, measured ${seen.screenPowerMw} mW (more than ${POWER_TOLERANCE_FRACTION * 100} % apart).`);
+  if (seen.screenPowerMw != null && power != null && Math.abs(seen.screenPowerMw - power) > POWER_TOLERANCE_FRACTION * power) {
+    reasons.push(`Power at the screen: predicted ${round3(power)} mW, measured ${seen.screenPowerMw} mW (more than ${POWER_TOLERANCE_FRACTION * 100} % apart).`);
   }
-  return { centrePredicted, predictedSpotDiameterMm: predictedSpot, predictedScreenPowerMw: predictedPower, reasons };
+  return reasons;
+}
+
+/** Compares what was seen with what was predicted: the prediction used and each difference as one sentence. */
+export function compareObservation(predictions: Predictions, seen: ObservationReading & { apertureId?: string | null }): ObservationPrediction & { reasons: string[] } {
+  const prediction = predictionFor(predictions, seen.apertureId);
+  return { ...prediction, reasons: differences(prediction, seen) };
 }
 
 // ── Uploaded files ────────────────────────────────────────────────────────────────────────────
@@ -194,9 +230,12 @@ export function sniffFileType(bytes: Uint8Array): { contentType: string; extensi
 }
 
 
-/** A file name safe to keep and show: no control characters or path separators, at most 200 characters. */
+/** The file name to keep and show: the given one, or upload.<extension> when there is none. */
 export function safeFileName(name: string, extension: string): string {
-  return name.replace(/[\u0000-\u001f\u007f/\\]/g, "_").slice(0, 200) || `upload.${extension}`;
+  // Kept exactly as the person's computer named it: it is only ever shown and sent back (RFC 6266
+  // filename*), never used as a path (the storage key is the upload's id). The upload route refuses
+  // what cannot be stored (NUL, lone surrogates) and names over 255 characters.
+  return name || `upload.${extension}`;
 }
 
 // ── Positions and signing off a build ─────────────────────────────────────────────────────────
@@ -214,8 +253,8 @@ export function whyNotSignOff(
   userId: string,
   now = new Date(),
 ): string | null {
-  if (build.state === "completed") return "This build is already signed off.";
-  if (build.technicianId !== userId) return "Only the technician who started this build can sign it off.";
+  if (build.state === "completed") return "This build is already completed.";
+  if (build.technicianId !== userId) return "Only the technician who started this build can complete it.";
   const status = signOffStatus(revision, now);
   if (status !== "valid") return signOffSentence(revision, status);
   const open = checklist.filter((c) => !c.done);

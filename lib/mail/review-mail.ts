@@ -1,6 +1,7 @@
 // The review workflow's e-mails: submitted, withdrawn, decided, expiry reminders, expired, new comment. Each
 // has a text and an HTML part, names the bench, the revision and its content hash, and links to it.
 import { env } from "@/lib/env";
+import { formatDate as formatDay, formatDateTime } from "@/lib/format/date";
 import { escapeHtml, type MailMessage } from "./templates";
 
 export type RevisionMailContext = {
@@ -12,15 +13,22 @@ export type RevisionMailContext = {
   authorName: string;
 };
 
-export type Recipient = { email: string; name: string };
+/** `builds`: a technician, whose link goes to where the build can be started. */
+export type Recipient = { email: string; name: string; builds?: boolean };
 
 /** The link to exactly this revision's review page. */
 export function revisionUrl(revisionId: string): string {
   return `${env().APP_URL.replace(/\/$/, "")}/reviews/${revisionId}`;
 }
 
+/** The link to this revision on the technician's list, where its build is started and its sheet downloaded. */
+export function buildListUrl(revisionId: string): string {
+  return `${env().APP_URL.replace(/\/$/, "")}/builds#revision-${revisionId}`;
+}
+
+/** A day in the lab's time zone; validity runs to the end of that day. */
 function formatDate(date: Date): string {
-  return `${date.toISOString().slice(0, 10)} (UTC)`;
+  return formatDay(date);
 }
 
 type Fact = [label: string, value: string];
@@ -119,9 +127,9 @@ export function reviewDecisionMail(to: Recipient, ctx: RevisionMailContext, d: D
   }
   const extra: Fact[] = [
     ["Decided by", `${d.signerName}, ${d.signerRole}`],
-    ["Decided at", d.decidedAt.toISOString().replace("T", " ").slice(0, 19) + " UTC"],
+    ["Decided at", formatDateTime(d.decidedAt)],
   ];
-  if (d.validUntil) extra.push(["Valid until", formatDate(d.validUntil)]);
+  if (d.validUntil) extra.push(["Valid until", `${formatDate(d.validUntil)}, to the end of that day`]);
   const quote =
     d.outcome === "approved"
       ? d.conditions
@@ -137,8 +145,9 @@ export function reviewDecisionMail(to: Recipient, ctx: RevisionMailContext, d: D
     paragraphs,
     facts: facts(ctx, extra),
     quote,
-    linkLabel: "Open the revision",
-    url: revisionUrl(ctx.revisionId),
+    ...(to.builds && d.outcome === "approved"
+      ? { linkLabel: "Open it to start the build", url: buildListUrl(ctx.revisionId) }
+      : { linkLabel: "Open the revision", url: revisionUrl(ctx.revisionId) }),
   });
 }
 

@@ -7,6 +7,7 @@
 // screen reached, 1/b = 0 (the far field) and the screen fields are null. M² > 1: the embedded Gaussian gives the
 // real radius W and curvature; the Fresnel quantities use the true λ with a coherent Gaussian of that W and ρ.
 import type { BenchDocument } from "@/lib/bench/schema";
+import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import {
   type AbcdMatrix,
   type BeamParameter,
@@ -14,6 +15,7 @@ import {
   beamRadiusM,
   curvaturePerM,
   qFromBeam,
+  qAtWaist,
   waistOf,
   wavefrontRadiusM,
 } from "./gaussian";
@@ -42,6 +44,8 @@ import {
   waistsOf,
 } from "./propagate";
 import { type OpticsWarning, formatLengthMm, formatNumber, warning } from "./warnings";
+import { type ChainElement, FieldChain } from "./chain";
+import { gsmBlurWidth, gsmCentreRatio } from "./coherence";
 import { kindNoun } from "@/lib/bench/kinds";
 
 const M_PER_MM = 1e-3;
@@ -55,6 +59,8 @@ const PASSES_LITTLE_FRACTION = 0.01;
 const SMALL_WAIST_RATIO = 0.2;
 /** Paraxial Gaussian optics is only indicative beyond a far-field half-angle of 0.1 rad (tan θ ≈ θ within 0.3 %). */
 const PARAXIAL_MAX_DIVERGENCE_RAD = 0.1;
+/** A lens or filter mount cutting off more than this share of the light arriving is warned about. */
+const MOUNT_CLIP_WARN_FRACTION = 1e-3;
 
 export type IncidentBeam = {
   /** 1/e² radius arriving at the element. */
@@ -105,6 +111,18 @@ export type ApertureAnalysis = {
   onAxisIrradianceWPerCm2: number | null;
   /** Outer radii of the first five half-period zones in the aperture plane, √(nλ/|1/ρ + 1/b|); empty when that is 0. */
   zoneRadiiMm: number[];
+  /** The first non-paraxial term of the zone count, R⁴/(4λ)·(1/ρ³ + 1/b³) (Born & Wolf §8.2 path difference expanded one order further); > 0.1 makes the centre "between". */
+  nonParaxialZoneShift: number;
+};
+
+export type ScreenAnalysis = {
+  id: string;
+  positionMm: number;
+  /** On-axis intensity with every aperture (and clipping mount) upstream in place ÷ with none. */
+  centreIntensityRatio: number;
+  centre: CentreAppearance;
+  /** Power arriving on the screen, from the propagated field. */
+  powerMw: number;
 };
 
 export type BenchAnalysis = {
@@ -115,6 +133,8 @@ export type BenchAnalysis = {
   stopId: string | null;
   elements: ElementAnalysis[];
   apertures: ApertureAnalysis[];
+  /** Every screen the light reaches (PRODUCT.md revision 2). */
+  screens: ScreenAnalysis[];
   /** The waist formed by the laser and by each lit lens (possibly virtual or beyond the next element). */
   waists: Waist[];
   /** 1/e² radius along the lit path, dense near every waist. */
@@ -239,6 +259,99 @@ export function apertureContext(
   };
 }
 
+
+/** Above this the first non-paraxial term of the zone count (in zones) makes the centre "between" (issue 12). */
+export const NON_PARAXIAL_MAX_ZONES = 0.1;
+
+/**
+ * R⁴/(4λ)·(1/ρ³ + (A/B)³): the zone count's next term. The path from the wavefront to the axial point, expanded one
+ * order past Born & Wolf §8.2's paraxial zones (√(b² + R²) − b = R²/2b − R⁴/8b³ + …), for the incident curvature 1/ρ
+ * and the observation curvature A/B. The exact count is N − shift.
+ */
+export function nonParaxialZoneShift(apertureRadiusM: number, wavelengthM: number, setup: FresnelSetup): number {
+  const c = setup.wavefrontRadiusM === null ? 0 : 1 / setup.wavefrontRadiusM;
+  const kb = setup.matrix === null ? 0 : setup.zoneCurvaturePerM - c;
+  const r2 = apertureRadiusM * apertureRadiusM;
+  return (r2 * r2 * (c * c * c + kb * kb * kb)) / (4 * wavelengthM);
+}
+
+export type ChainBuild = { chain: FieldChain; indexOf: Map<string, number> };
+
+/** The field chain of the traced bench (lit elements after the laser, to the stop); null when nothing can clip. */
+export function buildChain(trace: BenchTrace, options: { refinement?: number; exactBessel?: boolean } = {}): ChainBuild | null {
+  const laser = trace.laser;
+  if (laser === null) return null;
+  const elements: ChainElement[] = [];
+  const indexOf = new Map<string, number>();
+  let canClip = false;
+  for (const en of trace.entries) {
+    const e = en.element;
+    if (en.status !== "lit" || e.kind === "laser") continue;
+    indexOf.set(e.id, elements.length);
+    elements.push(e);
+    if (e.kind === "aperture" || ((e.kind === "lens" || e.kind === "filter") && e.clearApertureMm !== undefined)) canClip = true;
+  }
+  if (!canClip) return null;
+  const chain = new FieldChain(
+    { positionMm: laser.positionMm, q: qAtWaist(laserWaistRadiusM(laser), trace.effectiveWavelengthM), powerMw: laserBeamPowerMw(laser) },
+    elements,
+    trace.wavelengthM,
+    trace.m2,
+    options,
+  );
+  return { chain, indexOf };
+}
+
+export type CentreModel = {
+  ratio: number;
+  /** "closed-form": PRODUCT.md's single-aperture formula; "gsm": partially coherent (M² > 1); "chain": the propagated field. */
+  model: "closed-form" | "gsm" | "chain";
+  /** True when a clipping edge lies upstream of the aperture. */
+  upstream: boolean;
+  /** From the propagated field when upstream; else null (use the Gaussian fraction). */
+  transmittedFraction: number | null;
+};
+
+/** The centre ratio of the aperture at trace index `index` with it and every clipping edge upstream in place, none downstream. */
+export function centreModel(trace: BenchTrace, build: ChainBuild | null, index: number, setup: FresnelSetup): CentreModel {
+  const id = trace.entries[index].element.id;
+  const ci = build?.indexOf.get(id);
+  if (build !== null && ci !== undefined && build.chain.planes.some((p) => p.index < ci)) {
+    const plane = build.chain.results[ci]?.plane ?? null;
+    const fraction = plane === null ? 1 : plane.powerInRel > 0 ? plane.powerOutRel / plane.powerInRel : 0;
+    const at = setup.matrix === null ? null : build.chain.screenIntensity(ci, [0]);
+    const ratio = at === null ? centreIntensityRatio(setup.radiusRatioSquared, setup.fresnelNumber) : at.values[0];
+    return { ratio, model: "chain", upstream: true, transmittedFraction: fraction };
+  }
+  if (trace.m2 > 1 && setup.matrix !== null && setup.coherentScreenRadiusM !== null) {
+    const t = gsmBlurWidth(setup.radiusRatioSquared, trace.m2);
+    const sigmaV = (Math.PI * setup.apertureRadiusM * setup.coherentScreenRadiusM) / (setup.wavelengthM * Math.abs(setup.matrix.b));
+    return { ratio: gsmCentreRatio(setup.radiusRatioSquared, setup.fresnelNumber, t, sigmaV), model: "gsm", upstream: false, transmittedFraction: null };
+  }
+  return { ratio: centreIntensityRatio(setup.radiusRatioSquared, setup.fresnelNumber), model: "closed-form", upstream: false, transmittedFraction: null };
+}
+
+/** Laser power × every filter before trace index `index`: what would arrive with no aperture or mount at all. */
+function unclippedPowerMw(trace: BenchTrace, index: number): number {
+  let p = trace.laser === null ? 0 : laserBeamPowerMw(trace.laser);
+  for (let i = 0; i < index; i++) {
+    const en = trace.entries[i];
+    if (en.status === "lit" && en.element.kind === "filter") p *= Math.pow(10, -en.element.opticalDensity);
+  }
+  return p;
+}
+
+/** The filters' transmission strictly between two trace indices. */
+function filtersBetween(entries: readonly TraceEntry[], from: number, to: number | null): number {
+  let t = 1;
+  const end = to ?? entries.length;
+  for (let i = from + 1; i < end; i++) {
+    const e = entries[i].element;
+    if (entries[i].status === "lit" && e.kind === "filter") t *= Math.pow(10, -e.opticalDensity);
+  }
+  return t;
+}
+
 const NO_LIGHT: IncidentBeam = { radiusMm: 0, wavefrontRadiusMm: null, powerMw: 0 };
 
 function incidentOf(trace: BenchTrace, entry: TraceEntry): IncidentBeam {
@@ -272,7 +385,7 @@ export function analyzeBench(doc: BenchDocument): BenchAnalysis {
   const laser = trace.laser;
   if (laser === null) {
     warnings.push(warning("no-laser", "There is no laser on the bench, so nothing is lit."));
-    return { laserId: null, wavelengthNm: null, m2: 1, stopId: null, elements, apertures: [], waists: [], envelope: [], warnings };
+    return { laserId: null, wavelengthNm: null, m2: 1, stopId: null, elements, apertures: [], screens: [], waists: [], envelope: [], warnings };
   }
 
   // positions shared by several elements
@@ -325,6 +438,8 @@ export function analyzeBench(doc: BenchDocument): BenchAnalysis {
     );
   }
 
+  const chainBuild = buildChain(trace);
+
   // apertures
   const apertures: ApertureAnalysis[] = [];
   const screen = stop !== null && stop.kind === "screen" ? stop : null;
@@ -345,15 +460,29 @@ export function analyzeBench(doc: BenchDocument): BenchAnalysis {
           );
     const setup = fresnelSetup(q, trace.wavelengthM, trace.effectiveWavelengthM, radiusM, system?.matrix ?? null);
     const n = setup.fresnelNumber;
-    const ratio = centreIntensityRatio(setup.radiusRatioSquared, n);
-    const fraction = transmittedFraction(radiusM, setup.beamRadiusM);
+    const model = centreModel(trace, chainBuild, index, setup);
+    const ratio = model.ratio;
+    const fraction = model.transmittedFraction ?? transmittedFraction(radiusM, setup.beamRadiusM);
     let irradianceWPerM2: number | null = null;
     if (system !== null) {
-      // unobstructed: the real (M²) beam at the screen carrying the power that would arrive without this aperture
+      // unobstructed: the real (M²) beam at the screen carrying the power that would arrive with no aperture at all
       const wScreen = beamRadiusM(applyAbcd(system.matrix, q), trace.effectiveWavelengthM);
-      const powerW = entry.incident.powerMw * 1e-3 * system.transmission;
+      const powerW = model.upstream ? unclippedPowerMw(trace, index) * 1e-3 * filtersBetween(entries, index, trace.stopIndex) : entry.incident.powerMw * 1e-3 * system.transmission;
       irradianceWPerM2 = ((2 * powerW) / (Math.PI * wScreen * wScreen)) * ratio;
     }
+    const shift = nonParaxialZoneShift(radiusM, trace.wavelengthM, setup);
+    let centre = centreAppearance(ratio);
+    if (Math.abs(shift) > NON_PARAXIAL_MAX_ZONES && screen !== null) {
+      centre = "between";
+      warnings.push(
+        warning(
+          "zone-count-non-paraxial",
+          `At the ${named(e)} the paraxial zone count (${formatNumber(Math.abs(n))}) is uncertain by ${formatNumber(Math.abs(shift))} zone (the next term of the path difference, R⁴/(4λ)·(1/ρ³ + 1/b³)): the aperture is too wide for its distance to call the centre, so it is shown as "between".`,
+          e.id,
+        ),
+      );
+    }
+    if (model.model === "chain" && trace.m2 > 1) centre = "between";
     const zones = Math.abs(n);
     const record: ApertureAnalysis = {
       id: e.id,
@@ -369,11 +498,12 @@ export function analyzeBench(doc: BenchDocument): BenchAnalysis {
       regime: diffractionRegime(n),
       centreIntensityRatio: ratio,
       uniformWaveRatio: uniformWaveRatio(n),
-      centre: centreAppearance(ratio),
+      centre,
       transmittedFraction: fraction,
       onAxisIrradianceWPerM2: irradianceWPerM2,
       onAxisIrradianceWPerCm2: irradianceWPerM2 === null ? null : irradianceWPerM2 * 1e-4,
       zoneRadiiMm: zoneRadiiM(trace.wavelengthM, setup.zoneCurvaturePerM, ZONE_RADII_COUNT).map((r) => r * MM_PER_M),
+      nonParaxialZoneShift: shift,
     };
     apertures.push(record);
 
@@ -418,7 +548,7 @@ export function analyzeBench(doc: BenchDocument): BenchAnalysis {
         warnings.push(
           warning(
             "apertures-in-series",
-            `The ${named(e)} is followed by aperture${system.apertureIds.length > 1 ? "s" : ""} ${system.apertureIds.map((id) => `"${id}"`).join(", ")} before the screen: each aperture is analysed as if lit by the Gaussian beam alone, so the predicted pattern is approximate.`,
+            `The ${named(e)} is followed by aperture${system.apertureIds.length > 1 ? "s" : ""} ${system.apertureIds.map((id) => `"${id}"`).join(", ")} before the screen: its centre figure is for it and the apertures upstream of it only; the screen's own figure has every aperture in place (the diffracted field is carried through all of them).`,
             e.id,
           ),
         );
@@ -426,12 +556,19 @@ export function analyzeBench(doc: BenchDocument): BenchAnalysis {
     }
   });
   if (trace.m2 > 1 && apertures.length > 0) {
+    const chained = chainBuild !== null && chainBuild.chain.planes.length > 1;
     warnings.push(
-      warning(
-        "coherent-model-for-m2",
-        `The laser's M² is ${formatNumber(trace.m2)}: the beam size follows the real beam, but the Fresnel patterns are computed for a coherent Gaussian of that size, so real fringes are less contrasted.`,
-        laser.id,
-      ),
+      chained
+        ? warning(
+            "coherent-model-for-m2",
+            `The laser's M² is ${formatNumber(trace.m2)} and the light passes more than one clipping edge: the field is carried as a coherent Gaussian of the real size, which a partially coherent beam does not follow, so centres behind the second edge are shown as "between".`,
+            laser.id,
+          )
+        : warning(
+            "partially-coherent-beam",
+            `The laser's M² is ${formatNumber(trace.m2)}: the pattern is computed for a partially coherent (Gaussian Schell-model) beam of the same size and divergence, so its contrast is lower than a perfect beam's; bright or dark is given only where the contrast allows.`,
+            laser.id,
+          ),
     );
   }
 
@@ -475,6 +612,65 @@ export function analyzeBench(doc: BenchDocument): BenchAnalysis {
     }
   }
 
+  // the propagated field: powers behind the clipping edges, mounts that clip, and what reaches the screen
+  const screens: ScreenAnalysis[] = [];
+  if (chainBuild !== null) {
+    const { chain, indexOf } = chainBuild;
+    const byId = new Map(chain.results.map((r) => [r.id, r]));
+    for (const el of elements) {
+      const r = byId.get(el.id);
+      if (r === undefined || el.status !== "lit") continue;
+      el.incident = { ...el.incident, powerMw: r.incidentPowerMw };
+      el.outgoingPowerMw = r.outgoingPowerMw;
+    }
+    for (const ap of apertures) {
+      const r = byId.get(ap.id);
+      if (r !== undefined) ap.incident = { ...ap.incident, powerMw: r.incidentPowerMw };
+    }
+    for (const plane of chain.planes) {
+      const e = chain.elements[plane.index];
+      if (e.kind === "lens" || e.kind === "filter") {
+        const lost = plane.powerInRel > 0 ? 1 - plane.powerOutRel / plane.powerInRel : 0;
+        if (lost > MOUNT_CLIP_WARN_FRACTION) {
+          warnings.push(
+            warning(
+              "clear-aperture-clips",
+              `The ${named(e)}'s mount (${formatLengthMm(e.clearApertureMm ?? 0)} clear aperture) cuts off ${formatNumber(lost * 100)} % of the light arriving there: it acts as an aperture, and the light behind it carries its diffraction rings.`,
+              e.id,
+            ),
+          );
+        }
+      }
+      if (plane.method === "geometric-limit") {
+        warnings.push(
+          warning(
+            "field-geometric-limit",
+            `Behind the ${named(e)} the diffracted field is taken in the geometric limit (its edge is imaged close to, or lies very many zones from, the previous one), so the figures downstream of it are approximate.`,
+            e.id,
+          ),
+        );
+      }
+    }
+    if (screen !== null && chain.stopIndex !== null) {
+      const stopResult = chain.results[chain.stopIndex];
+      const last = chain.planes.length > 0 ? chain.planes[chain.planes.length - 1] : null;
+      const lastRecord = last === null ? undefined : apertures.find((a) => a.id === last.elementId);
+      let ratio = 1;
+      let centre: CentreAppearance = "between";
+      if (lastRecord !== undefined) {
+        ratio = lastRecord.centreIntensityRatio;
+        centre = lastRecord.centre;
+      } else if (last !== null) {
+        const at = chain.screenIntensity(indexOf.get(stopResult.id) ?? chain.stopIndex, [0]);
+        ratio = at === null ? 1 : at.values[0];
+        centre = trace.m2 > 1 ? "between" : centreAppearance(ratio);
+      }
+      screens.push({ id: screen.id, positionMm: screen.positionMm, centreIntensityRatio: ratio, centre, powerMw: stopResult.incidentPowerMw });
+    }
+  } else if (screen !== null && stopEntry !== null && stopEntry.incident !== null) {
+    screens.push({ id: screen.id, positionMm: screen.positionMm, centreIntensityRatio: 1, centre: "between", powerMw: stopEntry.incident.powerMw });
+  }
+
   return {
     laserId: laser.id,
     wavelengthNm: laser.wavelengthNm,
@@ -482,6 +678,7 @@ export function analyzeBench(doc: BenchDocument): BenchAnalysis {
     stopId: stop?.id ?? null,
     elements,
     apertures,
+    screens,
     waists: waistsOf(trace),
     envelope: envelopeOf(trace),
     warnings,

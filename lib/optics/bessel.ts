@@ -167,11 +167,24 @@ export function fastJ0Table(): { table: Float64Array; count: number; invStep: nu
   return { table, count: tableCount, invStep: TABLE_INV_STEP };
 }
 
+/**
+ * J_0(x) for x ≥ 8192 from Hankel's expansion cut after the terms that matter there (A&S 9.2.5, 9.2.9–9.2.10):
+ * P = 1 − 9/(2(8x)²), Q = −1/(8x) + 75/(2(8x)³); the next terms are below 3e-17.
+ */
+function farJ0(x: number): number {
+  const e = 1 / (8 * x);
+  const p = 1 - 4.5 * e * e;
+  const q = -e + 37.5 * e * e * e;
+  const c = Math.cos(x);
+  const s = Math.sin(x);
+  return Math.sqrt(TWO_OVER_PI / x) * SQRT_HALF * (p * (c + s) - q * (s - c));
+}
+
 /** J_0(x) for x ≥ 0 from the Hermite table (≤ 1.5e-8 absolute); call prepareFastJ0 first. */
 export function fastJ0(x: number): number {
   const u = x * TABLE_INV_STEP;
   const i = Math.floor(u);
-  if (i + 1 >= tableCount) return besselJ0(x);
+  if (i + 1 >= tableCount) return x >= TABLE_MAX_X ? farJ0(x) : besselJ0(x);
   const t = u - i;
   const k = 2 * i;
   const y0 = table[k];

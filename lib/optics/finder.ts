@@ -9,7 +9,7 @@
 import type { BenchDocument } from "@/lib/bench/schema";
 import { type BeamParameter, applyAbcd, beamRadiusM } from "./gaussian";
 import { centreAppearance, centreIntensityRatio, transmittedFraction, type CentreAppearance } from "./fresnel";
-import { OpticsInputError, apertureContext, fresnelSetup } from "./analyze";
+import { OpticsInputError, analyzeBench, apertureContext, buildChain, fresnelSetup } from "./analyze";
 import { beamBefore, systemBetween } from "./propagate";
 
 const M_PER_MM = 1e-3;
@@ -193,14 +193,30 @@ export function findScreenPositions(
     notes.push(`The beam is much narrower than the aperture (R²/w² = ${a.toPrecision(3)}), so the centre never reaches twice the unobstructed intensity: odd counts are only slightly brighter.`);
   }
   const crossings = integerCrossings(sampleAdaptive(nAt, fromMm, toMm), maxResults);
+  // With a clipping edge upstream (or a partially coherent beam) the centre at a trial position is the whole
+  // analysis's: the bench re-analysed with the screen moved there, upstream apertures in place, none downstream.
+  const build = buildChain(trace);
+  const chainIndex = build?.indexOf.get(apertureId);
+  const upstream = build !== null && chainIndex !== undefined && build.chain.planes.some((p) => p.index < chainIndex);
+  const analysed = upstream || trace.m2 > 1;
+  if (upstream) notes.push("Apertures upstream stay in place: each position's centre comes from the diffracted field through them, and a position whose centre is not clearly bright or dark is left out.");
+  const analysedAt = (zMm: number): { ratio: number; centre: CentreAppearance; irradianceWPerCm2: number | null } | null => {
+    const screenId = ctx.screenId ?? "finder-screen";
+    const elements = [...doc.elements.filter((e) => e.id !== screenId), { id: screenId, kind: "screen" as const, positionMm: zMm }];
+    const ap = analyzeBench({ ...doc, elements }).apertures.find((x) => x.id === apertureId);
+    if (ap === undefined || ap.screenId !== screenId) return null;
+    return { ratio: ap.centreIntensityRatio, centre: ap.centre, irradianceWPerCm2: ap.onAxisIrradianceWPerCm2 };
+  };
   const candidate = (c: Crossing): ScreenCandidate | null => {
     const z = c.lo === c.hi ? c.lo : bisect(nAt, c.lo, c.hi, c.level);
     const sys = systemBetween(trace, apertureMm, z, q, moved);
     if (sys === null) return null;
     const setup = fresnelSetup(q, trace.wavelengthM, trace.effectiveWavelengthM, radiusM, sys.matrix);
-    const ratio = centreIntensityRatio(a, setup.fresnelNumber);
+    const full = analysed ? analysedAt(z) : null;
+    if (analysed && full === null) return null;
+    const ratio = full?.ratio ?? centreIntensityRatio(a, setup.fresnelNumber);
     const wScreen = beamRadiusM(applyAbcd(sys.matrix, q), trace.effectiveWavelengthM);
-    const irradianceWPerM2 = ((2 * powerMw * 1e-3 * sys.transmission) / (Math.PI * wScreen * wScreen)) * ratio;
+    const irradianceWPerM2 = full !== null && full.irradianceWPerCm2 !== null ? full.irradianceWPerCm2 * 1e4 : ((2 * powerMw * 1e-3 * sys.transmission) / (Math.PI * wScreen * wScreen)) * ratio;
     // local slope from a small symmetric difference, falling back to the sampled one
     const dz = Math.max(1e-6, 1e-6 * Math.abs(z));
     const n1 = nAt(z - dz);
@@ -212,7 +228,7 @@ export function findScreenPositions(
       zoneCount: c.level,
       fresnelNumber: setup.fresnelNumber,
       centreIntensityRatio: ratio,
-      centre: centreAppearance(ratio),
+      centre: full?.centre ?? centreAppearance(ratio),
       onAxisIrradianceWPerCm2: irradianceWPerM2 * 1e-4,
       toleranceMm: slope > 0 ? 0.5 / slope : Number.MAX_VALUE,
     };
@@ -223,7 +239,7 @@ export function findScreenPositions(
       .sort((x, y) => x.slope - y.slope)
       .slice(0, maxResults)
       .map(candidate)
-      .filter((c): c is ScreenCandidate => c !== null);
+      .filter((c): c is ScreenCandidate => c !== null && (!upstream || c.centre === (odd ? "bright" : "dark")));
     return chosen.sort((x, y) => y.toleranceMm - x.toleranceMm);
   };
   const bright = pick(true);

@@ -21,6 +21,7 @@ export type {
   BenchAnalysis,
   ElementAnalysis,
   IncidentBeam,
+  ScreenAnalysis,
   OpticsInputErrorCode,
 } from "./analyze";
 export type { ElementStatus, EnvelopePoint, Waist } from "./propagate";
@@ -31,9 +32,15 @@ export type { ProfileOptions, RingImage, ScreenProfile } from "./profile";
 export { findScreenPositions, solveApertureDiameter, solveAperturePosition } from "./finder";
 export type { DiameterSolution, PositionSolution, ScreenCandidate, ScreenSearch } from "./finder";
 export { WARNING_CODES } from "./warnings";
+export { fieldPowerProbe } from "./field-power";
+export type { FieldPowerProbe } from "./field-power";
+export { FieldChain } from "./chain";
+export type { ChainElement, ChainStart, ClipPlane } from "./chain";
 export { MAX_GENERATIONS, MAX_PATHS, MIN_SHARE_OF_LASER } from "./table";
 export type { TableAnalysis, TableApertureAnalysis, TableElementAnalysis, TablePath, TablePathEnd, TablePoint, TableScreenAnalysis, TableWarning } from "./table";
 export { traceTable } from "./table-trace";
 export type { TableTrace, TracedPath } from "./table-trace";
 export { unfoldPath } from "./table-unfold";
 export type { OpticsWarning, WarningCode } from "./warnings";
+export { readScreenPhoto, PhotoReadError } from "./photo";
+export type { PhotoContext, PhotoImage, ScreenPhotoReading } from "./photo";

@@ -12,8 +12,9 @@
 // the unobstructed Gaussian inside R|A + B/ρ| and dark outside, with the exact closed form at r = 0.
 import type { BenchDocument } from "@/lib/bench/schema";
 import { besselJ0, fastJ0, fastJ0Table, prepareFastJ0 } from "./bessel";
-import { OpticsInputError, apertureContext } from "./analyze";
-import { centreIntensityRatio } from "./fresnel";
+import { type CentreModel, OpticsInputError, apertureContext, buildChain, centreModel } from "./analyze";
+import type { ChainBuild } from "./analyze";
+import { gsmBlurWidth, gsmRadialIntensity } from "./coherence";
 
 const MM_PER_M = 1000;
 const M_PER_MM = 1e-3;
@@ -185,10 +186,21 @@ export type ScreenProfile = {
   shadowRadiusMm: number;
 };
 
-type ProfileGeometry = { a: number; n: number; vPerM: number; shadowRadiusM: number; coherentScreenRadiusM: number; defaultMaxRadiusM: number };
+type ProfileGeometry = {
+  a: number;
+  n: number;
+  vPerM: number;
+  shadowRadiusM: number;
+  coherentScreenRadiusM: number;
+  defaultMaxRadiusM: number;
+  /** The centre ratio and how it is computed (the same as analyzeBench's). */
+  model: CentreModel;
+  chain: { build: ChainBuild; index: number } | null;
+  gsm: { t: number; sigmaV: number } | null;
+};
 
 function profileGeometry(doc: BenchDocument, apertureId: string): ProfileGeometry {
-  const { setup } = apertureContext(doc, apertureId, { requireScreen: true });
+  const { setup, trace, index } = apertureContext(doc, apertureId, { requireScreen: true });
   if (setup.matrix === null || setup.shadowRadiusM === null || setup.coherentScreenRadiusM === null) {
     throw new OpticsInputError("aperture-without-screen", `No screen receives the light of the aperture "${apertureId}".`);
   }
@@ -196,7 +208,14 @@ function profileGeometry(doc: BenchDocument, apertureId: string): ProfileGeometr
   const vPerM = (2 * Math.PI * setup.apertureRadiusM) / (setup.wavelengthM * bAbs);
   const airyZeroM = (1.21967 * setup.wavelengthM * bAbs) / (2 * setup.apertureRadiusM);
   const lit = Math.min(setup.shadowRadiusM, 1.5 * setup.coherentScreenRadiusM);
+  const build = buildChain(trace);
+  const model = centreModel(trace, build, index, setup);
+  const ci = build?.indexOf.get(apertureId);
+  const t = gsmBlurWidth(setup.radiusRatioSquared, trace.m2);
   return {
+    model,
+    chain: model.model === "chain" && build !== null && ci !== undefined ? { build, index: ci } : null,
+    gsm: model.model === "gsm" ? { t, sigmaV: (Math.PI * setup.apertureRadiusM * setup.coherentScreenRadiusM) / (setup.wavelengthM * bAbs) } : null,
     a: setup.radiusRatioSquared,
     n: setup.fresnelNumber,
     vPerM,
@@ -223,8 +242,19 @@ function radiiFrom(options: ProfileOptions, defaultMaxRadiusM: number): number[]
 }
 
 function profileAt(g: ProfileGeometry, radiiMm: number[]): { values: number[]; method: ScreenProfile["method"] } {
-  const centre = centreIntensityRatio(g.a, g.n);
+  const centre = g.model.ratio;
   const vs = radiiMm.map((r) => r * M_PER_MM * g.vPerM);
+  if (g.chain !== null) {
+    // the propagated field through every clipping edge up to this aperture (chain.ts)
+    const at = g.chain.build.chain.screenIntensity(g.chain.index, radiiMm.map((r) => r * M_PER_MM));
+    if (at !== null) {
+      return { values: radiiMm.map((r, i) => (r === 0 ? centre : at.values[i])), method: at.method === "geometric-limit" ? "geometric-shadow" : "quadrature" };
+    }
+  }
+  if (g.gsm !== null && radialWork(g.a, g.n, vs) * (1.5 * g.gsm.t + 2) * GL_ORDER <= MAX_WORK) {
+    const intensity = gsmRadialIntensity(g.a, g.n, g.gsm.t, g.gsm.sigmaV, vs);
+    return { values: radiiMm.map((r, i) => (r === 0 ? centre : intensity[i])), method: "quadrature" };
+  }
   if (radialWork(g.a, g.n, vs) > MAX_WORK) {
     const w2 = g.coherentScreenRadiusM * g.coherentScreenRadiusM;
     const values = radiiMm.map((rMm) => {
@@ -249,7 +279,7 @@ export function screenProfile(doc: BenchDocument, apertureId: string, options: P
     relativeIntensity: values,
     method,
     fresnelNumber: g.n,
-    centreIntensityRatio: centreIntensityRatio(g.a, g.n),
+    centreIntensityRatio: g.model.ratio,
     shadowRadiusMm: g.shadowRadiusM * MM_PER_M,
   };
 }

@@ -7,6 +7,7 @@
 // wavefront) with its power multiplied by the transmitted fraction 1 − exp(−2R²/w²): the usual engineering
 // choice; the real clipped beam carries diffraction rings and spreads slightly faster, which the Fresnel
 // analysis of that aperture describes and the envelope does not. Internal lengths are metres; the API is mm.
+import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import type { BenchDocument, BenchElement, LaserElement } from "@/lib/bench/schema";
 import { type AbcdMatrix, type BeamParameter, IDENTITY, beamRadiusM, compose, freeSpace, lensQ, propagateQ, qAtWaist, thinLens, waistOf } from "./gaussian";
 import { transmittedFraction } from "./fresnel";
@@ -59,11 +60,17 @@ export type BenchTrace = {
   readonly stopIndex: number | null;
 };
 
+/** Gaussian power inside a lens or filter mount of the given clear aperture (1 when none is given). */
+const mountFraction = (clearApertureMm: number | undefined, q: BeamParameter, effectiveWavelengthM: number): number =>
+  clearApertureMm === undefined ? 1 : transmittedFraction((clearApertureMm / 2) * M_PER_MM, beamRadiusM(q, effectiveWavelengthM));
+
 /** Power transmission of an element for an incident beam (1 for lenses, 10^−OD for filters, the Gaussian fraction for apertures). */
 export function elementTransmission(e: BenchElement, q: BeamParameter, effectiveWavelengthM: number): number {
   switch (e.kind) {
     case "filter":
-      return Math.pow(10, -e.opticalDensity);
+      return Math.pow(10, -e.opticalDensity) * mountFraction(e.clearApertureMm, q, effectiveWavelengthM);
+    case "lens":
+      return mountFraction(e.clearApertureMm, q, effectiveWavelengthM);
     case "aperture":
       return transmittedFraction((e.diameterMm / 2) * M_PER_MM, beamRadiusM(q, effectiveWavelengthM));
     case "screen":
@@ -95,7 +102,7 @@ export function traceBench(doc: BenchDocument): BenchTrace {
   let seenLaser = false;
   let stopIndex: number | null = null;
   let q: BeamParameter = qAtWaist(laserWaistRadiusM(laser), effectiveWavelengthM);
-  let powerMw = laser.powerMw;
+  let powerMw = laserBeamPowerMw(laser);
   let lastPositionMm = laser.positionMm;
   for (const element of sorted) {
     if (!seenLaser) {
@@ -138,7 +145,7 @@ export function beamBefore(trace: BenchTrace, positionMm: number, excludeIds: Re
   if (stop !== null && !excludeIds.has(stop.id) && stop.positionMm < positionMm) return null;
   // replay lenses, filters and apertures in (laser, positionMm), skipping the excluded ones
   let q = qAtWaist(laserWaistRadiusM(trace.laser), trace.effectiveWavelengthM);
-  let powerMw = trace.laser.powerMw;
+  let powerMw = laserBeamPowerMw(trace.laser);
   let last = trace.laser.positionMm;
   for (const entry of trace.entries) {
     const e = entry.element;

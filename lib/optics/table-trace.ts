@@ -92,6 +92,8 @@ type Run = {
 
 const RAD = Math.PI / 180;
 const clean = (v: number) => (Math.abs(v) < 1e-15 ? 0 : v);
+/** Points on the table to the picometre, so 500 − 6e-14 reads 500 (far below any mount's tolerance). */
+const snap = (v: number) => Math.round(v * 1e9) / 1e9;
 const directionOf = (deg: number) => ({ x: clean(Math.cos(deg * RAD)), y: clean(Math.sin(deg * RAD)) });
 const degreesOf = (dx: number, dy: number) => {
   const deg = Math.atan2(dy, dx) / RAD;
@@ -109,9 +111,15 @@ function edgeOf(ox: number, oy: number, dx: number, dy: number, widthMm: number,
   if (dy > 0) t = Math.min(t, (depthMm - oy) / dy);
   else if (dy < 0) t = Math.min(t, -oy / dy);
   if (!Number.isFinite(t) || t < 0) t = 0;
-  const x = Math.min(widthMm, Math.max(0, ox + t * dx));
-  const y = Math.min(depthMm, Math.max(0, oy + t * dy));
+  const x = snap(Math.min(widthMm, Math.max(0, ox + t * dx)));
+  const y = snap(Math.min(depthMm, Math.max(0, oy + t * dy)));
   return { t, point: { xMm: x, yMm: y } };
+}
+
+/** The filter's OD at a wavelength: the band that holds it, else the plain OD (the rule of the rail safety engine). */
+function filterOdAt(filter: { opticalDensity: number; opticalDensityBands?: { fromNm: number; toNm: number; opticalDensity: number }[] }, wavelengthNm: number): number {
+  for (const b of filter.opticalDensityBands ?? []) if (wavelengthNm >= b.fromNm && wavelengthNm <= b.toNm) return b.opticalDensity;
+  return filter.opticalDensity;
 }
 
 type Face = { e: TableElement; cx: number; cy: number; nx: number; ny: number; halfMm: number };
@@ -168,8 +176,8 @@ export function traceTable(doc: BenchDocumentV2): TableTrace {
       if (Math.abs(dn) < 1e-12) continue; // the axis runs along the face: it grazes, it does not meet it
       const t = ((f.cx - run.ox) * f.nx + (f.cy - run.oy) * f.ny) / dn;
       if (!(t > MIN_HIT_DISTANCE_MM) || t > edge.t + MIN_HIT_DISTANCE_MM) continue;
-      const px = run.ox + t * run.dx;
-      const py = run.oy + t * run.dy;
+      const px = snap(run.ox + t * run.dx);
+      const py = snap(run.oy + t * run.dy);
       // along the face: the tangent is the normal turned by +90°
       const offset = (px - f.cx) * -f.ny + (py - f.cy) * f.nx;
       if (Math.abs(offset) > f.halfMm) continue;
@@ -199,7 +207,7 @@ export function traceTable(doc: BenchDocumentV2): TableTrace {
         });
       }
       if (action === "transmit") {
-        if (e.kind === "filter") share *= Math.pow(10, -e.opticalDensity);
+        if (e.kind === "filter") share *= Math.pow(10, -filterOdAt(e, run.laser.wavelengthNm));
         continue;
       }
       endPoint = hit.point;

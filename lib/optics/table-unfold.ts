@@ -14,7 +14,6 @@ export type UnfoldablePath = {
   branchShare: number;
   startLengthMm: number;
   lengthMm: number;
-  elementIds: readonly string[];
   hits: readonly { elementId: string; distanceMm: number }[];
   end: { elementId: string } | { edge: unknown } | { continuesAs: readonly string[] };
 };
@@ -34,24 +33,27 @@ export type UnfoldedChain = {
 export const chainId = (pathId: string, elementId: string): string => `⟨${pathId}⟩${elementId}`;
 export const edgeChainId = (pathId: string): string => `⟨${pathId}⟩⟨edge⟩`;
 
-/** The v1 laser of a table laser: its fields less the placement and further lines, at position 0. */
+/** The v1 laser of a table laser: its fields (further lines included) less the placement, at position 0. */
 export function railLaser(laser: LaserV2Element, id: string): BenchElement {
-  const { xMm: _x, yMm: _y, angleDeg: _a, lines: _l, ...fields } = laser;
+  const { xMm: _x, yMm: _y, angleDeg: _a, ...fields } = laser;
   return { ...fields, id, positionMm: 0 } as BenchElement;
 }
 
 function railElement(e: TableElement, id: string, positionMm: number): BenchElement | null {
   switch (e.kind) {
     case "lens":
-    case "filter": {
       // the clear aperture goes along: an engine that clips at a lens or filter rim uses it
-      const { xMm: _x, yMm: _y, angleDeg: _a, ...fields } = e;
-      return { ...fields, id, positionMm } as BenchElement;
+      return (e.clearApertureMm === undefined
+        ? { id, kind: "lens", positionMm, focalLengthMm: e.focalLengthMm }
+        : { id, kind: "lens", positionMm, focalLengthMm: e.focalLengthMm, clearApertureMm: e.clearApertureMm }) as BenchElement;
+    case "filter": {
+      const filter: Record<string, unknown> = { id, kind: "filter", positionMm, opticalDensity: e.opticalDensity };
+      if (e.opticalDensityBands !== undefined) filter.opticalDensityBands = e.opticalDensityBands;
+      if (e.clearApertureMm !== undefined) filter.clearApertureMm = e.clearApertureMm;
+      return filter as BenchElement;
     }
-    case "aperture": {
-      const { xMm: _x, yMm: _y, angleDeg: _a, clearApertureMm: _c, ...fields } = e;
-      return { ...fields, id, positionMm };
-    }
+    case "aperture":
+      return { id, kind: "aperture", positionMm, diameterMm: e.diameterMm };
     case "beam-block":
     case "screen":
       return { id, kind: e.kind, positionMm };
@@ -62,15 +64,47 @@ function railElement(e: TableElement, id: string, positionMm: number): BenchElem
 
 const odOfShare = (share: number): number => (share >= 1 ? 0 : -Math.log10(share));
 
+type Segment = { elements: BenchElement[]; origins: [string, ChainOrigin][]; turn: { id: string; positionMm: number; elementId: string } | null };
+
+/** The rail elements of one path (the element it turns on kept apart: its OD depends on the next path). */
+function segmentOf(byId: ReadonlyMap<string, TableElement>, path: UnfoldablePath): Segment {
+  const elements: BenchElement[] = [];
+  const origins: [string, ChainOrigin][] = [];
+  let turn: Segment["turn"] = null;
+  for (const hit of path.hits) {
+    const e = byId.get(hit.elementId);
+    if (!e) continue;
+    const id = chainId(path.id, hit.elementId);
+    const positionMm = path.startLengthMm + hit.distanceMm;
+    const rail = railElement(e, id, positionMm);
+    if (rail) {
+      elements.push(rail);
+      origins.push([id, { pathId: path.id, elementId: hit.elementId, role: "element" }]);
+    } else if (e.kind !== "laser") {
+      turn = { id, positionMm, elementId: hit.elementId };
+    }
+  }
+  if ("edge" in path.end) {
+    const id = edgeChainId(path.id);
+    elements.push({ id, kind: "filter", positionMm: path.startLengthMm + path.lengthMm, opticalDensity: 0 });
+    origins.push([id, { pathId: path.id, elementId: null, role: "edge" }]);
+  }
+  return { elements, origins, turn };
+}
+
+/** Per-path pieces kept between the leaves of one analysis. */
+export type UnfoldCache = Map<string, Segment>;
+
 /**
  * The straight bench from the laser to the end of `leafId`. `byId` holds the table's elements, `paths` the traced paths.
- * Never throws for paths traceTable made; an unknown id is skipped.
+ * Never throws for paths traceTable made; an unknown id is skipped. Pass one `cache` for every leaf of the same trace.
  */
 export function unfoldPath(
   doc: BenchDocumentV2,
   byId: ReadonlyMap<string, TableElement>,
   pathsById: ReadonlyMap<string, UnfoldablePath>,
   leafId: string,
+  cache: UnfoldCache = new Map(),
 ): UnfoldedChain {
   const lineage: UnfoldablePath[] = [];
   for (let p = pathsById.get(leafId); p; p = p.parentPathId === null ? undefined : pathsById.get(p.parentPathId)) lineage.unshift(p);
@@ -83,28 +117,15 @@ export function unfoldPath(
     origin.set(laser.id, { pathId: root.id, elementId: laser.id, role: "laser" });
   }
   lineage.forEach((path, index) => {
-    const child = lineage[index + 1];
-    const distances = new Map(path.hits.map((h) => [h.elementId, h.distanceMm]));
-    for (const elementId of path.elementIds) {
-      const e = byId.get(elementId);
-      const distanceMm = distances.get(elementId);
-      if (!e || distanceMm === undefined) continue;
-      const id = chainId(path.id, elementId);
-      const positionMm = path.startLengthMm + distanceMm;
-      const rail = railElement(e, id, positionMm);
-      if (rail) {
-        elements.push(rail);
-        origin.set(id, { pathId: path.id, elementId, role: "element" });
-      } else if (e.kind !== "laser") {
-        // mirror, splitter or window: the share taken by the next path of this chain (none at the leaf)
-        elements.push({ id, kind: "filter", positionMm, opticalDensity: child ? odOfShare(child.branchShare) : 0 });
-        origin.set(id, { pathId: path.id, elementId, role: "turn" });
-      }
-    }
-    if ("edge" in path.end) {
-      const id = edgeChainId(path.id);
-      elements.push({ id, kind: "filter", positionMm: path.startLengthMm + path.lengthMm, opticalDensity: 0 });
-      origin.set(id, { pathId: path.id, elementId: null, role: "edge" });
+    let segment = cache.get(path.id);
+    if (!segment) cache.set(path.id, (segment = segmentOf(byId, path)));
+    for (const e of segment.elements) elements.push(e);
+    for (const [id, o] of segment.origins) origin.set(id, o);
+    if (segment.turn) {
+      // mirror, splitter or window: the share taken by the next path of this chain (none at the leaf)
+      const child = lineage[index + 1];
+      elements.push({ id: segment.turn.id, kind: "filter", positionMm: segment.turn.positionMm, opticalDensity: child ? odOfShare(child.branchShare) : 0 });
+      origin.set(segment.turn.id, { pathId: path.id, elementId: segment.turn.elementId, role: "turn" });
     }
   });
   return {

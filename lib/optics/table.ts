@@ -5,10 +5,11 @@
 // upstream of a split sees the same beam in every leaf below it, so each (element, path) pair is taken from the first
 // leaf that holds it. An aperture gets one entry per screen its light reaches (a split sends it to several); with no
 // screen on any branch, one entry without a screen. Rail warnings that are artefacts of the unfolding are dropped.
+import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import type { BenchDocumentV2, TableElement } from "@/lib/bench/schema-v2";
 import { analyzeBench as analyzeRail, type ApertureAnalysis, type IncidentBeam } from "./analyze";
-import { MAX_GENERATIONS, MAX_PATHS, MIN_SHARE_OF_LASER, traceTable, type PathRole, type TablePathEnd, type TablePoint, type TableWarning } from "./table-trace";
-import { unfoldPath, type ChainOrigin } from "./table-unfold";
+import { MAX_GENERATIONS, MAX_PATHS, MIN_SHARE_OF_LASER, traceTable, type PathRole, type TableHit, type TablePathEnd, type TablePoint, type TableWarning } from "./table-trace";
+import { unfoldPath, type ChainOrigin, type UnfoldCache } from "./table-unfold";
 
 export { MAX_GENERATIONS, MAX_PATHS, MIN_SHARE_OF_LASER };
 export type { TablePathEnd, TablePoint, TableWarning };
@@ -24,7 +25,7 @@ export type TablePath = {
   generation: number;
   /** Share of the power arriving at the start element that this path takes (1 for a laser's own run). */
   branchShare: number;
-  /** Power at the start, mW (for a single-pulse laser without an average power, 0). */
+  /** Power at the start, mW (the average power; for a single pulse the power during the pulse, as the rail engine carries it). */
   powerMw: number;
   /** Share of the laser's power at the start from branch shares and filters alone (apertures, which clip by beam size, not counted). */
   shareOfLaser: number;
@@ -75,11 +76,11 @@ export type TableAnalysis = {
 /** Rail warnings that come from the unfolding itself, not from the table. */
 const UNFOLDING_ARTEFACTS = new Set(["same-position", "no-screen", "screen-not-reached", "element-beyond-stop", "element-upstream-of-laser", "no-laser"]);
 
-function rename(message: string, chainToReal: ReadonlyMap<string, string>): string {
-  let out = message;
-  for (const [chain, real] of chainToReal) if (out.includes(chain)) out = out.split(chain).join(real);
-  return out;
-}
+/** Rail warnings whose meaning depends on what lies downstream (so each leaf may add its own). */
+const DOWNSTREAM_CODES = new Set(["aperture-without-screen", "screen-at-aperture", "lens-between-aperture-and-screen", "apertures-in-series"]);
+
+/** Unfolded ids (⟨path⟩element) in a rail message, put back as the table element's id. */
+const rename = (message: string): string => (message.includes("⟨") ? message.replace(/⟨[^⟩]*⟩(?:⟨edge⟩)?/g, "") : message);
 
 type RailScreen = { id: string; centreIntensityRatio?: number; centre?: string; powerMw?: number };
 
@@ -94,14 +95,15 @@ export function analyzeTable(doc: BenchDocumentV2): TableAnalysis {
   const arrivals = new Map<string, IncidentBeam>();
   const apertures = new Map<string, TableApertureAnalysis>(); // `${pathId}|${apertureId}|${screenId}`
   const screens = new Map<string, TableScreenAnalysis>();
-  const hitOf = (pathId: string, elementId: string) => pathsById.get(pathId)?.hits.find((h) => h.elementId === elementId);
+  const hits = new Map<string, TableHit>();
+  for (const p of trace.paths) for (const h of p.hits) hits.set(`${p.id}|${h.elementId}`, h);
+  const cache: UnfoldCache = new Map();
 
   const leaves = trace.paths.filter((p) => !("continuesAs" in p.end) || p.end.continuesAs.length === 0);
   for (const leaf of leaves) {
-    const chain = unfoldPath(doc, byId, pathsById, leaf.id);
+    const chain = unfoldPath(doc, byId, pathsById, leaf.id, cache);
     const rail = analyzeRail(chain.doc);
-    const chainToReal = new Map<string, string>();
-    for (const [cid, o] of chain.origin) if (o.elementId !== null && cid !== o.elementId) chainToReal.set(`"${cid}"`, `"${o.elementId}"`);
+    const fresh = new Set<string>(); // (path, element) pairs first met in this leaf
     const originOf = (cid: string): ChainOrigin | undefined => chain.origin.get(cid);
 
     for (const entry of rail.elements) {
@@ -116,8 +118,9 @@ export function analyzeTable(doc: BenchDocumentV2): TableAnalysis {
       if (entries.has(key)) continue;
       const e = byId.get(elementId);
       if (!e) continue;
+      fresh.add(entry.id);
       const path = pathsById.get(o.pathId);
-      const hit = hitOf(o.pathId, elementId);
+      const hit = hits.get(key);
       let outgoingPowerMw = entry.outgoingPowerMw;
       if (o.role === "turn" && path && "continuesAs" in path.end) {
         outgoingPowerMw = path.end.continuesAs.reduce((sum, id) => sum + entry.incident.powerMw * (pathsById.get(id)?.branchShare ?? 0), 0);
@@ -167,12 +170,14 @@ export function analyzeTable(doc: BenchDocumentV2): TableAnalysis {
 
     for (const w of rail.warnings) {
       if (UNFOLDING_ARTEFACTS.has(w.code)) continue;
+      // a warning about an element analysed in an earlier leaf was reported there, unless it concerns what lies downstream
+      if (w.elementId !== undefined && w.elementId !== leaf.laserId && !fresh.has(w.elementId) && !DOWNSTREAM_CODES.has(w.code)) continue;
       const o = w.elementId === undefined ? undefined : originOf(w.elementId);
       const mapped: TableWarning = {
         code: w.code,
         ...(o?.elementId ? { elementId: o.elementId } : {}),
         ...(o && o.role !== "laser" ? { pathId: o.pathId } : {}),
-        message: rename(w.message, chainToReal),
+        message: rename(w.message),
       };
       const key = `${mapped.code}|${mapped.elementId ?? ""}|${mapped.message}`;
       if (seenWarnings.has(key)) continue;
@@ -191,7 +196,7 @@ export function analyzeTable(doc: BenchDocumentV2): TableAnalysis {
     let powerMw = 0;
     if (p.parentPathId === null) {
       const laser = byId.get(p.laserId);
-      powerMw = laser && laser.kind === "laser" ? laserPowerMw(laser) : 0;
+      powerMw = laser && laser.kind === "laser" ? laserBeamPowerMw(laser) : 0;
     } else {
       const atStart = entries.get(`${p.parentPathId}|${p.startElementId}`);
       powerMw = atStart ? atStart.incident.powerMw * p.branchShare : 0;
@@ -251,14 +256,6 @@ export function analyzeTable(doc: BenchDocumentV2): TableAnalysis {
     .filter((x): x is { id: string; wavelengthNm: number; m2: number } => x !== null)
     .sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
   return { version: 2, lasers, paths, elements, apertures: apertureList, screens: screenList, warnings: filteredWarnings };
-}
-
-/** Average power of a table laser, mW: powerMw, or energy × rate for a train; 0 for a single pulse without an average. */
-export function laserPowerMw(laser: { powerMw?: number; pulseRepetitionRateHz?: number } & Record<string, unknown>): number {
-  if (typeof laser.powerMw === "number") return laser.powerMw;
-  const energy = laser["pulseEnergyJ"];
-  if (typeof energy === "number" && typeof laser.pulseRepetitionRateHz === "number") return energy * laser.pulseRepetitionRateHz * 1000;
-  return 0;
 }
 
 /** Screens lit, when the rail engine does not list them: the power arriving, and the centre from the last aperture before it. */

@@ -26,14 +26,22 @@ export const WARNING_CODES = {
   "screen-at-aperture": "The screen is at, or imaged onto, the aperture.",
   /** Lenses between aperture and screen: the pattern uses the Collins (ABCD) diffraction integral. */
   "lens-between-aperture-and-screen": "A lens lies between the aperture and its screen.",
-  /** Another aperture between this one and its screen: each is analysed as if lit by the Gaussian alone. */
+  /** Another aperture between this one and its screen: its own figure has it and those upstream in place; screens[] has them all. */
   "apertures-in-series": "Apertures in series.",
   /** A positive lens inside the incoming Rayleigh range forms a small focus (Self 1983), not quite at f. */
   "lens-focus-in-rayleigh-range": "A lens inside the Rayleigh range makes a small-waist focus.",
   /** The focus is so tight (divergence > 0.1 rad) that paraxial Gaussian optics is only indicative. */
   "focus-beyond-paraxial": "A focus (or the laser waist) is too tight for paraxial optics.",
-  /** M² > 1: the Fresnel pattern is computed for a coherent Gaussian of the same size and curvature. */
+  /** M² > 1 behind more than one clipping edge: the field is carried as a coherent Gaussian, so those centres are "between". */
   "coherent-model-for-m2": "Fresnel patterns assume a coherent Gaussian beam (M² > 1).",
+  /** M² > 1, one clipping edge: the pattern is a Gaussian Schell-model beam's (Friberg & Sudol 1982), with lower contrast. */
+  "partially-coherent-beam": "The pattern is computed for a partially coherent beam (M² > 1).",
+  /** The first non-paraxial term of the zone count exceeds 0.1 zone: the centre is shown as "between". */
+  "zone-count-non-paraxial": "The paraxial zone count is uncertain by more than 0.1 zone.",
+  /** A lens or filter mount (clearApertureMm) cuts off more than 0.1 % of the light: it acts as an aperture. */
+  "clear-aperture-clips": "A lens or filter mount clips the beam.",
+  /** The propagated field behind an edge is taken in the geometric limit (a hop too fine to integrate). */
+  "field-geometric-limit": "The diffracted field is taken in the geometric limit.",
 } as const;
 
 export type WarningCode = keyof typeof WARNING_CODES;

@@ -72,7 +72,9 @@ async function load(page: Page, html: Promise<string>, url: string, options: Ren
   // scripts off, chromium neither downloads nor runs the app's client bundle (hydration, providers, dev HMR),
   // so "load" is the HTML, its stylesheet and the inline images. puppeteer's own evaluate still works.
   // The session cookie stays in this process: the page's only requests are the app's static files.
-  await Promise.all([page.setJavaScriptEnabled(false), page.emulateMediaType("print")]);
+  // The origin page below is an API answer, whose Content-Security-Policy allows nothing; the markup set into
+  // it is the app's own print page (scripts off), so chromium leaves that policy aside here.
+  await Promise.all([page.setJavaScriptEnabled(false), page.emulateMediaType("print"), page.setBypassCSP(true)]);
   // The app's font files are fetched in CORS mode: the document must have the app's origin, not
   // about:blank, or the font shipped with the app is refused and the sheet falls back to a system font.
   // A same-origin page that costs nothing to serve gives it that origin before the content is set.

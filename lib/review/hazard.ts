@@ -1,8 +1,9 @@
 // The hazard picture of one revision for the review screen, and the compact summary kept with a
 // signature. Figures come from the engines (lib/optics analyzeBench, lib/safety assessBench), which name their sources.
+import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import { benchDocumentSchema, type BenchDocument, type LaserElement } from "@/lib/bench/schema";
 import type { HazardSummary } from "@/db/schema";
-import { analyzeBench, type BenchAnalysis } from "@/lib/optics";
+import { analyzeBench, fieldPowerProbe, type BenchAnalysis } from "@/lib/optics";
 import { assessBench, type BenchSafetyAssessment, type BenchSafetyOptions } from "@/lib/safety";
 
 export type RevisionAssessment =
@@ -19,7 +20,7 @@ export function assessRevision(doc: BenchDocument, options: AssessOptions = {}):
   try {
     const analysis = analyzeBench(parsed.data);
     const safetyOptions = (options.standard ? { standard: options.standard } : {}) as BenchSafetyOptions;
-    const safety = assessBench(parsed.data, analysis, safetyOptions);
+    const safety = assessBench(parsed.data, { elements: analysis.elements, enclosedPowerMw: fieldPowerProbe(parsed.data) }, safetyOptions);
     return { ok: true, analysis, safety };
   } catch (error) {
     return { ok: false, problem: error instanceof Error ? error.message : "The hazard engines could not assess this bench." };
@@ -27,16 +28,17 @@ export function assessRevision(doc: BenchDocument, options: AssessOptions = {}):
 }
 
 /** What is stored with a signature: enough to show, years later, what the officer saw. */
-export function hazardSummary(doc: BenchDocument): HazardSummary {
+export function hazardSummary(doc: BenchDocument, options: AssessOptions = {}): HazardSummary {
   const laser = doc.elements.find((e): e is LaserElement => e.kind === "laser");
   const laserFacts = laser
-    ? { id: laser.id, wavelengthNm: laser.wavelengthNm, powerMw: laser.powerMw, beamDiameterMm: laser.beamDiameterMm, m2: laser.m2 ?? 1, registerId: laser.registerId ?? null }
+    ? { id: laser.id, wavelengthNm: laser.wavelengthNm, powerMw: laserBeamPowerMw(laser), beamDiameterMm: laser.beamDiameterMm, m2: laser.m2 ?? 1, registerId: laser.registerId ?? null }
     : null;
-  const assessed = assessRevision(doc);
+  const assessed = assessRevision(doc, options);
   if (!assessed.ok) return { engine: "unavailable", problem: assessed.problem, laser: laserFacts };
   const { safety, analysis } = assessed;
   return {
     engine: "lib/safety assessBench + lib/optics analyzeBench",
+    standard: (safety as { standard?: string }).standard ?? options.standard ?? null,
     laser: laserFacts,
     hazardClass: { value: safety.laser.hazardClass, source: safety.laser.figures.hazardClass.source },
     labelCheck: safety.laser.labelCheck ? { warning: safety.laser.labelCheck.warning ?? null } : null,

@@ -104,7 +104,7 @@ export const CAUTION_CATALOGUE: readonly CautionEntry[] = [
     title: "Warning sign: CAUTION",
     text: "Post a laser sign with the signal word CAUTION at the entrance to the area, stating the class and the wavelength.",
     basis: "standard",
-    reference: "ANSI Z136.1-2014 §4 control measures (signs; signal words recalled from memory)",
+    reference: "ANSI Z136.1-2014 §4 control measures (signs; signal words not yet checked against the standard's text — confirm with your laser safety officer)",
   },
   {
     id: "sign-warning",
@@ -112,7 +112,7 @@ export const CAUTION_CATALOGUE: readonly CautionEntry[] = [
     title: "Warning sign: WARNING (DANGER where required)",
     text: "Post a laser sign with the signal word WARNING at every entrance, stating the class, wavelength and power; some institutions and older rules require DANGER for Class 4 — use the word your local rules specify.",
     basis: "standard",
-    reference: "ANSI Z136.1-2014 §4 control measures (signs; signal words recalled from memory)",
+    reference: "ANSI Z136.1-2014 §4 control measures (signs; signal words not yet checked against the standard's text — confirm with your laser safety officer)",
   },
   {
     id: "engineering-controls",

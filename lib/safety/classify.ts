@@ -1,27 +1,38 @@
-// Hazard class check (1, 1M, 2, 2M, 3R, 3B, 4) of a single-wavelength, point-source beam from its accessible emission, and the label comparison.
-// Limits: IEC 60825-1:2014 Tables 3–8 (class AELs) and Table 10 (measurement conditions), as recalled; see APPLIED_CONDITIONS for choices made.
+// Hazard class (1, 1M, 2, 2M, 3R, 3B, 4) of a single-wavelength, point-source beam, CW or pulsed, and the label comparison.
+// Limits: IEC 60825-1:2014 Tables 3–8 (class AELs, per pulse and average) and Table 10 (conditions 1 and 3), all from memory.
 
-import { correctionCA, correctionCB, correctionCC } from "./mpe";
+// Every AEL and measurement condition here was written from memory of IEC 60825-1:2014 (the text could not be read).
+// Construction (from memory, consistent with the tabulated values recalled for checking, e.g. 7.7×10⁻⁸ J, 2.4×10⁻⁵ J,
+// 8×10⁻⁴ J, 3.9×10⁻⁴ W): a Class 1 per-pulse AEL is the point-source MPE (rules 1 and 3 over the class time base)
+// times the area of the limiting aperture (7 mm on the retina; 1 mm in the UV; 1 mm → 1.5 t^0.375 → 3.5 mm in the
+// IR, knee 0.35 s; 11 mm beyond 0.1 mm). Class 1 average limits are the tabulated CW values. Class 3R is 5 × Class 1
+// (5 × Class 2 in 400–700 nm). Class 3B is compared with the total emission (no aperture), the strictest reading.
+
+import { correctionCA, correctionCB, correctionCC, limitingAperture, type MpeSite } from "./mpe";
 import { pulsedEyeMpe } from "./pulsed";
-import { type HazardClass, SOURCE, classRank } from "./types";
+import { type HazardClass, SOURCE, UNCHECKED, classRank } from "./types";
 
 /** How the engine measures the accessible emission; stated in every result. */
 export const APPLIED_CONDITIONS = {
   reference:
     "The beam is taken to leave the laser at its 1/e² waist with the stated diameter and to spread as D(z) = √(D₀² + (φz)²).",
   condition1:
-    "Condition 1 (optical aids such as binoculars), 302.5–4000 nm: 50 mm aperture at 2000 mm (IEC 60825-1:2014 Table 10; used at all those wavelengths, the larger recalled aperture).",
+    "Condition 1 (optical aids such as binoculars), IEC 60825-1:2014 Table 10: 50 mm aperture at 2000 mm in 400–1400 nm; 7 mm (or the limiting aperture, if larger) at 2000 mm in 302.5–400 nm and 1400–4000 nm; not applied below 302.5 nm or from 4000 nm.",
   condition3:
-    "Condition 3 (unaided eye): 7 mm aperture at 100 mm in 302.5–4000 nm (IEC 60825-1:2014 Table 10); outside that range 7 mm (11 mm beyond 0.1 mm) at the exit — larger or nearer than the recalled IEC value, so at least as strict.",
-  class3B: "Class 3B vs 4 compares the total emitted power (no aperture), the strictest reading.",
+    "Condition 3 (unaided eye), IEC 60825-1:2014 Table 10: 7 mm at 100 mm in 400–1400 nm; the limiting aperture (1 mm in the UV; 1 mm → 1.5 t^0.375 mm → 3.5 mm in the IR) at 100 mm in 302.5–4000 nm, and at the exit below 302.5 nm and from 4000 nm (11 mm beyond 0.1 mm).",
+  class3B: "Class 3B vs 4 compares the total emitted power and pulse energy (no aperture), the strictest reading.",
   timeBases:
-    "Time bases: 0.25 s for Class 2 and 2M; 100 s for Classes 1, 1M, 3R, 3B from 400 nm up; 30 000 s below 400 nm (IEC 60825-1:2014 §4.3).",
+    "Time bases (IEC 60825-1:2014 §4.3 e): 0.25 s for Class 2, 2M and 3R in 400–700 nm; 30 000 s below 400 nm; 100 s otherwise.",
+  pulses:
+    "Pulsed emission: every pulse (rule 1), the average over the time base (rule 2) and each pulse of the train with C5 = N^−0.25 (rule 3, the conservative reading) must meet the class limit; the worst ratio decides.",
+  unchecked: `Every limit and condition here is ${UNCHECKED}.`,
 } as const;
 
 export type ClassInput = {
   wavelengthNm: number;
-  /** CW power, or average power of a pulse train. */
-  powerMw: number;
+  /** CW power, or average power of a pulse train (omitted for a single pulse given by pulseEnergyJ). */
+  powerMw?: number;
+  pulseEnergyJ?: number;
   /** 1/e² diameter at the exit. */
   beamDiameterMm: number;
   /** 1/e² full-angle divergence. */
@@ -43,12 +54,20 @@ export type ClassLimits = {
   class3BPulseMj: number | null;
 };
 
+/** The worst accessible-emission ÷ limit ratio for each class: under every condition, and under Condition 3 only. */
+export type ClassRatios = Record<"1" | "2" | "3R" | "3B", { all: number; condition3: number }>;
+
 export type Classification = {
   hazardClass: HazardClass;
   limits: ClassLimits;
   accessibleEmission: AccessibleEmission[];
   /** Pulse energy in mJ for pulsed lasers. */
   pulseEnergyMj: number | null;
+  /** Average power in mW; null for a single pulse. */
+  averagePowerMw: number | null;
+  ratios: ClassRatios;
+  /** Which limit gave the deciding ratio. */
+  governingLimit: string;
   reasons: string[];
   conditions: typeof APPLIED_CONDITIONS;
   source: string;
@@ -66,7 +85,7 @@ function fractionThrough(apertureMm: number, beamDiameterMm: number): number {
 const BAND_EDGES_NM = [302.5, 315, 400, 1400];
 
 /**
- * IEC 60825-1:2014 Class 1 AEL for a CW point source at its time base, in mW (recalled; C6 = 1).
+ * IEC 60825-1:2014 Class 1 AEL for a CW point source at its time base, in mW (Table 3, from memory; C6 = 1).
  * Exactly at a band edge the lower of the two neighbouring rows applies.
  */
 export function class1AelMw(wavelengthNm: number): number {
@@ -75,145 +94,310 @@ export function class1AelMw(wavelengthNm: number): number {
 }
 
 function class1Row(λ: number): number {
+  return Math.min(...[retinalClass1Mw(λ), anteriorClass1Mw(λ)].filter((x): x is number => x !== null));
+}
+
+/** Retinal Class 1 CW AEL (400–1400 nm), mW: thermal 3.9×10⁻⁴ C4 C7 W; photochemical 400–600 nm 3.9×10⁻⁵ C3 W at 100 s. */
+function retinalClass1Mw(λ: number): number | null {
+  if (λ < 400 || λ > 1400) return null;
+  const thermal = 3.9e-4 * correctionCA(λ) * correctionCC(λ) * 1e3;
+  return λ <= 600 ? Math.min(thermal, 3.9e-5 * correctionCB(λ) * 1e3) : thermal;
+}
+
+/** Corneal/lens Class 1 CW AEL, mW: UV rows over 30 000 s; 10⁻² W from 1400 nm (also the 1200–1400 nm dual limit). */
+function anteriorClass1Mw(λ: number): number | null {
   // 180–302.5 nm: 2.4×10⁻⁵ J over the 30 000 s time base.
   if (λ < 302.5) return (2.4e-5 / 3e4) * 1e3;
   // 302.5–315 nm: 7.9×10⁻⁷ C2 J, C2 = 10^(0.2(λ−295)), over 30 000 s.
   if (λ < 315) return ((7.9e-7 * 10 ** (0.2 * (λ - 295))) / 3e4) * 1e3;
   // 315–400 nm, 10³–3×10⁴ s: 7.9×10⁻⁶ W.
-  if (λ < 400) return 7.9e-3;
-  if (λ < 1400) {
-    // Thermal, t ≥ T2: 3.9×10⁻⁴ C4 C7 W (C4 = C_A, C7 = C_C); photochemical 400–600 nm at 100 s: 3.9×10⁻⁵ C3 W (C3 = C_B).
-    const thermal = 3.9e-4 * correctionCA(λ) * correctionCC(λ) * 1e3;
-    if (λ <= 600) return Math.min(thermal, 3.9e-5 * correctionCB(λ) * 1e3);
-    return thermal;
-  }
-  // 1400 nm – 1 mm, t > 10 s: 1×10⁻² W.
-  return 10;
+  if (λ <= 400) return 7.9e-3;
+  if (λ >= 1200) return 10;
+  return null;
 }
 
-/** IEC 60825-1:2014 Class 3B AEL for CW emission in mW (recalled). */
+/** IEC 60825-1:2014 Class 3B AEL for CW emission (t ≥ 0.25 s) in mW (Table 8, from memory). */
 export function class3BAelMw(wavelengthNm: number): number {
-  // Below 315 nm 1.5 mW; the recalled 302.5–315 nm value was uncertain, so the stricter 1.5 mW is used there too.
-  if (wavelengthNm < 315) return 1.5;
-  return 500;
+  const row = (λ: number) => (λ < 302.5 ? 1.5 : λ < 315 ? 5e-5 * 10 ** (0.2 * (λ - 295)) * 1e3 : 500);
+  return BAND_EDGES_NM.includes(wavelengthNm) ? Math.min(row(wavelengthNm), row(wavelengthNm - 1e-6)) : row(wavelengthNm);
+}
+
+/**
+ * IEC 60825-1:2014 Class 3B AEL for one pulse of duration τ, in J (Table 8, from memory): below 1 ns a peak power, from
+ * 1 ns to 0.25 s an energy, beyond 0.25 s the CW power limit held over the pulse.
+ */
+export function class3BPulseAelJ(wavelengthNm: number, pulseDurationS: number): { energyJ: number; row: string } {
+  const at = (λ: number) => {
+    const τ = pulseDurationS;
+    const c2 = 10 ** (0.2 * (λ - 295));
+    const c4 = correctionCA(λ);
+    const [peakW, energyJ, band] =
+      λ < 302.5
+        ? [3.8e5, 3.8e-4, "180–302.5 nm: 3.8×10⁵ W (< 1 ns), 3.8×10⁻⁴ J (1 ns–0.25 s)"]
+        : λ < 315
+          ? [1.25e4 * c2, 1.25e-5 * c2, "302.5–315 nm: 1.25×10⁴ C2 W (< 1 ns), 1.25×10⁻⁵ C2 J (1 ns–0.25 s)"]
+          : λ < 400
+            ? [1.25e8, 0.125, "315–400 nm: 1.25×10⁸ W (< 1 ns), 0.125 J (1 ns–0.25 s)"]
+            : λ < 700
+              ? [3e7, 0.03, "400–700 nm: 3×10⁷ W (< 1 ns), 0.03 J (1 ns–0.25 s)"]
+              : λ < 1050
+                ? [3e7 * c4, 0.03 * c4, "700–1050 nm: 3×10⁷ C4 W (< 1 ns), 0.03 C4 J (1 ns–0.25 s)"]
+                : λ < 1400
+                  ? [1.5e8, 0.15, "1050–1400 nm: 1.5×10⁸ W (< 1 ns), 0.15 J (1 ns–0.25 s)"]
+                  : [1.25e8, 0.125, "1400 nm – 1 mm: 1.25×10⁸ W (< 1 ns), 0.125 J (1 ns–0.25 s)"];
+    if (τ < 1e-9) return { energyJ: peakW * τ, row: band };
+    if (τ <= 0.25) return { energyJ, row: band };
+    return { energyJ: (class3BAelMw(λ) / 1e3) * τ, row: `${band}; beyond 0.25 s the CW limit` };
+  };
+  if (BAND_EDGES_NM.includes(wavelengthNm) || wavelengthNm === 700 || wavelengthNm === 1050) {
+    const a = at(wavelengthNm);
+    const b = at(wavelengthNm - 1e-6);
+    return a.energyJ <= b.energyJ ? a : b;
+  }
+  return at(wavelengthNm);
 }
 
 function isVisible(wavelengthNm: number): boolean {
   return wavelengthNm >= 400 && wavelengthNm <= 700;
 }
 
-export function classLimits(wavelengthNm: number, pulsed?: { pulseDurationS: number; pulseRepetitionRateHz?: number }): ClassLimits {
-  const class1Mw = class1AelMw(wavelengthNm);
-  const class2Mw = isVisible(wavelengthNm) ? 1 : null;
+/**
+ * The sites whose class limits apply: the retina in 400–1400 nm; the cornea/lens below 400 nm and from 1200 nm. At
+ * 400 nm the retinal (visible) rows apply, with the Class 1 limit the lower of the two neighbouring rows.
+ */
+function sitesAt(λ: number): MpeSite[] {
+  const sites: MpeSite[] = [];
+  if (λ >= 400 && λ <= 1400) sites.push("retina");
+  if (λ < 400 || λ >= 1200) sites.push("anterior");
+  return sites;
+}
+
+type Geometry = { cond3: { apertureMm: number; distanceMm: number }; cond1: { apertureMm: number; distanceMm: number } | null };
+
+/** IEC 60825-1:2014 Table 10 (from memory) for a site and an emission duration t (which sets the IR aperture). */
+function geometry(λ: number, site: MpeSite, t: number): Geometry {
+  const ap = limitingAperture(λ, t, "eye", "IEC 60825-1:2014", site).diameterMm;
+  if (site === "retina") return { cond3: { apertureMm: 7, distanceMm: 100 }, cond1: { apertureMm: 50, distanceMm: 2000 } };
+  if (λ < 302.5 || λ >= 4000) return { cond3: { apertureMm: ap, distanceMm: 0 }, cond1: null };
+  return { cond3: { apertureMm: ap, distanceMm: 100 }, cond1: { apertureMm: Math.max(7, ap), distanceMm: 2000 } };
+}
+
+/** Area of a circular aperture in cm². */
+const areaCm2 = (diameterMm: number) => Math.PI * (diameterMm / 20) ** 2;
+
+export type PulseTiming = { pulseDurationS: number; pulseRepetitionRateHz?: number };
+
+/** Per-call memo of class1PulseAelJ: the Class 1, 2 and 3R checks and the reported limits share most of their inputs. */
+type AelMemo = Map<string, { energyJ: number; rule: string }>;
+
+function class1PulseAelJ(λ: number, site: MpeSite, pulse: PulseTiming, timeBaseS: number, memo?: AelMemo): { energyJ: number; rule: string } {
+  const key = `${site}|${timeBaseS}`;
+  const hit = memo?.get(key);
+  if (hit) return hit;
+  const value = class1PulseAelJUncached(λ, site, pulse, timeBaseS);
+  memo?.set(key, value);
+  return value;
+}
+
+/** Class 1 per-pulse AEL in J for one site: the lower of rules 1 and 3 over the time base, × the limiting aperture area. */
+function class1PulseAelJUncached(λ: number, site: MpeSite, pulse: PulseTiming, timeBaseS: number): { energyJ: number; rule: string } {
+  const p = pulsedEyeMpe({
+    wavelengthNm: λ,
+    pulseDurationS: pulse.pulseDurationS,
+    pulseRepetitionRateHz: pulse.pulseRepetitionRateHz,
+    exposureS: Math.max(timeBaseS, pulse.pulseDurationS),
+    standard: "IEC 60825-1:2014",
+    site,
+    explain: false,
+  });
+  let best = p.rules[0];
+  for (const r of p.rules) if (r.rule !== "average-power" && r.perPulseJPerCm2 < best.perPulseJPerCm2) best = r;
+  const apertureMm = limitingAperture(λ, pulse.pulseDurationS, "eye", "IEC 60825-1:2014", site).diameterMm;
+  return { energyJ: best.perPulseJPerCm2 * areaCm2(apertureMm), rule: best.rule };
+}
+
+function timeBaseS(λ: number, forClass: "1" | "2" | "3R"): number {
+  if (λ < 400) return 3e4;
+  if (isVisible(λ) && forClass !== "1") return 0.25;
+  return 100;
+}
+
+export function classLimits(wavelengthNm: number, pulsed?: PulseTiming, memo?: AelMemo): ClassLimits {
+  const λ = wavelengthNm;
+  const class1Mw = class1AelMw(λ);
+  const class2Mw = isVisible(λ) ? 1 : null;
   let class1PulseMj: number | null = null;
   let class3BPulseMj: number | null = null;
   if (pulsed) {
-    // Per-pulse Class 1 limit: the governing per-pulse MPE at the Class 1 time base × the 7 mm aperture area —
-    // the way IEC builds its retinal Class 1 AELs for a point source. Outside 400–1400 nm the 7 mm area over-states
-    // the recalled IEC aperture, which makes the limit larger; the UV/IR pulse check is therefore marked approximate.
-    const timeBase = wavelengthNm < 400 ? 3e4 : 100;
-    const perPulse = pulsedEyeMpe({
-      wavelengthNm,
-      pulseDurationS: pulsed.pulseDurationS,
-      pulseRepetitionRateHz: pulsed.pulseRepetitionRateHz,
-      exposureS: pulsed.pulseRepetitionRateHz === undefined ? pulsed.pulseDurationS : timeBase,
-    }).perPulseJPerCm2;
-    const area7mmCm2 = Math.PI * 0.35 * 0.35;
-    class1PulseMj = perPulse * area7mmCm2 * 1e3;
-    // Class 3B per pulse: 0.03 C4 J in 400–1400 nm (recalled); 0.03 J elsewhere as the conservative choice.
-    const c4 = wavelengthNm >= 400 && wavelengthNm <= 1400 ? correctionCA(wavelengthNm) : 1;
-    class3BPulseMj = 30 * c4;
+    const values = sitesAt(λ).map((site) => class1PulseAelJ(λ, site, pulsed, timeBaseS(λ, "1"), memo).energyJ);
+    class1PulseMj = Math.min(...values) * 1e3;
+    class3BPulseMj = class3BPulseAelJ(λ, pulsed.pulseDurationS).energyJ * 1e3;
   }
   return {
     class1Mw,
     class2Mw,
     class3RMw: class2Mw !== null ? 5 * class2Mw : 5 * class1Mw,
-    class3BMw: class3BAelMw(wavelengthNm),
+    class3BMw: class3BAelMw(λ),
     class1PulseMj,
     class3BPulseMj,
   };
 }
 
+/** Average power (mW, null for a single pulse) and pulse energy (J, null for CW) as the input gives them. */
+export function emissionOf(input: ClassInput): { averageMw: number | null; energyJ: number | null } {
+  const τ = input.pulseDurationS;
+  const f = input.pulseRepetitionRateHz;
+  if (τ === undefined) return { averageMw: input.powerMw ?? 0, energyJ: null };
+  if (input.pulseEnergyJ !== undefined) return { averageMw: f !== undefined ? input.pulseEnergyJ * f * 1e3 : null, energyJ: input.pulseEnergyJ };
+  const P = input.powerMw ?? 0;
+  // Without an energy: a train's power is its average; a single pulse's stated power is the power during the pulse.
+  return f !== undefined ? { averageMw: P, energyJ: P / 1e3 / f } : { averageMw: null, energyJ: (P / 1e3) * τ };
+}
+
 /**
- * The class the accessible emission falls in. The lowest class whose limits the emission meets, in IEC order
+ * The class the accessible emission falls in: the lowest class whose limits the emission meets, in IEC order
  * 1, 1M, 2, 2M, 3R, 3B, 4. Class 1M/2M need Condition 3 (unaided eye) within the limit while Condition 1
  * (optical aids) exceeds it.
  */
 export function classifyBeam(input: ClassInput): Classification {
   const λ = input.wavelengthNm;
-  const P = input.powerMw;
-  const pulsed = input.pulseDurationS !== undefined;
-  const limits = classLimits(
-    λ,
-    pulsed ? { pulseDurationS: input.pulseDurationS as number, pulseRepetitionRateHz: input.pulseRepetitionRateHz } : undefined,
-  );
+  const { averageMw, energyJ } = emissionOf(input);
+  const pulse: PulseTiming | undefined =
+    input.pulseDurationS !== undefined ? { pulseDurationS: input.pulseDurationS, pulseRepetitionRateHz: input.pulseRepetitionRateHz } : undefined;
+  const memo: AelMemo = new Map();
+  const limits = classLimits(λ, pulse, memo);
   const reasons: string[] = [];
-  const condition1Applies = λ >= 302.5 && λ <= 4000;
+  const sites = sitesAt(λ);
 
-  const measure = (condition: "1" | "3", apertureMm: number, distanceMm: number): AccessibleEmission => {
-    const d = diameterAtMm(input.beamDiameterMm, input.divergenceMrad, distanceMm);
-    const fraction = fractionThrough(apertureMm, d);
-    return { condition, apertureMm, distanceMm, powerMw: P * fraction, fraction };
-  };
-  const cond3 = condition1Applies ? measure("3", 7, 100) : measure("3", λ > 1e5 ? 11 : 7, 0);
-  const accessibleEmission = [cond3];
-  if (condition1Applies) accessibleEmission.push(measure("1", 50, 2000));
-  const cond1 = accessibleEmission.find((a) => a.condition === "1") ?? cond3;
-  const ae3 = cond3.powerMw;
-  const aeMax = Math.max(ae3, cond1.powerMw);
+  const fractionAt = (apertureMm: number, distanceMm: number) =>
+    fractionThrough(apertureMm, diameterAtMm(input.beamDiameterMm, input.divergenceMrad, distanceMm));
 
-  // For a single pulse the stated power is the power during the pulse; for a train it is the average power.
-  const pulseEnergyMj = pulsed
-    ? input.pulseRepetitionRateHz === undefined
-      ? P * (input.pulseDurationS as number)
-      : P / input.pulseRepetitionRateHz
-    : null;
-  // A pulse through an aperture scales with the same fraction as the average power.
-  const pulseScale = (fraction: number) => (pulseEnergyMj === null ? 0 : pulseEnergyMj * fraction);
-  const pulseCond3 = pulseScale(cond3.fraction);
-  const pulseMax = Math.max(pulseCond3, pulseScale(cond1.fraction));
-  const avgOk = (limitMw: number, ae: number) => ae <= limitMw;
-  const pulseOk = (factor: number, ae: number) => limits.class1PulseMj === null || ae <= factor * limits.class1PulseMj;
-  // A train with an undefined average (single pulse) is judged by its pulse alone.
-  const avgFor = (ae: number) => (pulsed && input.pulseRepetitionRateHz === undefined ? 0 : ae);
+  // Ratios accessible emission ÷ AEL for one class multiple k of the Class 1 limits (k = 5 for 3R).
+  // `what` is built only for the ratio that decides (formatting numbers is the costly part of a classification).
+  type Ratio = { all: number; condition3: number; what: () => string };
+  const worst = (a: Ratio, b: Ratio): Ratio => ({
+    all: Math.max(a.all, b.all),
+    condition3: Math.max(a.condition3, b.condition3),
+    what: b.all > a.all ? b.what : a.what,
+  });
+  const none: Ratio = { all: 0, condition3: 0, what: () => "" };
 
-  const finish = (hazardClass: HazardClass, reason: string): Classification => {
-    reasons.push(reason);
-    return {
-      hazardClass,
-      limits,
-      accessibleEmission,
-      pulseEnergyMj,
-      reasons,
-      conditions: APPLIED_CONDITIONS,
-      source: `${SOURCE.iecAel}; ${SOURCE.iecConditions}`,
-    };
-  };
-
-  const total = avgFor(P);
-  if (total > limits.class3BMw) return finish("4", `Total power ${fmt(P)} mW exceeds the Class 3B limit ${fmt(limits.class3BMw)} mW.`);
-  if (pulseEnergyMj !== null && limits.class3BPulseMj !== null && pulseEnergyMj > limits.class3BPulseMj) {
-    return finish("4", `Pulse energy ${fmt(pulseEnergyMj)} mJ exceeds the Class 3B per-pulse limit ${fmt(limits.class3BPulseMj)} mJ.`);
-  }
-  if (avgOk(limits.class1Mw, avgFor(aeMax)) && pulseOk(1, pulseMax)) {
-    return finish("1", `Accessible emission ${fmt(aeMax)} mW is within the Class 1 limit ${fmt(limits.class1Mw)} mW under every condition.`);
-  }
-  if (condition1Applies && avgOk(limits.class1Mw, avgFor(ae3)) && pulseOk(1, pulseCond3)) {
-    return finish("1M", `Within the Class 1 limit for the unaided eye (Condition 3: ${fmt(ae3)} mW) but not with optical aids (Condition 1: ${fmt(cond1.powerMw)} mW).`);
-  }
-  // Class 2: visible only; pulses must still meet the Class 1 per-pulse limit.
-  if (limits.class2Mw !== null) {
-    if (avgOk(limits.class2Mw, avgFor(aeMax)) && pulseOk(1, pulseMax)) {
-      return finish("2", `Visible emission ${fmt(aeMax)} mW is within the Class 2 limit ${fmt(limits.class2Mw)} mW under every condition.`);
+  const accessibleEmission: AccessibleEmission[] = [];
+  const class1Like = (forClass: "1" | "2" | "3R"): Ratio => {
+    let out = none;
+    const multiple = forClass === "3R" ? 5 : 1;
+    const tb = timeBaseS(λ, forClass);
+    for (const site of sites) {
+      // Average rule (rule 2; CW power for a CW laser).
+      if (averageMw !== null) {
+        // Retina: Class 2 1 mW and visible 3R 5 mW; otherwise (a multiple of) the Class 1 limit, which at a band edge
+        // and in 1200–1400 nm is the lower of the neighbouring rows (never more lenient than the retinal row alone).
+        const limitMw =
+          site === "retina"
+            ? forClass !== "1" && isVisible(λ)
+              ? multiple * 1
+              : multiple * class1AelMw(λ)
+            : multiple * (anteriorClass1Mw(λ) ?? Infinity);
+        const g = geometry(λ, site, tb);
+        const f3 = fractionAt(g.cond3.apertureMm, g.cond3.distanceMm);
+        const f1 = g.cond1 ? fractionAt(g.cond1.apertureMm, g.cond1.distanceMm) : f3;
+        if (forClass === "1" && site === sites[0]) {
+          accessibleEmission.push({ condition: "3", ...g.cond3, powerMw: averageMw * f3, fraction: f3 });
+          if (g.cond1) accessibleEmission.push({ condition: "1", ...g.cond1, powerMw: averageMw * f1, fraction: f1 });
+        }
+        out = worst(out, {
+          all: (averageMw * Math.max(f1, f3)) / limitMw,
+          condition3: (averageMw * f3) / limitMw,
+          what: () => `average power against ${fmt(limitMw)} mW (${site === "retina" ? "retina" : "cornea/lens"})`,
+        });
+      }
+      // Per-pulse rules 1 and 3.
+      if (pulse && energyJ !== null) {
+        const ael = class1PulseAelJ(λ, site, pulse, tb, memo);
+        const limitJ = multiple * ael.energyJ;
+        const g = geometry(λ, site, pulse.pulseDurationS);
+        const f3 = fractionAt(g.cond3.apertureMm, g.cond3.distanceMm);
+        const f1 = g.cond1 ? fractionAt(g.cond1.apertureMm, g.cond1.distanceMm) : f3;
+        out = worst(out, {
+          all: (energyJ * Math.max(f1, f3)) / limitJ,
+          condition3: (energyJ * f3) / limitJ,
+          what: () => `pulse energy against ${fmtJ(limitJ)} per pulse (${ael.rule === "single-pulse" ? "rule 1, single pulse" : "rule 3, C5 = N^−0.25"}, ${site === "retina" ? "retina" : "cornea/lens"})`,
+        });
+      }
     }
-    if (condition1Applies && avgOk(limits.class2Mw, avgFor(ae3)) && pulseOk(1, pulseCond3)) {
-      return finish("2M", `Within the Class 2 limit for the unaided eye (Condition 3: ${fmt(ae3)} mW) but not with optical aids (Condition 1: ${fmt(cond1.powerMw)} mW).`);
-    }
+    return out;
+  };
+
+  const r1 = class1Like("1");
+  // Class 2 (400–700 nm): 1 mW average; pulses meet the Class 1 per-pulse limits over the 0.25 s time base.
+  // Outside 400–700 nm there is no Class 2: the Class 1 limits stand in (so a line there must meet Class 1 for the
+  // laser to be Class 2; on its own it is then Class 1 already).
+  const r2 = isVisible(λ) ? class1Like("2") : { ...r1, what: () => `${r1.what()}; no Class 2 outside 400–700 nm` };
+  const r3R = class1Like("3R");
+  // Class 3B: total emission, no aperture.
+  let r3B: Ratio = none;
+  if (averageMw !== null) r3B = worst(r3B, { all: averageMw / limits.class3BMw, condition3: averageMw / limits.class3BMw, what: () => `total power against the Class 3B limit ${fmt(limits.class3BMw)} mW` });
+  if (pulse && energyJ !== null) {
+    const p3B = class3BPulseAelJ(λ, pulse.pulseDurationS);
+    r3B = worst(r3B, { all: energyJ / p3B.energyJ, condition3: energyJ / p3B.energyJ, what: () => `pulse energy against the Class 3B per-pulse limit ${fmtJ(p3B.energyJ)} (${p3B.row})` });
   }
-  if (avgOk(limits.class3RMw, avgFor(aeMax)) && pulseOk(5, pulseMax)) {
-    return finish("3R", `Accessible emission ${fmt(aeMax)} mW is within the Class 3R limit ${fmt(limits.class3RMw)} mW.`);
+  const ratios: ClassRatios = {
+    "1": { all: r1.all, condition3: r1.condition3 },
+    "2": { all: r2.all, condition3: r2.condition3 },
+    "3R": { all: r3R.all, condition3: r3R.condition3 },
+    "3B": { all: r3B.all, condition3: r3B.condition3 },
+  };
+  const hasCondition1 = hasCondition1At(λ);
+  const decided = classFromRatios(ratios, hasCondition1);
+  const deciding = { "1": r1, "1M": r1, "2": r2, "2M": r2, "3R": r3R, "3B": r3R, "4": r3B }[decided];
+  reasons.push(reasonFor(decided, deciding, r3B));
+  return {
+    hazardClass: decided,
+    limits,
+    accessibleEmission,
+    pulseEnergyMj: energyJ === null ? null : energyJ * 1e3,
+    averagePowerMw: averageMw,
+    ratios,
+    governingLimit: deciding.what(),
+    reasons,
+    conditions: APPLIED_CONDITIONS,
+    source: `${SOURCE.iecAel}; ${SOURCE.iecConditions} — ${UNCHECKED}`,
+  };
+}
+
+/** Whether Condition 1 (optical aids) applies at this wavelength, i.e. whether Classes 1M and 2M exist there. */
+export function hasCondition1At(λ: number): boolean {
+  return sitesAt(λ).some((s) => geometry(λ, s, 100).cond1 !== null);
+}
+
+/** The lowest class whose ratios are within 1 (sum-of-fractions inputs allowed: ratios may be sums over lines). */
+export function classFromRatios(ratios: ClassRatios, hasCondition1: boolean): HazardClass {
+  if (ratios["3B"].all > 1) return "4";
+  if (ratios["1"].all <= 1) return "1";
+  if (hasCondition1 && ratios["1"].condition3 <= 1) return "1M";
+  if (ratios["2"].all <= 1) return "2";
+  if (hasCondition1 && ratios["2"].condition3 <= 1) return "2M";
+  if (ratios["3R"].all <= 1) return "3R";
+  return "3B";
+}
+
+function reasonFor(c: HazardClass, d: { all: number; condition3: number; what: () => string }, b: { all: number; what: () => string }): string {
+  const deciding = { ...d, what: d.what() };
+  const r3B = { ...b, what: c === "4" ? b.what() : "" };
+  switch (c) {
+    case "4":
+      return `Above Class 3B: ${r3B.what} is exceeded ${fmt(r3B.all)}-fold.`;
+    case "1":
+    case "2":
+      return `Within the Class ${c} limits under every condition (worst: ${deciding.what}, ${fmt(deciding.all * 100)} % of the limit).`;
+    case "1M":
+    case "2M":
+      return `Within the Class ${c[0]} limits for the unaided eye (Condition 3, ${fmt(deciding.condition3 * 100)} % of the limit) but not with optical aids (Condition 1, ${fmt(deciding.all * 100)} %; ${deciding.what}).`;
+    case "3R":
+      return `Within the Class 3R limits (worst: ${deciding.what}, ${fmt(deciding.all * 100)} % of the limit).`;
+    default:
+      return `Above the Class 3R limits (${deciding.what}: ${fmt(deciding.all * 100)} % of the limit) and within the Class 3B limits.`;
   }
-  return finish("3B", `Above the Class 3R limit ${fmt(limits.class3RMw)} mW and within the Class 3B limit ${fmt(limits.class3BMw)} mW.`);
 }
 
 export type LabelCheck = {
@@ -239,5 +423,12 @@ export function compareLabel(labelClass: HazardClass, computedClass: HazardClass
 }
 
 function fmt(x: number): string {
-  return Number(x.toPrecision(4)).toString();
+  return Number.isFinite(x) ? Number(x.toPrecision(4)).toString() : String(x);
+}
+
+function fmtJ(j: number): string {
+  if (j >= 1) return `${fmt(j)} J`;
+  if (j >= 1e-3) return `${fmt(j * 1e3)} mJ`;
+  if (j >= 1e-6) return `${fmt(j * 1e6)} µJ`;
+  return `${fmt(j * 1e9)} nJ`;
 }

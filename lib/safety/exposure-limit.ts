@@ -1,9 +1,10 @@
-// The eye exposure limit that applies to one laser: exposure duration, CW or pulsed MPE as an average irradiance, limiting aperture.
-// Formulas: ANSI Z136.1-2014 Tables 5a and 8 and §8.2.3 via mpe.ts and pulsed.ts; defaults per PRODUCT.md.
+// The eye exposure limit that applies to one emission line: exposure duration, CW or pulsed MPE, limiting aperture, per standard.
+// Formulas: ANSI Z136.1-2014 Tables 5a, 8 and §8.2.3, or IEC 60825-1:2014 Tables A.1, A.4 and §4.3 f), via mpe.ts and pulsed.ts (from memory).
 
-import { defaultExposureS, eyeMpe, limitingAperture, type EyeMpe } from "./mpe";
+import { apertureAveragedIrradianceWPerCm2 } from "./irradiance";
+import { defaultExposureS, eyeMpe, limitingAperture, type EyeMpe, type MpeSite } from "./mpe";
 import { pulsedEyeMpe, type PulsedMpe } from "./pulsed";
-import type { Figure } from "./types";
+import { type Figure, type StandardId, DEFAULT_MPE_STANDARD, UNCHECKED } from "./types";
 
 export type LaserEmission = {
   wavelengthNm: number;
@@ -12,19 +13,32 @@ export type LaserEmission = {
   pulseRepetitionRateHz?: number;
 };
 
-export type ExposureLimit = {
-  exposureS: number;
-  exposureSource: string;
-  /** The MPE as an average irradiance over the limiting aperture, comparable with average power. */
-  mpeWPerCm2: number;
-  mpe: Figure;
+/** The limit protecting one site of the eye (the retina, or the cornea/lens), with its own limiting aperture. */
+export type SiteLimit = {
+  site: MpeSite;
+  /**
+   * The MPE as an irradiance comparable with the beam power the engine carries: the average irradiance for CW and
+   * trains; for a single pulse the per-pulse MPE ÷ the pulse duration (compared with energy ÷ duration).
+   */
+  effectiveWPerCm2: number;
+  /** The governing MPE as radiant exposure per pulse (pulsed only). */
+  perPulseJPerCm2: number | null;
   limitingApertureMm: number;
+  mpe: Figure;
   limitingAperture: Figure;
   continuous: EyeMpe | null;
   pulsed: PulsedMpe | null;
 };
 
-export function exposureLimit(emission: LaserEmission): ExposureLimit {
+export type ExposureLimit = {
+  standard: StandardId;
+  exposureS: number;
+  exposureSource: string;
+  /** One entry per site whose limits apply (two only in 1200–1400 nm and at 400 nm). */
+  sites: SiteLimit[];
+};
+
+export function exposureLimit(emission: LaserEmission, standard: StandardId = DEFAULT_MPE_STANDARD): ExposureLimit {
   const λ = emission.wavelengthNm;
   const given = emission.exposureS !== undefined;
   const τ = emission.pulseDurationS;
@@ -32,47 +46,71 @@ export function exposureLimit(emission: LaserEmission): ExposureLimit {
   const exposureS = given ? (emission.exposureS as number) : Math.max(defaultExposureS(λ), τ ?? 0);
   const exposureSource = given
     ? "Exposure duration as entered"
-    : "Default exposure duration: 0.25 s in 400–700 nm (aversion response), 10 s outside (PRODUCT.md, after ANSI Z136.1-2014 §8)";
+    : `Default exposure duration: 0.25 s in 400–700 nm (aversion response), 30 000 s below 400 nm (a working day), 10 s above 700 nm (after ANSI Z136.1-2014 §8.2 — ${UNCHECKED})`;
+  const sites: MpeSite[] = [];
+  if (λ >= 400 && λ <= 1400) sites.push("retina");
+  if (λ <= 400 || λ >= 1200) sites.push("anterior");
+  return { standard, exposureS, exposureSource, sites: sites.map((site) => siteLimit(λ, site, exposureS, emission, standard)) };
+}
 
+function siteLimit(λ: number, site: MpeSite, exposureS: number, emission: LaserEmission, standard: StandardId): SiteLimit {
+  const τ = emission.pulseDurationS;
   if (τ === undefined) {
-    const continuous = eyeMpe(λ, exposureS);
-    const aperture = limitingAperture(λ, exposureS);
+    const continuous = eyeMpe(λ, exposureS, { site, standard });
+    const aperture = limitingAperture(λ, exposureS, "eye", standard, site);
     return {
-      exposureS,
-      exposureSource,
-      mpeWPerCm2: continuous.irradianceWPerCm2,
-      mpe: { value: continuous.irradianceWPerCm2, unit: "W/cm²", source: continuous.source },
+      site,
+      effectiveWPerCm2: continuous.irradianceWPerCm2,
+      perPulseJPerCm2: null,
       limitingApertureMm: aperture.diameterMm,
-      limitingAperture: { value: aperture.diameterMm, unit: "mm", source: aperture.source },
+      mpe: { value: continuous.irradianceWPerCm2, unit: "W/cm²", source: `${continuous.source} — ${UNCHECKED}` },
+      limitingAperture: { value: aperture.diameterMm, unit: "mm", source: `${aperture.source} — ${UNCHECKED}` },
       continuous,
       pulsed: null,
     };
   }
-  const pulsed = pulsedEyeMpe({
-    wavelengthNm: λ,
-    pulseDurationS: τ,
-    pulseRepetitionRateHz: emission.pulseRepetitionRateHz,
-    exposureS,
-  });
-  // The aperture for the shortest duration in play is the smallest, hence the stricter.
-  const aperture = limitingAperture(λ, Math.min(τ, exposureS));
-  const unitNote =
-    pulsed.pulseRepetitionRateHz === null
-      ? "per-pulse MPE ÷ pulse duration (compare with the power during the pulse)"
-      : "per-pulse MPE × repetition rate (compare with the average power)";
+  const pulsed = pulsedEyeMpe({ wavelengthNm: λ, pulseDurationS: τ, pulseRepetitionRateHz: emission.pulseRepetitionRateHz, exposureS, standard, site });
+  // The aperture for the pulse duration: the smallest in play, so the averaged exposure is never understated.
+  const aperture = limitingAperture(λ, Math.min(τ, exposureS), "eye", standard, site);
+  const train = pulsed.pulseRepetitionRateHz !== null;
   return {
-    exposureS,
-    exposureSource,
-    mpeWPerCm2: pulsed.effectiveIrradianceWPerCm2,
-    mpe: {
-      value: pulsed.effectiveIrradianceWPerCm2,
-      unit: "W/cm²",
-      source: `${pulsed.source}; governing rule: ${pulsed.governingRule}; ${unitNote}`,
-    },
+    site,
+    effectiveWPerCm2: pulsed.effectiveIrradianceWPerCm2,
+    perPulseJPerCm2: pulsed.perPulseJPerCm2,
     limitingApertureMm: aperture.diameterMm,
-    limitingAperture: { value: aperture.diameterMm, unit: "mm", source: aperture.source },
+    mpe: train
+      ? {
+          value: pulsed.effectiveIrradianceWPerCm2,
+          unit: "W/cm²",
+          source: `${pulsed.source}; governing rule: ${pulsed.governingRule}; per-pulse MPE × repetition rate, an average irradiance`,
+        }
+      : { value: pulsed.perPulseJPerCm2, unit: "J/cm²", source: `${pulsed.source}; governing rule: ${pulsed.governingRule}; radiant exposure of the single pulse` },
+    limitingAperture: { value: aperture.diameterMm, unit: "mm", source: `${aperture.source}, for the pulse duration — ${UNCHECKED}` },
     continuous: null,
     pulsed,
   };
 }
 
+/**
+ * log10(E/MPE) for a Gaussian beam of the given power (the power the limit's effectiveWPerCm2 compares with) and 1/e²
+ * radius, the worst over the sites; null when no light arrives.
+ */
+export function worstExceedance(
+  limit: ExposureLimit,
+  powerMw: number,
+  radiusMm: number,
+  /** Optional: the share of the power inside a limiting aperture of this diameter from the propagated field (behind a clipping aperture); null → the Gaussian. */
+  shareInside?: (limitingApertureMm: number) => number | null,
+): { raw: number | null; site: SiteLimit; averagedWPerCm2: number } {
+  let best: { raw: number | null; site: SiteLimit; averagedWPerCm2: number } | null = null;
+  for (const site of limit.sites) {
+    const share = shareInside?.(site.limitingApertureMm) ?? null;
+    const averaged =
+      share === null || powerMw <= 0
+        ? apertureAveragedIrradianceWPerCm2(powerMw, radiusMm, site.limitingApertureMm)
+        : (powerMw * share) / 1000 / (Math.PI * (site.limitingApertureMm / 20) ** 2);
+    const raw = averaged > 0 ? Math.log10(averaged / site.effectiveWPerCm2) : null;
+    if (best === null || (raw !== null && (best.raw === null || raw > best.raw))) best = { raw, site, averagedWPerCm2: averaged };
+  }
+  return best as { raw: number | null; site: SiteLimit; averagedWPerCm2: number };
+}

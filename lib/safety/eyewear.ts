@@ -2,6 +2,7 @@
 // Sources: OD = −log10(τ) (ANSI Z136.1-2014 §4.6.2.5 / Appendix B, "optical density"); EN 207:2009 scale numbers LB n ⇒ τ ≤ 10^−n (from memory).
 
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 
 /** Highest optical density an item may declare; eyewear is not rated beyond this (common practice). */
 export const MAX_EYEWEAR_OD = 10;
@@ -77,8 +78,7 @@ export const eyewearBandsSchema = z
     }
   });
 
-export const eyewearNameSchema = z
-  .string({ error: "Name (name) must be text" })
+export const eyewearNameSchema = safeText({ error: "Name (name) must be text" })
   .trim()
   .min(1, "Name (name) must not be empty")
   .max(200, "Name (name) must be at most 200 characters");
@@ -171,4 +171,72 @@ export function eyewearCoverage(items: readonly EyewearItem[], lines: readonly L
     everyLineCovered: out.every((l) => l.status === "covered" || l.status === "none-needed"),
     note: EN207_NOTE,
   };
+}
+
+type LineFigure = { wavelengthNm: number; opticalDensityRequired?: number | null; source?: string; main?: boolean };
+type LaserWithLines = { laserId?: string; id?: string; lines?: readonly LineFigure[]; governing?: { opticalDensityRequired: number } | null };
+type PointLines = { lines?: readonly { wavelengthNm: number; opticalDensityRequired: number }[] };
+/** What lineNeeds reads of a hazard answer: the rail assessment (one laser, `lines.lines` and per-point lines) or the table's (lasers with lines). */
+export type HazardAnswerLines = {
+  laserId?: string;
+  wavelengthNm?: number;
+  governing?: { opticalDensityRequired: number } | null;
+  /** The rail assessment's per-line figures of the free beam (LaserLinesAssessment). */
+  lines?: { lines?: readonly LineFigure[] } | null;
+  /** The rail assessment's points, each with the OD every line needs there. */
+  points?: readonly PointLines[];
+  /** The table assessment's lasers. */
+  lasers?: readonly LaserWithLines[];
+};
+
+const finiteOrNull = (v: unknown): number | null => (typeof v === "number" && Number.isFinite(v) ? v : null);
+const sameNm = (a: number, b: number) => Math.abs(a - b) < 1e-9;
+
+/**
+ * The lines of a bench and the OD each needs, from the hazard engine's answer: per line, the highest OD anywhere on the
+ * bench (every point's per-line figure and the free beam's), never below what the engine gives for the line alone.
+ * For the table assessment (lasers with lines), a laser's main line never counts below the highest OD on its paths.
+ * Without per-line figures, the laser's one line with the bench's highest OD. An OD the engine could not give (not
+ * finite) stays "unknown": no item is said to cover it.
+ */
+export function lineNeeds(safety: HazardAnswerLines): LineNeed[] {
+  const laserId0 = safety.laserId ?? "laser";
+  const railLines = safety.lines && !Array.isArray(safety.lines) ? safety.lines.lines : undefined;
+  if (Array.isArray(railLines) && railLines.length > 0) {
+    return railLines.map((line, i) => {
+      const main = line.main ?? i === 0;
+      let od = finiteOrNull(line.opticalDensityRequired);
+      if (od === null && line.opticalDensityRequired !== undefined) return { laserId: laserId0, wavelengthNm: line.wavelengthNm, opticalDensityRequired: null, label: main ? "main line" : `line ${i + 1}` };
+      let perPoint = false;
+      for (const p of safety.points ?? []) {
+        for (const pl of p.lines ?? []) {
+          if (!sameNm(pl.wavelengthNm, line.wavelengthNm)) continue;
+          perPoint = true;
+          const v = finiteOrNull(pl.opticalDensityRequired);
+          if (v === null) return { laserId: laserId0, wavelengthNm: line.wavelengthNm, opticalDensityRequired: null, label: main ? "main line" : `line ${i + 1}` };
+          od = Math.max(od ?? 0, v);
+        }
+      }
+      // Without per-point figures, the main line takes the bench's highest OD (a focus may need more than the free beam).
+      if (main && !perPoint && safety.governing) od = Math.max(od ?? 0, safety.governing.opticalDensityRequired);
+      return { laserId: laserId0, wavelengthNm: line.wavelengthNm, opticalDensityRequired: od ?? 0, label: main ? "main line" : `line ${i + 1}` };
+    });
+  }
+  const lasers = safety.lasers;
+  if (Array.isArray(lasers) && lasers.some((l) => Array.isArray(l.lines) && l.lines.length > 0)) {
+    const out: LineNeed[] = [];
+    for (const l of lasers) {
+      const laserId = l.laserId ?? l.id ?? laserId0;
+      const highest = l.governing?.opticalDensityRequired ?? (lasers.length === 1 ? safety.governing?.opticalDensityRequired : undefined);
+      (l.lines ?? []).forEach((line: LineFigure, i: number) => {
+        const main = line.source ? line.source === "main" : (line.main ?? i === 0);
+        let od = finiteOrNull(line.opticalDensityRequired);
+        if (od !== null && main && typeof highest === "number" && Number.isFinite(highest)) od = Math.max(od, highest);
+        out.push({ laserId, wavelengthNm: line.wavelengthNm, opticalDensityRequired: od, label: main ? "main line" : `line ${i + 1}` });
+      });
+    }
+    return out;
+  }
+  const od = safety.governing ? safety.governing.opticalDensityRequired : 0;
+  return [{ laserId: laserId0, wavelengthNm: safety.wavelengthNm ?? Number.NaN, opticalDensityRequired: od, label: "main line" }];
 }

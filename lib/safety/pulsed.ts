@@ -1,11 +1,12 @@
 // Eye MPE for pulsed lasers: single pulse, and the three repetitive-pulse rules with the governing rule named.
-// Rules and C_P = N^−0.25 from ANSI Z136.1-2014 §8.2.3 and Directive 2006/25/EC Annex II Table 2.6; t_min from ANSI 2014 (recalled).
+// Rules, C_P = N^−0.25 and t_min (T_i) from ANSI Z136.1-2014 §8.2.3 / Table 6 and IEC 60825-1:2014 §4.3 f), A.3 (from memory).
 
-// ANSI Z136.1-2014 and ICNIRP 2013 relaxed rule 3 for some pulse regimes (C_P = 1 for many short pulses in
-// 400–1400 nm); IEC 60825-1:2014 made the same change to C5. The engine keeps C_P = N^−0.25 everywhere (stricter).
+// ANSI Z136.1-2014 and IEC 60825-1:2014 (C5) relax rule 3 for some regimes (from memory: IEC's C5 = 1 for a small
+// source, α ≤ 5 mrad, in 400–1400 nm; ANSI's C_P for pulses shorter than t_min). The engine keeps C_P = N^−0.25
+// everywhere (the conservative reading) and says so in a note wherever a relaxation could apply.
 
-import { correctionCP, eyeMpe, type EyeMpe } from "./mpe";
-import { SOURCE } from "./types";
+import { correctionCP, eyeMpe, type EyeMpe, type MpeSite } from "./mpe";
+import { type StandardId, DEFAULT_MPE_STANDARD, SOURCE, UNCHECKED } from "./types";
 
 export type PulseRule = "single-pulse" | "average-power" | "pulse-train";
 
@@ -58,32 +59,40 @@ export type PulsedInput = {
   /** Omit for a single pulse. */
   pulseRepetitionRateHz?: number;
   exposureS: number;
+  standard?: StandardId;
+  /** Only the retinal or only the corneal/lens limits (dual limits with different apertures). */
+  site?: MpeSite;
+  /** false: leave the rules' explanations empty (the class check needs only the numbers). */
+  explain?: boolean;
 };
 
 export function pulsedEyeMpe(input: PulsedInput): PulsedMpe {
   const { wavelengthNm: λ, pulseDurationS: τ, exposureS: T } = input;
+  const standard = input.standard ?? DEFAULT_MPE_STANDARD;
+  const mpeOptions = { standard, site: input.site };
   const prf = input.pulseRepetitionRateHz ?? null;
   const notes: string[] = [];
-  const single: EyeMpe = eyeMpe(λ, τ);
+  const explain = input.explain !== false;
+  const say = (text: () => string) => (explain ? text() : "");
+  const single: EyeMpe = eyeMpe(λ, τ, mpeOptions);
   const rules: PulseRuleResult[] = [
     {
       rule: "single-pulse",
       perPulseJPerCm2: single.radiantExposureJPerCm2,
-      explanation: `Rule 1: any single pulse ≤ the MPE for its duration ${τ} s (${single.governingRow})`,
+      explanation: say(() => `Rule 1: any single pulse ≤ the MPE for its duration ${τ} s (${single.governingRow})`),
     },
   ];
 
   if (prf === null) {
-    notes.push("Single pulse: the pulse energy is taken as the stated power × the pulse duration.");
     return finish(1);
   }
 
   const pulseCount = Math.max(1, prf * T);
-  const train = eyeMpe(λ, T);
+  const train = eyeMpe(λ, T, mpeOptions);
   rules.push({
     rule: "average-power",
     perPulseJPerCm2: train.radiantExposureJPerCm2 / pulseCount,
-    explanation: `Rule 2: the whole train in ${T} s ≤ the MPE for ${T} s (${train.governingRow}), shared over N = ${fmt(pulseCount)} pulses`,
+    explanation: say(() => `Rule 2: the whole train in ${T} s ≤ the MPE for ${T} s (${train.governingRow}), shared over N = ${fmt(pulseCount)} pulses`),
   });
 
   const tMin = minimumPulseGroupS(λ);
@@ -92,19 +101,26 @@ export function pulsedEyeMpe(input: PulsedInput): PulsedMpe {
       // Several pulses fall inside t_min: treat each group of n pulses as one pulse of duration t_min.
       const perGroup = prf * tMin;
       const groups = Math.max(1, T / tMin);
-      const groupMpe = eyeMpe(λ, tMin).thermalJPerCm2 ?? single.thermalJPerCm2;
+      const groupMpe = eyeMpe(λ, tMin, mpeOptions).thermalJPerCm2 ?? single.thermalJPerCm2;
       rules.push({
         rule: "pulse-train",
         perPulseJPerCm2: (correctionCP(groups) * groupMpe) / perGroup,
-        explanation: `Rule 3: ${fmt(perGroup)} pulses fall within t_min = ${tMin} s and count as one; C_P = N^−0.25 with N = ${fmt(groups)} groups`,
+        explanation: say(() => `Rule 3: ${fmt(perGroup)} pulses fall within t_min = ${tMin} s and count as one; C_P = N^−0.25 with N = ${fmt(groups)} groups`),
       });
       notes.push(`Pulses closer than t_min = ${tMin} s were grouped and treated as one pulse.`);
     } else {
       rules.push({
         rule: "pulse-train",
         perPulseJPerCm2: correctionCP(pulseCount) * single.thermalJPerCm2,
-        explanation: `Rule 3: single-pulse thermal MPE × C_P, C_P = N^−0.25 = ${fmt(correctionCP(pulseCount))} for N = ${fmt(pulseCount)}`,
+        explanation: say(() => `Rule 3: single-pulse thermal MPE × C_P, C_P = N^−0.25 = ${fmt(correctionCP(pulseCount))} for N = ${fmt(pulseCount)}`),
       });
+    }
+    if (pulseCount > 1) {
+      notes.push(
+        λ >= 400 && λ <= 1400
+          ? `Rule 3 uses C_P = N^−0.25 for every train (the conservative reading). The 2014 editions relax it here: IEC 60825-1:2014 sets C5 = 1 for a small source (α ≤ 5 mrad), and ANSI Z136.1-2014 relaxes C_P for pulses shorter than t_min; the figure shown is stricter than either (${UNCHECKED}).`
+          : `Rule 3 uses C_P = N^−0.25 for every train (the conservative reading); where a 2014 edition relaxes it, the figure shown is the stricter one (${UNCHECKED}).`,
+      );
     }
   } else {
     notes.push("Rule 3 (C_P) applies to thermal limits only; below 315 nm the photochemical limit governs and rule 3 is not used.");
@@ -125,7 +141,7 @@ export function pulsedEyeMpe(input: PulsedInput): PulsedMpe {
       perPulseJPerCm2: governing.perPulseJPerCm2,
       effectiveIrradianceWPerCm2: prf === null ? governing.perPulseJPerCm2 / τ : governing.perPulseJPerCm2 * prf,
       notes,
-      source: `${SOURCE.ansiRepetitive}; ${SOURCE.directiveAnnexII} Table 2.6; single-pulse values ${SOURCE.ansiTable5}`,
+      source: `${standard === "IEC 60825-1:2014" ? SOURCE.iecRepetitive : SOURCE.ansiRepetitive}; single-pulse values ${standard === "IEC 60825-1:2014" ? SOURCE.iecMpe : SOURCE.ansiTable5} — ${UNCHECKED}`,
     };
   }
 }

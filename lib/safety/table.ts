@@ -5,28 +5,35 @@
 // doc.version: version 2 comes here, version 1 to the rail assessment unchanged). Each leaf path of the analysis is
 // unfolded into a straight bench (lib/optics/table-unfold.ts) and assessed by the rail assessBench; an open beam at
 // the table edge is assessed by assessBeam with the beam as it arrives there (its size, its own far-field divergence,
-// its share of the laser's power or pulse energy). Further lines are taken to carry all their power inside the
-// limiting aperture (their beam size is not modelled): the conservative reading, said in a note.
+// its share of the laser's power or pulse energy) for its NOHD, and by the rail assessment's figures at the edge for
+// exceedsMpe and OD (every line, sum of fractions). Each laser's class and per-line MPE, NOHD and OD come from the
+// rail assessment of the laser alone (assessBeam once per line, the class over all lines). For the NOHD beyond the
+// edge, further lines are taken to carry all their power inside the limiting aperture: the cautious reading.
 import type { BenchDocumentV2, LaserV2Element, TableElement } from "@/lib/bench/schema-v2";
 import type { TableAnalysis } from "@/lib/optics/table";
-import { unfoldPath } from "@/lib/optics/table-unfold";
+import { railLaser, unfoldPath } from "@/lib/optics/table-unfold";
+import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import { assessBeam, type BeamAssessment, type BeamInput } from "./beam";
 import { assessBench as assessRail, waistFrom, type BeamAtElement, type BenchSafetyOptions, type HazardPoint } from "./bench";
 import { selectCautions, type CautionSituation, type SelectedCaution } from "./cautions";
 import { LIMITATIONS, type Limitation } from "./limitations";
-import { FINAL_SAY, type HazardClass, HAZARD_CLASSES, classRank } from "./types";
+import { FINAL_SAY, type HazardClass } from "./types";
 
 /** What the table assessment needs of analyzeBench's version 2 answer. */
 export type TableBeam = Pick<TableAnalysis, "paths" | "elements">;
 
-export type LineAssessment = {
+export type TableLineFigures = {
   wavelengthNm: number;
   powerMw: number;
   /** "main" for the laser's own beam, "line" for a further line. */
   source: "main" | "line";
+  /** The class of this line on its own. */
   hazardClass: HazardClass;
   mpeWPerCm2: number | null;
+  perPulseJPerCm2: number | null;
+  /** NOHD of the free beam from the laser, m (sum-of-fractions share with lines of the same tissue group). */
   nohdM: number;
+  /** Eyewear OD at the laser's exit (floored at 0). */
   opticalDensityRequired: number;
   mpeSource: string;
   nohdSource: string;
@@ -36,7 +43,7 @@ export type TableLaserAssessment = {
   laserId: string;
   /** The most hazardous class over its lines. */
   hazardClass: HazardClass;
-  lines: LineAssessment[];
+  lines: TableLineFigures[];
   /** The highest OD on any path of this laser, and where; null when nothing is lit. */
   governing: TableHazardPoint | null;
 };
@@ -96,7 +103,7 @@ const divergenceMradOf = (wavelengthNm: number, m2: number, waistRadiusMm: numbe
 
 type Line = { wavelengthNm: number; powerMw: number; source: "main" | "line" };
 const linesOf = (laser: LaserV2Element): Line[] => [
-  { wavelengthNm: laser.wavelengthNm, powerMw: laser.powerMw ?? 0, source: "main" },
+  { wavelengthNm: laser.wavelengthNm, powerMw: laserBeamPowerMw(laser), source: "main" },
   ...(laser.lines ?? []).map((l) => ({ wavelengthNm: l.wavelengthNm, powerMw: l.powerMw, source: "line" as const })),
 ];
 
@@ -105,17 +112,18 @@ const POINT_BEAM_DIAMETER_MM = 1e-3;
 
 function assessLine(laser: LaserV2Element, line: Line, beam: { diameterMm: number; divergenceMrad: number; powerScale: number }, options: BenchSafetyOptions): BeamAssessment {
   const main = line.source === "main";
+  const pulses = main ? pulseFields(laser, beam.powerScale) : {};
+  const singlePulse = pulses.pulseEnergyJ !== undefined && pulses.pulseRepetitionRateHz === undefined;
+  const powerMw = main ? (laser.powerMw === undefined || singlePulse ? undefined : laser.powerMw * beam.powerScale) : line.powerMw * beam.powerScale;
   const input = {
     wavelengthNm: line.wavelengthNm,
-    powerMw: line.powerMw * beam.powerScale,
+    ...(powerMw === undefined ? {} : { powerMw: Math.max(powerMw, Number.MIN_VALUE) }),
     beamDiameterMm: main ? beam.diameterMm : POINT_BEAM_DIAMETER_MM,
     divergenceMrad: beam.divergenceMrad,
     ...(options.exposureS === undefined ? {} : { exposureS: options.exposureS }),
-    ...(main ? pulseFields(laser, beam.powerScale) : {}),
+    ...(options.standard === undefined ? {} : { standard: options.standard }),
+    ...pulses,
   } as BeamInput;
-  if (!(input.powerMw > 0) && (input as { pulseEnergyJ?: number }).pulseEnergyJ === undefined) {
-    (input as { powerMw: number }).powerMw = Number.MIN_VALUE;
-  }
   return assessBeam(input);
 }
 
@@ -128,51 +136,56 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
   const notes: string[] = [];
   const situationsByLaser = new Map<string, Set<CautionSituation>>(lasers.map((l) => [l.id, new Set<CautionSituation>()]));
 
-  // 1. Every laser, once per line.
+  // 1. Every laser, once per line: the rail assessment of the laser alone.
   const laserResults: TableLaserAssessment[] = [];
   for (const laser of lasers) {
-    const w0 = laser.beamDiameterMm / 2;
-    const lines: LineAssessment[] = [];
-    for (const line of linesOf(laser)) {
-      try {
-        const a = assessLine(
-          laser,
-          line,
-          { diameterMm: laser.beamDiameterMm, divergenceMrad: divergenceMradOf(line.wavelengthNm, laser.m2 ?? 1, w0), powerScale: 1 },
-          lasers.length === 1 && line.source === "main" ? options : { exposureS: options.exposureS },
-        );
-        lines.push({
-          wavelengthNm: line.wavelengthNm,
-          powerMw: line.powerMw,
-          source: line.source,
-          hazardClass: a.hazardClass,
-          mpeWPerCm2: a.mpeWPerCm2,
-          nohdM: a.nohdM,
-          opticalDensityRequired: a.opticalDensityRequired,
-          mpeSource: a.figures.mpe.source,
-          nohdSource: a.figures.nohd.source,
-        });
-      } catch (error) {
-        warnings.push({
-          code: "line-not-assessed",
-          elementId: laser.id,
-          message: `The ${fmt(line.wavelengthNm)} nm ${line.source === "main" ? "beam" : "line"} of laser "${laser.id}" could not be assessed (${error instanceof Error ? error.message : "unknown reason"}); it is taken as class 4. Ask the safety officer.`,
-        });
-        lines.push({
-          wavelengthNm: line.wavelengthNm, powerMw: line.powerMw, source: line.source, hazardClass: "4",
-          mpeWPerCm2: null, nohdM: Number.POSITIVE_INFINITY, opticalDensityRequired: Number.POSITIVE_INFINITY, mpeSource: "not assessed", nohdSource: "not assessed",
-        });
-      }
+    try {
+      const alone = railLaser(laser, laser.id);
+      const free = assessRail(
+        { version: 1, elements: [alone] },
+        { elements: [{ id: laser.id, kind: "laser", positionMm: 0, incident: null }] },
+        lasers.length === 1 ? options : { ...options, labelClass: undefined },
+      );
+      const lines = free.lines.lines.map(
+        (l): TableLineFigures => ({
+          wavelengthNm: l.wavelengthNm,
+          powerMw: l.powerMw,
+          source: l.main ? "main" : "line",
+          hazardClass: l.hazardClass,
+          mpeWPerCm2: l.mpeWPerCm2,
+          perPulseJPerCm2: l.perPulseJPerCm2,
+          nohdM: l.nohdM,
+          opticalDensityRequired: l.opticalDensityRequired,
+          mpeSource: l.assessment.figures.mpe.source,
+          nohdSource: l.assessment.figures.nohd.source,
+        }),
+      );
+      laserResults.push({ laserId: laser.id, hazardClass: free.hazardClass, lines, governing: null });
+      for (const w of free.warnings) if (w.code !== "open-beam-end") warnings.push({ ...w, elementId: laser.id });
+    } catch (error) {
+      warnings.push({
+        code: "laser-not-assessed",
+        elementId: laser.id,
+        message: `Laser "${laser.id}" could not be assessed (${error instanceof Error ? error.message : "unknown reason"}); it is taken as class 4. Ask your laser safety officer.`,
+      });
+      laserResults.push({
+        laserId: laser.id,
+        hazardClass: "4",
+        lines: linesOf(laser).map((l) => ({
+          wavelengthNm: l.wavelengthNm, powerMw: l.powerMw, source: l.source, hazardClass: "4", mpeWPerCm2: null, perPulseJPerCm2: null,
+          nohdM: Number.POSITIVE_INFINITY, opticalDensityRequired: Number.POSITIVE_INFINITY, mpeSource: "not assessed", nohdSource: "not assessed",
+        })),
+        governing: null,
+      });
     }
-    const hazardClass = lines.reduce<HazardClass>((worst, l) => (classRank(l.hazardClass) > classRank(worst) ? l.hazardClass : worst), HAZARD_CLASSES[0]);
     if ((laser.lines ?? []).length > 0) {
-      notes.push(`Laser "${laser.id}": its further lines are taken to follow the main beam with all their power inside the limiting aperture (their beam size is not modelled), the cautious reading.`);
+      notes.push(`Laser "${laser.id}": beyond the table edge its further lines are taken to follow the main beam with all their power inside the limiting aperture (their beam size is not modelled), the cautious reading.`);
     }
-    laserResults.push({ laserId: laser.id, hazardClass, lines, governing: null });
   }
 
   // 2. Each leaf path, unfolded, through the rail assessment.
   const points = new Map<string, TableHazardPoint>();
+  const edgePoints = new Map<string, HazardPoint>(); // path id → the rail figures where it leaves the table
   const lensHazards = new Map<string, TableSafetyAssessment["lensHazards"][number]>();
   const screenHazards = new Map<string, TableSafetyAssessment["screenHazards"][number]>();
   const leaves = beam.paths.filter((p) => !("continuesAs" in p.end) || p.end.continuesAs.length === 0);
@@ -187,7 +200,7 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
     });
     let rail: ReturnType<typeof assessRail>;
     try {
-      rail = assessRail(chain.doc, { elements }, { exposureS: options.exposureS });
+      rail = assessRail(chain.doc, { elements }, { ...options, labelClass: undefined });
     } catch (error) {
       warnings.push({
         code: "path-not-assessed",
@@ -204,14 +217,17 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
       let elementId = o.elementId;
       let kind = p.kind;
       if (o.role === "edge") {
-        if (p.where === "element") continue; // the edge's own figures are the open beam's
+        if (p.where === "element") {
+          edgePoints.set(o.pathId, p); // the edge's own figures are the open beam's
+          continue;
+        }
         elementId = path && path.elementIds.length > 0 ? path.elementIds[path.elementIds.length - 1] : (path?.startElementId ?? null);
         kind = elementId ? (byId.get(elementId)?.kind ?? "edge") : "edge";
       } else if (o.role === "turn" || o.role === "element") {
         kind = byId.get(o.elementId as string)?.kind ?? p.kind;
       }
       if (elementId === null) continue;
-      const key = `${o.pathId}|${elementId}|${p.where}|${p.positionMm}`;
+      const key = `${o.pathId}|${elementId}|${p.where}`; // at most one focus per gap, one point per element
       if (points.has(key)) continue;
       points.set(key, { ...p, elementId, kind, pathId: o.pathId, laserId: leaf.laserId });
       if (p.where !== "element") situations?.add("focusing-optics");
@@ -249,7 +265,7 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
     situations?.add("open-beam-end");
     const arrival = path.arrival;
     const m2 = laser.m2 ?? 1;
-    const laserPower = laser.powerMw ?? 0;
+    const laserPower = laserBeamPowerMw(laser);
     const powerScale = arrival && laserPower > 0 ? arrival.powerMw / laserPower : path.shareOfLaser;
     const radiusMm = arrival ? arrival.radiusMm : laser.beamDiameterMm / 2;
     let exceeds = false;
@@ -258,14 +274,20 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
     for (const line of linesOf(laser)) {
       const waist = arrival ? waistFrom({ ...arrival }, line.wavelengthNm, m2) : { radiusMm: laser.beamDiameterMm / 2, distanceMm: 0 };
       try {
-        const a = assessLine(laser, line, { diameterMm: 2 * radiusMm, divergenceMrad: divergenceMradOf(line.wavelengthNm, m2, waist.radiusMm), powerScale }, { exposureS: options.exposureS });
-        if (a.opticalDensityRaw > 0) exceeds = true;
-        od = Math.max(od, a.opticalDensityRequired);
+        const a = assessLine(laser, line, { diameterMm: 2 * radiusMm, divergenceMrad: divergenceMradOf(line.wavelengthNm, m2, waist.radiusMm), powerScale }, options);
         nohd = Math.max(nohd, a.nohdM);
       } catch {
-        exceeds = true; // cannot say: the cautious answer
-        od = Math.max(od, Number.POSITIVE_INFINITY);
+        nohd = Number.POSITIVE_INFINITY; // cannot say: the cautious answer
       }
+    }
+    // exceedsMpe and OD: the rail assessment's figures at the edge (every line, with the sum of fractions)
+    const atEdge = edgePoints.get(path.id);
+    if (atEdge && atEdge.opticalDensityRaw !== null) {
+      exceeds = atEdge.opticalDensityRaw > 0;
+      od = atEdge.opticalDensityRequired;
+    } else if (!atEdge) {
+      exceeds = true; // not assessed: the cautious answer
+      od = Number.POSITIVE_INFINITY;
     }
     const edge = path.end.edge as { xMm: number; yMm: number };
     const open: OpenBeam = {

@@ -3,18 +3,19 @@
 import "server-only";
 import { and, asc, eq, gt, isNull, sql } from "drizzle-orm";
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import type { Database, DbOrTx } from "@/db";
 import { invitation, lab, labMember, session, user } from "@/db/schema";
 import { parseRoles, ROLE_LABELS, ROLES, type RoleName } from "@/lib/auth/permissions";
 import { AppError, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
-import { authorize, forgetMemberships, forgetPerson, type Actor } from "./authorize";
+import { authorize, type Actor } from "./authorize";
 
 export const rolesInput = z.object({
   roles: z.array(z.enum(ROLES, { error: `Each role must be one of: ${ROLES.join(", ")}` })).min(1, "Choose at least one role").max(ROLES.length),
 });
-export const deactivateInput = z.object({ reason: z.string().trim().max(500, "The reason must be at most 500 characters").optional() });
-export const memberInput = z.object({ userId: z.string({ error: "Choose a person" }).min(1, "Choose a person").max(64) });
+export const deactivateInput = z.object({ reason: safeText().trim().max(500, "The reason must be at most 500 characters").optional() });
+export const memberInput = z.object({ userId: safeText({ error: "Choose a person" }).min(1, "Choose a person").max(64) });
 
 export type AdminPerson = { id: string; name: string; email: string; roles: RoleName[]; labIds: string[]; active: boolean; banReason: string | null; createdAt: string };
 export type AdminLab = { id: string; name: string; room: string | null; members: { id: string; name: string; roles: RoleName[]; active: boolean }[] };
@@ -80,7 +81,7 @@ export async function setRoles(db: Database, actor: Actor, userId: string, input
       detail: { userId, email: target.email, from: before, to: roles },
     });
     return roles;
-  }).finally(() => forgetPerson(userId));
+  });
 }
 
 /**
@@ -104,7 +105,7 @@ export async function deactivatePerson(db: Database, actor: Actor, userId: strin
       detail: { userId, email: target.email, reason, sessionsRevoked: revoked.length },
     });
     return { active: false as const, sessionsRevoked: revoked.length };
-  }).finally(() => forgetPerson(userId));
+  });
 }
 
 export async function reactivatePerson(db: Database, actor: Actor, userId: string): Promise<{ active: true }> {
@@ -115,7 +116,7 @@ export async function reactivatePerson(db: Database, actor: Actor, userId: strin
     await tx.update(user).set({ banned: false, banReason: null, banExpires: null, updatedAt: new Date() }).where(eq(user.id, userId));
     await recordAudit(tx, actor, { action: "person-reactivated", detail: { userId, email: target.email } });
     return { active: true as const };
-  }).finally(() => forgetPerson(userId));
+  });
 }
 
 // ── Labs and their members ────────────────────────────────────────────────────────────────────
@@ -152,7 +153,6 @@ export async function addLabMember(db: Database, actor: Actor, labId: string, in
     await recordAudit(tx, actor, { action: "lab-member-added", detail: { labId, labName: l.name, userId: target.id, email: target.email } });
     return { labId, userId: target.id };
   });
-  forgetMemberships(input.userId);
   return result;
 }
 
@@ -166,7 +166,6 @@ export async function removeLabMember(db: Database, actor: Actor, labId: string,
     await recordAudit(tx, actor, { action: "lab-member-removed", detail: { labId, labName: l.name, userId, email: target.email } });
     return { removed: true as const };
   });
-  forgetMemberships(userId);
   return result;
 }
 

@@ -3,9 +3,11 @@
 import "server-only";
 import { eq } from "drizzle-orm";
 import { headers } from "next/headers";
+import { cache } from "react";
 import { getDb } from "@/db";
 import { labMember } from "@/db/schema";
 import { getAuth } from "@/lib/auth/auth";
+import { clientAddress } from "@/lib/auth/client-address";
 import { ALL_LABS_ROLES, parseRoles, rolesAllow, ROLE_LABELS, type Permission, type RoleName } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
 
@@ -21,31 +23,10 @@ export type Actor = {
   ipAddress: string | null;
 };
 
-// Resolving the caller costs a session lookup and a membership query. Both are kept for a few
-// seconds per process, keyed by the session cookie, so a burst of requests (the editor analyses
-// every change) does not hit the database each time. Admin changes to a person (roles,
-// deactivation, labs) call forgetPerson() at once; a sign-out elsewhere is honoured within
-// ACTOR_TTL_MS. On globalThis so that every route bundle of the server process shares one cache.
-const ACTOR_TTL_MS = 5_000;
-const MAX_CACHED_ACTORS = 5_000;
-type CachedActor = { actor: Omit<Actor, "ipAddress">; at: number };
-const globalForActors = globalThis as unknown as { benchwardenActors?: Map<string, CachedActor> };
-const actorCache = (globalForActors.benchwardenActors ??= new Map());
-
-function sessionKey(requestHeaders: Headers): string | null {
-  const cookie = requestHeaders.get("cookie");
-  const token = cookie?.match(/(?:^|;\s*)(?:__Secure-)?better-auth\.session_token=([^;]+)/)?.[1];
-  return token ?? null;
-}
-
-/** Drops what is cached about a person (or everyone) after an admin changes them. */
-export function forgetPerson(userId?: string): void {
-  if (!userId) return actorCache.clear();
-  for (const [key, entry] of actorCache) if (entry.actor.userId === userId) actorCache.delete(key);
-}
-
-/** Kept for callers that changed lab memberships. */
-export const forgetMemberships = forgetPerson;
+// Nothing about the caller is kept between requests: every request reads the session and the
+// memberships from PostgreSQL, so a sign-out, a revoked session, a deactivation or a role change
+// takes effect at once on every server. Within one page render, React's cache() shares the answer
+// between the layout and the page.
 
 async function resolveActor(requestHeaders: Headers): Promise<Omit<Actor, "ipAddress"> | null> {
   const result = await getAuth().api.getSession({ headers: requestHeaders });
@@ -64,27 +45,13 @@ async function resolveActor(requestHeaders: Headers): Promise<Omit<Actor, "ipAdd
 }
 
 export async function actorFromHeaders(requestHeaders: Headers): Promise<Actor | null> {
-  const key = sessionKey(requestHeaders);
-  const now = Date.now();
-  const cached = key ? actorCache.get(key) : undefined;
-  let actor = cached && now - cached.at < ACTOR_TTL_MS ? cached.actor : null;
-  if (!actor) {
-    actor = await resolveActor(requestHeaders);
-    if (key) {
-      if (actor) {
-        if (actorCache.size >= MAX_CACHED_ACTORS) actorCache.clear();
-        actorCache.set(key, { actor, at: now });
-      } else actorCache.delete(key);
-    }
-  }
+  const actor = await resolveActor(requestHeaders);
   if (!actor) return null;
-  const forwarded = requestHeaders.get("x-forwarded-for");
-  return { ...actor, ipAddress: forwarded ? forwarded.split(",")[0].trim() : null };
+  return { ...actor, ipAddress: clientAddress(requestHeaders) };
 }
 
-export async function currentActor(): Promise<Actor | null> {
-  return actorFromHeaders(await headers());
-}
+/** The caller of the page being rendered (once per render, shared by layout and page). */
+export const currentActor = cache(async (): Promise<Actor | null> => actorFromHeaders(await headers()));
 
 const ACTION_WORDS: Record<string, string> = {
   bench: "benches",

@@ -1,15 +1,16 @@
 // Benches and their revisions, as the signed-in actor may see them: researchers and technicians
 // see their labs' benches, safety officers and auditors see every lab. Authorization is checked here.
 import "server-only";
-import { and, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { and, desc, eq, sql } from "drizzle-orm";
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import type { Database } from "@/db";
 import { bench, benchRevision, lab, user, type ReviewState } from "@/db/schema";
 import { contentHash } from "@/lib/bench/canonical";
 import type { BenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
-import { authorize, authorizeLab, type Actor } from "./authorize";
+import { authorize, type Actor } from "./authorize";
 import { inScope, visibleOr404 } from "./scope";
 
 export type BenchSummary = {
@@ -115,7 +116,7 @@ export async function getBench(db: Database, actor: Actor, benchId: string): Pro
 
 export const createBenchInput = z.object({
   labId: z.uuid({ error: "Choose the lab the bench belongs to" }),
-  title: z.string({ error: "Give the bench a title" }).trim().min(1, "Give the bench a title").max(200, "The title must be at most 200 characters"),
+  title: safeText({ error: "Give the bench a title" }).trim().min(1, "Give the bench a title").max(200, "The title must be at most 200 characters"),
 });
 
 /** A new bench with an empty first draft (the laser is added in the editor). */

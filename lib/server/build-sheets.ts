@@ -12,25 +12,14 @@ import { rolesAllow } from "@/lib/auth/permissions";
 import type { BenchDocument, LaserElement } from "@/lib/bench/schema";
 import { env } from "@/lib/env";
 import { AppError, notFound } from "@/lib/errors";
-import { ringImage, screenProfile, type ApertureAnalysis, type BenchAnalysis } from "@/lib/optics";
-import { greyPng, pngDataUrl } from "@/lib/pdf/png";
+import { screenProfile } from "@/lib/optics";
 import { renderPdf, PdfRenderError, PdfTimeoutError, type Paper } from "@/lib/pdf";
-import type { BenchSafetyAssessment } from "@/lib/safety";
-import { statedOd } from "@/lib/safety/cautions";
 import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
 import { loadSignedRevision, type SignedRevision } from "./builds";
-import {
-  checklistFor,
-  elementSettings,
-  POSITION_TOLERANCE_MM,
-  predictionsFor,
-  signOffSentence,
-  signOffStatus,
-  type ChecklistItem,
-  type SignOffStatus,
-} from "@/lib/build/rules";
+import { buildSteps, PROFILE_POINTS, ringPngFor, type RegisterEntry, type SheetAperture, type SheetContent } from "@/lib/build/sheet";
+import { checklistFor, elementSettings, POSITION_TOLERANCE_MM, predictionsFor, signOffSentence, signOffStatus, type SignOffStatus } from "@/lib/build/rules";
 import { kindTitle } from "@/lib/bench/kinds";
 import { assessRevision } from "@/lib/review/hazard";
 import { notFoundAs } from "./scope";
@@ -244,121 +233,7 @@ export async function downloadSheet(db: Database, actor: Actor, sheetId: string)
   return { bytes, fileName: `build-sheet-${slug(r.benchTitle)}-rev${r.number}-${r.contentHash.slice(0, 8)}-${row.paper}.pdf` };
 }
 
-// ── The sheet's content, for the print route ──────────────────────────────────────────────────
-export type RegisterEntry = {
-  id: string;
-  model: string;
-  serialNumber: string | null;
-  labelClass: string;
-  wavelengthsNm: number[];
-  maxPowerMw: number;
-  beamDiameterMm: number;
-  divergenceMrad: number;
-  location: string | null;
-  status: string;
-};
-
-export type SheetPart = { id: string; kind: string; kindWord: string; positionMm: number; fromLaserMm: number; settings: string };
-export type SheetStep = { title: string; lines: string[] };
-export type SheetAperture = ApertureAnalysis & {
-  spotDiameterMm: number | null;
-  screenPowerMw: number | null;
-  profile: { radiusMm: number[]; relativeIntensity: number[]; shadowRadiusMm: number } | null;
-  ringPng: string | null;
-  ringMaxRadiusMm: number | null;
-};
-
-export type SheetContent = {
-  revision: { id: string; number: number; contentHash: string; benchTitle: string; labName: string; authorName: string; status: SignOffStatus; statusSentence: string };
-  decision: SignedRevision["decision"];
-  document: BenchDocument;
-  laser: LaserElement | null;
-  register: { registerId: string; entry: RegisterEntry | null } | null;
-  parts: SheetPart[];
-  checklist: ChecklistItem[];
-  steps: SheetStep[];
-  analysis: BenchAnalysis | null;
-  safety: BenchSafetyAssessment | null;
-  problem: string | null;
-  apertures: SheetAperture[];
-  screen: { screenId: string; positionMm: number; beamDiameterMm: number; powerMw: number } | null;
-  toleranceMm: number;
-  verifyUrl: string;
-  qrSvg: string;
-};
-
-const RING_PX = 220;
-/** Points of the printed radial profile: a smooth line at 90 mm wide, without a path of a thousand segments. */
-const PROFILE_POINTS = 200;
-const RING_GAMMA = 0.6;
-
-function ringPngFor(doc: BenchDocument, apertureId: string, maxRadiusMm: number): string | null {
-  try {
-    const image = ringImage(doc, apertureId, { sizePx: RING_PX, maxRadiusMm });
-    const levels = Float32Array.from(image.intensity, (v) => Math.pow(Math.max(0, v), RING_GAMMA));
-    return pngDataUrl(greyPng(image.widthPx, image.heightPx, levels));
-  } catch {
-    return null;
-  }
-}
-
-/** The numbered build order: prepare, mount in beam order, align at the lowest practical power with blocks in place, then open up. */
-export function buildSteps(doc: BenchDocument, safety: BenchSafetyAssessment | null): SheetStep[] {
-  const elements = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm || a.id.localeCompare(b.id));
-  const laser = elements.find((e): e is LaserElement => e.kind === "laser");
-  const od = safety?.governing?.opticalDensityRequired ?? 0;
-  const eyewear = od > 0 ? `eyewear of OD ${statedOd(od)} or more at ${laser?.wavelengthNm} nm` : "the eyewear your local rules ask for (the estimate needs none)";
-  const cautionIds = new Set(safety?.cautions.map((c) => c.id) ?? []);
-  const prep = safety?.cautions.filter((c) => ["sign-caution", "sign-warning", "no-reflective-items", "engineering-controls", "sop-and-approval", "local-rules-sop", "beam-height"].includes(c.id)).map((c) => c.title) ?? [];
-  const stops = elements.filter((e) => e.kind === "beam-block" || e.kind === "screen");
-  const steps: SheetStep[] = [
-    {
-      title: "Prepare the area, laser off",
-      lines: [`Laser switched off${cautionIds.has("engineering-controls") ? ", key removed" : ""}. Have ${eyewear} ready for everyone present.`, ...prep],
-    },
-  ];
-  for (const e of elements) {
-    const at = `at ${e.positionMm} mm (±${POSITION_TOLERANCE_MM} mm)`;
-    const settings = elementSettings(e);
-    const lines =
-      e.kind === "laser"
-        ? [`${settings}. Leave it off.`, "Every position on this sheet is measured along the beam on the same scale as the laser's position."]
-        : e.kind === "screen"
-          ? [settings, ...(cautionIds.has("screen-backstop") ? ["Mount a beam block directly behind the screen."] : [])]
-          : [settings];
-    steps.push({ title: `Mount ${kindTitle(e.kind).toLowerCase()} ${e.id} ${at}`, lines });
-  }
-  const first = elements.find((e) => e.kind !== "laser");
-  steps.push({
-    title: "Switch on at the lowest practical power, beam blocked",
-    lines: [
-      `Put on ${eyewear}.`,
-      `Put a temporary beam block right after the laser${first ? `, before ${first.id}` : ""}.`,
-      "Switch the laser on at the lowest power that still lets you see the beam on a viewing card (or use a low-power alignment laser).",
-    ],
-  });
-  steps.push({
-    title: "Align in beam order",
-    lines: [
-      "For each element from the laser onward: move the temporary block to just behind it, centre the beam on it at the working height, lock the mount.",
-      `Order: ${elements.map((e) => e.id).join(" → ")}.`,
-    ],
-  });
-  steps.push({
-    title: "Open up",
-    lines: [
-      `Take the temporary block away. Check that the beam ends on ${stops.length ? stops.map((s) => s.id).join(" / ") : "a beam block (this bench has an open end — add one first)"}.`,
-      laser ? `Raise the power to the drawn ${laser.powerMw} mW only now.` : "Raise the power to the drawn value only now.",
-      "Compare the screen with the predictions page.",
-    ],
-  });
-  steps.push({
-    title: "Record what was built and seen",
-    lines: ["Enter the measured positions, the ticks, the observations and photos in the build record in Benchwarden."],
-  });
-  return steps;
-}
-
+// ── The sheet's content, for the print route (its pure parts: lib/build/sheet.ts) ──────────────
 async function registerEntry(db: Database, registerId: string): Promise<RegisterEntry | null> {
   if (!z.uuid().safeParse(registerId).success) return null;
   const [row] = await db.select().from(laserRegister).where(eq(laserRegister.id, registerId));
@@ -460,28 +335,12 @@ export async function sheetContent(db: Database, actor: Actor, revisionId: strin
   const [drawing, entry] = await Promise.all([drawingContent(doc, r.contentHash), laser?.registerId ? registerEntry(db, laser.registerId) : null]);
   return {
     ...drawing,
+    // the officer's conditions are lines to tick too; they belong to the sign-off, not to the drawing
+    checklist: checklistFor(doc, drawing.safety, r.decision?.conditions),
     revision: { id: r.id, number: r.number, contentHash: r.contentHash, benchTitle: r.benchTitle, labName: r.labName, authorName: r.authorName, status, statusSentence: signOffSentence(r, status) },
     decision: r.decision,
     document: doc,
     register: laser?.registerId ? { registerId: laser.registerId, entry } : null,
     toleranceMm: POSITION_TOLERANCE_MM,
   };
-}
-
-/** The expected ring image (PNG data URL) and radial profile of every aperture with a screen, for the build page. */
-export function predictionImages(doc: BenchDocument): Record<string, { ringPng: string | null; profile: { radiusMm: number[]; relativeIntensity: number[]; shadowRadiusMm: number } | null; acrossMm: number | null }> {
-  const assessed = assessRevision(doc);
-  if (!assessed.ok) return {};
-  const out: ReturnType<typeof predictionImages> = {};
-  for (const a of assessed.analysis.apertures) {
-    if (!a.screenId) continue;
-    try {
-      const s = screenProfile(doc, a.id, { points: 200 });
-      const maxMm = s.radiusMm[s.radiusMm.length - 1];
-      out[a.id] = { ringPng: ringPngFor(doc, a.id, maxMm), profile: { radiusMm: s.radiusMm, relativeIntensity: s.relativeIntensity, shadowRadiusMm: s.shadowRadiusMm }, acrossMm: 2 * maxMm };
-    } catch {
-      out[a.id] = { ringPng: null, profile: null, acrossMm: null };
-    }
-  }
-  return out;
 }

@@ -1,54 +1,23 @@
 // The data side of the technician's as-built record: loading what the actor may see, starting a build, saving
-// checks, observations and uploads, signing off, each with its audit row. The rules themselves (status,
+// checks and observations, signing off, each with its audit row (uploads: build-uploads.ts). The rules themselves (status,
 // checklist, predictions, comparison, file types) are the build rules in lib/build/rules.ts.
 import "server-only";
-import { createHash, randomUUID } from "node:crypto";
-import { and, asc, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, inArray } from "drizzle-orm";
 import { z } from "zod";
 import type { Database, DbOrTx } from "@/db";
-import {
-  bench,
-  benchRevision,
-  buildCheck,
-  buildObservation,
-  buildRecord,
-  lab,
-  reviewDecision,
-  upload,
-  user,
-  UPLOAD_KINDS,
-  type BuildState,
-  type ReviewState,
-  type UploadKind,
-} from "@/db/schema";
+import { bench, benchRevision, buildCheck, buildObservation, buildRecord, lab, reviewDecision, upload, user, type ReviewState } from "@/db/schema";
 import type { BenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { observationMismatchMail } from "@/lib/mail/build-mail";
 import { enqueueMail } from "@/lib/mail/outbox";
-import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
-import {
-  checklistFor,
-  compareObservation,
-  positionWithinTolerance,
-  POSITION_TOLERANCE_MM,
-  POWER_TOLERANCE_FRACTION,
-  predictionsFor,
-  safeFileName,
-  signOffSentence,
-  signOffStatus,
-  assertUploadSize,
-  sniffFileType,
-  SPOT_TOLERANCE_FRACTION,
-  whyNotSignOff,
-  type ChecklistItem,
-  type Predictions,
-  type SignOffStatus,
-} from "@/lib/build/rules";
+import { checklistFor, compareObservation, positionWithinTolerance, POSITION_TOLERANCE_MM, POWER_TOLERANCE_FRACTION, predictionsFor, signOffSentence, signOffStatus, SPOT_TOLERANCE_FRACTION, whyNotSignOff, type SignOffStatus } from "@/lib/build/rules";
 import { assessRevision } from "@/lib/review/hazard";
+import { OPTICS_ENGINE_VERSION } from "@/lib/optics/version";
 import { loadRevision } from "./reviews";
 import { inScope, notFoundAs } from "./scope";
+import type { BuildableRow, BuildView, CheckView, checkInput, ObservationView, observationInput, startBuildInput } from "@/lib/api/contracts/builds";
 
 // ── Signed-off revisions ──────────────────────────────────────────────────────────────────────
 export type SignedRevision = {
@@ -89,25 +58,6 @@ export async function loadSignedRevision(db: DbOrTx, actor: Actor, revisionId: s
       : null,
   };
 }
-
-// ── The list of benches to build ──────────────────────────────────────────────────────────────
-export type BuildSummary = { id: string; state: BuildState; technicianName: string; startedAt: string; signedOffAt: string | null };
-export type BuildableRow = {
-  revisionId: string;
-  benchId: string;
-  title: string;
-  labName: string;
-  authorName: string;
-  number: number;
-  contentHash: string;
-  state: ReviewState;
-  status: SignOffStatus;
-  statusSentence: string;
-  signerName: string;
-  decidedAt: string;
-  validUntil: string | null;
-  builds: BuildSummary[];
-};
 
 /** Every once-signed-off revision of the actor's labs, valid ones first; expired and replaced ones are marked. */
 export async function listBuildable(db: Database, actor: Actor): Promise<BuildableRow[]> {
@@ -162,56 +112,9 @@ export async function listBuildable(db: Database, actor: Actor): Promise<Buildab
     .sort((a, b) => order[a.status] - order[b.status]);
 }
 
-// ── One build ─────────────────────────────────────────────────────────────────────────────────
-export type CheckView = ChecklistItem & { done: boolean; measuredPositionMm: number | null; withinTolerance: boolean | null; note: string | null; recordedAt: string | null };
-export type ObservationView = {
-  id: string;
-  apertureId: string | null;
-  centreSeen: "bright" | "dark" | "unclear" | null;
-  centrePredicted: string | null;
-  spotDiameterMm: number | null;
-  predictedSpotDiameterMm: number | null;
-  screenPowerMw: number | null;
-  predictedScreenPowerMw: number | null;
-  mismatch: boolean;
-  reasons: string[];
-  note: string | null;
-  recordedByName: string;
-  createdAt: string;
-};
-export type UploadView = { id: string; kind: UploadKind; fileName: string; contentType: string; sizeBytes: number; sha256: string; uploadedByName: string; createdAt: string; url: string };
-export type BuildView = {
-  id: string;
-  state: BuildState;
-  startedAt: string;
-  signedOffAt: string | null;
-  technicianName: string;
-  contentHash: string;
-  revision: {
-    id: string;
-    number: number;
-    benchId: string;
-    benchTitle: string;
-    labName: string;
-    authorName: string;
-    status: SignOffStatus;
-    statusSentence: string;
-    signerName: string | null;
-    decidedAt: string | null;
-    validUntil: string | null;
-    conditions: string | null;
-  };
-  tolerance: { positionMm: number; spotPercent: number; powerPercent: number };
-  checklist: CheckView[];
-  observations: ObservationView[];
-  uploads: UploadView[];
-  predictions: Predictions;
-  may: { record: boolean; signOff: boolean; whyNotSignOff: string | null };
-};
+export type BuildRow = typeof buildRecord.$inferSelect;
 
-type BuildRow = typeof buildRecord.$inferSelect;
-
-async function loadBuild(db: DbOrTx, actor: Actor, buildId: string, lock = false): Promise<{ build: BuildRow; revision: SignedRevision }> {
+export async function loadBuild(db: DbOrTx, actor: Actor, buildId: string, lock = false): Promise<{ build: BuildRow; revision: SignedRevision }> {
   if (!z.uuid().safeParse(buildId).success) throw notFound("The build record");
   const query = db.select().from(buildRecord).where(eq(buildRecord.id, buildId));
   const [build] = lock ? await query.for("update") : await query;
@@ -220,28 +123,29 @@ async function loadBuild(db: DbOrTx, actor: Actor, buildId: string, lock = false
   return { build, revision };
 }
 
-function observationView(row: typeof buildObservation.$inferSelect, name: string, predictions: Predictions): ObservationView {
-  const compared = compareObservation(predictions, row);
+/** An observation as recorded: the prediction and the sentences kept with it, never recomputed by a later engine. */
+function observationView(row: typeof buildObservation.$inferSelect, name: string): ObservationView {
   return {
     id: row.id,
     apertureId: row.apertureId,
     centreSeen: row.centreSeen,
     centrePredicted: row.centrePredicted,
     spotDiameterMm: row.spotDiameterMm,
-    predictedSpotDiameterMm: compared.predictedSpotDiameterMm,
+    predictedSpotDiameterMm: row.predictedSpotDiameterMm,
     screenPowerMw: row.screenPowerMw,
     predictedScreenPowerMw: row.predictedScreenPowerMw,
+    predictionEngine: row.predictionEngine,
     mismatch: row.mismatch,
-    reasons: compared.reasons,
+    reasons: row.reasons,
     note: row.note,
     recordedByName: name,
     createdAt: row.createdAt.toISOString(),
   };
 }
 
-async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revision: SignedRevision): Promise<BuildView> {
+export async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revision: SignedRevision): Promise<BuildView> {
   const assessed = assessRevision(revision.document);
-  const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null);
+  const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions);
   const checks = await db.select().from(buildCheck).where(eq(buildCheck.buildId, build.id));
   const byKey = new Map(checks.map((c) => [c.itemKey, c]));
   const checklist: CheckView[] = items.map((i) => {
@@ -271,7 +175,7 @@ async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revision: Si
   const [technician] = await db.select({ name: user.name }).from(user).where(eq(user.id, build.technicianId));
   const status = signOffStatus(revision);
   const mayRecord = build.state === "in-progress" && status === "valid" && canRecord(actor);
-  const why = canRecord(actor) ? whyNotSignOff(build, revision, checklist, actor.userId) : "Only a technician can sign off a build.";
+  const why = canRecord(actor) ? whyNotSignOff(build, revision, checklist, actor.userId) : "Only a technician can complete a build.";
   return {
     id: build.id,
     state: build.state,
@@ -295,7 +199,7 @@ async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revision: Si
     },
     tolerance: { positionMm: POSITION_TOLERANCE_MM, spotPercent: SPOT_TOLERANCE_FRACTION * 100, powerPercent: POWER_TOLERANCE_FRACTION * 100 },
     checklist,
-    observations: observations.map(({ o, name }) => observationView(o, name, predictions)),
+    observations: observations.map(({ o, name }) => observationView(o, name)),
     uploads: uploads.map(({ u, name }) => ({
       id: u.id,
       kind: u.kind,
@@ -328,15 +232,29 @@ export async function getBuild(db: Database, actor: Actor, buildId: string): Pro
 }
 
 /** What a build's audit rows are about: the signed-off revision. */
-function aboutRevision(revision: SignedRevision) {
+export function aboutRevision(revision: SignedRevision) {
   return { benchId: revision.benchId, revisionId: revision.id, contentHash: revision.contentHash };
 }
 
-export const startBuildInput = z.object({ revisionId: z.uuid({ error: "Choose the signed-off revision to build" }) });
-
 /** Starts a build of a valid sign-off; a technician's unfinished build of the same revision is returned instead of a second one. */
-export async function startBuild(db: Database, actor: Actor, input: z.infer<typeof startBuildInput>): Promise<{ build: BuildView; created: boolean }> {
+export async function startBuild(db: Database, actor: Actor, input: z.infer<typeof startBuildInput>, retried = false): Promise<{ build: BuildView; created: boolean }> {
   authorize(actor, { build: ["record"] });
+  // A simultaneous start that won the race made the one open build (build_record_one_open_idx): answer with it.
+  return startBuildOnce(db, actor, input).catch((error: unknown) => {
+    if (!retried && isUniqueViolation(error, "build_record_one_open_idx")) return startBuild(db, actor, input, true);
+    throw error;
+  });
+}
+
+function isUniqueViolation(error: unknown, constraint: string): boolean {
+  for (let e: unknown = error; e && typeof e === "object"; e = (e as { cause?: unknown }).cause) {
+    const pgError = e as { code?: string; constraint?: string };
+    if (pgError.code === "23505" && pgError.constraint === constraint) return true;
+  }
+  return false;
+}
+
+async function startBuildOnce(db: Database, actor: Actor, input: z.infer<typeof startBuildInput>): Promise<{ build: BuildView; created: boolean }> {
   return db.transaction(async (tx) => {
     const revision = await loadSignedRevision(tx, actor, input.revisionId);
     await tx.select({ id: benchRevision.id }).from(benchRevision).where(eq(benchRevision.id, revision.id)).for("share");
@@ -353,32 +271,18 @@ export async function startBuild(db: Database, actor: Actor, input: z.infer<type
       .values({ revisionId: revision.id, benchId: revision.benchId, contentHash: revision.contentHash, technicianId: actor.userId })
       .returning();
     const assessed = assessRevision(revision.document);
-    const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null);
+    const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions);
     await tx.insert(buildCheck).values(items.map((i) => ({ buildId: build.id, itemKey: i.itemKey })));
     await recordAudit(tx, actor, { ...aboutRevision(revision), action: "build-started", detail: { buildId: build.id, number: revision.number, items: items.length } });
     return { build: await buildView(tx, actor, build, revision), created: true };
   });
 }
 
-function assertRecordable(build: BuildRow, revision: SignedRevision): void {
+export function assertRecordable(build: BuildRow, revision: SignedRevision): void {
   if (build.state === "completed") throw new AppError("conflict", "This build is already signed off; its record can no longer be changed.");
   const status = signOffStatus(revision);
   if (status !== "valid") throw new AppError("conflict", signOffSentence(revision, status));
 }
-
-export const checkInput = z
-  .object({
-    itemKey: z.string({ error: "Say which checklist item" }).min(1, "Say which checklist item").max(200, "The item key is too long"),
-    done: z.boolean({ error: "Done must be true or false" }).optional(),
-    measuredPositionMm: z
-      .number({ error: "The measured position must be a number of millimetres" })
-      .refine(Number.isFinite, "The measured position must be a finite number")
-      .refine((v) => Math.abs(v) <= 100_000, "The measured position must lie within ±100000 mm")
-      .nullable()
-      .optional(),
-    note: z.string().trim().max(2000, "A note must be at most 2000 characters").nullable().optional(),
-  })
-  .refine((v) => v.done !== undefined || v.measuredPositionMm !== undefined || v.note !== undefined, { message: "Send done, a measured position or a note" });
 
 export async function updateCheck(db: Database, actor: Actor, buildId: string, input: z.infer<typeof checkInput>): Promise<BuildView> {
   authorize(actor, { build: ["record"] });
@@ -386,7 +290,7 @@ export async function updateCheck(db: Database, actor: Actor, buildId: string, i
     const { build, revision } = await loadBuild(tx, actor, buildId, true);
     assertRecordable(build, revision);
     const assessed = assessRevision(revision.document);
-    const item = checklistFor(revision.document, assessed.ok ? assessed.safety : null).find((i) => i.itemKey === input.itemKey);
+    const item = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions).find((i) => i.itemKey === input.itemKey);
     if (!item) throw new AppError("bad-request", `There is no checklist item "${input.itemKey}" on this build.`, [{ path: "itemKey", message: "No such item" }]);
     if (input.measuredPositionMm !== undefined && item.expectedPositionMm === null) {
       throw new AppError("bad-request", `"${item.label}" has no position to measure.`, [{ path: "measuredPositionMm", message: "This item has no position" }]);
@@ -415,24 +319,6 @@ export async function updateCheck(db: Database, actor: Actor, buildId: string, i
   });
 }
 
-export const observationInput = z
-  .object({
-    apertureId: z.string().min(1).max(64).nullable().optional(),
-    centreSeen: z.enum(["bright", "dark", "unclear"], { error: "The centre is bright, dark or unclear" }).nullable().optional(),
-    spotDiameterMm: z
-      .number({ error: "The spot or ring diameter must be a number of millimetres" })
-      .refine((v) => Number.isFinite(v) && v > 0 && v <= 10_000, "The spot or ring diameter must be between 0 and 10000 mm")
-      .nullable()
-      .optional(),
-    screenPowerMw: z
-      .number({ error: "The power must be a number of milliwatts" })
-      .refine((v) => Number.isFinite(v) && v >= 0 && v <= 1e9, "The power must be between 0 and 10⁹ mW")
-      .nullable()
-      .optional(),
-    note: z.string().trim().max(2000, "A note must be at most 2000 characters").nullable().optional(),
-  })
-  .refine((v) => v.centreSeen != null || v.spotDiameterMm != null || v.screenPowerMw != null, { message: "Record at least one of: the centre, the spot or ring size, the power at the screen" });
-
 export async function addObservation(db: Database, actor: Actor, buildId: string, input: z.infer<typeof observationInput>): Promise<{ observation: ObservationView; build: BuildView }> {
   authorize(actor, { build: ["record"] });
   return db.transaction(async (tx) => {
@@ -457,7 +343,10 @@ export async function addObservation(db: Database, actor: Actor, buildId: string
         centrePredicted: compared.centrePredicted,
         spotDiameterMm: input.spotDiameterMm ?? null,
         screenPowerMw: input.screenPowerMw ?? null,
+        predictedSpotDiameterMm: compared.predictedSpotDiameterMm,
         predictedScreenPowerMw: compared.predictedScreenPowerMw,
+        predictionEngine: OPTICS_ENGINE_VERSION,
+        reasons: compared.reasons,
         mismatch,
         note: input.note || null,
         recordedBy: actor.userId,
@@ -485,68 +374,8 @@ export async function addObservation(db: Database, actor: Actor, buildId: string
         }),
       );
     }
-    return { observation: observationView(row, actor.name, predictions), build: await buildView(tx, actor, build, revision) };
+    return { observation: observationView(row, actor.name), build: await buildView(tx, actor, build, revision) };
   });
-}
-
-// ── Uploads ───────────────────────────────────────────────────────────────────────────────────
-export const uploadKindInput = z.enum(UPLOAD_KINDS, { error: `Say what the file shows: ${UPLOAD_KINDS.join(", ")}` });
-
-export async function addUpload(
-  db: Database,
-  actor: Actor,
-  buildId: string,
-  input: { kind: UploadKind; fileName: string; bytes: Buffer },
-): Promise<{ upload: UploadView; build: BuildView }> {
-  authorize(actor, { build: ["record"] });
-  const { build, revision } = await loadBuild(db, actor, buildId);
-  assertRecordable(build, revision);
-  if (input.bytes.length === 0) throw new AppError("bad-request", "The file is empty.", [{ path: "file", message: "Choose a file" }]);
-  assertUploadSize(input.bytes.length);
-  const type = sniffFileType(input.bytes);
-  if (!type) {
-    throw new AppError("bad-request", `"${input.fileName}" is not a PNG, JPEG or PDF file (its content says otherwise, whatever its name). Only PNG and JPEG photos and PDF datasheets can be kept.`, [
-      { path: "file", message: "Only PNG, JPEG or PDF" },
-    ]);
-  }
-  const id = randomUUID();
-  const sha256 = createHash("sha256").update(input.bytes).digest("hex");
-  const key = `uploads/${build.id}/${id}.${type.extension}`;
-  const fileName = safeFileName(input.fileName, type.extension);
-  const store = storage();
-  await store.put(key, input.bytes, type.contentType);
-  try {
-    return await db.transaction(async (tx) => {
-      const { build: locked } = await loadBuild(tx, actor, buildId, true);
-      assertRecordable(locked, revision);
-      const [row] = await tx
-        .insert(upload)
-        .values({ id, buildId: build.id, kind: input.kind, fileName, contentType: type.contentType, sizeBytes: input.bytes.length, sha256, storageKey: key, uploadedBy: actor.userId })
-        .returning();
-      await recordAudit(tx, actor, {
-        ...aboutRevision(revision),
-        action: "build-upload-stored",
-        detail: { buildId: build.id, uploadId: id, kind: input.kind, fileName, contentType: type.contentType, sizeBytes: input.bytes.length, sha256 },
-      });
-      const view = await buildView(tx, actor, locked, revision);
-      return { upload: view.uploads.find((u) => u.id === row.id)!, build: view };
-    });
-  } catch (error) {
-    await store.delete(key).catch(() => undefined); // nothing is kept without its row
-    throw error;
-  }
-}
-
-/** The stored bytes of one upload, for showing beside the prediction. */
-export async function readUpload(db: Database, actor: Actor, buildId: string, uploadId: string): Promise<{ bytes: Buffer; contentType: string; fileName: string; sha256: string }> {
-  authorize(actor, { build: ["read"] });
-  const { build } = await loadBuild(db, actor, buildId);
-  if (!z.uuid().safeParse(uploadId).success) throw notFound("The file");
-  const [row] = await db.select().from(upload).where(and(eq(upload.id, uploadId), eq(upload.buildId, build.id)));
-  if (!row) throw notFound("The file");
-  const bytes = await storage().get(row.storageKey);
-  if (!bytes) throw new AppError("not-found", "The file's record exists but its content is missing from storage; tell your administrator.");
-  return { bytes, contentType: row.contentType, fileName: row.fileName, sha256: row.sha256 };
 }
 
 // ── Sign-off ──────────────────────────────────────────────────────────────────────────────────

@@ -1,11 +1,13 @@
 // The auditor's desk queries: the approvals filter/sort/page SQL, keyset batches and CSV encoding.
 // Kept free of 'server-only' (like review-clock.ts) so scripts/bench-desk.ts times the same SQL; callers pass the lab scope.
-import { and, asc, desc, eq, gte, ilike, inArray, lt, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, gte, ilike, lt, or, sql, type SQL } from "drizzle-orm";
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import type { Database } from "@/db";
 import { bench, benchRevision, lab, reviewDecision } from "@/db/schema";
 import { HAZARD_CLASSES, type HazardClass } from "@/lib/safety/types";
-import { inScope, scopeHolds, type LabScope } from "./scope";
+import { REVIEW_STATE_WORDS } from "@/lib/format/words";
+import { inScope, type LabScope } from "./scope";
 
 export type { LabScope };
 
@@ -28,11 +30,11 @@ export const deskQuery = z
     lab: opt(z.uuid({ error: "lab must be a lab id" })),
     hazardClass: opt(z.enum(HAZARD_CLASSES, { error: `class must be one of ${HAZARD_CLASSES.join(", ")}` })),
     state: opt(z.enum(APPROVAL_STATES, { error: `state must be one of ${APPROVAL_STATES.join(", ")}` })),
-    officer: opt(z.string().max(64)),
+    officer: opt(safeText().max(64)),
     from: opt(z.iso.date({ error: "from must be a date (YYYY-MM-DD)" })),
     to: opt(z.iso.date({ error: "to must be a date (YYYY-MM-DD)" })),
     expiringDays: opt(z.coerce.number({ error: "expiring must be a number of days" }).int().min(0, "expiring must be 0 days or more").max(3650, "expiring must be at most 3650 days")),
-    q: opt(z.string().trim().max(100, "The search must be at most 100 characters")),
+    q: opt(safeText().trim().max(100, "The search must be at most 100 characters")),
   })
   .refine((v) => !v.from || !v.to || v.from <= v.to, { path: ["to"], message: "The end date must not be before the start date" });
 export type DeskQuery = z.infer<typeof deskQuery>;
@@ -200,6 +202,7 @@ export const APPROVAL_HEADER = [
   "revision",
   "content_hash",
   "state",
+  "state_words",
   "hazard_class_at_signing",
   "signed_by",
   "signer_role",
@@ -259,7 +262,7 @@ export function approvalsCsvStream(db: Database, scope: LabScope, q: DeskQuery, 
     for await (const batch of approvalBatches(db, scope, q, now, batchSize)) {
       yield batch
         .map((r) =>
-          csvLine([r.decidedAt, r.title, r.labName, r.number, r.contentHash, r.state, r.hazardClass, r.signerName, r.signerRole, r.meaning, r.conditions, r.validUntil, r.stepUpVerified ? "yes" : "no", r.benchId, r.revisionId, r.decisionId]),
+          csvLine([r.decidedAt, r.title, r.labName, r.number, r.contentHash, r.state, REVIEW_STATE_WORDS[r.state] ?? r.state, r.hazardClass, r.signerName, r.signerRole, r.meaning, r.conditions, r.validUntil, r.stepUpVerified ? "yes" : "no", r.benchId, r.revisionId, r.decisionId]),
         )
         .join("");
     }

@@ -1,9 +1,10 @@
 // The auditor's desk (read-only): every sign-off with server-side paging, sorting and filters, a
 // bench's whole trail as one timeline, and both as CSV streamed in keyset batches (never built in memory).
 import "server-only";
+import { ACTION_WORDS, OUTCOME_WORDS, REVIEW_STATE_WORDS } from "@/lib/format/words";
 import { asc, eq, sql } from "drizzle-orm";
 import type { Database } from "@/db";
-import { lab, reviewDecision, type ReviewState } from "@/db/schema";
+import { lab, reviewDecision } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
@@ -19,7 +20,7 @@ import {
   type ApprovalsPage,
   type DeskQuery,
 } from "./desk-queries";
-import { inScope, scopeHolds } from "./scope";
+import { scopeHolds } from "./scope";
 
 export * from "./desk-queries";
 
@@ -60,18 +61,18 @@ export async function getBenchTrail(db: Database, actor: Actor, benchId: string)
   return loadBenchTrail(db, actor, benchId);
 }
 
-const TRAIL_HEADER = ["at_utc", "kind", "revision", "content_hash", "who", "role", "what", "signature_meaning", "conditions", "valid_until_utc", "detail"];
+const TRAIL_HEADER = ["at_utc", "kind", "revision", "content_hash", "who", "role", "what", "what_words", "signature_meaning", "conditions", "valid_until_utc", "detail"];
 
 function trailLine(e: TrailEntry): string {
   switch (e.kind) {
     case "revision":
-      return csvLine([e.at, "revision", e.revisionNumber, e.contentHash, e.by, "", `Revision ${e.revisionNumber} created (now ${e.state})`, "", "", "", ""]);
+      return csvLine([e.at, "revision", e.revisionNumber, e.contentHash, e.by, "", `revision-created`, `Revision ${e.revisionNumber} created (now ${REVIEW_STATE_WORDS[e.state] ?? e.state})`, "", "", "", ""]);
     case "decision":
-      return csvLine([e.at, "decision", e.revisionNumber, e.contentHash, e.by, e.role, e.outcome, e.meaning, e.conditions, e.validUntil, { reason: e.reason, passwordReentered: e.stepUpVerified, hazardClassAtSigning: e.hazardClass }]);
+      return csvLine([e.at, "decision", e.revisionNumber, e.contentHash, e.by, e.role, e.outcome, OUTCOME_WORDS[e.outcome] ?? e.outcome, e.meaning, e.conditions, e.validUntil, { reason: e.reason, passwordReentered: e.stepUpVerified, hazardClassAtSigning: e.hazardClass }]);
     case "comment":
-      return csvLine([e.at, "comment", e.revisionNumber, "", e.by, e.role, e.body, "", "", "", e.elementId ? { elementId: e.elementId } : ""]);
+      return csvLine([e.at, "comment", e.revisionNumber, "", e.by, e.role, "comment", e.body, "", "", "", e.elementId ? { elementId: e.elementId } : ""]);
     case "event":
-      return csvLine([e.at, "audit event", e.revisionNumber, e.contentHash, e.by, e.role, e.action, "", "", "", e.detail]);
+      return csvLine([e.at, "audit event", e.revisionNumber, e.contentHash, e.by, e.role, e.action, ACTION_WORDS[e.action] ?? e.action, "", "", "", e.detail]);
   }
 }
 

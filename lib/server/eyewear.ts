@@ -3,13 +3,14 @@
 import "server-only";
 import { and, asc, eq, inArray, sql, type SQL } from "drizzle-orm";
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import type { Database, DbOrTx } from "@/db";
 import { eyewearBand, eyewearItem, lab, SAFETY_STANDARDS, type SafetyStandard } from "@/db/schema";
 import { AppError, notFound } from "@/lib/errors";
-import type { BenchSafetyAssessment } from "@/lib/safety";
-import { eyewearBandsSchema, eyewearCoverage, eyewearNameSchema, type EyewearCoverage, type EyewearItem, type LineNeed } from "@/lib/safety/eyewear";
+import { eyewearBandsSchema, eyewearCoverage, eyewearNameSchema, lineNeeds, type EyewearCoverage, type EyewearItem, type HazardAnswerLines } from "@/lib/safety/eyewear";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
+import { labStandard } from "./lab-standard";
 import { assessRevision } from "@/lib/review/hazard";
 import { inScope, scopeHolds } from "./scope";
 import { loadRevision } from "./reviews";
@@ -24,8 +25,7 @@ export const eyewearInput = z.object({
     .min(1, "Quantity (quantity) must be at least 1")
     .max(1000, "Quantity (quantity) must be at most 1000")
     .default(1),
-  note: z
-    .string({ error: "Note (note) must be text" })
+  note: safeText({ error: "Note (note) must be text" })
     .trim()
     .max(500, "Note (note) must be at most 500 characters")
     .nullish()
@@ -179,14 +179,7 @@ export async function deleteEyewear(db: Database, actor: Actor, itemId: string):
 }
 
 // ── The lab's safety standard ─────────────────────────────────────────────────────────────────
-export const DEFAULT_STANDARD: SafetyStandard = "ANSI Z136.1-2014";
-
-/** The standard a lab chose; the default when the lab is unknown. No authorization: a lab's standard is not secret. */
-export async function labStandard(db: DbOrTx, labId: string): Promise<SafetyStandard> {
-  if (!z.uuid().safeParse(labId).success) return DEFAULT_STANDARD;
-  const [row] = await db.select({ standard: lab.safetyStandard }).from(lab).where(eq(lab.id, labId));
-  return row?.standard ?? DEFAULT_STANDARD;
-}
+export { DEFAULT_STANDARD, labStandard } from "./lab-standard";
 
 /** An admin or officer picks the standard a lab's hazard figures follow; audited. */
 export async function setLabStandard(db: Database, actor: Actor, labId: string, input: z.infer<typeof labStandardInput>): Promise<{ labId: string; standard: SafetyStandard }> {
@@ -212,31 +205,8 @@ export type BenchEyewear = {
   coverage: EyewearCoverage;
 };
 
-type LineFigure = { wavelengthNm: number; opticalDensityRequired?: number | null; powerMw?: number };
-type LaserWithLines = { laserId?: string; id?: string; lines?: LineFigure[] };
-
-/**
- * The lines of a bench and the OD each needs, from the hazard engine's answer. Where the engine reports lasers with
- * per-line figures (`lasers[].lines`), those are used; otherwise the laser's one line with the highest OD on the bench.
- */
-export function lineNeeds(safety: BenchSafetyAssessment): LineNeed[] {
-  const lasers = (safety as unknown as { lasers?: LaserWithLines[] }).lasers;
-  if (Array.isArray(lasers) && lasers.some((l) => Array.isArray(l.lines) && l.lines.length > 0)) {
-    const out: LineNeed[] = [];
-    for (const l of lasers) {
-      (l.lines ?? []).forEach((line, i) => {
-        const od = line.opticalDensityRequired;
-        out.push({ laserId: l.laserId ?? l.id ?? safety.laserId, wavelengthNm: line.wavelengthNm, opticalDensityRequired: typeof od === "number" ? od : null, label: i === 0 ? "main line" : `line ${i + 1}` });
-      });
-    }
-    return out;
-  }
-  const od = safety.governing ? safety.governing.opticalDensityRequired : 0;
-  return [{ laserId: safety.laserId, wavelengthNm: safety.wavelengthNm, opticalDensityRequired: od, label: "main line" }];
-}
-
 /** Which of the lab's items cover each line of the bench, and the lab's standard. */
-export async function benchEyewear(db: DbOrTx, labId: string, safety: BenchSafetyAssessment | null): Promise<BenchEyewear> {
+export async function benchEyewear(db: DbOrTx, labId: string, safety: HazardAnswerLines | null): Promise<BenchEyewear> {
   const standard = await labStandard(db, labId);
   const items = await loadItems(db, eq(eyewearItem.labId, labId));
   const shelf: EyewearItem[] = items.map((i) => ({ id: i.id, name: i.name, bands: i.bands }));
@@ -263,4 +233,19 @@ export async function eyewearShelves(db: DbOrTx, actor: Actor): Promise<LabShelf
   const labs = await db.select({ id: lab.id, name: lab.name, standard: lab.safetyStandard }).from(lab).where(inScope(actor, lab.id)).orderBy(asc(lab.name));
   const items = await loadItems(db, inScope(actor, eyewearItem.labId));
   return labs.map((l) => ({ labId: l.id, labName: l.name, standard: l.standard, items: items.filter((i) => i.labId === l.id) }));
+}
+
+/** The editor's copy of one lab's list and standard: names and bands only (the editor works out coverage as the drawing changes). */
+export async function labShelf(db: DbOrTx, actor: Actor, labId: string): Promise<{ standard: SafetyStandard; items: EyewearItem[] }> {
+  authorize(actor, { eyewear: ["read"] });
+  if (!scopeHolds(actor, labId)) return { standard: await labStandard(db, labId), items: [] };
+  const items = await loadItems(db, eq(eyewearItem.labId, labId));
+  return { standard: await labStandard(db, labId), items: items.map((i) => ({ id: i.id, name: i.name, bands: i.bands })) };
+}
+
+/** Every lab's chosen standard, for the page where an admin or officer picks them. */
+export async function labStandards(db: DbOrTx, actor: Actor): Promise<Map<string, SafetyStandard>> {
+  authorize(actor, { standard: ["set"] });
+  const rows = await db.select({ id: lab.id, standard: lab.safetyStandard }).from(lab);
+  return new Map(rows.map((r) => [r.id, r.standard]));
 }

@@ -1,12 +1,12 @@
 // "Waiting for you": per role, what waits for the signed-in person (submissions to review, benches sent
 // back, signed-off benches not yet built, sign-offs about to expire), with counts for the navigation.
 import "server-only";
-import { and, desc, eq, gt, gte, inArray, isNull, lt, ne, or, sql, type SQL } from "drizzle-orm";
+import { and, desc, eq, gt, gte, inArray, isNull, lt, ne, or, sql } from "drizzle-orm";
 import type { Database } from "@/db";
 import { bench, benchRevision, buildRecord, lab, reviewComment, reviewDecision, user, type ReviewState } from "@/db/schema";
 import { ROLE_LABELS, type Permission, type RoleName } from "@/lib/auth/permissions";
 import { authorize, type Actor } from "./authorize";
-import { inScope, scopeHolds } from "./scope";
+import { inScope } from "./scope";
 
 /** How far back comments on one's benches count as new, and how far ahead an expiry counts as near. */
 export const COMMENT_WINDOW_DAYS = 7;
@@ -121,7 +121,7 @@ async function researcherSection(db: Database, actor: Actor, now: Date): Promise
   // One line per bench: a bench sent back with comments on it waits once, not twice.
   const byBench = new Map<string, InboxItem & { sortAt: number }>();
   for (const b of sentBack) {
-    const what = b.state === "rejected" ? "Turned down" : "Changes asked for";
+    const what = b.state === "rejected" ? "Turned down" : "Changes asked";
     byBench.set(b.benchId, { id: `bench-${b.benchId}`, title: b.title, detail: `${what} on revision ${b.number}`, href: `/reviews/${b.revisionId}`, at: b.at.toISOString(), sortAt: b.at.getTime() });
   }
   for (const c of comments) {

@@ -1,6 +1,7 @@
 // Pages use the same authorization helper as routes; a page only adds the redirect to sign-in
 // and shows the refusal as a page (production hides thrown messages, so we return it instead).
 import "server-only";
+import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import type { Permission } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
@@ -8,7 +9,11 @@ import { authorize, currentActor, type Actor } from "./authorize";
 
 export async function pageActor(): Promise<Actor> {
   const actor = await currentActor();
-  if (!actor) redirect("/sign-in");
+  if (!actor) {
+    // back to the page asked for after signing in (the proxy passes its path; the sign-in form keeps only same-site paths)
+    const path = (await headers()).get("x-benchwarden-path");
+    redirect(path && path.startsWith("/") && !path.startsWith("//") && path !== "/" ? `/sign-in?callbackURL=${encodeURIComponent(path)}` : "/sign-in");
+  }
   return actor;
 }
 

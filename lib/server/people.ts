@@ -5,6 +5,7 @@ import { createHash, randomBytes, randomUUID } from "node:crypto";
 import { hashPassword } from "better-auth/crypto";
 import { and, asc, eq, gt, isNull } from "drizzle-orm";
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import type { Database } from "@/db";
 import { account, invitation, lab, labMember, user } from "@/db/schema";
 import { parseRoles, ROLE_LABELS, ROLES, type RoleName } from "@/lib/auth/permissions";
@@ -42,8 +43,8 @@ export async function listLabs(db: Database, actor: Actor) {
 }
 
 export const createLabInput = z.object({
-  name: z.string({ error: "Give the lab a name" }).trim().min(2, "The lab name must be at least 2 characters").max(120, "The lab name must be at most 120 characters"),
-  room: z.string().trim().max(120, "The room must be at most 120 characters").optional(),
+  name: safeText({ error: "Give the lab a name" }).trim().min(2, "The lab name must be at least 2 characters").max(120, "The lab name must be at most 120 characters"),
+  room: safeText().trim().max(120, "The room must be at most 120 characters").optional(),
 });
 
 export async function createLab(db: Database, actor: Actor, input: z.infer<typeof createLabInput>) {
@@ -59,7 +60,7 @@ export async function createLab(db: Database, actor: Actor, input: z.infer<typeo
 
 export const inviteInput = z.object({
   email: z.email({ error: "Enter a valid e-mail address" }).transform((e) => e.toLowerCase()),
-  name: z.string({ error: "Enter the person's name" }).trim().min(2, "Enter the person's name").max(120, "The name must be at most 120 characters"),
+  name: safeText({ error: "Enter the person's name" }).trim().min(2, "Enter the person's name").max(120, "The name must be at most 120 characters"),
   roles: z.array(z.enum(ROLES, { error: `Each role must be one of: ${ROLES.join(", ")}` })).min(1, "Choose at least one role"),
   labIds: z.array(z.uuid({ error: "Each lab must be a lab id" })).default([]),
 });
@@ -106,8 +107,8 @@ export async function invitePerson(db: Database, actor: Actor, input: z.infer<ty
 }
 
 export const acceptInput = z.object({
-  token: z.string({ error: "The invitation link is incomplete" }).min(10, "The invitation link is incomplete"),
-  password: z.string({ error: "Choose a password" }).min(10, "The password must be at least 10 characters long").max(128, "The password must be at most 128 characters long"),
+  token: safeText({ error: "The invitation link is incomplete" }).min(10, "The invitation link is incomplete"),
+  password: safeText({ error: "Choose a password" }).min(10, "The password must be at least 10 characters long").max(128, "The password must be at most 128 characters long"),
 });
 
 /** Turns a valid invitation into an account with its roles and labs. The token is the authority. */

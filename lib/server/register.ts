@@ -1,8 +1,10 @@
 // The laser register: the institution's inventory of lasers, kept by the safety officers and read by
 // everyone in the labs. Computed classes come from lib/safety (IEC 60825-1:2014 class limits); labels are never changed.
+import { laserAveragePowerMw } from "@/lib/bench/laser-power";
 import "server-only";
-import { and, asc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { and, asc, eq, sql } from "drizzle-orm";
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import type { Database, DbOrTx } from "@/db";
 import { lab, laserRegister, LASER_STATUSES, user, type LaserStatus } from "@/db/schema";
 import type { BenchDocument, LaserElement } from "@/lib/bench/schema";
@@ -19,8 +21,7 @@ const positive = (field: string, unit: string, max: number) =>
     .refine((v) => v > 0, `${field} must be greater than 0 ${unit}`)
     .refine((v) => v <= max, `${field} must be at most ${max} ${unit}`);
 const optionalText = (field: string, max: number) =>
-  z
-    .string()
+  safeText()
     .trim()
     .max(max, `${field} must be at most ${max} characters`)
     .nullish()
@@ -40,11 +41,22 @@ export const laserInput = z
     pulseRepetitionRateHz: positive("Repetition rate", "Hz", 1e12).nullish().transform((v) => v ?? null),
     beamDiameterMm: positive("Beam diameter", "mm", 1000),
     divergenceMrad: positive("Divergence", "mrad", 1000),
-    model: z.string({ error: "Give the manufacturer and model" }).trim().min(1, "Give the manufacturer and model").max(200, "The model must be at most 200 characters"),
+    lines: z
+      .array(
+        z.object({
+          wavelengthNm: positive("Further line wavelength (wavelengthNm)", "nm", 1_000_000).refine((v) => v >= 180, "Further line wavelength (wavelengthNm) must be at least 180 nm"),
+          powerMw: positive("Further line power (powerMw)", "mW", 1e9),
+        }),
+        { error: "Further lines (lines) must be a list of { wavelengthNm, powerMw }" },
+      )
+      .max(8, "Further lines (lines): at most 8")
+      .nullish()
+      .transform((v) => (v && v.length ? v : null)),
+    model: safeText({ error: "Give the manufacturer and model" }).trim().min(1, "Give the manufacturer and model").max(200, "The model must be at most 200 characters"),
     serialNumber: optionalText("The serial number", 120),
     location: optionalText("The location", 200),
     status: z.enum(LASER_STATUSES, { error: "Status must be in service, out of service or disposed" }).default("in-service"),
-    responsibleUserId: z.string().max(64).nullish().transform((v) => v || null),
+    responsibleUserId: safeText().max(64).nullish().transform((v) => v || null),
   })
   .superRefine((v, ctx) => {
     if (v.pulseRepetitionRateHz !== null && v.pulseDurationS === null) {
@@ -84,6 +96,8 @@ export type LaserView = {
   pulseEnergyMj: number | null;
   pulseDurationS: number | null;
   pulseRepetitionRateHz: number | null;
+  /** Further emission lines with their own power (residual pump, other harmonics); null when none. */
+  lines: { wavelengthNm: number; powerMw: number }[] | null;
   beamDiameterMm: number;
   divergenceMrad: number;
   model: string;
@@ -99,7 +113,7 @@ export type LaserView = {
 
 export const STATUS_WORDS: Record<LaserStatus, string> = { "in-service": "In service", "out-of-service": "Out of service", disposed: "Disposed of" };
 
-type LaserFacts = Pick<LaserView, "labelClass" | "wavelengthsNm" | "maxPowerMw" | "pulseDurationS" | "pulseRepetitionRateHz" | "beamDiameterMm" | "divergenceMrad">;
+type LaserFacts = Pick<LaserView, "labelClass" | "wavelengthsNm" | "maxPowerMw" | "pulseDurationS" | "pulseRepetitionRateHz" | "beamDiameterMm" | "divergenceMrad"> & { lines?: LaserView["lines"] };
 
 /** Classifies the laser at its maximum power at each wavelength and keeps the highest class. */
 export function computeClass(facts: LaserFacts): ComputedClass {
@@ -116,6 +130,12 @@ export function computeClass(facts: LaserFacts): ComputedClass {
         ...(facts.pulseDurationS !== null && facts.pulseRepetitionRateHz !== null ? { pulseRepetitionRateHz: facts.pulseRepetitionRateHz } : {}),
       });
       reasons.push(`${wavelengthNm} nm: Class ${c.hazardClass}. ${c.reasons.join(" ")}`);
+      if (worst === null || HAZARD_CLASSES.indexOf(c.hazardClass) > HAZARD_CLASSES.indexOf(worst)) worst = c.hazardClass;
+    }
+    // Further lines, each at its own power, as continuous beams (a residual pump or harmonic); the class is the highest over all.
+    for (const line of facts.lines ?? []) {
+      const c = classifyBeam({ wavelengthNm: line.wavelengthNm, powerMw: line.powerMw, beamDiameterMm: facts.beamDiameterMm, divergenceMrad: facts.divergenceMrad });
+      reasons.push(`Further line ${line.wavelengthNm} nm at ${line.powerMw} mW: Class ${c.hazardClass}. ${c.reasons.join(" ")}`);
       if (worst === null || HAZARD_CLASSES.indexOf(c.hazardClass) > HAZARD_CLASSES.indexOf(worst)) worst = c.hazardClass;
     }
   } catch (error) {
@@ -136,6 +156,7 @@ const columns = {
   pulseEnergyMj: laserRegister.pulseEnergyMj,
   pulseDurationS: laserRegister.pulseDurationS,
   pulseRepetitionRateHz: laserRegister.pulseRepetitionRateHz,
+  lines: laserRegister.lines,
   beamDiameterMm: laserRegister.beamDiameterMm,
   divergenceMrad: laserRegister.divergenceMrad,
   model: laserRegister.model,
@@ -210,6 +231,7 @@ function values(input: LaserInput) {
     pulseEnergyMj: input.pulseEnergyMj,
     pulseDurationS: input.pulseDurationS,
     pulseRepetitionRateHz: input.pulseRepetitionRateHz,
+    lines: input.lines,
     beamDiameterMm: input.beamDiameterMm,
     divergenceMrad: input.divergenceMrad,
     model: input.model,
@@ -310,8 +332,9 @@ export async function checkBenchAgainstRegister(db: DbOrTx, actor: Actor, docume
       blocksSubmission: true,
     });
   }
-  if (laser.powerMw > entry.maxPowerMw * (1 + 1e-9)) {
-    warnings.push({ code: "power-above-register", elementId: id, message: `The bench sets ${fmt(laser.powerMw)} mW, above the register's maximum of ${fmt(entry.maxPowerMw)} mW for ${name}.`, blocksSubmission: false });
+  const averageMw = laserAveragePowerMw(laser);
+  if (averageMw !== null && averageMw > entry.maxPowerMw * (1 + 1e-9)) {
+    warnings.push({ code: "power-above-register", elementId: id, message: `The bench sets ${fmt(averageMw)} mW, above the register's maximum of ${fmt(entry.maxPowerMw)} mW for ${name}.`, blocksSubmission: false });
   }
   if (!entry.wavelengthsNm.some((w) => Math.abs(w - laser.wavelengthNm) <= WAVELENGTH_TOLERANCE_NM)) {
     warnings.push({
@@ -337,6 +360,7 @@ export async function checkBenchAgainstRegister(db: DbOrTx, actor: Actor, docume
     computedClass = classifyBeam({
       wavelengthNm: laser.wavelengthNm,
       powerMw: laser.powerMw,
+      pulseEnergyJ: laser.pulseEnergyJ,
       beamDiameterMm: laser.beamDiameterMm,
       divergenceMrad: entry.divergenceMrad,
       ...(laser.pulseDurationS !== undefined ? { pulseDurationS: laser.pulseDurationS, pulseRepetitionRateHz: laser.pulseRepetitionRateHz } : {}),

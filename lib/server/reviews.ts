@@ -1,92 +1,34 @@
 // The review workflow of a bench revision: submit, withdraw, decide (sign off, ask for changes, turn
-// down), comment, and the later expiry or replacement of a sign-off. Each state change, its e-mails
-// and its audit row commit in one transaction; illegal moves get a 409 with a sentence.
+// down), with the replacement of older sign-offs. The moves themselves are the review rules in
+// lib/review/transitions.ts; here each state change, its e-mails and its audit row commit in one transaction.
+// Comments: review-comments.ts; the review screen and queue: review-screen.ts; expiry: review-clock.ts.
 import "server-only";
 import { assertRegisterAllowsSubmission } from "./register";
-import { and, asc, desc, eq, gt, inArray, lt, ne, sql } from "drizzle-orm";
+import { and, eq, gt, lt, ne, sql } from "drizzle-orm";
 import { verifyPassword } from "better-auth/crypto";
+import { reserveAttempt } from "@/lib/auth/rate-limit";
 import { z } from "zod";
 import type { Database, DbOrTx } from "@/db";
-import {
-  account,
-  auditEvent,
-  bench,
-  benchRevision,
-  lab,
-  labMember,
-  reviewComment,
-  reviewDecision,
-  user,
-  type DecisionOutcome,
-  type HazardSummary,
-  type ReviewState,
-} from "@/db/schema";
-import { ROLE_LABELS, parseRoles, rolesAllow } from "@/lib/auth/permissions";
+import { account, bench, benchRevision, lab, labMember, reviewComment, reviewDecision, user, type DecisionOutcome, type HazardSummary, type ReviewState } from "@/db/schema";
+import { ROLE_LABELS, parseRoles } from "@/lib/auth/permissions";
 import { contentHash } from "@/lib/bench/canonical";
-import { diffBenches, type BenchDiff } from "@/lib/bench/diff";
 import { benchDocumentSchema, describeIssues, type BenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { enqueueMail } from "@/lib/mail/outbox";
-import {
-  reviewCommentMail,
-  reviewDecisionMail,
-  reviewSubmittedMail,
-  reviewWithdrawnMail,
-  type Recipient,
-  type RevisionMailContext,
-} from "@/lib/mail/review-mail";
+import { reviewDecisionMail, reviewSubmittedMail, reviewWithdrawnMail, type Recipient, type RevisionMailContext } from "@/lib/mail/review-mail";
+import { labStandard } from "./lab-standard";
 import { recordAudit } from "./audit";
-import { authorize, authorizeLab, type Actor } from "./authorize";
+import { authorize, type Actor } from "./authorize";
 import { hazardSummary } from "@/lib/review/hazard";
-import { COMMENTS_OPEN, DECISIONS, ONCE_APPROVED, SIGN_OFF_MEANING, TRANSITIONS, canMove, refusal, stateSentence } from "@/lib/review/transitions";
+import { DECISIONS, TRANSITIONS, canMove, refusal, stateSentence } from "@/lib/review/transitions";
 import { validityEnd } from "@/lib/review/validity";
-import { inScope, visibleOr404 } from "./scope";
+import { visibleOr404 } from "./scope";
+import type { DecisionInput, DecisionView, submitInput } from "@/lib/api/contracts/reviews";
 
 export { expireApprovals, runReviewClock, sendExpiryReminders } from "./review-clock";
 
-export { SIGN_OFF_MEANING };
-
-// ── Inputs (the one contract for routes and client forms) ─────────────────────────────────────
-const hashField = z.string({ error: "Send the content hash of the revision you reviewed" }).regex(/^[0-9a-f]{64}$/, "The content hash must be 64 hexadecimal characters");
-
-export const submitInput = z.object({ contentHash: hashField.optional() });
-export const withdrawInput = z.object({});
-
-export const decisionInput = z.discriminatedUnion(
-  "outcome",
-  [
-    z.object({
-      outcome: z.literal("approve"),
-      contentHash: hashField,
-      password: z.string({ error: "Enter your password to sign" }).min(1, "Enter your password to sign"),
-      conditions: z.string().trim().max(4000, "Conditions must be at most 4000 characters").optional(),
-      /** The last day the sign-off holds (YYYY-MM-DD); 12 months from today when left out. */
-      validUntil: z.iso.date({ error: "Valid until must be a date (YYYY-MM-DD)" }).optional(),
-    }),
-    z.object({
-      outcome: z.literal("request-changes"),
-      contentHash: hashField,
-      comment: z.string({ error: "Say what has to change" }).trim().min(1, "Say what has to change").max(4000, "The comment must be at most 4000 characters"),
-    }),
-    z.object({
-      outcome: z.literal("reject"),
-      contentHash: hashField,
-      reason: z.string({ error: "Give the reason for turning it down" }).trim().min(1, "Give the reason for turning it down").max(4000, "The reason must be at most 4000 characters"),
-    }),
-  ],
-  { error: "Choose approve, request-changes or reject" },
-);
-export type DecisionInput = z.infer<typeof decisionInput>;
-
-export const commentInput = z.object({
-  body: z.string({ error: "Write the comment" }).trim().min(1, "Write the comment").max(4000, "A comment must be at most 4000 characters"),
-  elementId: z.string().min(1).max(64).optional(),
-  parentId: z.uuid({ error: "The comment to answer is not a valid id" }).optional(),
-});
-export type CommentInput = z.infer<typeof commentInput>;
-
 // ── Loading ───────────────────────────────────────────────────────────────────────────────────
-type RevisionRow = {
+export type RevisionRow = {
   id: string;
   benchId: string;
   number: number;
@@ -133,15 +75,15 @@ export async function loadRevision(db: DbOrTx, actor: Actor, revisionId: string,
   return { ...row, document: row.document as BenchDocument };
 }
 
-function mailContext(r: RevisionRow): RevisionMailContext {
+export function mailContext(r: RevisionRow): RevisionMailContext {
   return { benchTitle: r.benchTitle, labName: r.labName, revisionId: r.id, revisionNumber: r.number, contentHash: r.contentHash, authorName: r.authorName };
 }
 
-function isAuthor(actor: Actor, r: Pick<RevisionRow, "authorId" | "createdBy">): boolean {
+export function isAuthor(actor: Actor, r: Pick<RevisionRow, "authorId" | "createdBy">): boolean {
   return r.authorId === actor.userId || r.createdBy === actor.userId;
 }
 
-async function usersWithRole(db: DbOrTx, role: "officer" | "technician", labId?: string): Promise<(Recipient & { id: string })[]> {
+export async function usersWithRole(db: DbOrTx, role: "officer" | "technician", labId?: string): Promise<(Recipient & { id: string })[]> {
   const rows = labId
     ? await db
         .select({ id: user.id, email: user.email, name: user.name, role: user.role, banned: user.banned })
@@ -242,21 +184,7 @@ async function checkPassword(db: DbOrTx, userId: string, password: string): Prom
   return verifyPassword({ hash: row.hash, password });
 }
 
-export type DecisionView = {
-  id: string;
-  outcome: DecisionOutcome;
-  signerName: string;
-  signerRole: string;
-  meaning: string;
-  conditions: string | null;
-  reason: string | null;
-  validUntil: string | null;
-  contentHash: string;
-  hazardSummary: HazardSummary | null;
-  decidedAt: string;
-};
-
-function decisionView(row: typeof reviewDecision.$inferSelect): DecisionView {
+export function decisionView(row: typeof reviewDecision.$inferSelect): DecisionView {
   return {
     id: row.id,
     outcome: row.outcome,
@@ -288,7 +216,14 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
   }
   if (!canMove(input.outcome, first.state)) throw await notWaiting(db, first);
   if (input.outcome === "approve") {
-    if (!(await checkPassword(db, actor.userId, input.password))) {
+    // The step-up is limited like sign-in: per account and per address, counted in the database.
+    const attempt = await reserveAttempt(db, "step-up", { account: actor.userId, address: actor.ipAddress });
+    if (!attempt.allowed) {
+      await recordAudit(db, actor, { action: "sign-off-password-limited", benchId: first.benchId, revisionId: first.id, contentHash: first.contentHash });
+      throw new AppError("rate-limited", attempt.refusal ?? "Too many wrong signing password attempts; wait, then try again.");
+    }
+    if (await checkPassword(db, actor.userId, input.password)) await attempt.release();
+    else {
       await recordAudit(db, actor, {
         action: "sign-off-password-refused",
         benchId: first.benchId,
@@ -333,7 +268,7 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
             .where(and(eq(benchRevision.benchId, r.benchId), eq(benchRevision.state, "approved"), lt(benchRevision.number, r.number)))
             .for("update")),
         );
-        summary = hazardSummary(parsed.data);
+        summary = hazardSummary(parsed.data, { standard: await labStandard(tx, r.labId) });
       }
       const signerRole = ROLE_LABELS.officer;
       const [decision] = await tx
@@ -399,7 +334,7 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
 
       const ctx = mailContext(r);
       const recipients = new Map<string, Recipient>([[r.authorEmail, { email: r.authorEmail, name: r.authorName }]]);
-      for (const t of await usersWithRole(tx, "technician", r.labId)) recipients.set(t.email, t);
+      for (const t of await usersWithRole(tx, "technician", r.labId)) recipients.set(t.email, { ...t, builds: true });
       for (const to of recipients.values()) {
         await enqueueMail(
           tx,
@@ -425,205 +360,4 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
     }
     throw error;
   }
-}
-
-// ── Comments ──────────────────────────────────────────────────────────────────────────────────
-export type CommentView = {
-  id: string;
-  threadId: string;
-  parentId: string | null;
-  elementId: string | null;
-  authorName: string;
-  authorRole: string;
-  body: string;
-  createdAt: string;
-};
-export type CommentThread = { id: string; elementId: string | null; comments: CommentView[] };
-
-export async function addComment(db: Database, actor: Actor, revisionId: string, input: CommentInput): Promise<CommentView> {
-  authorize(actor, { review: ["comment"] });
-  return db.transaction(async (tx) => {
-    const r = await loadRevision(tx, actor, revisionId);
-    if (!COMMENTS_OPEN(r.state)) throw new AppError("conflict", `Revision ${r.number} is still a draft; comments open once it is sent for review.`);
-    let threadId: string | null = null;
-    let elementId = input.elementId ?? null;
-    if (input.parentId) {
-      const [parent] = await tx.select().from(reviewComment).where(and(eq(reviewComment.id, input.parentId), eq(reviewComment.revisionId, r.id)));
-      if (!parent) throw new AppError("bad-request", "The comment you are answering is not on this revision.", [{ path: "parentId", message: "Not a comment on this revision" }]);
-      threadId = parent.threadId;
-      elementId = parent.elementId;
-    }
-    if (elementId && !r.document.elements.some((e) => e.id === elementId)) {
-      throw new AppError("bad-request", `There is no element "${elementId}" on revision ${r.number}.`, [{ path: "elementId", message: "No such element on this revision" }]);
-    }
-    const id = crypto.randomUUID();
-    const role = rolesAllow(actor.roles, { review: ["decide"] }) && !isAuthor(actor, r) ? ROLE_LABELS.officer : actor.roles.map((x) => ROLE_LABELS[x]).join(", ");
-    const [row] = await tx
-      .insert(reviewComment)
-      .values({ id, revisionId: r.id, benchId: r.benchId, threadId: threadId ?? id, parentId: input.parentId ?? null, elementId, authorId: actor.userId, authorName: actor.name, authorRole: role, body: input.body })
-      .returning();
-    await recordAudit(tx, actor, {
-      action: "review-comment",
-      benchId: r.benchId,
-      revisionId: r.id,
-      contentHash: r.contentHash,
-      detail: { commentId: row.id, threadId: row.threadId, elementId, length: input.body.length },
-    });
-
-    // The other party: the author hears from reviewers; reviewers (or, before any, every officer) hear from the author.
-    const recipients = new Map<string, Recipient>();
-    if (actor.userId !== r.authorId) recipients.set(r.authorEmail, { email: r.authorEmail, name: r.authorName });
-    else {
-      const involved = await tx
-        .selectDistinct({ email: user.email, name: user.name, id: user.id })
-        .from(user)
-        .where(
-          sql`${user.id} in (select ${reviewComment.authorId} from ${reviewComment} where ${reviewComment.revisionId} = ${r.id}
-              union select ${reviewDecision.signerId} from ${reviewDecision} where ${reviewDecision.revisionId} = ${r.id})`,
-        );
-      const others = involved.filter((u) => u.id !== actor.userId);
-      for (const u of others.length ? others : await usersWithRole(tx, "officer")) if (u.id !== actor.userId) recipients.set(u.email, u);
-    }
-    const ctx = mailContext(r);
-    for (const to of recipients.values()) {
-      await enqueueMail(tx, reviewCommentMail(to, ctx, { commenterName: actor.name, commenterRole: role, body: input.body, elementId }));
-    }
-    return commentView(row);
-  });
-}
-
-function commentView(row: typeof reviewComment.$inferSelect): CommentView {
-  return {
-    id: row.id,
-    threadId: row.threadId,
-    parentId: row.parentId,
-    elementId: row.elementId,
-    authorName: row.authorName,
-    authorRole: row.authorRole,
-    body: row.body,
-    createdAt: row.createdAt.toISOString(),
-  };
-}
-
-async function threadsOf(db: DbOrTx, revisionId: string): Promise<CommentThread[]> {
-  const rows = await db.select().from(reviewComment).where(eq(reviewComment.revisionId, revisionId)).orderBy(asc(reviewComment.createdAt));
-  const threads = new Map<string, CommentThread>();
-  for (const row of rows) {
-    const thread = threads.get(row.threadId) ?? { id: row.threadId, elementId: row.elementId, comments: [] };
-    thread.comments.push(commentView(row));
-    threads.set(row.threadId, thread);
-  }
-  return [...threads.values()];
-}
-
-export async function listComments(db: Database, actor: Actor, revisionId: string): Promise<CommentThread[]> {
-  authorize(actor, { review: ["read"] });
-  const r = await loadRevision(db, actor, revisionId);
-  return threadsOf(db, r.id);
-}
-
-// ── Reading: the review screen and the queue ──────────────────────────────────────────────────
-export type ReviewDetail = {
-  revision: { id: string; number: number; state: ReviewState; contentHash: string; document: BenchDocument; updatedAt: string };
-  bench: { id: string; title: string; labName: string; authorName: string; authorId: string };
-  decision: DecisionView | null;
-  /** The newest earlier revision that was ever signed off, and what changed since. */
-  lastApproved: { id: string; number: number; state: ReviewState; contentHash: string; diff: BenchDiff } | null;
-  threads: CommentThread[];
-  trail: { at: string; action: string; actorName: string | null; detail: Record<string, unknown> }[];
-  may: { decide: boolean; comment: boolean; submit: boolean; withdraw: boolean; whyNotDecide: string | null };
-};
-
-export async function getReview(db: Database, actor: Actor, revisionId: string): Promise<ReviewDetail> {
-  authorize(actor, { bench: ["read"] });
-  const r = await loadRevision(db, actor, revisionId);
-  const [decisionRow] = await db.select().from(reviewDecision).where(eq(reviewDecision.revisionId, r.id));
-  const [approvedRow] = await db
-    .select({ id: benchRevision.id, number: benchRevision.number, state: benchRevision.state, contentHash: benchRevision.contentHash, document: benchRevision.document })
-    .from(benchRevision)
-    .where(and(eq(benchRevision.benchId, r.benchId), lt(benchRevision.number, r.number), inArray(benchRevision.state, [...ONCE_APPROVED])))
-    .orderBy(desc(benchRevision.number))
-    .limit(1);
-  const canReadReview = rolesAllow(actor.roles, { review: ["read"] });
-  const threads = canReadReview ? await threadsOf(db, r.id) : [];
-  const trailRows = await db
-    .select({ at: auditEvent.at, action: auditEvent.action, actorName: user.name, detail: auditEvent.detail })
-    .from(auditEvent)
-    .leftJoin(user, eq(user.id, auditEvent.actorId))
-    .where(and(eq(auditEvent.revisionId, r.id), sql`${auditEvent.action} like 'review-%'`))
-    .orderBy(asc(auditEvent.at));
-
-  const officer = rolesAllow(actor.roles, { review: ["decide"] });
-  let whyNotDecide: string | null = null;
-  if (!officer) whyNotDecide = "Only a laser safety officer can decide on a revision.";
-  else if (isAuthor(actor, r)) whyNotDecide = "You drew this bench, so another safety officer has to review it.";
-  else if (!canMove("approve", r.state)) whyNotDecide = stateSentence(r);
-
-  return {
-    revision: { id: r.id, number: r.number, state: r.state, contentHash: r.contentHash, document: r.document, updatedAt: r.updatedAt.toISOString() },
-    bench: { id: r.benchId, title: r.benchTitle, labName: r.labName, authorName: r.authorName, authorId: r.authorId },
-    decision: decisionRow ? decisionView(decisionRow) : null,
-    lastApproved: approvedRow
-      ? { id: approvedRow.id, number: approvedRow.number, state: approvedRow.state, contentHash: approvedRow.contentHash, diff: diffBenches(approvedRow.document as BenchDocument, r.document) }
-      : null,
-    threads,
-    trail: trailRows.map((t) => ({ at: t.at.toISOString(), action: t.action, actorName: t.actorName, detail: t.detail })),
-    may: {
-      decide: whyNotDecide === null,
-      comment: rolesAllow(actor.roles, { review: ["comment"] }) && COMMENTS_OPEN(r.state),
-      submit: r.authorId === actor.userId && rolesAllow(actor.roles, { bench: ["submit"] }) && canMove("submit", r.state),
-      withdraw: r.authorId === actor.userId && rolesAllow(actor.roles, { bench: ["submit"] }) && canMove("withdraw", r.state),
-      whyNotDecide,
-    },
-  };
-}
-
-export type QueueRow = { revisionId: string; benchId: string; title: string; labName: string; authorName: string; number: number; contentHash: string; submittedAt: string; mine: boolean };
-export type DecidedRow = { revisionId: string; title: string; labName: string; number: number; state: ReviewState; outcome: DecisionOutcome; signerName: string; decidedAt: string; validUntil: string | null };
-
-/** The officer's queue (oldest waiting first) and the latest decisions. */
-export async function reviewQueue(db: Database, actor: Actor): Promise<{ waiting: QueueRow[]; decided: DecidedRow[] }> {
-  authorize(actor, { review: ["read"] });
-  const scope = inScope(actor);
-  const waiting = await db
-    .select({
-      revisionId: benchRevision.id,
-      benchId: bench.id,
-      title: bench.title,
-      labName: lab.name,
-      authorName: user.name,
-      authorId: bench.authorId,
-      number: benchRevision.number,
-      contentHash: benchRevision.contentHash,
-      submittedAt: benchRevision.updatedAt,
-    })
-    .from(benchRevision)
-    .innerJoin(bench, eq(bench.id, benchRevision.benchId))
-    .innerJoin(lab, eq(lab.id, bench.labId))
-    .innerJoin(user, eq(user.id, bench.authorId))
-    .where(and(scope, eq(benchRevision.state, "submitted")))
-    .orderBy(asc(benchRevision.updatedAt));
-  const decided = await db
-    .select({
-      revisionId: benchRevision.id,
-      title: bench.title,
-      labName: lab.name,
-      number: benchRevision.number,
-      state: benchRevision.state,
-      outcome: reviewDecision.outcome,
-      signerName: reviewDecision.signerName,
-      decidedAt: reviewDecision.decidedAt,
-      validUntil: reviewDecision.validUntil,
-    })
-    .from(reviewDecision)
-    .innerJoin(benchRevision, eq(benchRevision.id, reviewDecision.revisionId))
-    .innerJoin(bench, eq(bench.id, benchRevision.benchId))
-    .innerJoin(lab, eq(lab.id, bench.labId))
-    .where(scope)
-    .orderBy(desc(reviewDecision.decidedAt))
-    .limit(20);
-  return {
-    waiting: waiting.map(({ authorId, submittedAt, ...w }) => ({ ...w, submittedAt: submittedAt.toISOString(), mine: authorId === actor.userId })),
-    decided: decided.map((d) => ({ ...d, decidedAt: d.decidedAt.toISOString(), validUntil: d.validUntil?.toISOString() ?? null })),
-  };
 }

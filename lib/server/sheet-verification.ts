@@ -1,8 +1,9 @@
 // Verifying a printed build sheet by its content hash: does it belong to a signed-off revision, does that
 // sign-off still hold (or has it expired or been replaced), and who signed it when. Lab scope applies.
 import "server-only";
-import { and, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
+import { and, desc, eq } from "drizzle-orm";
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import type { Database } from "@/db";
 import { bench, benchRevision, lab, reviewDecision, type ReviewState } from "@/db/schema";
 import { rolesAllow } from "@/lib/auth/permissions";
@@ -10,7 +11,7 @@ import { AppError } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import type { Actor } from "./authorize";
 import { signOffSentence, signOffStatus, type SignOffStatus } from "@/lib/build/rules";
-import { inScope, scopeHolds } from "./scope";
+import { inScope } from "./scope";
 
 export type Verdict = "valid" | "expired" | "superseded" | "not-signed-off" | "unknown";
 
@@ -33,11 +34,10 @@ export type Verification = { hash: string; verdict: Verdict; headline: string; m
 
 /** Accepts the bare hash or the whole verify link a QR code holds. */
 export const verifyInput = z.object({
-  hash: z
-    .string({ error: "Enter the content hash printed on the sheet" })
+  hash: safeText({ error: "Enter the content hash printed on the sheet" })
     .trim()
     .transform((v) => (v.match(/[?&]hash=([0-9a-fA-F]{64})/)?.[1] ?? v).toLowerCase().replace(/\s+/g, ""))
-    .pipe(z.string().regex(/^[0-9a-f]{64}$/, "The content hash is 64 characters, 0–9 and a–f, as printed under the QR code")),
+    .pipe(safeText().regex(/^[0-9a-f]{64}$/, "The content hash is 64 characters, 0–9 and a–f, as printed under the QR code")),
 });
 
 const HEADLINE: Record<Verdict, string> = {

@@ -7,7 +7,7 @@ import type { Database } from "@/db";
 import { auditEvent, bench, benchRevision, lab, reviewComment, reviewDecision, user, type ReviewState } from "@/db/schema";
 import { rolesAllow } from "@/lib/auth/permissions";
 import { notFound } from "@/lib/errors";
-import { authorize, authorizeLab, type Actor } from "./authorize";
+import { authorize, type Actor } from "./authorize";
 import { scopeHolds, visibleOr404, type LabScope } from "./scope";
 
 /** One line of a bench's trail: a revision, a decision, a comment or any other audit event. */

@@ -28,7 +28,7 @@ test.beforeAll(async () => {
   pool = new pg.Pool({ connectionString: databaseUrl(), max: 1 });
   // A sign-off that ends in 12 days, signed by the demo officer on a bench of the demo researcher.
   const { rows } = await pool.query<{ lab: string; author: string; officer: string; officer_name: string }>(
-    `select (select id from lab where name = 'Coherent Imaging Lab') as lab,
+    `select (select id from lab where name = 'Wrenfield Imaging Lab') as lab,
             (select id from "user" where email = 'researcher@northmere.example.edu') as author,
             (select id from "user" where email = 'officer@northmere.example.edu') as officer,
             (select name from "user" where email = 'officer@northmere.example.edu') as officer_name`,
@@ -108,7 +108,7 @@ test("the officer registers a laser and a researcher of the lab finds it in the 
   await officer.getByRole("link", { name: "Register a laser" }).click();
   await officer.getByLabel("Manufacturer and model").fill(laserModel);
   await officer.getByLabel("Serial number").fill(`GL50-${marker}`);
-  await officer.getByLabel("Lab", { exact: true }).selectOption({ label: "Coherent Imaging Lab" });
+  await officer.getByLabel("Lab", { exact: true }).selectOption({ label: "Wrenfield Imaging Lab" });
   await officer.getByLabel("Location (room, table)").fill("Harbour Building B214, table 1");
   await officer.getByLabel("Class on the label").selectOption("2");
   await officer.getByLabel("Wavelengths (nm)").fill("532");

@@ -294,14 +294,14 @@ test("two fingers pinch the drawing on a touch screen", async ({ browser }) => {
 
 const REGISTER_MODEL = "Northmere Optics HN-10 (editor e2e)";
 
-/** The Coherent Imaging Lab's in-service HeNe for this test, entered by the officer once (found again on later runs). */
+/** The Wrenfield Imaging Lab's in-service HeNe for this test, entered by the officer once (found again on later runs). */
 async function ensureRegisterLaser(baseURL: string): Promise<{ id: string; labId: string }> {
   const api = await playwrightRequest.newContext({ baseURL, extraHTTPHeaders: { origin: baseURL, "x-forwarded-for": "198.51.100.77" } });
   try {
     const signedIn = await api.post("/api/auth/sign-in/email", { data: { email: "officer@northmere.example.edu", password: PASSWORD } });
     expect(signedIn.status()).toBe(200);
     const labs = (await (await api.get("/api/labs")).json()) as { labs: { id: string; name: string }[] };
-    const labId = labs.labs.find((l) => l.name === "Coherent Imaging Lab")!.id;
+    const labId = labs.labs.find((l) => l.name === "Wrenfield Imaging Lab")!.id;
     const listed = (await (await api.get(`/api/lasers?labId=${labId}&status=in-service`)).json()) as { lasers: { id: string; model: string }[] };
     const known = listed.lasers.find((l) => l.model === REGISTER_MODEL);
     if (known) return { id: known.id, labId };

@@ -43,7 +43,8 @@ test("a researcher who opens the people page is told why not", async ({ page }) 
   await page.getByLabel("Password").fill(PASSWORD);
   await page.getByRole("button", { name: "Sign in" }).click();
   await expect(page.getByTestId("home-researcher")).toBeVisible();
-  await page.goto("/admin/people");
+  const response = await page.goto("/admin/people");
+  expect(response?.status()).toBe(403);
   await expect(page.getByRole("heading", { name: "Not open to your role" })).toBeVisible();
-  await expect(page.getByText("Your role (Researcher) may not list user accounts.")).toBeVisible();
+  await expect(page.getByText("Your role (Researcher) does not open this page.")).toBeVisible();
 });

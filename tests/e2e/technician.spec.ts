@@ -24,7 +24,7 @@ test.beforeAll(async () => {
   try {
     const researcher = await signIn(DEMO.researcher);
     const officer = await signIn(DEMO.officer);
-    const labId = await labIdByName(researcher.cookie, "Coherent Imaging Lab");
+    const labId = await labIdByName(researcher.cookie, "Wrenfield Imaging Lab");
     const b = await createDrawnBench(pool, researcher.cookie, labId, sampleBench(title));
     await call("POST", `/api/revisions/${b.revisionId}/submit`, researcher.cookie, { contentHash: b.contentHash });
     const decided = await call("POST", `/api/revisions/${b.revisionId}/decision`, officer.cookie, { outcome: "approve", contentHash: b.contentHash, password: DEMO_PASSWORD, conditions: "Enclosure closed." });
@@ -101,7 +101,7 @@ test("a technician builds a signed-off bench from its sheet and records what was
     await expect(box).toBeChecked();
   }
   await expect(checklist).toContainText(`${total} of ${total} ticked`);
-  await expect(page.getByRole("button", { name: "Sign off the build" })).toBeEnabled();
+  await expect(page.getByRole("button", { name: "Complete the build" })).toBeEnabled();
   await checklist.screenshot({ path: `${shots}/technician-3b-checklist-ticked.png` });
 
   // The prediction behind iris-1, as the card shows it (pattern diameter, power at the screen).
@@ -148,15 +148,15 @@ test("a technician builds a signed-off bench from its sheet and records what was
   await expect(upload.getByRole("alert")).toContainText("is not a PNG, JPEG or PDF file");
   await page.screenshot({ path: `${shots}/technician-5-build-page.png`, fullPage: true });
 
-  // Sign off the build: everything is ticked and within tolerance.
-  await page.getByRole("button", { name: "Sign off the build" }).click();
-  await expect(page.getByText(/Signed off by .+ on \d{4}-\d{2}-\d{2}/)).toBeVisible();
+  // Complete the build: everything is ticked and within tolerance.
+  await page.getByRole("button", { name: "Complete the build" }).click();
+  await expect(page.getByText(/Build completed by .+, \d{1,2} \w{3} \d{4}, \d{2}:\d{2}/)).toBeVisible();
 
   // The bench's trail shows the rebuild to the technician (review comments are not theirs to read).
   await page.goto(`/benches/${benchId}/trail`);
   const trail = page.getByTestId("trail-timeline");
   await expect(page.getByRole("heading", { name: `Trail of ${title}` })).toBeVisible();
-  for (const words of ["Signed off", "Rebuild started", "Observation recorded", "Photo or file uploaded", "Rebuild completed"]) await expect(trail).toContainText(words);
+  for (const words of ["Signed off", "Build started", "Observation recorded", "Photo or file uploaded", "Build completed"]) await expect(trail).toContainText(words);
   await expect(page.getByTestId("trail-comments-hidden")).toBeVisible();
   await page.screenshot({ path: `${shots}/technician-6-trail.png`, fullPage: true });
 });

@@ -20,7 +20,7 @@ let benchId = "";
 beforeAll(async () => {
   pool = new pg.Pool({ connectionString: databaseUrl(), max: 2 });
   for (const key of Object.keys(DEMO) as DemoKey[]) cookies[key] = (await signIn(DEMO[key])).cookie;
-  imagingLabId = await labIdByName(cookies.admin, "Coherent Imaging Lab");
+  imagingLabId = await labIdByName(cookies.admin, "Wrenfield Imaging Lab");
   spectroLabId = await labIdByName(cookies.admin, "Spectroscopy Teaching Lab");
   const invited = await call("POST", "/api/invitations", cookies.admin, { email, name: `Nils Ormsby ${marker}`, roles: ["researcher"], labIds: [imagingLabId] });
   expect(invited.status, invited.text).toBe(201);

@@ -16,7 +16,7 @@ type Build = { id: string; state: string; checklist: Check[]; observations: Json
 const errorOf = (res: { json: Json | null }) => (res.json?.error ?? {}) as { message: string; fields: { path: string }[] };
 
 async function approvedRevision(title: string) {
-  const labId = await labIdByName(cookie.researcher, "Coherent Imaging Lab");
+  const labId = await labIdByName(cookie.researcher, "Wrenfield Imaging Lab");
   const b = await createDrawnBench(pool, cookie.researcher, labId, sampleBench(title));
   expect((await call("POST", `/api/revisions/${b.revisionId}/submit`, cookie.researcher, { contentHash: b.contentHash })).status).toBe(200);
   const decided = await call("POST", `/api/revisions/${b.revisionId}/decision`, cookie.officer, { outcome: "approve", contentHash: b.contentHash, password: DEMO_PASSWORD });
@@ -136,6 +136,25 @@ describe("one build from start to sign-off", () => {
     expect(mail.text).toContain(`/reviews/${b.revisionId}`);
     const { rows } = await pool.query("select detail from audit_event where action = 'build-observation-recorded' and revision_id = $1", [b.revisionId]);
     expect(rows.length).toBe(2);
+  });
+
+  it("an observation keeps the prediction it was compared with, so a later engine never rewrites its reasons", async () => {
+    const { rows } = await pool.query(
+      "select id, predicted_screen_power_mw, predicted_spot_diameter_mm, prediction_engine, reasons, mismatch from build_observation where build_id = $1 and mismatch order by created_at desc limit 1",
+      [build.id],
+    );
+    const kept = rows[0];
+    expect(kept.prediction_engine).toMatch(/^\d{4}-\d{2}-\d{2}/);
+    expect(kept.predicted_screen_power_mw).toBeGreaterThan(0);
+    expect(kept.reasons.join(" ")).toMatch(/Power at the screen: predicted/);
+    // As if the engine had changed since: the record still shows what it was compared with and said then.
+    await pool.query("update build_observation set prediction_engine = 'an older engine' where id = $1", [kept.id]);
+    const view = await call("GET", `/api/builds/${build.id}`, cookie.technician);
+    const shown = ((view.json!.build as Json).observations as Json[]).find((o) => o.id === kept.id)!;
+    expect(shown.predictionEngine).toBe("an older engine");
+    expect(shown.predictedScreenPowerMw).toBe(kept.predicted_screen_power_mw);
+    expect(shown.reasons).toEqual(kept.reasons);
+    expect(shown.mismatch).toBe((shown.reasons as string[]).length > 0);
   });
 
   it("refuses an observation with nothing in it, or about an aperture the bench does not have", async () => {

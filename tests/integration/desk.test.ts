@@ -150,7 +150,7 @@ describe("CSV exports", () => {
     expect(res.headers.get("content-disposition")).toMatch(/attachment; filename="sign-offs-\d{4}-\d{2}-\d{2}\.csv"/);
     const text = (await res.text()).replace(/^\uFEFF/, "");
     const lines = text.trimEnd().split("\r\n");
-    expect(lines[0]).toBe("signed_at_utc,bench,lab,revision,content_hash,state,hazard_class_at_signing,signed_by,signer_role,signature_meaning,conditions,valid_until_utc,password_reentered,bench_id,revision_id,decision_id");
+    expect(lines[0]).toBe("signed_at_utc,bench,lab,revision,content_hash,state,state_words,hazard_class_at_signing,signed_by,signer_role,signature_meaning,conditions,valid_until_utc,password_reentered,bench_id,revision_id,decision_id");
     expect(lines).toHaveLength(6);
     const order = lines.slice(1).map((l) => SPECS.find((s) => l.includes(s.title))!.key).join("");
     expect(order).toBe("DBAEC");

@@ -35,7 +35,7 @@ beforeAll(async () => {
     cookies[key] = cookie;
   }
   const labs = await call("GET", "/api/labs", cookies.researcher);
-  imagingLabId = (labs.json!.labs as { id: string; name: string }[]).find((l) => l.name === "Coherent Imaging Lab")!.id;
+  imagingLabId = (labs.json!.labs as { id: string; name: string }[]).find((l) => l.name === "Wrenfield Imaging Lab")!.id;
   const created = await call("POST", "/api/benches", cookies.researcher, { labId: imagingLabId, title: `Draft test ${Date.now()}` });
   expect(created.status).toBe(201);
   benchId = (created.json as { id: string }).id;

@@ -38,7 +38,7 @@ async function auditRows(eyewearId: string) {
 beforeAll(async () => {
   pool = new pg.Pool({ connectionString: databaseUrl(), max: 2 });
   for (const key of Object.keys(DEMO) as DemoKey[]) cookies[key] = (await signIn(DEMO[key])).cookie;
-  imagingLabId = await labIdByName(cookies.officer, "Coherent Imaging Lab");
+  imagingLabId = await labIdByName(cookies.officer, "Wrenfield Imaging Lab");
 });
 
 afterAll(async () => {
@@ -220,5 +220,38 @@ describe("coverage on the review API and page", () => {
     expect(page.text).toContain(`Strong green ${marker}`);
     expect(page.text).toMatch(/ANSI Z136\.1-2014/);
     expect(page.text).toContain("data-testid=\"eyewear-coverage\"");
+  });
+});
+
+describe("further lines in the laser register", () => {
+  it("an officer records a doubled laser's residual lines; the estimate takes the highest class over all lines; bad lines are named", async () => {
+    const base = {
+      labId: imagingLabId,
+      labelClass: "3B",
+      wavelengthsNm: [532],
+      maxPowerMw: 4,
+      beamDiameterMm: 1,
+      divergenceMrad: 1,
+      model: `Invented doubled module ${marker}`,
+      status: "in-service",
+    };
+    const res = await call("POST", "/api/lasers", cookies.officer, { ...base, lines: [{ wavelengthNm: 1064, powerMw: 200 }, { wavelengthNm: 808, powerMw: 20 }] });
+    expect(res.status, res.text).toBe(201);
+    const laser = res.json as { id: string; lines: { wavelengthNm: number; powerMw: number }[]; computed: { hazardClass: string; reasons: string[] } };
+    try {
+      expect(laser.lines).toEqual([{ wavelengthNm: 1064, powerMw: 200 }, { wavelengthNm: 808, powerMw: 20 }]);
+      // 4 mW at 532 nm alone is Class 3R (IEC 60825-1:2014: Class 2 up to 1 mW, 3R up to 5 mW visible CW). 200 mW at
+      // 1064 nm is 3B: above 3R (5 × the Class 1 limit 3.9e-4·C4·C7 W with C4 = 5, C7 = 1, ≈ 9.8 mW — from memory)
+      // and below the 3B limit of 500 mW (IEC 60825-1:2014 Table 8).
+      expect(laser.computed.hazardClass).toBe("3B");
+      expect(laser.computed.reasons.join(" ")).toMatch(/Further line 1064 nm at 200 mW: Class 3B/);
+      const bad = await call("POST", "/api/lasers", cookies.officer, { ...base, lines: [{ wavelengthNm: 100, powerMw: -1 }] });
+      expect(bad.status).toBe(400);
+      const fields = (bad.json as unknown as Problem).error.fields.map((f) => f.path);
+      expect(fields).toContain("lines.0.wavelengthNm");
+      expect(fields).toContain("lines.0.powerMw");
+    } finally {
+      await pool.query("delete from laser_register where id = $1", [laser.id]);
+    }
   });
 });

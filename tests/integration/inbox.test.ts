@@ -34,7 +34,7 @@ beforeAll(async () => {
     expect(s.status, `${key} signs in`).toBe(200);
     cookie[key] = s.cookie;
   }
-  coherentLabId = await labIdByName(cookie.researcher, "Coherent Imaging Lab");
+  coherentLabId = await labIdByName(cookie.researcher, "Wrenfield Imaging Lab");
   const teachingLabId = await labIdByName(cookie.admin, "Spectroscopy Teaching Lab");
   const password = `other-tech-${run}-pw`;
   const other = await createAccount(pool, { name: `Other Technician ${run}`, roles: ["technician"], labIds: [teachingLabId], password });
@@ -71,7 +71,7 @@ describe("GET /api/inbox", () => {
     const item = officerAfter.items.find((i) => i.href === `/reviews/${b.revisionId}`);
     expect(item, "the new submission is listed first").toBeTruthy();
     expect(item!.title).toBe(`${title}, revision 1`);
-    expect(item!.detail).toMatch(/Sent for review by .+ \(Coherent Imaging Lab\)/);
+    expect(item!.detail).toMatch(/Sent for review by .+ \(Wrenfield Imaging Lab\)/);
 
     const techBefore = await section(cookie.technician, "technician");
     const otherBefore = await section(cookie.otherTechnician, "technician");
@@ -106,7 +106,7 @@ describe("GET /api/inbox", () => {
     expect(after.count).toBe(before.count + 1);
     const item = after.items.find((i) => i.id === `bench-${b.benchId}`)!;
     expect(item.title).toBe(title);
-    expect(item.detail).toBe("Changes asked for on revision 1 · 1 new comment in the last 7 days");
+    expect(item.detail).toBe("Changes asked on revision 1 · 1 new comment in the last 7 days");
     expect(item.href).toBe(`/reviews/${b.revisionId}`);
     // Another lab's researcher (the student) never sees it.
     const student = await section(cookie.student, "researcher");

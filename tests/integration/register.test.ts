@@ -37,7 +37,7 @@ beforeAll(async () => {
   pool = new pg.Pool({ connectionString: databaseUrl(), max: 2 });
   db = drizzle(pool, { schema }) as unknown as Database;
   for (const key of Object.keys(DEMO) as DemoKey[]) cookies[key] = (await signIn(DEMO[key])).cookie;
-  imagingLabId = await labIdByName(cookies.officer, "Coherent Imaging Lab");
+  imagingLabId = await labIdByName(cookies.officer, "Wrenfield Imaging Lab");
   spectroLabId = await labIdByName(cookies.officer, "Spectroscopy Teaching Lab");
 });
 

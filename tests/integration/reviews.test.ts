@@ -47,7 +47,7 @@ beforeAll(async () => {
     expect(s.status, `${key} signs in`).toBe(200);
     cookie[key] = s.cookie;
   }
-  imagingLabId = await labIdByName(cookie.researcher, "Coherent Imaging Lab");
+  imagingLabId = await labIdByName(cookie.researcher, "Wrenfield Imaging Lab");
 });
 
 afterAll(async () => {
@@ -70,7 +70,7 @@ describe("the whole review cycle", () => {
       expect(part).toContain(title);
       expect(part).toContain(b.contentHash);
       expect(part).toContain(link);
-      expect(part).toContain("Coherent Imaging Lab");
+      expect(part).toContain("Wrenfield Imaging Lab");
     }
     expect(mail.text).toMatch(/Revision: 1/);
     expect(mail.html).toMatch(/<a href="http[^"]+\/reviews\//);
@@ -129,7 +129,8 @@ describe("the whole review cycle", () => {
       for (const part of [mail.text, mail.html]) {
         expect(part).toContain(b.contentHash);
         expect(part).toContain("Eyewear OD 2 at 633 nm");
-        expect(part).toContain(`/reviews/${b.revisionId}`);
+        // the author opens the revision; the technician lands where the build is started
+        expect(part).toContain(to === DEMO.technician ? `/builds#revision-${b.revisionId}` : `/reviews/${b.revisionId}`);
       }
     }
     const seen = await call("GET", `/api/revisions/${b.revisionId}`, cookie.researcher);
@@ -347,7 +348,7 @@ describe("the outbox with the SMTP server down", () => {
     const scratchDb = drizzle(scratchPool, { schema }) as unknown as Database;
     const to = `outbox-${run}@northmere.example.edu`;
     const hash = "ab".repeat(32);
-    await enqueueMail(scratchDb, reviewSubmittedMail({ email: to, name: "Outbox Test" }, { benchTitle: `Outbox ${run}`, labName: "Coherent Imaging Lab", revisionId: "00000000-0000-4000-8000-000000000000", revisionNumber: 1, contentHash: hash, authorName: "A" }));
+    await enqueueMail(scratchDb, reviewSubmittedMail({ email: to, name: "Outbox Test" }, { benchTitle: `Outbox ${run}`, labName: "Wrenfield Imaging Lab", revisionId: "00000000-0000-4000-8000-000000000000", revisionNumber: 1, contentHash: hash, authorName: "A" }));
 
     const closedPort = 1; // nothing listens on port 1 here; connecting is refused at once
     const down = smtpTransport({ SMTP_HOST: "127.0.0.1", SMTP_PORT: closedPort, SMTP_SECURE: "false" });

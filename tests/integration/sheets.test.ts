@@ -57,7 +57,7 @@ type Json = Record<string, unknown>;
 type Sheet = { id: string; state: string; progressPercent: number; error: string | null; downloadUrl: string | null };
 
 async function approvedRevision(t: string, doc: BenchDocument = sampleBench(t)) {
-  const labId = await labIdByName(cookie.researcher, "Coherent Imaging Lab");
+  const labId = await labIdByName(cookie.researcher, "Wrenfield Imaging Lab");
   const b = await createDrawnBench(pool, cookie.researcher, labId, doc);
   expect((await call("POST", `/api/revisions/${b.revisionId}/submit`, cookie.researcher, { contentHash: b.contentHash })).status).toBe(200);
   const decided = await call("POST", `/api/revisions/${b.revisionId}/decision`, cookie.officer, { outcome: "approve", contentHash: b.contentHash, password: DEMO_PASSWORD, conditions: CONDITIONS });
@@ -105,10 +105,14 @@ describe("the build sheet PDF", () => {
     const first = res.json!.sheet as Sheet;
     expect(res.json!.reused).toBe(false);
     expect(["queued", "rendering"]).toContain(first.state);
-    const { sheet } = await waitReady(approved.revisionId, cookie.technician);
+    const { sheet, seen } = await waitReady(approved.revisionId, cookie.technician);
     expect(sheet.error).toBeNull();
     expect(sheet.state).toBe("ready");
-    expect(sheet.progressPercent).toBe(100);
+    // The order the name claims: the progress seen while polling never goes back, and ends at 100.
+    const progress = [first.progressPercent, ...seen];
+    for (let i = 1; i < progress.length; i++) expect(progress[i], `progress ${progress.join(" → ")}`).toBeGreaterThanOrEqual(progress[i - 1]);
+    expect(progress.at(-1)).toBe(100);
+    expect(progress[0]).toBeLessThan(100);
     expect(sheet.downloadUrl).toBe(`/api/sheets/${sheet.id}/download`);
     sheetId = sheet.id;
   }, 180_000);
@@ -154,7 +158,13 @@ describe("the build sheet PDF", () => {
     expect(text).toContain(`Signed off by ${approved.signerName}`);
     expect(text).toContain("Meaning Approved for operation as drawn, with the conditions listed.");
     expect(text).toContain(`Conditions ${CONDITIONS}`);
-    expect(text).toMatch(/Valid until \d{4}-\d{2}-\d{2}/);
+    expect(text).toMatch(/Valid until \d{1,2} [A-Z][a-z]{2} \d{4} \(to the end of that day\)/); // one date format, the lab's zone
+    // The hash is printed unbroken (one line), never split across lines.
+    expect(all).toContain(approved.contentHash);
+    // The sheet's figures are advice; work is authorised by the sign-off; the scope limits are on the safety page.
+    expect(text).toContain("Work is authorised by the sign-off above, under its conditions");
+    expect(text).toContain("What these hazard figures do not cover");
+    expect(text).not.toMatch(/from memory|recalled|PRODUCT\.md|never authorises/);
     // Every page: the running footer and its page number.
     pages.forEach((page, i) => {
       expect(flat(page)).toContain("Uncontrolled when printed — check the online record");
@@ -182,7 +192,7 @@ describe("the build sheet PDF", () => {
   }, 180_000);
 
   it("refuses a sheet of a revision that is not signed off, and hides other labs' revisions", async () => {
-    const labId = await labIdByName(cookie.researcher, "Coherent Imaging Lab");
+    const labId = await labIdByName(cookie.researcher, "Wrenfield Imaging Lab");
     const draft = await createDrawnBench(pool, cookie.researcher, labId, sampleBench(`Draft sheet ${run}`));
     const res = await call("POST", `/api/revisions/${draft.revisionId}/sheet`, cookie.technician, { paper: "A4" });
     expect(res.status).toBe(409);

@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { BUILD_DONE, formatDate } from "@/lib/format";
 import { getDb } from "@/db";
 import { StartBuildButton } from "@/components/builds/start-build-button";
 import { SheetDownload } from "@/components/sheets/sheet-download";
@@ -29,7 +30,7 @@ export default async function BuildsPage() {
         {rows.map((r) => {
           const mine = r.builds.find((b) => b.state === "in-progress");
           return (
-            <li key={r.revisionId} className={`flex flex-col gap-3 rounded-xl border bg-panel p-4 ${r.status === "valid" ? "border-line" : "border-danger/60"}`} data-testid={`buildable-${r.revisionId}`}>
+            <li key={r.revisionId} className={`flex flex-col gap-3 rounded-xl border bg-panel p-4 ${r.status === "valid" ? "border-line" : "border-danger/60"}`} data-testid={`buildable-${r.revisionId}`} id={`revision-${r.revisionId}`}>
               <div className="flex flex-wrap items-center gap-3">
                 <h2 className="text-lg font-semibold">{r.title}</h2>
                 <span className="text-muted">revision {r.number}</span>
@@ -37,7 +38,7 @@ export default async function BuildsPage() {
                 <span className="text-sm text-muted">{r.labName} · drawn by {r.authorName}</span>
               </div>
               <p className={r.status === "valid" ? "" : "text-lg font-semibold text-danger"}>
-                {r.status === "valid" ? `Signed off by ${r.signerName} on ${r.decidedAt.slice(0, 10)}. ${r.statusSentence}` : `✕ ${r.statusSentence}`}
+                {r.status === "valid" ? `Signed off by ${r.signerName} on ${formatDate(r.decidedAt)}. ${r.statusSentence}` : `✕ ${r.statusSentence}`}
               </p>
               <p className="break-all font-mono text-xs text-muted">Content hash {r.contentHash}</p>
               {r.status === "valid" ? (
@@ -59,7 +60,7 @@ export default async function BuildsPage() {
                   {r.builds.map((b) => (
                     <li key={b.id}>
                       <Link href={`/builds/${b.id}`}>
-                        Build by {b.technicianName}, started {b.startedAt.slice(0, 10)} — {b.state === "completed" ? `signed off ${b.signedOffAt?.slice(0, 10)}` : "in progress"}
+                        Build by {b.technicianName}, started {formatDate(b.startedAt)} — {b.state === "completed" ? `${BUILD_DONE.past} ${formatDate(b.signedOffAt)}` : "in progress"}
                       </Link>
                     </li>
                   ))}

@@ -20,7 +20,7 @@ export default async function LasersPage() {
         <div>
           <h1 className="text-2xl font-semibold">Laser register</h1>
           <p className="text-muted">
-            {actor.allLabs ? "Every lab's lasers." : "The lasers of your labs."} The estimate is the engine&apos;s class at maximum power (IEC 60825-1:2014 limits); the label is never changed by it.
+            {actor.allLabs ? "Every lab's lasers." : "The lasers of your labs."} The estimate is Benchwarden&apos;s class at maximum power (IEC 60825-1:2014 limits); the label is never changed by it.
           </p>
         </div>
         {rolesAllow(actor.roles, { register: ["manage"] }) ? (

@@ -3,7 +3,7 @@ import { getDb } from "@/db";
 import { Refused } from "@/components/shell/refused";
 import { StateBadge } from "@/components/ui/state-badge";
 import { utc, day } from "@/components/review/format";
-import { reviewQueue } from "@/lib/server/reviews";
+import { reviewQueue } from "@/lib/server/review-screen";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 
 export const metadata = { title: "Reviews" };
@@ -23,7 +23,7 @@ export default async function ReviewQueuePage() {
         {waiting.length === 0 ? (
           <p className="rounded-lg border border-dashed border-line p-4 text-muted">Nothing is waiting for review.</p>
         ) : (
-          <div className="overflow-x-auto rounded-lg border border-line">
+          <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
             <table className="w-full text-left">
               <caption className="sr-only">Revisions waiting for review</caption>
               <thead className="bg-raised text-sm text-muted">
@@ -65,7 +65,7 @@ export default async function ReviewQueuePage() {
         {decided.length === 0 ? (
           <p className="rounded-lg border border-dashed border-line p-4 text-muted">No decisions yet.</p>
         ) : (
-          <div className="overflow-x-auto rounded-lg border border-line">
+          <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
             <table className="w-full text-left">
               <caption className="sr-only">Recent decisions</caption>
               <thead className="bg-raised text-sm text-muted">

@@ -1,3 +1,4 @@
+import { formatDate, formatDateTime } from "@/lib/format";
 import { getDb } from "@/db";
 import { Refused } from "@/components/shell/refused";
 import { rolesAllow } from "@/lib/auth/permissions";
@@ -6,7 +7,7 @@ import { parseWith } from "@/lib/server/api";
 import { pageActor } from "@/lib/server/page-guard";
 import { verifyInput, verifySheetHash, type Verification } from "@/lib/server/sheet-verification";
 
-export const metadata = { title: "Verify a build sheet" };
+export const metadata = { title: "Check a sheet" };
 
 const LOOK: Record<Verification["verdict"], { shape: string; className: string }> = {
   valid: { shape: "✓", className: "border-ok text-ok" },
@@ -35,7 +36,7 @@ export default async function VerifyPage({ searchParams }: { searchParams: Promi
   }
   return (
     <div className="flex max-w-3xl flex-col gap-6">
-      <h1 className="text-2xl font-semibold">Verify a build sheet</h1>
+      <h1 className="text-2xl font-semibold">Check a sheet</h1>
       <form method="get" className="flex flex-col gap-2">
         <label htmlFor="hash" className="font-medium">
           Content hash printed on the sheet (or the link from its QR code)
@@ -67,8 +68,8 @@ export default async function VerifyPage({ searchParams }: { searchParams: Promi
               <p>{m.sentence}</p>
               {m.signerName ? (
                 <p>
-                  Approved by <strong>{m.signerName}</strong> ({m.signerRole}) on <strong>{m.decidedAt?.slice(0, 16).replace("T", " ")} UTC</strong>
-                  {m.validUntil ? `, valid until ${m.validUntil.slice(0, 10)}` : ""}.
+                  Approved by <strong>{m.signerName}</strong> ({m.signerRole}) on <strong>{formatDateTime(m.decidedAt)}</strong>
+                  {m.validUntil ? `, valid until ${formatDate(m.validUntil)}` : ""}.
                 </p>
               ) : null}
               {m.conditions ? <p>Conditions: {m.conditions}</p> : null}

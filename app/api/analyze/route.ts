@@ -1,5 +1,5 @@
 import { analyzeRequestSchema } from "@/lib/api/analysis-contracts";
-import { analyzeBench } from "@/lib/optics";
+import { analyzeBench, fieldPowerProbe } from "@/lib/optics";
 import { assessBench, type BenchSafetyAssessment, type TableSafetyAssessment } from "@/lib/safety";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
 
@@ -39,7 +39,7 @@ export const POST = apiRoute({ analysis: ["run"] }, async ({ request }) => {
   const analysis = analyzeBench(document);
   let safety: BenchSafetyAssessment | undefined;
   try {
-    safety = assessBench(document, analysis);
+    safety = assessBench(document, { elements: analysis.elements, enclosedPowerMw: fieldPowerProbe(document) });
   } catch (error) {
     // The optics answer stands on its own; a bench the safety engine cannot assess gets no safety block.
     console.warn("[benchwarden] safety assessment skipped", error);

@@ -1,6 +1,7 @@
 import { getDb } from "@/db";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
-import { listBuildable, startBuild, startBuildInput } from "@/lib/server/builds";
+import { startBuildInput } from "@/lib/api/contracts/builds";
+import { listBuildable, startBuild } from "@/lib/server/builds";
 
 // GET: the signed-off revisions of the caller's labs with their builds. POST: start a build of one.
 export const GET = apiRoute({ build: ["read"] }, async ({ actor }) => ({ revisions: await listBuildable(getDb(), actor) }));

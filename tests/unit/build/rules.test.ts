@@ -43,8 +43,8 @@ describe("sign-off status", () => {
     expect(signOffStatus({ state: "approved", decision: null }, now)).toBe("not-signed-off");
   });
   it("says what to do in each case", () => {
-    expect(signOffSentence({ number: 4, decision: { validUntil: later } }, "valid")).toBe("Signed off, valid until 2026-12-31.");
-    expect(signOffSentence({ number: 4, decision: { validUntil: earlier } }, "expired")).toMatch(/^The sign-off of revision 4 has expired \(it held until 2026-05-01\): do not build/);
+    expect(signOffSentence({ number: 4, decision: { validUntil: later } }, "valid")).toBe("Signed off, valid until 31 Dec 2026."); // one date format, in the lab's time zone
+    expect(signOffSentence({ number: 4, decision: { validUntil: earlier } }, "expired")).toMatch(/^The sign-off of revision 4 has expired \(it held until 1 May 2026\): do not build/);
     expect(signOffSentence({ number: 4, decision: null }, "superseded")).toMatch(/build the newer one/);
   });
 });
@@ -127,7 +127,8 @@ describe("uploaded files", () => {
     expect(sniffFileType(new Uint8Array([0x89, 0x50]))).toBeNull();
   });
   it("keep a name without path separators or control characters", () => {
-    expect(safeFileName("../etc/pass\u0000wd.png", "png")).toBe(".._etc_pass_wd.png");
+    // Stored as given (never a path); the route refuses NUL before this.
+    expect(safeFileName("../etc/Ø «光» passwd.png", "png")).toBe("../etc/Ø «光» passwd.png");
     expect(safeFileName("", "pdf")).toBe("upload.pdf");
   });
 });

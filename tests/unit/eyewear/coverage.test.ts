@@ -8,6 +8,7 @@ import {
   eyewearBandsSchema,
   eyewearCoverage,
   itemCovers,
+  lineNeeds,
   protectionAt,
   type EyewearItem,
 } from "@/lib/safety/eyewear";
@@ -171,5 +172,48 @@ describe("validation of an item's bands (every message names its field)", () => 
     expect(issues([{ fromNm: 500, toNm: 600, opticalDensity: "4" }])[0].message).toMatch(/Optical density \(opticalDensity\) must be a number/);
     expect(issues([{ fromNm: 500, toNm: 600, opticalDensity: 4, en207ScaleNumber: 4.5 }])[0]).toMatchObject({ path: "0.en207ScaleNumber" });
     expect(issues([{ fromNm: 100, toNm: 600, opticalDensity: 4 }])[0]).toMatchObject({ path: "0.fromNm", message: expect.stringMatching(/at least 180 nm/) });
+  });
+});
+
+describe("the lines a bench's hazard answer gives", () => {
+  const governing = { opticalDensityRequired: 3.2 } as never;
+  it("one line from today's answer: the laser's wavelength with the highest OD on the bench", () => {
+    expect(lineNeeds({ laserId: "L", wavelengthNm: 532, governing })).toEqual([{ laserId: "L", wavelengthNm: 532, opticalDensityRequired: 3.2, label: "main line" }]);
+    expect(lineNeeds({ laserId: "L", wavelengthNm: 532, governing: null })[0].opticalDensityRequired).toBe(0);
+  });
+  it("per-line figures where the answer has lasers with lines; the main line never below the bench's highest OD", () => {
+    const safety = {
+      laserId: "L",
+      wavelengthNm: 532,
+      governing,
+      lasers: [{ laserId: "L", lines: [{ wavelengthNm: 532, opticalDensityRequired: 2.5 }, { wavelengthNm: 1064, opticalDensityRequired: 1.1 }, { wavelengthNm: 808, opticalDensityRequired: null }] }],
+    };
+    expect(lineNeeds(safety).map((l) => [l.wavelengthNm, l.opticalDensityRequired, l.label])).toEqual([
+      [532, 3.2, "main line"],
+      [1064, 1.1, "line 2"],
+      [808, null, "line 3"],
+    ]);
+  });
+});
+
+describe("the rail assessment's per-line figures (lines.lines and points[].lines)", () => {
+  it("takes, per line, the highest OD over every point and the free beam", () => {
+    const safety = {
+      laserId: "L",
+      wavelengthNm: 532,
+      governing: { opticalDensityRequired: 4 },
+      lines: { lines: [{ wavelengthNm: 532, main: true, opticalDensityRequired: 2 }, { wavelengthNm: 1064, main: false, opticalDensityRequired: 1.5 }] },
+      points: [
+        { lines: [{ wavelengthNm: 532, opticalDensityRequired: 3.9 }, { wavelengthNm: 1064, opticalDensityRequired: 2.7 }] },
+        { lines: [{ wavelengthNm: 532, opticalDensityRequired: 0 }, { wavelengthNm: 1064, opticalDensityRequired: 0.1 }] },
+      ],
+    };
+    expect(lineNeeds(safety).map((l) => [l.wavelengthNm, l.opticalDensityRequired, l.label])).toEqual([
+      [532, 3.9, "main line"],
+      [1064, 2.7, "line 2"],
+    ]);
+    // Without per-point figures the main line takes the bench's highest OD; a further line keeps its own.
+    const bare = { ...safety, points: [] };
+    expect(lineNeeds(bare).map((l) => l.opticalDensityRequired)).toEqual([4, 1.5]);
   });
 });

@@ -67,12 +67,16 @@ describe("properties over schema-valid documents", () => {
       { numRuns: 300 },
     );
   });
-  it("the centre ratio stays in [0, (1 + e^{−R²/w²})²]", () => {
+  it("the centre ratio of an aperture with no clipping edge upstream stays in [0, (1 + e^{−R²/w²})²]", () => {
+    // With apertures in series (PRODUCT.md revision 2) the ratio is the propagated field's and may pass this bound.
     fc.assert(
       fc.property(docArb, (d) => {
-        for (const ap of analyzeBench(d).apertures) {
-          const a = (ap.diameterMm / 2 / ap.incident.radiusMm) ** 2;
+        const r = analyzeBench(d);
+        const firstApertureId = r.elements.find((e) => e.kind === "aperture" && e.status === "lit")?.id;
+        for (const ap of r.apertures) {
           expect(ap.centreIntensityRatio).toBeGreaterThanOrEqual(0);
+          if (ap.id !== firstApertureId || r.m2 > 1) continue;
+          const a = (ap.diameterMm / 2 / ap.incident.radiusMm) ** 2;
           expect(ap.centreIntensityRatio).toBeLessThanOrEqual((1 + Math.exp(-a)) ** 2 * (1 + 1e-12));
         }
       }),
@@ -100,5 +104,5 @@ describe("properties over schema-valid documents", () => {
       }),
       { numRuns: 100 },
     );
-  });
+  }, 30_000); // many profiles of extreme documents: seconds on a loaded machine
 });

@@ -49,9 +49,11 @@ describe("the review transition table", () => {
 
 describe("how long a sign-off holds", () => {
   const now = new Date("2026-03-15T10:00:00Z");
-  it("defaults to twelve months and ends a chosen day at its last millisecond (UTC)", () => {
+  it("defaults to twelve months and ends a chosen day at its last millisecond in the lab's time zone", () => {
     expect(validityEnd(now, undefined).toISOString()).toBe("2027-03-15T10:00:00.000Z");
-    expect(validityEnd(now, "2026-06-30").toISOString()).toBe("2026-06-30T23:59:59.999Z");
+    // Europe/London keeps summer time (UTC+1) on 30 June: the day ends at 22:59:59.999 UTC (IANA time zone database)
+    expect(validityEnd(now, "2026-06-30").toISOString()).toBe("2026-06-30T22:59:59.999Z");
+    expect(validityEnd(now, "2026-06-30", "UTC").toISOString()).toBe("2026-06-30T23:59:59.999Z");
   });
   it("refuses today, the past and more than the longest validity, naming the field", () => {
     for (const day of ["2026-03-14", "2020-01-01"]) {

@@ -94,7 +94,11 @@ describe("assessBeam: the PRODUCT.md contract", () => {
   it("carries the limitations list as data", () => {
     expect(heNe.limitations).toBe(LIMITATIONS);
     const ids = LIMITATIONS.map((l) => l.id);
-    expect(ids).toEqual(expect.arrayContaining(["point-source", "single-wavelength", "scanning", "from-memory"]));
+    expect(ids).toEqual(expect.arrayContaining(["point-source", "lines", "scanning", "unchecked-values"]));
+    // Never "from memory" or a file name in what a user reads
+    for (const l of LIMITATIONS) {
+      expect(l.text).not.toMatch(/from memory|\.tsx?\b|\.md\b/);
+    }
   });
 });
 

@@ -1,5 +1,6 @@
 // assessBench: OD at every element, at foci and beyond open ends; governing OD; filters/apertures lower it, focusing raises it.
 // The beam is built by hand from Gaussian-beam formulas (w(z) = w0·√(1+(z/zR)²), zR = π w0²/(M² λ), thin lens on q), per PRODUCT.md.
+import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import type { BenchDocument, BenchElement } from "@/lib/bench/schema";
@@ -16,7 +17,7 @@ function handBeam(doc: BenchDocument): BenchBeam {
   let re = 0;
   let im = (Math.PI * w0 * w0) / (m2 * λMm); // q = i·zR at the waist
   let pos = laser.positionMm;
-  let power = laser.powerMw;
+  let power = laserBeamPowerMw(laser);
   let stopped = false;
   const sorted = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm);
   return {

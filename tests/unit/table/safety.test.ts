@@ -35,7 +35,7 @@ describe("open beams", () => {
     expect(open.powerMw).toBeCloseTo(10, 9);
     const r = 0.35; // cm
     const eWPerCm2 = (0.01 * (1 - Math.exp((-2 * 3.5 * 3.5) / (w * w)))) / (Math.PI * r * r);
-    const mpe = assessBeam({ wavelengthNm: 532, powerMw: 20, beamDiameterMm: 1, divergenceMrad: 1 }).mpeWPerCm2;
+    const mpe = assessBeam({ wavelengthNm: 532, powerMw: 20, beamDiameterMm: 1, divergenceMrad: 1 }).mpeWPerCm2 as number;
     expect(open.exceedsMpe).toBe(eWPerCm2 > mpe);
     expect(open.exceedsMpe).toBe(true);
     expect(open.opticalDensityRequired).toBeCloseTo(Math.log10(eWPerCm2 / mpe), 6);
@@ -76,11 +76,13 @@ describe("every laser, every line", () => {
     expect(s.lasers.map((l) => l.laserId)).toEqual(["G", "pump"]);
     const pump = s.lasers[1];
     expect(pump.lines.map((l) => l.wavelengthNm)).toEqual([1064, 532]);
-    const alone532 = assessBeam({ wavelengthNm: 532, powerMw: 30, beamDiameterMm: 1e-3, divergenceMrad: 1 });
+    // a further line shares the main beam's size; its divergence is that of its own wavelength: 2M²λ/(π w0)
+    const alone532 = assessBeam({ wavelengthNm: 532, powerMw: 30, beamDiameterMm: 2, divergenceMrad: ((2 * 532e-6) / (Math.PI * 1)) * 1000 });
     const alone1064 = assessBeam({ wavelengthNm: 1064, powerMw: 0.2, beamDiameterMm: 2, divergenceMrad: ((2 * 1064e-6) / (Math.PI * 1)) * 1000 });
     expect(pump.lines[0].hazardClass).toBe(alone1064.hazardClass);
-    expect(pump.lines[0].mpeWPerCm2).toBeCloseTo(alone1064.mpeWPerCm2, 12);
+    expect(pump.lines[0].mpeWPerCm2).toBeCloseTo(alone1064.mpeWPerCm2 as number, 12);
     expect(pump.lines[1].hazardClass).toBe(alone532.hazardClass);
+    expect(pump.lines[1].mpeWPerCm2).toBeCloseTo(alone532.mpeWPerCm2 as number, 12);
     const worst = classRank(alone532.hazardClass) > classRank(alone1064.hazardClass) ? alone532.hazardClass : alone1064.hazardClass;
     expect(pump.hazardClass).toBe(worst);
     expect(s.openBeams).toEqual([]);

@@ -4,7 +4,7 @@
 // zR = π·w0²/(M²·λ) (Siegman, Lasers, 1986, §17.1) — computed here by hand, not by the engine.
 import { describe, expect, it } from "vitest";
 import type { BenchDocumentV2, TableElement } from "@/lib/bench/schema-v2";
-import { analyzeBench, MAX_GENERATIONS, type TableAnalysis } from "@/lib/optics";
+import { analyzeBench, MAX_GENERATIONS, MAX_PATHS, type TableAnalysis } from "@/lib/optics";
 
 const table = { widthMm: 1200, depthMm: 900, holePitchMm: 25 };
 const laser = (over: Partial<Extract<TableElement, { kind: "laser" }>> = {}): TableElement => ({
@@ -189,5 +189,17 @@ describe("a ring of mirrors", () => {
     expect(a.paths).toHaveLength(20);
     expect(a.paths[19].cut).toBe("power");
     expect(a.warnings.some((w) => w.code === "trace-power-limit")).toBe(true);
+  });
+});
+
+describe("a grid of splitters", () => {
+  it(`stops at ${MAX_PATHS} beam segments with a warning instead of branching on`, () => {
+    // 8 × 8 splitters at 45°: every run goes +x or +y and splits at the next one, so runs multiply like lattice paths
+    const grid: TableElement[] = [laser({ xMm: 20, yMm: 100 })];
+    for (let i = 0; i < 8; i++) for (let j = 0; j < 8; j++) grid.push({ id: `s${i}-${j}`, kind: "beam-splitter", xMm: 100 + 100 * i, yMm: 100 + 100 * j, angleDeg: 135, reflectance: 0.5 });
+    const a = analyzeBench(doc(grid));
+    expect(a.paths.length).toBe(MAX_PATHS);
+    expect(a.paths.some((p) => p.cut === "path-limit")).toBe(true);
+    expect(a.warnings.some((w) => w.code === "trace-path-limit")).toBe(true);
   });
 });

@@ -1,9 +1,11 @@
 import { getDb } from "@/db";
 import { LabForm } from "@/components/admin/lab-form";
 import { LabMembers } from "@/components/admin/lab-members";
+import { StandardPicker } from "@/components/eyewear/standard-picker";
 import { Refused } from "@/components/shell/refused";
 import { rolesAllow } from "@/lib/auth/permissions";
 import { listAdminPeople, listLabsWithMembers } from "@/lib/server/admin";
+import { labStandards } from "@/lib/server/eyewear";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 
 export const metadata = { title: "Labs" };
@@ -13,6 +15,7 @@ export default async function LabsPage() {
   const refused = refusal(actor, { lab: ["manage"] });
   if (refused) return <Refused reason={refused} />;
   const [labs, people] = await Promise.all([listLabsWithMembers(getDb(), actor), rolesAllow(actor.roles, { user: ["list"] }) ? listAdminPeople(getDb(), actor) : Promise.resolve([])]);
+  const standards = rolesAllow(actor.roles, { standard: ["set"] }) ? await labStandards(getDb(), actor) : null;
   const choosable = people.filter((p) => p.active).map((p) => ({ id: p.id, name: p.name }));
   return (
     <div className="flex flex-col gap-8">
@@ -26,6 +29,7 @@ export default async function LabsPage() {
                 <p className="font-semibold">{l.name}</p>
                 <p className="text-muted">{l.room ?? "No room recorded"}</p>
               </div>
+              {standards ? <StandardPicker labId={l.id} labName={l.name} current={standards.get(l.id) ?? "ANSI Z136.1-2014"} /> : null}
               <LabMembers labId={l.id} labName={l.name} members={l.members} people={choosable} />
             </li>
           ))}

@@ -1,3 +1,4 @@
+import { formatDate } from "@/lib/format";
 import { getDb } from "@/db";
 import { InviteForm } from "@/components/admin/invite-form";
 import { PersonActions } from "@/components/admin/person-actions";
@@ -20,7 +21,7 @@ export default async function PeoplePage() {
       <div>
         <h1 className="mb-1 text-2xl font-semibold">People</h1>
         <p className="mb-4 text-muted">A deactivated person cannot sign in; everything they drew, wrote and signed stays in the record under their name.</p>
-        <div className="overflow-x-auto rounded-lg border border-line">
+        <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
           <table className="w-full text-left" data-testid="people-table">
             <thead className="bg-raised text-sm text-muted">
               <tr>
@@ -65,7 +66,7 @@ export default async function PeoplePage() {
           <ul className="flex flex-col gap-1">
             {invitations.map((i) => (
               <li key={i.id}>
-                {i.name} · {i.email} · {i.roles.map((r) => ROLE_LABELS[r]).join(", ")} <span className="text-sm text-muted">(link works until {i.expiresAt.slice(0, 10)})</span>
+                {i.name} · {i.email} · {i.roles.map((r) => ROLE_LABELS[r]).join(", ")} <span className="text-sm text-muted">(link works until {formatDate(i.expiresAt)})</span>
               </li>
             ))}
           </ul>

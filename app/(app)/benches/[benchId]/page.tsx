@@ -2,13 +2,14 @@ import { dehydrate, HydrationBoundary, QueryClient } from "@tanstack/react-query
 import { notFound } from "next/navigation";
 import { getDb } from "@/db";
 import { BenchEditor } from "@/components/editor/bench-editor";
-import { SubmitForReview } from "@/components/review/submit-for-review";
 import { Refused } from "@/components/shell/refused";
 import { StateBadge } from "@/components/ui/state-badge";
 import { draftQuery } from "@/lib/api/bench-queries";
+import { rolesAllow } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
 import { getBench } from "@/lib/server/benches";
 import { getDraft } from "@/lib/server/drafts";
+import { labShelf } from "@/lib/server/eyewear";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 
 export const metadata = { title: "Bench" };
@@ -26,12 +27,12 @@ export default async function BenchPage({ params }: { params: Promise<{ benchId:
   });
   // The same query (key) the editor uses in the browser, filled from the data layer directly.
   await queryClient.fetchQuery({ ...draftQuery(benchId), queryFn: () => getDraft(db, actor, benchId) });
+  const shelf = rolesAllow(actor.roles, { eyewear: ["read"] }) ? await labShelf(db, actor, detail.labId) : null;
   return (
     <div className="flex flex-col gap-8">
       <HydrationBoundary state={dehydrate(queryClient)}>
-        <BenchEditor benchId={benchId} labName={detail.labName} authorName={detail.authorName} />
+        <BenchEditor benchId={benchId} labName={detail.labName} authorName={detail.authorName} shelf={shelf} />
       </HydrationBoundary>
-      {detail.revisions[0] ? <SubmitForReview revisionId={detail.revisions[0].id} /> : null}
       <section aria-labelledby="revisions-heading">
         <div className="mb-2 flex flex-wrap items-baseline gap-4">
           <h2 id="revisions-heading" className="text-lg font-semibold">Revisions</h2>

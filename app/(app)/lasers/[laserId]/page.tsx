@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { notFound } from "next/navigation";
 import { getDb } from "@/db";
 import { ClassCheck } from "@/components/register/class-check";
 import { LaserForm } from "@/components/register/laser-form";
@@ -11,7 +12,8 @@ import { AppError } from "@/lib/errors";
 import { listLabs } from "@/lib/server/people";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 import { getLaser, listResponsibleCandidates } from "@/lib/server/register";
-import { FINAL_SAY } from "@/lib/safety";
+import { HazardNotes } from "@/components/ui/hazard-notes";
+import { plainText } from "@/lib/format";
 
 export const metadata = { title: "Laser" };
 
@@ -24,6 +26,7 @@ export default async function LaserPage({ params }: { params: Promise<{ laserId:
   try {
     laser = await getLaser(getDb(), actor, laserId);
   } catch (error) {
+    if (error instanceof AppError && error.status === 404) notFound();
     if (error instanceof AppError) return <Refused reason={error.message} />;
     throw error;
   }
@@ -37,6 +40,7 @@ export default async function LaserPage({ params }: { params: Promise<{ laserId:
     ["Wavelengths", `${laser.wavelengthsNm.map((w) => fmt(w, 4)).join(", ")} nm`],
     ["Maximum power", `${fmt(laser.maxPowerMw)} mW`],
     ["Pulses", pulseText(laser) ?? "Continuous-wave"],
+    ["Further lines", laser.lines?.length ? laser.lines.map((l) => `${fmt(l.wavelengthNm, 4)} nm at ${fmt(l.powerMw)} mW`).join("; ") : "None recorded"],
     ["Beam diameter (1/e²)", `${fmt(laser.beamDiameterMm)} mm`],
     ["Divergence (1/e², full angle)", `${fmt(laser.divergenceMrad)} mrad`],
     ["Last changed", `${utc(laser.updatedAt)} · version ${laser.version}`],
@@ -57,10 +61,12 @@ export default async function LaserPage({ params }: { params: Promise<{ laserId:
         <ClassCheck labelClass={laser.labelClass} computed={laser.computed} long />
         <ul className="mt-3 list-disc pl-5 text-sm text-muted">
           {laser.computed.reasons.map((r) => (
-            <li key={r}>{r}</li>
+            <li key={r}>{plainText(r)}</li>
           ))}
         </ul>
-        <p className="mt-3 text-sm text-muted">{FINAL_SAY}</p>
+        <div className="mt-3">
+          <HazardNotes />
+        </div>
       </section>
       <dl className="grid gap-x-6 gap-y-3 rounded-xl border border-line bg-panel p-5 sm:grid-cols-2">
         {facts.map(([k, val]) => (

@@ -18,7 +18,8 @@ import { AppError } from "@/lib/errors";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 import { revisionEyewear } from "@/lib/server/eyewear";
 import { assessRevision } from "@/lib/review/hazard";
-import { getReview, SIGN_OFF_MEANING } from "@/lib/server/reviews";
+import { SIGN_OFF_MEANING } from "@/lib/review/transitions";
+import { getReview } from "@/lib/server/review-screen";
 
 export const metadata = { title: "Review" };
 
@@ -115,7 +116,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ revisio
             </p>
           )}
 
-          <Section id="diff-heading" title={lastApproved ? `Changes since revision ${lastApproved.number}, the last one signed off` : "Changes since the last sign-off"}>
+          <Section id="diff-heading" title={lastApproved ? `Changes since revision ${lastApproved.number}, the last one signed off` : "Changes since the last revision signed off"}>
             {lastApproved ? <RevisionDiff diff={lastApproved.diff} againstNumber={lastApproved.number} /> : <p className="text-muted">No earlier revision of this bench was signed off, so the whole drawing is new to review.</p>}
           </Section>
 

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { safeText } from "@/lib/validation/text";
 import { benchDocumentSchema } from "@/lib/bench/schema";
 import { MAX_PROFILE_POINTS, OpticsInputError, screenProfile } from "@/lib/optics";
 import { AppError } from "@/lib/errors";
@@ -6,7 +7,7 @@ import { apiRoute, parseWith, readJson } from "@/lib/server/api";
 
 const profileInput = z.object({
   document: benchDocumentSchema,
-  apertureId: z.string({ error: "apertureId must name an aperture" }).min(1, "apertureId must name an aperture"),
+  apertureId: safeText({ error: "apertureId must name an aperture" }).min(1, "apertureId must name an aperture"),
   points: z.number().int().min(2, "points must be at least 2").max(MAX_PROFILE_POINTS, `points must be at most ${MAX_PROFILE_POINTS}`).optional(),
 });
 

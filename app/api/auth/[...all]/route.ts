@@ -1,7 +1,6 @@
-import { toNextJsHandler } from "better-auth/next-js";
-import { getAuth } from "@/lib/auth/auth";
+import { handleAuthRequest } from "@/lib/auth/handler";
 
-// better-auth's own endpoints (sign-in, sign-out, password reset). The instance is created on the
-// first request, so the build needs no environment.
-export const GET = (request: Request) => toNextJsHandler(getAuth()).GET(request);
-export const POST = (request: Request) => toNextJsHandler(getAuth()).POST(request);
+// better-auth's endpoints, only those the product uses (lib/auth/endpoints.ts); the instance is
+// created on the first request, so the build needs no environment.
+export const GET = handleAuthRequest;
+export const POST = handleAuthRequest;

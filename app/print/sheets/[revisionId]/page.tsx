@@ -1,9 +1,11 @@
 import { notFound, redirect } from "next/navigation";
 import { getDb } from "@/db";
 import { PrintSheet } from "@/components/sheets/print-sheet";
+import { rolesAllow } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
 import { currentActor } from "@/lib/server/authorize";
 import { sheetContent } from "@/lib/server/build-sheets";
+import { revisionEyewear } from "@/lib/server/eyewear";
 import { refusal } from "@/lib/server/page-guard";
 
 // The page puppeteer prints into the build sheet PDF (lib/server/build-sheets.ts). It needs a session:
@@ -24,5 +26,6 @@ export default async function PrintSheetPage({ params, searchParams }: { params:
     throw error;
   });
   if (typeof sheet === "string") return <p>{sheet}</p>;
-  return <PrintSheet sheet={sheet} paper={paper} />;
+  const eyewear = rolesAllow(actor.roles, { eyewear: ["read"] }) ? await revisionEyewear(getDb(), actor, revisionId).catch(() => null) : null;
+  return <PrintSheet sheet={sheet} paper={paper} eyewear={eyewear} />;
 }

@@ -1,10 +1,12 @@
 import Link from "next/link";
+import { notFound } from "next/navigation";
 import { getDb } from "@/db";
 import { TrailTimeline } from "@/components/desk/trail-timeline";
 import { Refused } from "@/components/shell/refused";
 import { StateBadge } from "@/components/ui/state-badge";
 import { rolesAllow } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
+import { formatDate, formatDateTime } from "@/lib/format";
 import { getBenchTrail } from "@/lib/server/desk";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 
@@ -19,6 +21,7 @@ export default async function BenchTrailPage({ params }: { params: Promise<{ ben
   try {
     trail = await getBenchTrail(getDb(), actor, benchId);
   } catch (error) {
+    if (error instanceof AppError && error.status === 404) notFound();
     if (error instanceof AppError) return <Refused reason={error.message} />;
     throw error;
   }
@@ -32,7 +35,7 @@ export default async function BenchTrailPage({ params }: { params: Promise<{ ben
         <div>
           <h1 className="text-2xl font-semibold">{trail.bench.title}</h1>
           <p className="text-muted">
-            {trail.bench.labName} · drawn by {trail.bench.authorName} · started {trail.bench.createdAt.slice(0, 10)}
+            {trail.bench.labName} · drawn by {trail.bench.authorName} · started {formatDate(trail.bench.createdAt)}
           </p>
         </div>
         {mayExport ? (
@@ -45,7 +48,7 @@ export default async function BenchTrailPage({ params }: { params: Promise<{ ben
         <h2 id="revisions-heading" className="mb-2 text-lg font-semibold">
           Revisions
         </h2>
-        <div className="overflow-x-auto rounded-lg border border-line">
+        <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className="overflow-x-auto rounded-lg border border-line">
           <table className="w-full text-left">
             <thead className="bg-raised text-sm text-muted">
               <tr>
@@ -65,7 +68,7 @@ export default async function BenchTrailPage({ params }: { params: Promise<{ ben
                   <td className="px-3 py-2">
                     <StateBadge state={r.state} />
                   </td>
-                  <td className="px-3 py-2 text-sm text-muted">{r.createdAt.slice(0, 16).replace("T", " ")} UTC</td>
+                  <td className="px-3 py-2 text-sm text-muted">{formatDateTime(r.createdAt)}</td>
                 </tr>
               ))}
             </tbody>

@@ -1,5 +1,5 @@
-import { NextResponse } from "next/server";
 import { getDb } from "@/db";
+import { AppError } from "@/lib/errors";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
 import { getDraft, saveDraft, saveDraftInput } from "@/lib/server/drafts";
 
@@ -10,17 +10,8 @@ export const PUT = apiRoute<{ benchId: string }>({ bench: ["edit"] }, async ({ r
   const input = parseWith(saveDraftInput, await readJson(request), "The draft");
   const result = await saveDraft(getDb(), actor, params.benchId, input);
   if (!result.ok) {
-    return NextResponse.json(
-      {
-        error: {
-          code: "conflict",
-          message: `Someone saved this bench after you opened it (now revision ${result.current.revisionNumber}, version ${result.current.version}). Nothing was overwritten.`,
-          fields: [],
-        },
-        current: result.current,
-      },
-      { status: 409 },
-    );
+    const { revisionNumber, version } = result.current;
+    throw new AppError("conflict", `Someone saved this bench after you opened it (now revision ${revisionNumber}, version ${version}). Nothing was overwritten.`, [], { current: result.current });
   }
   return { draft: result.draft, createdRevision: result.createdRevision };
 });

@@ -1,5 +1,6 @@
 import { NextResponse } from "next/server";
 import { getDb } from "@/db";
+import { AppError } from "@/lib/errors";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
 import { makeRevision, makeRevisionInput } from "@/lib/server/drafts";
 
@@ -8,17 +9,8 @@ export const POST = apiRoute<{ benchId: string }>({ bench: ["edit"] }, async ({ 
   const input = parseWith(makeRevisionInput, await readJson(request), "The revision request");
   const result = await makeRevision(getDb(), actor, params.benchId, input);
   if (!result.ok) {
-    return NextResponse.json(
-      {
-        error: {
-          code: "conflict",
-          message: `The bench changed after you opened it (now revision ${result.current.revisionNumber}, version ${result.current.version}); no revision was made.`,
-          fields: [],
-        },
-        current: result.current,
-      },
-      { status: 409 },
-    );
+    const { revisionNumber, version } = result.current;
+    throw new AppError("conflict", `The bench changed after you opened it (now revision ${revisionNumber}, version ${version}); no revision was made.`, [], { current: result.current });
   }
   return NextResponse.json({ draft: result.draft, frozen: result.frozen }, { status: 201 });
 });

@@ -1,6 +1,7 @@
 import { getDb } from "@/db";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
-import { checkInput, updateCheck } from "@/lib/server/builds";
+import { checkInput } from "@/lib/api/contracts/builds";
+import { updateCheck } from "@/lib/server/builds";
 
 // One checklist item: ticked, the measured position (tolerance computed on the server), a note.
 export const PATCH = apiRoute<{ buildId: string }>({ build: ["record"] }, async ({ request, actor, params }) => {

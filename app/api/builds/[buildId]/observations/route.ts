@@ -1,6 +1,7 @@
 import { getDb } from "@/db";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
-import { addObservation, observationInput } from "@/lib/server/builds";
+import { observationInput } from "@/lib/api/contracts/builds";
+import { addObservation } from "@/lib/server/builds";
 
 // What was seen, compared with the prediction; a mismatch is flagged and e-mailed to the bench's author.
 export const POST = apiRoute<{ buildId: string }>({ build: ["record"] }, async ({ request, actor, params }) => {

@@ -1,6 +1,7 @@
 import { getDb } from "@/db";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
-import { addComment, commentInput, listComments } from "@/lib/server/reviews";
+import { commentInput } from "@/lib/api/contracts/reviews";
+import { addComment, listComments } from "@/lib/server/review-comments";
 
 export const GET = apiRoute<{ revisionId: string }>({ review: ["read"] }, async ({ actor, params }) => ({
   threads: await listComments(getDb(), actor, params.revisionId),

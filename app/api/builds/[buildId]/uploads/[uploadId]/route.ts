@@ -1,6 +1,6 @@
 import { getDb } from "@/db";
-import { apiRoute } from "@/lib/server/api";
-import { readUpload } from "@/lib/server/builds";
+import { apiRoute, contentDisposition } from "@/lib/server/api";
+import { readUpload } from "@/lib/server/build-uploads";
 
 // One stored upload, served with the type its content was checked to be.
 export const GET = apiRoute<{ buildId: string; uploadId: string }>({ build: ["read"] }, async ({ actor, params }) => {
@@ -10,10 +10,8 @@ export const GET = apiRoute<{ buildId: string; uploadId: string }>({ build: ["re
     headers: {
       "content-type": file.contentType,
       "content-length": String(file.bytes.length),
-      "content-disposition": `${inline ? "inline" : "attachment"}; filename="${file.fileName.replace(/["\\]/g, "_")}"`,
+      "content-disposition": contentDisposition(inline ? "inline" : "attachment", file.fileName),
       "cache-control": "private, max-age=3600",
-      "x-content-type-options": "nosniff",
-      "content-security-policy": "default-src 'none'",
       etag: `"${file.sha256}"`,
     },
   });

@@ -1,0 +1,562 @@
+// The field chain: the radial field behind every clipping aperture or lens/filter mount, carried through free space, thin lenses, filters and further apertures to any plane downstream.
+// Sources: Collins, JOSA 60, 1168 (1970) (diffraction through an ABCD system); Born & Wolf, Principles of Optics (7th ed.) §8.8 (Fresnel integral of a circular aperture); Gauss–Legendre quadrature (Abramowitz & Stegun 25.4.29).
+//
+// Geometry-free: the chain is a start beam (embedded-Gaussian q, power) and a list of v1-like elements in beam order
+// along one unfolded axis (positionMm increasing), so a table path can be fed in as well as a straight bench.
+//
+// Method. The first element that clips the Gaussian (an aperture, or a lens/filter whose clearApertureMm is given,
+// with R²/w² < 20) is a "clip plane": its field is the coherent Gaussian (real 1/e² radius W and wavefront radius of
+// the embedded Gaussian, true λ) cut off at R. Between clip planes every lens and stretch of free space is one ABCD
+// matrix, and the field at the next plane is Collins' integral
+//   u'(r) = (2π/(iλB)) e^{iπDr²/(λB)} ∫₀^X u(ρ) e^{iπAρ²/(λB)} J₀(2πρr/(λB)) ρ dρ,
+// evaluated by composite 16-node Gauss–Legendre panels on [0, X] (X the plane's radius; for a Gaussian-lit plane
+// min(R, √40·w) since e^{−40} is below double precision). Sampling rule: the integrand's phase runs through at most
+//   |D_in/(λB_in) + A/(λB)|·X²/2 + 2·X_prev·X/(λ|B_in|) + X·r_out/(λ|B|)
+// cycles on [0, X] (quadratic phase of the arriving field and of the kernel, the arriving field's own ripples — at most
+// X_prev/(λ|B_in|) cycles per metre — and the Bessel kernel out to the largest radius r_out wanted downstream), and the
+// panel count is that ÷ 4 + 2 (≤ 4 cycles per 16-node panel: GL error below 1e-9 per panel). J₀ comes from the
+// Hermite table of bessel.ts (≤ 1.5e-8). The error of a centre value or a profile point, measured against 16× the
+// panels with the exact J₀ (scripts/bench-optics.ts), is below 1e-6 of the peak for three apertures in series.
+// Filters only scale the power; intensities are carried relative to the power arriving at the first clip plane.
+//
+// Limits, stated: (1) a later aperture or mount wider than the field's extent — the geometric image of the last
+// clip plane's edge plus 3λ/(πw) + 100λ/X of spread — is taken as not clipping (the diffraction tail it would cut
+// holds of the order of 1e-3 of the power the upstream edge diffracts); (2) when a hop would cost more than
+// MAX_HOP_WORK node pairs (Fresnel numbers in the tens of thousands, or B → 0: a plane imaged onto the next), the
+// field there is taken in the geometric limit — the Gaussian cut at the projected shadow of the previous edge, exact
+// for B = 0 — and the plane's method says so. Paraxial scalar theory throughout, like the rest of the engine.
+import type { BenchElement } from "@/lib/bench/schema";
+import { type AbcdMatrix, type BeamParameter, IDENTITY, applyAbcd, beamRadiusM, compose, curvaturePerM, freeSpace, propagateQ, lensQ, qFromBeam, thinLens, wavefrontRadiusM } from "./gaussian";
+import { besselJ0, fastJ0, prepareFastJ0 } from "./bessel";
+
+const M_PER_MM = 1e-3;
+const GL_ORDER = 16;
+const CYCLES_PER_PANEL = 4;
+/** R²/w² at or above this clips below e^{−40}: not a clip plane (and the Gaussian's reach, √40·w). */
+const GAUSSIAN_CLIP_LIMIT = 20;
+const GAUSSIAN_REACH = Math.sqrt(40);
+/** Diffraction spread allowed beyond the geometric image when deciding that a later aperture does not clip (× λ/X). */
+const TAIL_SPREAD = 100;
+/** Node pairs (source nodes × target points) one hop may cost before the geometric limit is used. */
+export const MAX_HOP_WORK = 2e6;
+/** Nodes one plane may hold (memory bound). */
+const MAX_PLANE_NODES = 65_536;
+
+/** Gauss–Legendre nodes and weights on [−1, 1] by Newton's iteration on P_n (A&S 25.4.29). */
+function gaussLegendre(n: number): { x: Float64Array; w: Float64Array } {
+  const x = new Float64Array(n);
+  const w = new Float64Array(n);
+  for (let i = 0; i < Math.ceil(n / 2); i++) {
+    let z = Math.cos((Math.PI * (i + 0.75)) / (n + 0.5));
+    let dp = 0;
+    for (let iter = 0; iter < 100; iter++) {
+      let p0 = 1;
+      let p1 = z;
+      for (let k = 2; k <= n; k++) {
+        const p2 = ((2 * k - 1) * z * p1 - (k - 1) * p0) / k;
+        p0 = p1;
+        p1 = p2;
+      }
+      dp = (n * (z * p1 - p0)) / (z * z - 1);
+      const dz = p1 / dp;
+      z -= dz;
+      if (Math.abs(dz) < 1e-16) break;
+    }
+    x[i] = -z;
+    x[n - 1 - i] = z;
+    w[i] = w[n - 1 - i] = 2 / ((1 - z * z) * dp * dp);
+  }
+  return { x, w };
+}
+const GL = gaussLegendre(GL_ORDER);
+
+/** e^{iπx} with x reduced mod 2 first, so large phases keep their digits. */
+function cisPi(x: number): [number, number] {
+  const red = x - 2 * Math.floor(x / 2);
+  const a = Math.PI * red;
+  return [Math.cos(a), Math.sin(a)];
+}
+
+/** A field sampled on quadrature nodes: radius, weight·radius (the ρ dρ measure) and the complex value. */
+type NodeField = { rho: Float64Array; wr: Float64Array; re: Float64Array; im: Float64Array };
+
+function quadratureNodes(xMaxM: number, panels: number): { rho: Float64Array; wr: Float64Array } {
+  const count = panels * GL_ORDER;
+  const rho = new Float64Array(count);
+  const wr = new Float64Array(count);
+  const h = xMaxM / panels;
+  let k = 0;
+  for (let p = 0; p < panels; p++) {
+    const mid = (p + 0.5) * h;
+    for (let j = 0; j < GL_ORDER; j++) {
+      const r = mid + 0.5 * h * GL.x[j];
+      rho[k] = r;
+      wr[k] = 0.5 * h * GL.w[j] * r;
+      k++;
+    }
+  }
+  return { rho, wr };
+}
+
+export type PlaneMethod = "gaussian" | "quadrature" | "geometric-limit";
+
+/** One clip plane: an element whose edge cuts the field. */
+export type ClipPlane = {
+  elementId: string;
+  /** Index of the element in the chain's element list. */
+  index: number;
+  positionMm: number;
+  /** The clipping radius (aperture radius, or half the clear aperture). */
+  radiusM: number;
+  /** How the field just behind it is known. */
+  method: PlaneMethod;
+  /** Coherent unclipped Gaussian here (true λ): 1/e² radius and wavefront curvature 1/R. */
+  gaussianRadiusM: number;
+  gaussianCurvaturePerM: number;
+  /** Power arriving and leaving, relative to the power arriving at the first clip plane (filters excluded). */
+  powerInRel: number;
+  powerOutRel: number;
+};
+
+type PlaneState = ClipPlane & {
+  /** For "gaussian" and "geometric-limit": the field is scale·√(2/πw²)·e^{−ρ²/w²+iπκρ²/λ} for ρ ≤ cutM. */
+  cutM: number;
+  amplitudeScale: number;
+  /** For "quadrature": the previous plane's nodes prepared for the hop here, and the hop's matrix. */
+  from: { plane: PlaneState; matrix: AbcdMatrix; source: NodeField } | null;
+  /** Integration reach on this plane (≤ radiusM). */
+  reachM: number;
+};
+
+export type ChainStart = {
+  positionMm: number;
+  /** Embedded-Gaussian q (λ_eff = M²λ) of the beam leaving the start, in metres. */
+  q: BeamParameter;
+  powerMw: number;
+};
+
+export type ChainOptions = { refinement?: number; exactBessel?: boolean };
+
+/** Elements a chain may hold: v1 kinds other than the laser, with an optional mount size on lenses and filters. */
+export type ChainElement = Exclude<BenchElement, { kind: "laser" }>;
+
+const clipRadiusM = (e: ChainElement): number | null => {
+  if (e.kind === "aperture") return (e.diameterMm / 2) * M_PER_MM;
+  if ((e.kind === "lens" || e.kind === "filter") && e.clearApertureMm !== undefined) return (e.clearApertureMm / 2) * M_PER_MM;
+  return null;
+};
+
+export type ChainElementResult = {
+  id: string;
+  /** Power arriving at the element and leaving it (mW), from the propagated field. */
+  incidentPowerMw: number;
+  outgoingPowerMw: number;
+  /** The clip plane this element is, or null (not clipping, or no edge). */
+  plane: ClipPlane | null;
+};
+
+/**
+ * The field chain for one beam path. Elements must be in beam order, downstream of the start, and the chain stops
+ * at the first screen or beam block (it is included). Pure: the same input gives the same numbers.
+ */
+export class FieldChain {
+  readonly wavelengthM: number;
+  readonly effectiveWavelengthM: number;
+  readonly elements: readonly ChainElement[];
+  readonly results: readonly ChainElementResult[];
+  readonly planes: readonly ClipPlane[];
+  /** Index of the stopping element, or null. */
+  readonly stopIndex: number | null;
+  /** Power arriving at the first clip plane, mW (the unit of the relative powers). */
+  readonly referencePowerMw: number;
+  private readonly states: PlaneState[];
+  private readonly start: ChainStart;
+  private readonly refinement: number;
+  private readonly exactBessel: boolean;
+  /** MAX_HOP_WORK, scaled by refinement² so a refined reference never falls back where the normal run integrates. */
+  private readonly maxHopWork: number;
+  /** Coherent q (true λ) just before element i, and the beam position. */
+  private readonly coherentQ: BeamParameter[];
+  private readonly firstPlaneQ: BeamParameter | null;
+
+  constructor(start: ChainStart, elements: readonly ChainElement[], wavelengthM: number, m2: number, options: ChainOptions = {}) {
+    this.start = start;
+    this.wavelengthM = wavelengthM;
+    this.effectiveWavelengthM = wavelengthM * m2;
+    this.refinement = options.refinement ?? 1;
+    this.exactBessel = options.exactBessel ?? false;
+    this.maxHopWork = MAX_HOP_WORK * this.refinement * this.refinement;
+    const lambda = wavelengthM;
+    const states: PlaneState[] = [];
+    const results: ChainElementResult[] = [];
+    const coherentQ: BeamParameter[] = [];
+    let stopIndex: number | null = null;
+    // embedded Gaussian (for the real W and R), and power
+    let q = start.q;
+    let last = start.positionMm;
+    let powerMw = start.powerMw;
+    let referencePowerMw = start.powerMw;
+    let qc: BeamParameter | null = null; // coherent q from the first clip plane on
+    let firstPlaneQ: BeamParameter | null = null;
+    let sinceLast: AbcdMatrix = IDENTITY; // from the last clip plane to here
+    const kept: ChainElement[] = [];
+    for (let i = 0; i < elements.length; i++) {
+      const e = elements[i];
+      kept.push(e);
+      const d = (e.positionMm - last) * M_PER_MM;
+      q = propagateQ(q, d);
+      if (qc !== null) qc = propagateQ(qc, d);
+      sinceLast = compose(freeSpace(d), sinceLast);
+      last = e.positionMm;
+      const incidentPowerMw = powerMw;
+      // coherent Gaussian of the real W and R with the true λ, whether or not a plane exists yet
+      const wReal = beamRadiusM(q, this.effectiveWavelengthM);
+      const qHere: BeamParameter = qc ?? qFromBeam(wReal, wavefrontRadiusM(q), lambda);
+      coherentQ.push(qHere);
+      let plane: PlaneState | null = null;
+      const radius = clipRadiusM(e);
+      if (radius !== null) {
+        const prev = states.length === 0 ? null : states[states.length - 1];
+        if (prev === null) {
+          const a = (radius * radius) / (wReal * wReal);
+          if (a < GAUSSIAN_CLIP_LIMIT) {
+            qc = qHere;
+            firstPlaneQ = qHere;
+            referencePowerMw = powerMw;
+            const w = beamRadiusM(qHere, lambda);
+            const out = -Math.expm1(-2 * a);
+            plane = {
+              elementId: e.id, index: i, positionMm: e.positionMm, radiusM: radius, method: "gaussian",
+              gaussianRadiusM: w, gaussianCurvaturePerM: curvaturePerM(qHere), powerInRel: 1, powerOutRel: out,
+              cutM: radius, amplitudeScale: 1, from: null, reachM: Math.min(radius, GAUSSIAN_REACH * w),
+            };
+          }
+        } else if (qc !== null) {
+          plane = this.nextPlane(prev, sinceLast, e, i, radius, qc);
+        }
+      }
+      if (plane !== null) {
+        states.push(plane);
+        sinceLast = IDENTITY;
+      }
+      // the element's own action
+      if (e.kind === "lens") {
+        q = lensQ(q, e.focalLengthMm * M_PER_MM);
+        if (qc !== null) qc = lensQ(qc, e.focalLengthMm * M_PER_MM);
+        sinceLast = compose(thinLens(e.focalLengthMm * M_PER_MM), sinceLast);
+      }
+      let outgoing = incidentPowerMw;
+      if (plane !== null) outgoing = incidentPowerMw * (plane.powerInRel > 0 ? plane.powerOutRel / plane.powerInRel : 0);
+      else if (radius !== null && states.length === 0) outgoing = incidentPowerMw * -Math.expm1((-2 * radius * radius) / (wReal * wReal));
+      if (e.kind === "filter") {
+        const t = Math.pow(10, -e.opticalDensity);
+        outgoing *= t;
+      }
+      if (e.kind === "screen" || e.kind === "beam-block") outgoing = 0;
+      powerMw = outgoing;
+      results.push({ id: e.id, incidentPowerMw, outgoingPowerMw: outgoing, plane: plane === null ? null : publicPlane(plane) });
+      if (e.kind === "screen" || e.kind === "beam-block") {
+        stopIndex = i;
+        break;
+      }
+    }
+    this.elements = kept;
+    this.results = results;
+    this.states = states;
+    this.planes = states.map(publicPlane);
+    this.stopIndex = stopIndex;
+    this.referencePowerMw = referencePowerMw;
+    this.coherentQ = coherentQ;
+    this.firstPlaneQ = firstPlaneQ;
+  }
+
+  /** The next clip plane behind `prev`, or null when the element's edge lies outside the field (see header, limit 1). */
+  private nextPlane(prev: PlaneState, matrix: AbcdMatrix, e: ChainElement, index: number, radius: number, qc: BeamParameter): PlaneState | null {
+    const lambda = this.wavelengthM;
+    const w = beamRadiusM(qc, lambda);
+    const kappa = curvaturePerM(qc);
+    const shadow = prev.reachM * Math.abs(matrix.a + matrix.b * prev.gaussianCurvaturePerM);
+    const spread = (3 * lambda) / (Math.PI * prev.gaussianRadiusM) + (TAIL_SPREAD * lambda) / prev.reachM;
+    const extent = shadow + Math.abs(matrix.b) * spread;
+    if (!(radius < extent)) return null;
+    const base = {
+      elementId: e.id, index, positionMm: e.positionMm, radiusM: radius, gaussianRadiusM: w, gaussianCurvaturePerM: kappa,
+      powerInRel: prev.powerOutRel,
+    };
+    const reach = radius;
+    // quadrature hop if affordable
+    const panelsHere = this.panelsFor(prev, matrix, reach, "power", null);
+    const source = this.sourceNodesFor(prev, matrix, reach);
+    if (source !== null && Number.isFinite(panelsHere) && source.rho.length * panelsHere * GL_ORDER <= this.maxHopWork) {
+      const plane: PlaneState = { ...base, method: "quadrature", powerOutRel: 0, cutM: radius, amplitudeScale: 1, from: { plane: prev, matrix, source }, reachM: reach };
+      const nodes = quadratureNodes(reach, panelsHere);
+      const field = this.evaluate(plane, nodes.rho);
+      let power = 0;
+      for (let k = 0; k < nodes.rho.length; k++) power += 2 * Math.PI * nodes.wr[k] * (field.re[k] * field.re[k] + field.im[k] * field.im[k]);
+      plane.powerOutRel = Math.min(power, prev.powerOutRel);
+      return plane;
+    }
+    // geometric limit: the Gaussian cut at the projected shadow of the previous edge
+    const shadowFraction = -Math.expm1((-2 * shadow * shadow) / (w * w));
+    const cut = Math.min(radius, shadow);
+    const cutFraction = -Math.expm1((-2 * cut * cut) / (w * w));
+    const out = shadowFraction > 0 ? (prev.powerOutRel * cutFraction) / shadowFraction : shadow > 0 ? prev.powerOutRel * Math.min(1, (cut / shadow) ** 2) : 0;
+    return {
+      ...base, method: "geometric-limit", powerOutRel: Math.min(out, prev.powerOutRel), cutM: cut,
+      amplitudeScale: shadowFraction > 0 ? Math.sqrt(prev.powerOutRel / shadowFraction) : 0, from: null, reachM: Math.min(cut, GAUSSIAN_REACH * w),
+    };
+  }
+
+  /**
+   * Panels on a plane's [0, reach] for: a hop of `matrix` out to radius rOut ("hop"), or the power integral ("power").
+   * Infinity when the hop cannot be integrated (B = 0).
+   */
+  private panelsFor(from: PlaneState, matrix: AbcdMatrix | null, reachM: number, purpose: "hop" | "power", rOutM: number | null): number {
+    const lambda = this.wavelengthM;
+    let cycles = 0;
+    // the arriving field's own phase on this plane: for a quadrature plane, what its incoming hop gives it
+    const incoming = purpose === "power" ? matrix : from.from?.matrix ?? null;
+    const prevReach = purpose === "power" ? from.reachM : from.from?.plane.reachM ?? 0;
+    if (purpose === "power") {
+      // the target plane's field (arriving through `matrix` from `from`) sampled on [0, reach]
+      if (matrix === null || !(Math.abs(matrix.b) > 0)) return Infinity;
+      cycles = (2 * prevReach * reachM) / (lambda * Math.abs(matrix.b));
+    } else {
+      let quad = 0;
+      if (from.method === "quadrature" && incoming !== null) {
+        quad = incoming.d / (lambda * incoming.b);
+        cycles += (2 * prevReach * reachM) / (lambda * Math.abs(incoming.b));
+      } else quad = from.gaussianCurvaturePerM / lambda;
+      if (matrix !== null) {
+        if (!(Math.abs(matrix.b) > 0)) return Infinity;
+        quad += matrix.a / (lambda * matrix.b);
+        if (rOutM !== null) cycles += (reachM * rOutM) / (lambda * Math.abs(matrix.b));
+      }
+      cycles += (Math.abs(quad) * reachM * reachM) / 2;
+    }
+    if (!Number.isFinite(cycles)) return Infinity;
+    return Math.ceil((cycles / CYCLES_PER_PANEL + 2) * this.refinement);
+  }
+
+  /** The plane's field on its own nodes, prepared (kernel phase and measure folded in) for a hop of `matrix` out to rOut. Null if unaffordable. */
+  private sourceNodesFor(plane: PlaneState, matrix: AbcdMatrix, rOutM: number): NodeField | null {
+    const panels = this.panelsFor(plane, matrix, plane.reachM, "hop", rOutM);
+    if (!Number.isFinite(panels) || !(Math.abs(matrix.b) > 0)) return null;
+    const count = panels * GL_ORDER;
+    if (count > MAX_PLANE_NODES * this.refinement) return null;
+    if (plane.from !== null && plane.from.source.rho.length * count > this.maxHopWork) return null;
+    const nodes = quadratureNodes(plane.reachM, panels);
+    const field = this.evaluate(plane, nodes.rho);
+    const lambda = this.wavelengthM;
+    const re = new Float64Array(count);
+    const im = new Float64Array(count);
+    for (let k = 0; k < count; k++) {
+      const [c, s] = cisPi((matrix.a * nodes.rho[k] * nodes.rho[k]) / (lambda * matrix.b));
+      const fr = field.re[k] * nodes.wr[k];
+      const fi = field.im[k] * nodes.wr[k];
+      re[k] = fr * c - fi * s;
+      im[k] = fr * s + fi * c;
+    }
+    return { rho: nodes.rho, wr: nodes.wr, re, im };
+  }
+
+  /** The field just behind a plane at the given radii (0 beyond its edge), in √(relative power)/m. */
+  private evaluate(plane: PlaneState, radii: ArrayLike<number>): { re: Float64Array; im: Float64Array } {
+    const n = radii.length;
+    const re = new Float64Array(n);
+    const im = new Float64Array(n);
+    const lambda = this.wavelengthM;
+    if (plane.from === null) {
+      const w = plane.gaussianRadiusM;
+      const amp = plane.amplitudeScale * Math.sqrt(2 / (Math.PI * w * w));
+      for (let k = 0; k < n; k++) {
+        const r = radii[k];
+        if (r > plane.cutM) continue;
+        const m = amp * Math.exp(-(r * r) / (w * w));
+        const [c, s] = cisPi((plane.gaussianCurvaturePerM * r * r) / lambda);
+        re[k] = m * c;
+        im[k] = m * s;
+      }
+      return { re, im };
+    }
+    const { matrix, source } = plane.from;
+    const out = hop(source, matrix, lambda, radii, this.exactBessel);
+    for (let k = 0; k < n; k++) {
+      if (radii[k] > plane.radiusM) continue;
+      re[k] = out.re[k];
+      im[k] = out.im[k];
+    }
+    return { re, im };
+  }
+
+  /** Index of the last clip plane strictly before element index `before` (or all, when null). */
+  private lastPlaneBefore(before: number | null): PlaneState | null {
+    let found: PlaneState | null = null;
+    for (const p of this.states) if (before === null || p.index < before) found = p;
+    return found;
+  }
+
+  /** The ABCD matrix from just after a plane's element to just before element index `to` (lenses and free space). */
+  private matrixFrom(plane: PlaneState, toIndex: number, toPositionMm?: number): AbcdMatrix {
+    let m: AbcdMatrix = IDENTITY;
+    let last = plane.positionMm;
+    const first = plane.index;
+    const e0 = this.elements[first];
+    if (e0.kind === "lens") m = thinLens(e0.focalLengthMm * M_PER_MM);
+    for (let i = first + 1; i < Math.min(toIndex, this.elements.length); i++) {
+      const e = this.elements[i];
+      if (toPositionMm !== undefined && e.positionMm >= toPositionMm) break;
+      m = compose(freeSpace((e.positionMm - last) * M_PER_MM), m);
+      last = e.positionMm;
+      if (e.kind === "lens") m = compose(thinLens(e.focalLengthMm * M_PER_MM), m);
+    }
+    const endMm = toPositionMm ?? this.elements[Math.min(toIndex, this.elements.length - 1)].positionMm;
+    return compose(freeSpace((endMm - last) * M_PER_MM), m);
+  }
+
+  /** The coherent unclipped Gaussian's on-axis intensity at the stop, relative units (2/(πw²)). */
+  private referenceOnAxis(stop: number): number {
+    const q = this.coherentQ[stop];
+    const w = beamRadiusM(q, this.wavelengthM);
+    return 2 / (Math.PI * w * w);
+  }
+
+  /** True when a clip plane lies before element index `upTo` (inclusive). */
+  hasPlaneUpTo(upTo: number): boolean {
+    return this.states.some((p) => p.index <= upTo);
+  }
+
+  /** The clip planes at or before element index `upTo` (the configuration "this aperture and every one upstream"). */
+  planesUpTo(upTo: number): ClipPlane[] {
+    return this.planes.filter((p) => p.index <= upTo);
+  }
+
+  /**
+   * Relative intensity (÷ the unclipped on-axis intensity there) at radii on the stop screen, with the clip planes
+   * at or before element index `upTo` in place and none after. Null without a stop, or with no plane in place.
+   */
+  screenIntensity(upTo: number, radiiM: ArrayLike<number>): { values: Float64Array; method: PlaneMethod } | null {
+    if (this.stopIndex === null) return null;
+    const plane = this.lastPlaneBefore(upTo + 1);
+    if (plane === null) return null;
+    const matrix = this.matrixFrom(plane, this.stopIndex);
+    const ref = this.referenceOnAxis(this.stopIndex);
+    let rMax = 0;
+    for (let i = 0; i < radiiM.length; i++) rMax = Math.max(rMax, radiiM[i]);
+    const source = this.sourceNodesFor(plane, matrix, rMax);
+    const values = new Float64Array(radiiM.length);
+    if (source === null || source.rho.length * radiiM.length > 4 * this.maxHopWork) {
+      // geometric limit at the screen: the Gaussian inside the projected edge (only r = 0 is ever asked of it here)
+      const w = beamRadiusM(this.coherentQ[this.stopIndex], this.wavelengthM);
+      const shadow = plane.cutM * Math.abs(matrix.a + matrix.b * plane.gaussianCurvaturePerM);
+      const cutFraction = -Math.expm1((-2 * plane.cutM * plane.cutM) / (plane.gaussianRadiusM * plane.gaussianRadiusM));
+      const scale = plane.method === "quadrature" ? (cutFraction > 0 ? plane.powerOutRel / cutFraction : 0) : plane.amplitudeScale * plane.amplitudeScale;
+      for (let i = 0; i < radiiM.length; i++) values[i] = radiiM[i] <= shadow ? scale * Math.exp((-2 * radiiM[i] * radiiM[i]) / (w * w)) : 0;
+      return { values, method: "geometric-limit" };
+    }
+    const out = hop(source, matrix, this.wavelengthM, radiiM, this.exactBessel);
+    for (let i = 0; i < radiiM.length; i++) values[i] = (out.re[i] * out.re[i] + out.im[i] * out.im[i]) / ref;
+    return { values, method: plane.method === "geometric-limit" ? "geometric-limit" : "quadrature" };
+  }
+
+  /**
+   * Power (mW) inside a centred circle of radius radiusM at a position on the axis, from the propagated field; null
+   * where no clip plane lies upstream (the plain Gaussian holds there) or the position is outside the chain.
+   * `beforeIndex`: count only the planes before that element (the light arriving at it).
+   */
+  powerInsideMw(positionMm: number, radiusM: number, beforeIndex?: number): number | null {
+    let plane: PlaneState | null = null;
+    for (const p of this.states) {
+      if (beforeIndex !== undefined ? p.index < beforeIndex : p.positionMm < positionMm) plane = p;
+    }
+    if (plane === null || !(radiusM > 0)) return null;
+    const end = this.stopIndex === null ? Infinity : this.elements[this.stopIndex].positionMm;
+    if (positionMm > end) return null;
+    // filters between the first plane and the position
+    let filters = 1;
+    for (let i = 0; i < this.elements.length; i++) {
+      const e = this.elements[i];
+      const before = beforeIndex !== undefined ? i < beforeIndex : e.positionMm < positionMm;
+      if (!before) break;
+      if (e.kind === "filter" && this.firstPlaneQ !== null && i >= this.states[0].index) filters *= Math.pow(10, -e.opticalDensity);
+    }
+    const scaleMw = this.referencePowerMw * filters;
+    const total = plane.powerOutRel;
+    const matrix = this.matrixFrom(plane, beforeIndex ?? this.elements.length, beforeIndex === undefined ? positionMm : undefined);
+    const panels = this.panelsFor(plane, matrix, radiusM, "power", null);
+    const source = Number.isFinite(panels) ? this.sourceNodesFor(plane, matrix, radiusM) : null;
+    let rel: number;
+    if (source !== null && source.rho.length * panels * GL_ORDER <= this.maxHopWork) {
+      const nodes = quadratureNodes(radiusM, panels);
+      const out = hop(source, matrix, this.wavelengthM, nodes.rho, this.exactBessel);
+      rel = 0;
+      for (let k = 0; k < nodes.rho.length; k++) rel += 2 * Math.PI * nodes.wr[k] * (out.re[k] * out.re[k] + out.im[k] * out.im[k]);
+    } else {
+      // geometric limit: the Gaussian inside the projected edge, scaled to the plane's power
+      const q = applyAbcd(matrix, this.planeQ(plane));
+      const w = beamRadiusM(q, this.wavelengthM);
+      const shadow = plane.cutM * Math.abs(matrix.a + matrix.b * plane.gaussianCurvaturePerM);
+      const inShadow = -Math.expm1((-2 * shadow * shadow) / (w * w));
+      const r = Math.min(radiusM, shadow);
+      rel = inShadow > 0 ? (total * -Math.expm1((-2 * r * r) / (w * w))) / inShadow : total;
+    }
+    return Math.min(rel, total) * scaleMw;
+  }
+
+  private planeQ(plane: PlaneState): BeamParameter {
+    const r = plane.gaussianCurvaturePerM === 0 ? null : 1 / plane.gaussianCurvaturePerM;
+    return qFromBeam(plane.gaussianRadiusM, r, this.wavelengthM);
+  }
+}
+
+function publicPlane(p: PlaneState): ClipPlane {
+  return {
+    elementId: p.elementId, index: p.index, positionMm: p.positionMm, radiusM: p.radiusM, method: p.method,
+    gaussianRadiusM: p.gaussianRadiusM, gaussianCurvaturePerM: p.gaussianCurvaturePerM, powerInRel: p.powerInRel, powerOutRel: p.powerOutRel,
+  };
+}
+
+/** Collins' integral from prepared source nodes to radii r: (2π/(iλB))·e^{iπDr²/(λB)}·Σ g_n J₀(2πρ_n r/(λB)). */
+export function hop(source: NodeField, matrix: AbcdMatrix, wavelengthM: number, radii: ArrayLike<number>, exactBessel: boolean): { re: Float64Array; im: Float64Array } {
+  const n = radii.length;
+  const re = new Float64Array(n);
+  const im = new Float64Array(n);
+  const b = matrix.b;
+  const kScale = (2 * Math.PI) / (wavelengthM * b);
+  let argMax = 0;
+  const count = source.rho.length;
+  const rhoMax = count > 0 ? source.rho[count - 1] : 0;
+  for (let i = 0; i < n; i++) argMax = Math.max(argMax, Math.abs(kScale * radii[i] * rhoMax));
+  if (!exactBessel) prepareFastJ0(argMax);
+  const { rho, re: gr, im: gi } = source;
+  for (let i = 0; i < n; i++) {
+    const v = Math.abs(kScale * radii[i]);
+    let sr = 0;
+    let si = 0;
+    if (v === 0) {
+      for (let k = 0; k < count; k++) {
+        sr += gr[k];
+        si += gi[k];
+      }
+    } else if (exactBessel) {
+      for (let k = 0; k < count; k++) {
+        const j = besselJ0(v * rho[k]);
+        sr += gr[k] * j;
+        si += gi[k] * j;
+      }
+    } else {
+      for (let k = 0; k < count; k++) {
+        const j = fastJ0(v * rho[k]);
+        sr += gr[k] * j;
+        si += gi[k] * j;
+      }
+    }
+    // × 2π/(iλB) = −i·kScale, then × e^{iπDr²/(λB)}
+    const ar = kScale * si;
+    const ai = -kScale * sr;
+    const [c, s] = cisPi((matrix.d * radii[i] * radii[i]) / (wavelengthM * b));
+    re[i] = ar * c - ai * s;
+    im[i] = ar * s + ai * c;
+  }
+  return { re, im };
+}
