@@ -1,5 +1,5 @@
 // One record per element kind: its name, symbol geometry, new-element defaults, editable fields and how it acts on the beam.
-// Shares follow the Fresnel/energy bookkeeping of PRODUCT.md "The table in two dimensions" (mirror R, splitter R / 1 − R, window r, r(1−r)², (1−r)²).
+// Shares follow the Fresnel/energy bookkeeping of the bench document contract "The table in two dimensions" (mirror R, splitter R / 1 − R, window r, r(1−r)², (1−r)²).
 import type { TableElement, TableElementKind } from "./schema-v2";
 import { DEFAULT_CLEAR_APERTURE_MM } from "./schema-v2";
 
