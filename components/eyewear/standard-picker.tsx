@@ -27,7 +27,7 @@ export function StandardPicker({ labId, labName, current }: { labId: string; lab
         e.preventDefault();
         save.mutate();
       }}
-      aria-label={`Safety standard for ${labName}`}
+      aria-label={`Choose the standard for ${labName}`}
     >
       <div className="flex flex-col gap-1">
         <label htmlFor={id} className="text-sm font-medium text-muted">

@@ -1,5 +1,5 @@
 // Power figures of a laser element: average power (CW or train), the power that drives the beam drawing, pulse energy.
-// A pulsed laser is given by pulseEnergyJ (+ rate) or by average powerMw + rate (PRODUCT.md, contract revision 2).
+// A pulsed laser is given by pulseEnergyJ (+ rate) or by average powerMw + rate (the bench document contract, contract revision 2).
 
 type LaserPowerFields = {
   powerMw?: number;

@@ -1,5 +1,5 @@
 // The bench document, version 2: an optical table seen from above, with mirrors, beam splitters, windows and several lasers.
-// Contract: PRODUCT.md "The table in two dimensions"; coordinates in mm from the table's left front corner, angles counter-clockwise from +x.
+// Contract: the bench document contract "The table in two dimensions"; coordinates in mm from the table's left front corner, angles counter-clockwise from +x.
 import { z } from "zod";
 import { safeText } from "@/lib/validation/text";
 import {

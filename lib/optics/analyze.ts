@@ -2,7 +2,7 @@
 // Sources: Siegman, Lasers (1986) ch. 17, 20 (beam); Born & Wolf §8.2, §8.8 and Hecht §10.3 (zones); Collins, JOSA 60, 1168 (1970) (diffraction through an ABCD system); Self, Appl. Opt. 22, 658 (1983) (focusing inside the Rayleigh range).
 //
 // Per aperture the screen is the first screen downstream that the light reaches. With only free space between,
-// κ = 1/ρ + 1/b exactly as PRODUCT.md; with lenses between, the Collins integral replaces 1/b by A/B of the
+// κ = 1/ρ + 1/b exactly as the bench document contract; with lenses between, the Collins integral replaces 1/b by A/B of the
 // aperture→screen matrix (and the profile's J0 argument uses B), which reduces to 1/b without lenses. With no
 // screen reached, 1/b = 0 (the far field) and the screen fields are null. M² > 1: the embedded Gaussian gives the
 // real radius W and curvature; the Fresnel quantities use the true λ with a coherent Gaussian of that W and ρ.
@@ -52,7 +52,7 @@ const M_PER_MM = 1e-3;
 /** Below this |B| the screen is taken to be at (or imaged onto) the aperture; B is clamped to it, keeping its sign. */
 const MIN_OBSERVATION_B_M = 1e-9;
 export const ZONE_RADII_COUNT = 5;
-/** Clipping below 1 % (PRODUCT.md) makes the zone analysis moot. */
+/** Clipping below 1 % (the bench document contract) makes the zone analysis moot. */
 const CLIPS_LITTLE_FRACTION = 0.99;
 const PASSES_LITTLE_FRACTION = 0.01;
 /** A lens focus counts as "small-waist" when the new waist is under a fifth of the beam radius on the lens. */
@@ -133,7 +133,7 @@ export type BenchAnalysis = {
   stopId: string | null;
   elements: ElementAnalysis[];
   apertures: ApertureAnalysis[];
-  /** Every screen the light reaches (PRODUCT.md revision 2). */
+  /** Every screen the light reaches (the bench document contract revision 2). */
   screens: ScreenAnalysis[];
   /** The waist formed by the laser and by each lit lens (possibly virtual or beyond the next element). */
   waists: Waist[];
@@ -304,7 +304,7 @@ export function buildChain(trace: BenchTrace, options: { refinement?: number; ex
 
 export type CentreModel = {
   ratio: number;
-  /** "closed-form": PRODUCT.md's single-aperture formula; "gsm": partially coherent (M² > 1); "chain": the propagated field. */
+  /** "closed-form": the bench document contract's single-aperture formula; "gsm": partially coherent (M² > 1); "chain": the propagated field. */
   model: "closed-form" | "gsm" | "chain";
   /** True when a clipping edge lies upstream of the aperture. */
   upstream: boolean;

@@ -1,5 +1,5 @@
 // The propagated field's power inside a centred circle, for the safety engine's irradiance behind a clipping aperture.
-// Source: the field chain (chain.ts: Collins, JOSA 60, 1168 (1970)); PRODUCT.md revision 2 (E from the propagated field).
+// Source: the field chain (chain.ts: Collins, JOSA 60, 1168 (1970)); the bench document contract revision 2 (E from the propagated field).
 import type { BenchDocument } from "@/lib/bench/schema";
 import { buildChain } from "./analyze";
 import { traceBench } from "./propagate";

@@ -5,7 +5,7 @@
 // screen sits behind a paraxial system of matrix [[A, B], [C, D]] (free space: A = 1, B = b). By the Collins
 // integral the on-axis field is ∝ ∫₀^R exp(−ρ'²/w²) exp(iπρ'²(1/ρ + A/B)/λ) 2πρ' dρ', so the quadratic phase
 // is set by the "zone curvature" κ = 1/ρ + A/B (= 1/ρ + 1/b in free space; 1/b = 0 with no screen) and
-// N = R²κ/λ. Integrating in u = ρ'² gives the closed form of PRODUCT.md: ratio = |1 − exp(−R²/w² − iπN)|².
+// N = R²κ/λ. Integrating in u = ρ'² gives the closed form of the bench document contract: ratio = |1 − exp(−R²/w² − iπN)|².
 
 /** N = R²κ/λ with κ = 1/ρ + A/B in 1/m. Negative when the beam converges to a focus before the screen. */
 export const fresnelNumber = (apertureRadiusM: number, wavelengthM: number, zoneCurvaturePerM: number): number =>
@@ -35,7 +35,7 @@ export const transmittedFraction = (apertureRadiusM: number, beamRadiusM: number
 
 export type CentreAppearance = "bright" | "dark" | "between";
 
-/** PRODUCT.md thresholds: bright when the ratio is ≥ 2, dark when ≤ 0.5. */
+/** The bench document contract thresholds: bright when the ratio is ≥ 2, dark when ≤ 0.5. */
 export const centreAppearance = (ratio: number): CentreAppearance => (ratio >= 2 ? "bright" : ratio <= 0.5 ? "dark" : "between");
 
 export type DiffractionRegime = "fraunhofer" | "fresnel" | "geometric";

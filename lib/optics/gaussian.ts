@@ -2,7 +2,7 @@
 // Sources: Siegman, Lasers (1986), ch. 17 (q, 1/q = 1/R − iλ/πw²) and ch. 20 (ABCD, q' = (Aq + B)/(Cq + D)); Self, Applied Optics 22, 658 (1983) (thin-lens focusing); ISO 11146 / Siegman's embedded Gaussian (λ → M²λ).
 //
 // Lengths here are metres. q = z + i·zR at distance z downstream of a waist, so Re(1/q) = 1/R is > 0 for a
-// diverging wavefront and < 0 for a converging one (the sign convention of PRODUCT.md). A beam of quality M²
+// diverging wavefront and < 0 for a converging one (the sign convention of the bench document contract). A beam of quality M²
 // is carried as its embedded Gaussian with λ_eff = M²·λ: the real 1/e² radius W and wavefront radius R then
 // follow the ordinary formulas (Siegman ch. 17.7 "embedded Gaussian"), so radius and curvature are the real beam's.
 

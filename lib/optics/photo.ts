@@ -186,7 +186,7 @@ function sweepRange(doc: BenchDocument, apertureId: string, screenId: string): {
   return { minMm: Math.min(1, maxMm / 10), maxMm };
 }
 
-/** PRODUCT.md "Reading the screen photo": pure and synchronous; throws PhotoReadError with a plain sentence when it cannot read. */
+/** The bench document contract "Reading the screen photo": pure and synchronous; throws PhotoReadError with a plain sentence when it cannot read. */
 export function readScreenPhoto(image: PhotoImage, context: PhotoContext): ScreenPhotoReading {
   checkImage(image);
   const { doc, apertureId } = context;

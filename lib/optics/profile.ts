@@ -269,7 +269,7 @@ function profileAt(g: ProfileGeometry, radiiMm: number[]): { values: number[]; m
   return { values: radiiMm.map((r, i) => (r === 0 ? centre : intensity[i])), method: "quadrature" };
 }
 
-/** PRODUCT.md screenProfile: the radial pattern on the aperture's screen relative to the unobstructed on-axis intensity. */
+/** The bench document contract screenProfile: the radial pattern on the aperture's screen relative to the unobstructed on-axis intensity. */
 export function screenProfile(doc: BenchDocument, apertureId: string, options: ProfileOptions = {}): ScreenProfile {
   const g = profileGeometry(doc, apertureId);
   const radiusMm = radiiFrom(options, g.defaultMaxRadiusM);

@@ -8,9 +8,9 @@
 import type { BenchDocumentV2, LaserV2Element, TableElement } from "@/lib/bench/schema-v2";
 import { branchesOf, clearApertureOf, kindRecord, kindWord, type Branch } from "@/lib/bench/element-kinds";
 
-/** Runs weaker than this share of their laser's power are not followed (PRODUCT.md). */
+/** Runs weaker than this share of their laser's power are not followed (the bench document contract). */
 export const MIN_SHARE_OF_LASER = 1e-6;
-/** A run turned more often than this is not followed (PRODUCT.md): a ring of mirrors must stop. */
+/** A run turned more often than this is not followed (the bench document contract): a ring of mirrors must stop. */
 export const MAX_GENERATIONS = 64;
 /** At most this many straight runs on one table (bad input beyond it: the trace stops with a warning). */
 export const MAX_PATHS = 2000;

@@ -151,7 +151,7 @@ export function analyzeTable(doc: BenchDocumentV2): TableAnalysis {
       apertures.set(key, { ...a, id: o.elementId, screenId, pathId: o.pathId, laserId: leaf.laserId });
     }
 
-    // The rail engine may report the screens it lights (PRODUCT.md revision 2); map them when it does.
+    // The rail engine may report the screens it lights (the bench document contract revision 2); map them when it does.
     const railScreens = "screens" in rail && Array.isArray((rail as { screens?: unknown }).screens) ? ((rail as { screens: RailScreen[] }).screens) : [];
     for (const s of railScreens) {
       const o = originOf(s.id);

@@ -17,7 +17,7 @@ import { LIMITATIONS, type Limitation } from "./limitations";
 import { MAX_EXPOSURE_S, MIN_EXPOSURE_S, correctionCE, skinMpe } from "./mpe";
 import { DEFAULT_MPE_STANDARD, FINAL_SAY, type Figure, HAZARD_CLASSES, SOURCE, type StandardId, UNCHECKED } from "./types";
 
-/** The beam arriving at an element, as the optics engine's analyzeBench reports it (PRODUCT.md). */
+/** The beam arriving at an element, as the optics engine's analyzeBench reports it (the bench document contract). */
 export type IncidentBeam = {
   /** 1/e² radius. */
   radiusMm: number;
@@ -38,7 +38,7 @@ export type BeamAtElement = {
 /**
  * Power (mW) inside a centred circle of radius radiusMm on the beam axis at positionMm (arriving at elementId when
  * given), from the propagated field behind a clipping aperture; null where the plain Gaussian holds. The caller hands
- * it in (lib/optics fieldPowerProbe), so this module never depends on lib/optics. PRODUCT.md revision 2.
+ * it in (lib/optics fieldPowerProbe), so this module never depends on lib/optics. the bench document contract revision 2.
  */
 export type EnclosedPowerMw = (positionMm: number, radiusMm: number, elementId?: string) => number | null;
 

@@ -1,5 +1,5 @@
 // Irradiance of a Gaussian beam (peak, and averaged over a limiting aperture) and the eyewear optical density it calls for.
-// Formulas: PRODUCT.md (E = P·(1 − exp(−2r²/w²))/(π r²), OD = log10(E/MPE)); Gaussian power through a centred aperture (Siegman, Lasers, ch. 17).
+// Formulas: the bench document contract (E = P·(1 − exp(−2r²/w²))/(π r²), OD = log10(E/MPE)); Gaussian power through a centred aperture (Siegman, Lasers, ch. 17).
 
 import { SOURCE } from "./types";
 

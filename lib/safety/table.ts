@@ -1,5 +1,5 @@
 // assessTable: the laser safety of a version 2 bench (the table plan) — every laser and line classified, every path's OD, every beam leaving the table.
-// Formulas: those of assessBeam and the rail assessBench (ANSI Z136.1-2014 Tables 5a/8 and Appendix B; IEC 60825-1:2014; PRODUCT.md OD rule), applied per path along its unfolded length.
+// Formulas: those of assessBeam and the rail assessBench (ANSI Z136.1-2014 Tables 5a/8 and Appendix B; IEC 60825-1:2014; the bench document contract OD rule), applied per path along its unfolded length.
 //
 // Entry point: callers use `assessBench(doc, analyzeBench(doc), options)` from lib/safety (index.ts dispatches on
 // doc.version: version 2 comes here, version 1 to the rail assessment unchanged). Each leaf path of the analysis is

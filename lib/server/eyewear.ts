@@ -94,7 +94,7 @@ async function loadItems(db: DbOrTx, where: SQL | undefined): Promise<EyewearVie
 /** The eyewear of the labs the actor may see (officers and auditors: every lab), by lab and name. */
 export async function listEyewear(db: DbOrTx, actor: Actor, filter: z.infer<typeof eyewearListQuery> = {}): Promise<EyewearView[]> {
   authorize(actor, { eyewear: ["read"] });
-  if (filter.labId && !scopeHolds(actor, filter.labId)) throw new AppError("forbidden", "This lab's eyewear belongs to a lab you are not a member of.");
+  if (filter.labId && !scopeHolds(actor, filter.labId)) throw new AppError("forbidden", "You may not see this lab's eyewear: it belongs to a lab you are not a member of.");
   return loadItems(db, and(inScope(actor, eyewearItem.labId), filter.labId ? eq(eyewearItem.labId, filter.labId) : undefined));
 }
 

@@ -28,7 +28,7 @@ test.beforeAll(async () => {
   try {
     const researcher = await signIn(DEMO.researcher);
     const officer = await signIn(DEMO.officer);
-    const labId = await labIdByName(researcher.cookie, "Coherent Imaging Lab");
+    const labId = await labIdByName(researcher.cookie, "Wrenfield Imaging Lab");
     const item = await call("POST", "/api/eyewear", officer.cookie, { labId, name: itemName, quantity: 2, bands: [{ fromNm: 520, toNm: 545, opticalDensity: 8, en207ScaleNumber: 7 }] });
     if (item.status !== 201) throw new Error(`eyewear not created: ${item.text}`);
     itemId = String(item.json!.id);
@@ -74,6 +74,6 @@ test("the review screen says which of the lab's eyewear covers each line, under 
   // The eyewear page lists the item under its lab, with the standard picker for the officer.
   await officer.goto("/eyewear");
   await expect(officer.getByText(itemName)).toBeVisible();
-  await expect(officer.getByLabel("Safety standard for Coherent Imaging Lab")).toHaveValue("ANSI Z136.1-2014");
+  await expect(officer.getByLabel("Safety standard for Wrenfield Imaging Lab")).toHaveValue("ANSI Z136.1-2014");
   await officer.screenshot({ path: `${shots}/eyewear-page.png`, fullPage: true });
 });

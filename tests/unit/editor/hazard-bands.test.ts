@@ -1,5 +1,5 @@
 // The beam drawn by hazard: OD bands (under 1, 1 to under 3, 3 or more) and the stretches of beam between the
-// safety engine's points (PRODUCT.md: OD = log10(E/MPE) at every element; a filter transmits 10^−OD).
+// safety engine's points (the bench document contract: OD = log10(E/MPE) at every element; a filter transmits 10^−OD).
 import { describe, expect, it } from "vitest";
 import type { BenchDocument } from "@/lib/bench/schema";
 import { analyzeBench } from "@/lib/optics";

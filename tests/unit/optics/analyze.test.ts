@@ -1,4 +1,4 @@
-// analyzeBench against PRODUCT.md's contract; facts of the trade marked "common practice"; Gaussian power 1 − exp(−2R²/w²) (Siegman ch. 17).
+// analyzeBench against the bench document contract's contract; facts of the trade marked "common practice"; Gaussian power 1 − exp(−2R²/w²) (Siegman ch. 17).
 import { describe, it, expect } from "vitest";
 import type { BenchDocument, BenchElement } from "@/lib/bench/schema";
 import { analyzeBench, findScreenPositions } from "@/lib/optics";
@@ -7,7 +7,7 @@ const laser: BenchElement = { id: "laser", kind: "laser", positionMm: 0, wavelen
 const doc = (...rest: BenchElement[]): BenchDocument => ({ version: 1, elements: [laser, ...rest] });
 const codes = (d: BenchDocument) => analyzeBench(d).warnings.map((w) => w.code);
 
-describe("elements in beam order (PRODUCT.md)", () => {
+describe("elements in beam order (the bench document contract)", () => {
   it("sorts by position and gives radius, wavefront radius and power at each", () => {
     const r = analyzeBench(
       doc(

@@ -146,7 +146,7 @@ describe("two irises in series (the alignment pair)", () => {
     expect(r.screens[0].powerMw).toBeCloseTo(5 * inside, 6);
     expect(r.elements.find((e) => e.id === "s")!.incident.powerMw).toBeCloseTo(5 * inside, 6);
   });
-  it("the first iris keeps its single-aperture answer (PRODUCT.md closed form; none downstream)", () => {
+  it("the first iris keeps its single-aperture answer (the bench document contract closed form; none downstream)", () => {
     const a = 1e-6 / (g1.w * g1.w);
     const n = (1e-6 / lambda) * (1 / g1.R! + 1 / 0.8);
     expect(r.apertures[0].centreIntensityRatio).toBe(1 - 2 * Math.exp(-a) * Math.cos(Math.PI * (n - 2 * Math.floor(n / 2))) + Math.exp(-2 * a));

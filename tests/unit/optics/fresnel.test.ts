@@ -56,7 +56,7 @@ describe("zone radii and the Fresnel number (Hecht §10.3; Born & Wolf §8.2)", 
       const n = i + 1;
       expect(rn / Math.sqrt((n * lambdaNm * 1e-6 * a * b) / (a + b))).toBeCloseTo(1, 12);
     });
-    // PRODUCT.md: N = (R²/λ)(1/ρ + 1/b)
+    // The bench document contract: N = (R²/λ)(1/ρ + 1/b)
     expect(ap.fresnelNumber / ((1 / (lambdaNm * 1e-6)) * (1 / a + 1 / b))).toBeCloseTo(1, 12);
     expect(ap.zonesExposed).toBeCloseTo(Math.abs(ap.fresnelNumber), 15);
   });
@@ -74,7 +74,7 @@ describe("zone radii and the Fresnel number (Hecht §10.3; Born & Wolf §8.2)", 
   it("zones are empty when the screen is at the geometric focus (κ = 0)", () => expect(zoneRadiiM(lambda, 0)).toEqual([]));
 });
 
-describe("centre intensity (PRODUCT.md closed form; Born & Wolf §8.8, from memory)", () => {
+describe("centre intensity (the bench document contract closed form; Born & Wolf §8.8, from memory)", () => {
   it("closed form |1 − exp(−R²/w² − iπN)|² equals an independent adaptive-Simpson quadrature of the Fresnel integral", () => {
     for (const [w, R, kappa] of [
       [3.6e-3, 1e-3, 1 / 0.5 + 1 / 0.225],
@@ -112,7 +112,7 @@ describe("centre intensity (PRODUCT.md closed form; Born & Wolf §8.8, from memo
       expect(r).toBeLessThanOrEqual((1 + Math.exp(-a)) ** 2 + 1e-12);
     }
   });
-  it("bright ≥ 2, dark ≤ 0.5, between otherwise (PRODUCT.md)", () => {
+  it("bright ≥ 2, dark ≤ 0.5, between otherwise (the bench document contract)", () => {
     expect(centreAppearance(2)).toBe("bright");
     expect(centreAppearance(0.5)).toBe("dark");
     expect(centreAppearance(1)).toBe("between");

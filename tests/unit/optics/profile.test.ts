@@ -50,7 +50,7 @@ function lommelIntensity(a: number, n: number, v: number): number {
   return gRe * gRe + gIm * gIm;
 }
 
-describe("screenProfile contract (PRODUCT.md)", () => {
+describe("screenProfile contract (the bench document contract)", () => {
   it("its value at r = 0 is analyzeBench's centreIntensityRatio", () => {
     const ap = analyzeBench(hene).apertures[0];
     const p = screenProfile(hene, "ap");

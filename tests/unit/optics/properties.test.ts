@@ -1,4 +1,4 @@
-// Property tests (fast-check) over documents the schema accepts: PRODUCT.md invariants and energy conservation.
+// Property tests (fast-check) over documents the schema accepts: the bench document contract invariants and energy conservation.
 import { describe, it, expect } from "vitest";
 import fc from "fast-check";
 import { benchDocumentSchema, type BenchDocument, type BenchElement } from "@/lib/bench/schema";
@@ -68,7 +68,7 @@ describe("properties over schema-valid documents", () => {
     );
   });
   it("the centre ratio of an aperture with no clipping edge upstream stays in [0, (1 + e^{−R²/w²})²]", () => {
-    // With apertures in series (PRODUCT.md revision 2) the ratio is the propagated field's and may pass this bound.
+    // With apertures in series (the bench document contract revision 2) the ratio is the propagated field's and may pass this bound.
     fc.assert(
       fc.property(docArb, (d) => {
         const r = analyzeBench(d);

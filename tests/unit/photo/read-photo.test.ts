@@ -68,7 +68,7 @@ function expectReading(bench: SyntheticBench, drawnMm: number, photo: PhotoOptio
   expect(Math.hypot(reading.centrePx.x - photo.centrePx.x, reading.centrePx.y - photo.centrePx.y)).toBeLessThanOrEqual(centreTolerancePx(truth.shadowRadiusMm / photo.mmPerPixel));
   expect(reading.quality).toBeGreaterThan(0.5);
   expect(reading.quality).toBeLessThanOrEqual(1);
-  // the centre as seen: thresholds of PRODUCT.md (bright ≥ 2, dark ≤ 0.5) on the independent on-axis value
+  // the centre as seen: thresholds of the bench document contract (bright ≥ 2, dark ≤ 0.5) on the independent on-axis value
   const ratio = lommelRelativeIntensity(truth.radiusRatioSquared, truth.fresnelNumber, 0);
   if (ratio > 2.3) expect(reading.centre).toBe("bright");
   if (ratio < 0.4) expect(reading.centre).toBe("dark");

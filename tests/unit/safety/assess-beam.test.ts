@@ -1,10 +1,10 @@
-// The assessBeam contract of PRODUCT.md: plain numbers, each figure with its source, 1/e conversions stated, cautions deferring to the LSO.
+// The assessBeam contract of the bench document contract: plain numbers, each figure with its source, 1/e conversions stated, cautions deferring to the LSO.
 // Sources per check below; the input schema follows lib/bench/schema.ts (field paths, plain messages).
 import { describe, expect, it } from "vitest";
 import { describeIssues } from "@/lib/bench/schema";
 import { CAUTION_FOOTER, LIMITATIONS, assessBeam, beamInputSchema } from "@/lib/safety";
 
-describe("assessBeam: the PRODUCT.md contract", () => {
+describe("assessBeam: the bench document contract", () => {
   const heNe = assessBeam({ wavelengthNm: 633, powerMw: 1, beamDiameterMm: 0.8, divergenceMrad: 1.2 });
 
   it("returns the contract's plain numbers and class", () => {
@@ -36,7 +36,7 @@ describe("assessBeam: the PRODUCT.md contract", () => {
     expect(heNe.conversions.join("\n")).toMatch(/1\/e² 1\.2 mrad → 1\/e 0\.8485 mrad/);
   });
 
-  it("defaults the exposure to 0.25 s in the visible and 10 s outside (PRODUCT.md)", () => {
+  it("defaults the exposure to 0.25 s in the visible and 10 s outside (the bench document contract)", () => {
     expect(heNe.exposureS).toBe(0.25);
     expect(assessBeam({ wavelengthNm: 1064, powerMw: 1, beamDiameterMm: 1, divergenceMrad: 1 }).exposureS).toBe(10);
     expect(assessBeam({ wavelengthNm: 1064, powerMw: 1, beamDiameterMm: 1, divergenceMrad: 1, exposureS: 30_000 }).exposureS).toBe(30_000);

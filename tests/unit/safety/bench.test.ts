@@ -1,5 +1,5 @@
 // assessBench: OD at every element, at foci and beyond open ends; governing OD; filters/apertures lower it, focusing raises it.
-// The beam is built by hand from Gaussian-beam formulas (w(z) = w0·√(1+(z/zR)²), zR = π w0²/(M² λ), thin lens on q), per PRODUCT.md.
+// The beam is built by hand from Gaussian-beam formulas (w(z) = w0·√(1+(z/zR)²), zR = π w0²/(M² λ), thin lens on q), per the bench document contract.
 import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
@@ -246,7 +246,7 @@ describe("properties", () => {
     );
   });
 
-  it("sanity: the E formula the bench uses is PRODUCT.md's", () => {
+  it("sanity: the E formula the bench uses is the bench document contract's", () => {
     // 5 mW, w = 5 mm, 7 mm aperture: 5e-3·(1 − e^(−2·12.25/25))/0.384845 = 5e-3·0.624689/0.384845 = 8.1162e-3 W/cm²
     expect(apertureAveragedIrradianceWPerCm2(5, 5, 7)).toBeCloseTo(8.1162e-3, 6);
   });

@@ -1,5 +1,5 @@
 // NOHD, lens-on-laser NOHD, diffuse NHZ and OD with worked numbers of our own derivation (arithmetic in the comments).
-// Formulas: ANSI Z136.1-2014 Appendix B (from memory; the direct-beam NOHD as PRODUCT.md states it) and PRODUCT.md (OD).
+// Formulas: ANSI Z136.1-2014 Appendix B (from memory; the direct-beam NOHD as the bench document contract states it) and the bench document contract (OD).
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { diffuseReflectionNhz, directBeamNohd, lensNohd } from "@/lib/safety/hazard-distance";
@@ -10,7 +10,7 @@ const MPE_1064_10S = 5.0610719e-3;
 // 633 nm, 0.25 s: MPE = 1.8e-3 · 0.25^0.75 / 0.25 = 2.5455844e-3 W/cm²
 const MPE_VIS_025S = 2.5455844e-3;
 
-describe("OD = log10(E/MPE), E averaged over the limiting aperture (PRODUCT.md)", () => {
+describe("OD = log10(E/MPE), E averaged over the limiting aperture (the bench document contract)", () => {
   it("1064 nm, 2 W, 3 mm (1/e²) beam, 7 mm aperture: OD 3.011", () => {
     // w = 0.15 cm, r = 0.35 cm: 2r²/w² = 2·0.1225/0.0225 = 10.889; 1 − e^−10.889 = 0.99998136
     // E = 2 W · 0.99998136 / (π · 0.1225 cm²) = 1.99996272 / 0.38484510 = 5.196799 W/cm²

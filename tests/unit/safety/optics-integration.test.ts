@@ -1,5 +1,5 @@
 // Integration-style unit test: the optics engine's analyzeBench output fed straight into assessBench.
-// Checks against Gaussian-beam formulas (Siegman, Lasers, ch. 17) and PRODUCT.md's OD rule.
+// Checks against Gaussian-beam formulas (Siegman, Lasers, ch. 17) and the bench document contract's OD rule.
 import { describe, expect, it } from "vitest";
 import type { BenchDocument } from "@/lib/bench/schema";
 import { analyzeBench } from "@/lib/optics";

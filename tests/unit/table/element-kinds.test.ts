@@ -1,5 +1,5 @@
 // The one record per element kind: every kind of both schemas has one, the readers take their names from it, and the
-// shares it sends on never create light (energy conservation; window shares per PRODUCT.md: (1−r)², r, r(1−r)²).
+// shares it sends on never create light (energy conservation; window shares per the bench document contract: (1−r)², r, r(1−r)²).
 import { describe, expect, it } from "vitest";
 import { branchesOf, ELEMENT_KIND_RECORDS, kindWord } from "@/lib/bench/element-kinds";
 import { kindNoun, kindTitle } from "@/lib/bench/kinds";

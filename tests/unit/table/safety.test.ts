@@ -1,5 +1,5 @@
 // Safety on the table plan: open beams at the edge with their irradiance checked by hand, per-laser and per-line figures.
-// E over the limiting aperture = P·(1 − exp(−2r²/w²))/(π r²) (PRODUCT.md; ANSI Z136.1-2014 limiting aperture 7 mm for
+// E over the limiting aperture = P·(1 − exp(−2r²/w²))/(π r²) (the bench document contract; ANSI Z136.1-2014 limiting aperture 7 mm for
 // 400–1400 nm, Table 8); w(z) = w0·√(1 + (z/zR)²), zR = π w0²/λ (Siegman, Lasers, 1986, §17.1); the class and MPE of each
 // line are compared with assessBeam called on that line alone.
 import { describe, expect, it } from "vitest";

@@ -1,4 +1,4 @@
-// The version 2 document: bad input refused with a sentence naming the element (PRODUCT.md "The table in two dimensions").
+// The version 2 document: bad input refused with a sentence naming the element (the bench document contract "The table in two dimensions").
 import { describe, expect, it } from "vitest";
 import { describeIssues } from "@/lib/bench/schema";
 import { anyBenchDocumentSchema, benchDocumentV2Schema, MAX_TABLE_ELEMENTS } from "@/lib/bench/schema-v2";

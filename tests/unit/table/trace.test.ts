@@ -1,6 +1,6 @@
 // The table tracer against geometry worked by hand: folds by 45° mirrors, a splitter's two arms, a window's ghosts,
 // a miss beyond half the clear aperture, two lasers, a mirror ring. Reflection law d' = d − 2(d·n)n (Hecht, Optics,
-// 5th ed., §4.3); shares per PRODUCT.md "The table in two dimensions"; Gaussian radius w(z) = w0·√(1 + (z/zR)²),
+// 5th ed., §4.3); shares per the bench document contract "The table in two dimensions"; Gaussian radius w(z) = w0·√(1 + (z/zR)²),
 // zR = π·w0²/(M²·λ) (Siegman, Lasers, 1986, §17.1) — computed here by hand, not by the engine.
 import { describe, expect, it } from "vitest";
 import type { BenchDocumentV2, TableElement } from "@/lib/bench/schema-v2";

@@ -4,7 +4,7 @@ import { LabMembers } from "@/components/admin/lab-members";
 import { StandardPicker } from "@/components/eyewear/standard-picker";
 import { Refused } from "@/components/shell/refused";
 import { rolesAllow } from "@/lib/auth/permissions";
-import { listAdminPeople, listLabsWithMembers } from "@/lib/server/admin";
+import { listAdminPeople, listLabsWithMembers } from "@/lib/server/people";
 import { labStandards } from "@/lib/server/eyewear";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 

@@ -4,7 +4,7 @@ import { InviteForm } from "@/components/admin/invite-form";
 import { PersonActions } from "@/components/admin/person-actions";
 import { Refused } from "@/components/shell/refused";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
-import { listAdminPeople, listPendingInvitations } from "@/lib/server/admin";
+import { listAdminPeople, listPendingInvitations } from "@/lib/server/people";
 import { listLabs } from "@/lib/server/people";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 
