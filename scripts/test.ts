@@ -10,6 +10,9 @@ import { NEXT, provision, TSX } from "./lib/provision";
 import { log, ROOT, startChild, stopChildren, superviseChild, waitForHttp } from "./lib/system";
 
 const ports = { app: 3100, postgres: 5434, smtp: 2526, catcherWeb: 1081 };
+// A second app server and a second mail worker on the same PostgreSQL, as an institution runs it
+// behind a proxy; tests/integration/two-servers.test.ts talks to both.
+const SECOND_APP_PORT = 3101;
 const dataDir = path.join(ROOT, ".data/test");
 const resultsDir = path.join(ROOT, "test-results");
 
@@ -51,14 +54,18 @@ async function main(): Promise<number> {
   const { cluster, env, superUrl } = await provision({ dataDir, ports, dbName: "benchwarden_test", seed: true, rateLimitMax: 60 });
   // The tests stand where a reverse proxy would: they sign in from distinct documentation-range
   // addresses through X-Forwarded-For, so the app trusts one proxy hop (tests/integration/security-*
-  // also start a second server with the setting off).
-  const testEnv = { ...env, TEST_SUPERUSER_URL: superUrl, MAIL_WORKER_INTERVAL_MS: "300", TRUSTED_PROXY_COUNT: "1" };
+  // also start a server with the setting off).
+  const secondAppUrl = `http://127.0.0.1:${SECOND_APP_PORT}`;
+  const testEnv = { ...env, TEST_SUPERUSER_URL: superUrl, MAIL_WORKER_INTERVAL_MS: "300", TRUSTED_PROXY_COUNT: "1", SECOND_APP_URL: secondAppUrl };
   try {
     startChild("mail catcher", TSX, ["scripts/mail-catcher.ts"], { env: testEnv });
     buildIfStale();
     startChild("app", NEXT, ["start", "-H", "127.0.0.1", "-p", String(ports.app)], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
+    startChild("second app", NEXT, ["start", "-H", "127.0.0.1", "-p", String(SECOND_APP_PORT)], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
     superviseChild("mail worker", TSX, ["scripts/mail-worker.ts"], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
+    superviseChild("second mail worker", TSX, ["scripts/mail-worker.ts"], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
     await waitForHttp(`${env.APP_URL}/sign-in`, 60_000);
+    await waitForHttp(`${secondAppUrl}/sign-in`, 60_000);
     await waitForHttp(`${env.MAIL_CATCHER_URL}/api/messages`, 30_000);
 
     log("type check of the whole project (tsc --noEmit)");

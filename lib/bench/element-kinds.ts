@@ -70,7 +70,7 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
     defaults: { wavelengthNm: 632.8, powerMw: 1, beamDiameterMm: 0.8 },
     fields: [
       { key: "wavelengthNm", label: "Wavelength", unit: "nm", step: 0.1 },
-      { key: "powerMw", label: "Power", unit: "mW", optional: true, hint: "Average power for a pulse train; leave empty for a single pulse given by its energy.", step: 0.1 },
+      { key: "powerMw", label: "Power", unit: "mW", hint: "Average power for a pulse train.", step: 0.1 },
       { key: "beamDiameterMm", label: "Beam diameter (1/e², at the waist)", unit: "mm", step: 0.1 },
       { key: "m2", label: "Beam quality M²", unit: "", optional: true, hint: "Leave empty for an ideal beam (M² = 1).", step: 0.1 },
       { key: "pulseEnergyJ", label: "Pulse energy", unit: "J", optional: true, hint: "Pulsed lasers: energy of one pulse (e.g. 1e-3 for 1 mJ). Leave empty for a continuous laser." },
