@@ -37,7 +37,7 @@ body { font-size: 12.5pt; line-height: 1.35; -webkit-print-color-adjust: exact; 
 .sheet .scope { font-size: 9.5pt; margin: 1mm 0 0; padding-left: 5mm; }
 .sheet .scope li { margin-bottom: 0.8mm; break-inside: avoid; }
 .sheet .box { border: 0.5mm solid #000; padding: 3mm; border-radius: 1.5mm; break-inside: avoid; }
-.sheet .warn { border: 0.8mm solid #000; background: #f2f2f2; padding: 3mm; font-weight: 700; }
+.sheet .warn { border: 0.8mm solid #000; background: #f2f2f2; padding: 3mm; font-weight: 700; break-inside: avoid; }
 .sheet .grid2 { display: grid; grid-template-columns: 1fr 1fr; gap: 4mm; }
 .sheet .head { display: grid; grid-template-columns: 1fr 36mm; gap: 5mm; align-items: start; margin-bottom: 4mm; }
 .sheet .qr svg { width: 36mm; height: 36mm; display: block; }

@@ -70,7 +70,7 @@ export function plainText(text: string): string {
     .replace(/\bthe engine's\b/gi, "Benchwarden's")
     .replace(/\bPRODUCT\.md[,:;]?\s*/g, "")
     .replace(/\s*\(\s*\)/g, "")
-    .replace(/\b[\w./-]+\.(?:tsx?|md|json|mjs)\b/g, "")
+    .replace(/\b[\w./-]+\.(?:tsx?|md|json|mjs)\b[,:;]?\s*/g, "")
     .replace(/\s{2,}/g, " ")
     .trim();
 }

@@ -16,7 +16,7 @@ const errorOf = (res: { json: Json | null }) => (res.json?.error ?? {}) as { cod
 beforeAll(async () => {
   pool = new pg.Pool({ connectionString: databaseUrl(), max: 2 });
   for (const key of ["researcher", "officer", "technician"] as const) cookie[key] = (await signIn(DEMO[key])).cookie;
-  labId = await labIdByName(cookie.researcher, "Coherent Imaging Lab");
+  labId = await labIdByName(cookie.researcher, "Wrenfield Imaging Lab");
 });
 
 afterAll(async () => {

@@ -101,7 +101,7 @@ describe("sign-in limits", () => {
 describe("the signing step-up", () => {
   it("is limited per account, and every failure and the refusal are in the trail", async () => {
     const researcherCookie = (await signIn(DEMO.researcher)).cookie;
-    const labId = await labIdByName(researcherCookie, "Coherent Imaging Lab");
+    const labId = await labIdByName(researcherCookie, "Wrenfield Imaging Lab");
     const b = await createDrawnBench(pool, researcherCookie, labId, sampleBench(`Step-up guessing ${Date.now()}`));
     expect((await call("POST", `/api/revisions/${b.revisionId}/submit`, researcherCookie, { contentHash: b.contentHash })).status).toBe(200);
     const officer = await createAccount(pool, { name: "Guessing Officer", roles: ["officer"], labIds: [], password: "officer-real-password" });

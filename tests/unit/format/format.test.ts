@@ -59,7 +59,7 @@ describe("dates in the lab's time zone (Europe/London)", () => {
 
 describe("plain text from the engines", () => {
   it("removes file names and never says 'from memory'", () => {
-    expect(plainText("the bench document contract: OD = log10(E/MPE) over the limiting aperture")).toBe("OD = log10(E/MPE) over the limiting aperture");
+    expect(plainText("docs/bench-document.md: OD = log10(E/MPE) over the limiting aperture")).toBe("OD = log10(E/MPE) over the limiting aperture");
     const t = plainText("ANSI Z136.1-2014 §4 control measures (signs; signal words recalled from memory)");
     expect(t).not.toMatch(/memory|recalled/);
     expect(t).toContain("not yet checked against the standard's text — confirm with your laser safety officer");
