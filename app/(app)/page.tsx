@@ -52,7 +52,7 @@ export default async function HomePage() {
     sections.push(
       <Section key="a" title="Sign-offs" testId="home-auditor">
         <p className="mb-3">
-          <Link href="/desk">Open the sign-off desk</Link> <span className="text-muted">— filter every sign-off, read each bench&apos;s trail, export CSV.</span>
+          <Link href="/desk" className="underline">Open the sign-off desk</Link> <span className="text-muted">— filter every sign-off, read each bench&apos;s trail, export CSV.</span>
         </p>
         <BenchTable rows={approvals.map((a) => ({ ...a, state: "approved", href: `/reviews/${a.revisionId}` }))} caption="Every signed-off revision" empty="No revision has been signed off yet." />
       </Section>,
