@@ -28,6 +28,7 @@
 import type { BenchElement } from "@/lib/bench/schema";
 import { type AbcdMatrix, type BeamParameter, IDENTITY, applyAbcd, beamRadiusM, compose, curvaturePerM, freeSpace, propagateQ, lensQ, qFromBeam, thinLens, wavefrontRadiusM } from "./gaussian";
 import { besselJ0, fastJ0, prepareFastJ0 } from "./bessel";
+import { gaussLegendre } from "./quadrature";
 
 const M_PER_MM = 1e-3;
 const GL_ORDER = 16;
@@ -42,32 +43,6 @@ export const MAX_HOP_WORK = 2e6;
 /** Nodes one plane may hold (memory bound). */
 const MAX_PLANE_NODES = 65_536;
 
-/** Gauss–Legendre nodes and weights on [−1, 1] by Newton's iteration on P_n (A&S 25.4.29). */
-function gaussLegendre(n: number): { x: Float64Array; w: Float64Array } {
-  const x = new Float64Array(n);
-  const w = new Float64Array(n);
-  for (let i = 0; i < Math.ceil(n / 2); i++) {
-    let z = Math.cos((Math.PI * (i + 0.75)) / (n + 0.5));
-    let dp = 0;
-    for (let iter = 0; iter < 100; iter++) {
-      let p0 = 1;
-      let p1 = z;
-      for (let k = 2; k <= n; k++) {
-        const p2 = ((2 * k - 1) * z * p1 - (k - 1) * p0) / k;
-        p0 = p1;
-        p1 = p2;
-      }
-      dp = (n * (z * p1 - p0)) / (z * z - 1);
-      const dz = p1 / dp;
-      z -= dz;
-      if (Math.abs(dz) < 1e-16) break;
-    }
-    x[i] = -z;
-    x[n - 1 - i] = z;
-    w[i] = w[n - 1 - i] = 2 / ((1 - z * z) * dp * dp);
-  }
-  return { x, w };
-}
 const GL = gaussLegendre(GL_ORDER);
 
 /** e^{iπx} with x reduced mod 2 first, so large phases keep their digits. */

@@ -12,36 +12,12 @@
 //   I(0) = 4|β|² ∫₀¹∫₀¹ g(s₁) g*(s₂) e^{−t²(s₁−s₂)²/2} Ĩ₀(t²s₁s₂) s₁s₂ ds₁ds₂,  g(s) = e^{−βs²}, β = a − iπN,
 // by Gauss–Legendre panels resolving both the zones and the coherence width 1/t (≤ 16 nodes per 2/t).
 import { fresnelRadialIntensity, panelsFor } from "./profile";
+import { gaussLegendre } from "./quadrature";
 
 const GL_ORDER = 16;
 /** Above this many nodes per axis the incoherent (large-t) limit is used for the centre. */
 const MAX_NODES = 1600;
 
-function gaussLegendre(n: number): { x: Float64Array; w: Float64Array } {
-  const x = new Float64Array(n);
-  const w = new Float64Array(n);
-  for (let i = 0; i < Math.ceil(n / 2); i++) {
-    let z = Math.cos((Math.PI * (i + 0.75)) / (n + 0.5));
-    let dp = 0;
-    for (let iter = 0; iter < 100; iter++) {
-      let p0 = 1;
-      let p1 = z;
-      for (let k = 2; k <= n; k++) {
-        const p2 = ((2 * k - 1) * z * p1 - (k - 1) * p0) / k;
-        p0 = p1;
-        p1 = p2;
-      }
-      dp = (n * (z * p1 - p0)) / (z * z - 1);
-      const dz = p1 / dp;
-      z -= dz;
-      if (Math.abs(dz) < 1e-16) break;
-    }
-    x[i] = -z;
-    x[n - 1 - i] = z;
-    w[i] = w[n - 1 - i] = 2 / ((1 - z * z) * dp * dp);
-  }
-  return { x, w };
-}
 const GL = gaussLegendre(GL_ORDER);
 
 /** cos(πN) with N reduced mod 2 first, so large N keeps its phase. */

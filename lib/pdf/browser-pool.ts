@@ -8,7 +8,7 @@ import path from "node:path";
 import puppeteer, { type Browser } from "puppeteer-core";
 
 export const CHROMIUM_PATH = "/usr/bin/chromium";
-/** Flags proven on this stack (STACK.md); --no-sandbox because the server may run as root. */
+/** Chromium flags for a headless server with no network beyond loopback; --no-sandbox because the server may run as root. */
 export const CHROMIUM_ARGS = [
   "--no-sandbox",
   "--disable-gpu",
