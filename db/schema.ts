@@ -1,5 +1,5 @@
-// Database schema (Drizzle ORM, PostgreSQL). The first four tables are better-auth's
-// (with its admin plugin's columns); the rest are Benchwarden's own.
+// Database schema (Drizzle ORM, PostgreSQL). The first five tables are better-auth's
+// (with its admin plugin's columns, and the SSO plugin's provider table); the rest are Benchwarden's own.
 import { sql } from "drizzle-orm";
 import {
   boolean,
@@ -84,6 +84,25 @@ export const verification = pgTable(
   },
   (t) => [index("verification_identifier_idx").on(t.identifier)],
 );
+
+/**
+ * Identity providers of @better-auth/sso kept in the database. Benchwarden configures its one
+ * institutional provider from the environment (lib/auth/sso.ts) and closes the endpoints that would
+ * register more, so this table stays empty; the plugin still reads it when no configured provider
+ * matches, and answers "no provider" instead of failing.
+ */
+export const ssoProvider = pgTable("sso_provider", {
+  id: text("id").primaryKey(),
+  issuer: text("issuer").notNull(),
+  oidcConfig: text("oidc_config"),
+  samlConfig: text("saml_config"),
+  userId: text("user_id").references(() => user.id, { onDelete: "cascade" }),
+  providerId: text("provider_id").notNull().unique(),
+  organizationId: text("organization_id"),
+  domain: text("domain").notNull(),
+  domainVerified: boolean("domain_verified").default(false),
+  ...timestamps,
+});
 
 // ── Labs and people ────────────────────────────────────────────────────────────────────────
 /** The laser safety standards a lab may choose to assess its benches against. */

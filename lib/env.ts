@@ -44,6 +44,23 @@ const envSchema = z.object({
   S3_ACCESS_KEY_ID: z.string().min(1, "S3_ACCESS_KEY_ID must not be empty").optional(),
   S3_SECRET_ACCESS_KEY: z.string().min(1, "S3_SECRET_ACCESS_KEY must not be empty").optional(),
   S3_REGION: z.string().min(1, "S3_REGION must name a region, e.g. us-east-1").optional(),
+  /**
+   * Sign-in through the institution's OpenID Connect provider (lib/auth/sso.ts). Set SSO_ISSUER,
+   * SSO_CLIENT_ID and SSO_CLIENT_SECRET together, or none of them (then only e-mail and password).
+   * The provider must send back the redirect address APP_URL/api/auth/sso/callback/institution.
+   */
+  SSO_ISSUER: z.url({ error: "SSO_ISSUER must be the OpenID provider's issuer URL, e.g. https://login.example.edu/realms/staff" }).optional(),
+  SSO_CLIENT_ID: z.string().min(1, "SSO_CLIENT_ID must not be empty").optional(),
+  SSO_CLIENT_SECRET: z.string().min(1, "SSO_CLIENT_SECRET must not be empty").optional(),
+  /** The words on the sign-in button after "Continue with", e.g. "Northmere University login". */
+  SSO_LABEL: z.string().min(1, "SSO_LABEL must not be empty").max(60, "SSO_LABEL must be at most 60 characters").default("your institution's login"),
+}).superRefine((e, ctx) => {
+  const set = [e.SSO_ISSUER, e.SSO_CLIENT_ID, e.SSO_CLIENT_SECRET].filter((v) => v !== undefined).length;
+  if (set > 0 && set < 3) {
+    for (const name of ["SSO_ISSUER", "SSO_CLIENT_ID", "SSO_CLIENT_SECRET"] as const) {
+      if (e[name] === undefined) ctx.addIssue({ code: "custom", path: [name], message: `${name} is not set: institutional sign-in needs SSO_ISSUER, SSO_CLIENT_ID and SSO_CLIENT_SECRET together (or none of them)` });
+    }
+  }
 });
 
 export type Env = z.infer<typeof envSchema>;

@@ -8,6 +8,7 @@ export type ErrorCode =
   | "conflict"
   | "payload-too-large"
   | "rate-limited"
+  | "unavailable"
   | "internal";
 
 const STATUS: Record<ErrorCode, number> = {
@@ -18,6 +19,7 @@ const STATUS: Record<ErrorCode, number> = {
   conflict: 409,
   "payload-too-large": 400, // the API contract lists an oversized body among the 400s
   "rate-limited": 429,
+  unavailable: 503, // a service of the institution's (its sign-in) did not answer
   internal: 500,
 };
 

@@ -61,7 +61,7 @@ export async function signInCookie(appUrl: string, who: { email: string; passwor
 }
 
 /** Draws, submits and signs off a bench through the API; returns the signed-off revision. */
-async function signedOffRevision(appUrl: string, cookie: string): Promise<{ revisionId: string; title: string }> {
+export async function signedOffRevision(appUrl: string, cookie: string): Promise<{ revisionId: string; title: string }> {
   const title = `Sheet benchmark ${Date.now().toString(36)}`;
   const labs = await api<{ labs: { id: string; name: string }[] }>(appUrl, "GET", "/api/labs", cookie);
   if (labs.status !== 200) fail("list the labs", labs);

@@ -57,11 +57,18 @@ async function httpFigures(): Promise<Figure[]> {
     if (analyze.non2xx > 0) throw new Error(`POST /api/analyze answered ${analyze.non2xx} non-2xx responses`);
     const ratio = analyze.requests.average / trivial.requests.average;
     const peakKb = peakMemoryKb(app.pid);
+    if (process.argv.includes("--queue-only")) {
+      const { runQueueBench } = await import("./bench-queue");
+      return runQueueBench({ appUrl: env.APP_URL!, databaseUrl: env.DATABASE_URL!, catcherUrl: env.MAIL_CATCHER_URL!, env, cookie });
+    }
     // The editor's drag frame time and the build sheet, in chromium against this production server.
     const { runEditorBench } = await import("./bench-editor");
     const editor = await runEditorBench(env.APP_URL!, cookie);
     const { runSheetBench } = await import("./bench-sheet");
     const sheet = await runSheetBench(env.APP_URL!, cookie);
+    // Queue throughput: e-mails through two mail workers to the catcher, build sheets per minute.
+    const { runQueueBench } = await import("./bench-queue");
+    const queue = await runQueueBench({ appUrl: env.APP_URL!, databaseUrl: env.DATABASE_URL!, catcherUrl: env.MAIL_CATCHER_URL!, env, cookie });
     // The sign-off desk at scale: 10 000 benches and 100 000+ trail rows in this throwaway database.
     const { seedScale } = await import("./seed-scale");
     const { runDeskBench } = await import("./bench-desk");
@@ -71,6 +78,7 @@ async function httpFigures(): Promise<Figure[]> {
     return [
       ...editor,
       ...sheet,
+      ...queue,
       ...desk,
       { name: "GET /api/health throughput (trivial route)", value: trivial.requests.average, unit: "req/s", target: "reference" },
       { name: "POST /api/analyze throughput (signed in, 4 elements)", value: analyze.requests.average, unit: "req/s", target: "≥ 70 % of the trivial route" },
@@ -86,6 +94,13 @@ async function httpFigures(): Promise<Figure[]> {
 
 async function main() {
   const figures: Figure[] = [];
+  // --queue-only: only the queue figures (e-mails per second, sheets per minute): npm run bench -- --queue-only
+  if (process.argv.includes("--queue-only")) {
+    figures.push(...(await httpFigures()));
+    log("benchmark figures");
+    for (const f of figures) process.stdout.write(`  ${f.name}: ${Number(f.value.toPrecision(4))} ${f.unit}   (target ${f.target})\n`);
+    return;
+  }
   const { runOpticsBench } = await import("./bench-optics");
   figures.push(...(await runOpticsBench()));
   const { runPhotoBench } = await import("./bench-photo");

@@ -25,4 +25,7 @@ if [ ! -f node_modules/.package-lock.json ] || [ package-lock.json -nt node_modu
   npm ci --no-audit --no-fund
 fi
 
-exec node_modules/.bin/tsx "scripts/$1.ts"
+# Any further arguments go to the script (npm run bench -- --queue-only).
+script="$1"
+shift
+exec node_modules/.bin/tsx "scripts/$script.ts" "$@"

@@ -3,7 +3,7 @@
 import path from "node:path";
 import { buildIfStale } from "./lib/build";
 import { stopCluster } from "./lib/postgres";
-import { NEXT, provision, TSX } from "./lib/provision";
+import { localIdentityProvider, NEXT, provision, TSX } from "./lib/provision";
 import { DEMO_PASSWORD, DEMO_USERS } from "../db/seed";
 import { log, ROOT, startChild, stopChildren, superviseChild, waitForHttp } from "./lib/system";
 
@@ -17,7 +17,11 @@ const ports = {
 async function main() {
   const started = Date.now();
   const dataDir = path.join(ROOT, ".data");
-  const { cluster, env } = await provision({ dataDir, ports, dbName: "benchwarden", seed: true, rateLimitMax: 10 });
+  const provisioned = await provision({ dataDir, ports, dbName: "benchwarden", seed: true, rateLimitMax: 10 });
+  const { cluster } = provisioned;
+  // BENCHWARDEN_IDP_PORT: the local stand-in for the institution's sign-in (default: the app's port + 90).
+  const idp = localIdentityProvider(provisioned.env.APP_URL!, Number(process.env.BENCHWARDEN_IDP_PORT ?? ports.app + 90));
+  const env = { ...provisioned.env, ...idp.env };
 
   let shuttingDown = false;
   const shutdown = async (signal: string) => {
@@ -32,6 +36,7 @@ async function main() {
   process.on("SIGTERM", () => void shutdown("SIGTERM"));
 
   startChild("mail catcher", TSX, ["scripts/mail-catcher.ts"], { env });
+  if (idp.start) startChild("identity provider", TSX, ["scripts/identity-provider.ts"], { env });
   buildIfStale();
   startChild("app", NEXT, ["start", "-H", "127.0.0.1", "-p", String(ports.app)], { env });
   superviseChild("mail worker", TSX, ["scripts/mail-worker.ts"], { env });
@@ -43,6 +48,7 @@ async function main() {
   Benchwarden is ready (${seconds} s)
     app           ${env.APP_URL}
     mail catcher  ${env.MAIL_CATCHER_URL}   (SMTP on 127.0.0.1:${ports.smtp})
+    sign-in       ${idp.start ? `${env.SSO_ISSUER} stands in for the institution's login (any demo e-mail, any password)` : `institutional sign-in through ${env.SSO_ISSUER ?? "(none configured)"}`}
     PostgreSQL    127.0.0.1:${ports.postgres}, data in ${cluster.dataDir}
   Demo sign-ins (password for all: ${DEMO_PASSWORD})
 ${accounts}

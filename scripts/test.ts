@@ -6,13 +6,17 @@ import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from "node
 import path from "node:path";
 import { buildIfStale } from "./lib/build";
 import { stopCluster } from "./lib/postgres";
-import { NEXT, provision, TSX } from "./lib/provision";
+import { localIdentityProvider, NEXT, provision, TSX } from "./lib/provision";
 import { log, ROOT, startChild, stopChildren, superviseChild, waitForHttp } from "./lib/system";
 
 const ports = { app: 3100, postgres: 5434, smtp: 2526, catcherWeb: 1081 };
 // A second app server and a second mail worker on the same PostgreSQL, as an institution runs it
 // behind a proxy; tests/integration/two-servers.test.ts talks to both.
 const SECOND_APP_PORT = 3101;
+// The stand-in for the institution's OpenID Connect provider (scripts/identity-provider.ts).
+const IDENTITY_PROVIDER_PORT = 3190;
+// Both app servers keep uploads and sheets in one S3-compatible store (scripts/s3-fake.ts, s3rver).
+const S3_FAKE_PORT = 3193;
 const dataDir = path.join(ROOT, ".data/test");
 const resultsDir = path.join(ROOT, "test-results");
 
@@ -56,9 +60,30 @@ async function main(): Promise<number> {
   // addresses through X-Forwarded-For, so the app trusts one proxy hop (tests/integration/security-*
   // also start a server with the setting off).
   const secondAppUrl = `http://127.0.0.1:${SECOND_APP_PORT}`;
-  const testEnv = { ...env, TEST_SUPERUSER_URL: superUrl, MAIL_WORKER_INTERVAL_MS: "300", TRUSTED_PROXY_COUNT: "1", SECOND_APP_URL: secondAppUrl };
+  const idp = localIdentityProvider(env.APP_URL!, IDENTITY_PROVIDER_PORT);
+  const testEnv = {
+    ...env,
+    ...idp.env,
+    TEST_SUPERUSER_URL: superUrl,
+    MAIL_WORKER_INTERVAL_MS: "300",
+    TRUSTED_PROXY_COUNT: "1",
+    SECOND_APP_URL: secondAppUrl,
+    // tests/integration/postgres-restart.test.ts stops and starts this cluster.
+    TEST_PG_DATA_DIR: cluster.dataDir,
+    TEST_PG_PORT: String(cluster.port),
+    STORAGE_DRIVER: "s3",
+    S3_ENDPOINT: `http://127.0.0.1:${S3_FAKE_PORT}`,
+    S3_BUCKET: "benchwarden-test",
+    S3_REGION: "us-east-1",
+    S3_ACCESS_KEY_ID: "S3RVER",
+    S3_SECRET_ACCESS_KEY: "S3RVER",
+    S3_FAKE_PORT: String(S3_FAKE_PORT),
+    S3_FAKE_DIR: path.join(dataDir, "s3"),
+  };
   try {
     startChild("mail catcher", TSX, ["scripts/mail-catcher.ts"], { env: testEnv });
+    startChild("S3 fake", TSX, ["scripts/s3-fake.ts"], { env: testEnv });
+    if (idp.start) startChild("identity provider", TSX, ["scripts/identity-provider.ts"], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
     buildIfStale();
     startChild("app", NEXT, ["start", "-H", "127.0.0.1", "-p", String(ports.app)], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
     startChild("second app", NEXT, ["start", "-H", "127.0.0.1", "-p", String(SECOND_APP_PORT)], { env: testEnv, stdio: ["ignore", "ignore", "inherit"] });
@@ -67,6 +92,8 @@ async function main(): Promise<number> {
     await waitForHttp(`${env.APP_URL}/sign-in`, 60_000);
     await waitForHttp(`${secondAppUrl}/sign-in`, 60_000);
     await waitForHttp(`${env.MAIL_CATCHER_URL}/api/messages`, 30_000);
+    await waitForHttp(`${testEnv.S3_ENDPOINT}/`, 30_000);
+    if (idp.start) await waitForHttp(`${idp.env.SSO_ISSUER}/.well-known/openid-configuration`, 30_000);
 
     log("type check of the whole project (tsc --noEmit)");
     typecheck = run(path.join(ROOT, "node_modules/.bin/tsc"), ["--noEmit", "-p", "tsconfig.json"], testEnv) === 0 ? { passed: 1, failed: 0 } : { passed: 0, failed: 1 };

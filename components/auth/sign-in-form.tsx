@@ -4,9 +4,12 @@ import { useState } from "react";
 import { authClient } from "@/lib/auth/auth-client";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
+import { apiFetch } from "@/lib/api/client";
+import { ssoRefusalSentence } from "@/lib/auth/sso-words";
 import { safeCallbackPath } from "./safe-callback";
 
-export function SignInForm() {
+/** `institution`: the words after "Continue with" when the institution's sign-in is configured, else null. */
+export function SignInForm({ institution }: { institution: string | null }) {
   const router = useRouter();
   const params = useSearchParams();
   const passwordSaved = params.get("done") === "1";
@@ -15,6 +18,21 @@ export function SignInForm() {
   const [password, setPassword] = useState("");
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
+  // Set when the institution's sign-in sent the person back here with a reason (?error=…).
+  const refusal = ssoRefusalSentence(params.get("error"));
+  const [leaving, setLeaving] = useState(false);
+
+  async function onInstitution() {
+    setError(null);
+    setLeaving(true);
+    try {
+      const { url } = await apiFetch<{ url: string }>("/api/auth/sign-in/sso", { method: "POST", body: JSON.stringify({ callbackURL: callback }) });
+      window.location.assign(url);
+    } catch (failure) {
+      setLeaving(false);
+      setError(failure instanceof Error ? failure.message : "Your institution's sign-in did not answer. Try again, or sign in with your e-mail and password.");
+    }
+  }
 
   async function onSubmit(event: React.FormEvent) {
     event.preventDefault();
@@ -37,6 +55,21 @@ export function SignInForm() {
     <form onSubmit={onSubmit} className="flex flex-col gap-4" noValidate>
       <h1 className="text-xl font-semibold">Sign in</h1>
       {passwordSaved ? <p role="status" className="text-ok">Your password is saved. Sign in with it.</p> : null}
+      {refusal && !error ? (
+        <p role="alert" className="rounded-md border border-danger px-3 py-2 text-danger">
+          {refusal}
+        </p>
+      ) : null}
+      {institution ? (
+        <>
+          <Button type="button" variant="quiet" onClick={onInstitution} disabled={leaving}>
+            {leaving ? "Going to your institution…" : `Continue with ${institution}`}
+          </Button>
+          <p className="text-center text-sm text-muted" aria-hidden="true">
+            or with your Benchwarden password
+          </p>
+        </>
+      ) : null}
       <Field id="email" label="E-mail" type="email" autoComplete="username" value={email} onChange={(e) => setEmail(e.target.value)} required />
       <Field id="password" label="Password" type="password" autoComplete="current-password" value={password} onChange={(e) => setPassword(e.target.value)} required />
       {error ? (

@@ -1,7 +1,9 @@
 // better-auth on the server: e-mail + password sign-in, sessions in PostgreSQL (Drizzle adapter),
 // roles from lib/auth/permissions.ts through the admin plugin (its own endpoints closed: see
-// lib/auth/endpoints.ts). Accounts come only from invitations.
+// lib/auth/endpoints.ts). Accounts come only from invitations. Optionally, sign-in through the
+// institution's OpenID Connect provider (@better-auth/sso, lib/auth/sso.ts) beside the password.
 import "server-only";
+import { sso } from "@better-auth/sso";
 import { betterAuth } from "better-auth";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
 import { nextCookies } from "better-auth/next-js";
@@ -14,20 +16,26 @@ import { passwordResetMail } from "@/lib/mail/templates";
 import { CLIENT_ADDRESS_HEADER } from "./client-address";
 import { CLOSED_AUTH_PATHS } from "./endpoints";
 import { appOrigins } from "./origins";
+import { defaultProviders, resolveInstitutionUser, ssoSettings } from "./sso";
 import { ac, roles } from "./permissions";
 
 function createAuth() {
   const e = env();
+  const institution = ssoSettings();
   return betterAuth({
     appName: "Benchwarden",
     baseURL: e.APP_URL,
     secret: e.BETTER_AUTH_SECRET,
-    trustedOrigins: appOrigins(),
+    // The identity provider's origin is trusted for the server's own discovery, token and key fetches
+    // (the SSO plugin checks them against this list); browsers' requests still pass lib/auth/origins.ts.
+    trustedOrigins: institution ? [...appOrigins(), new URL(institution.issuer).origin] : appOrigins(),
     // Closed inside the library as well; lib/auth/handler.ts opens only OPEN_AUTH_ENDPOINTS.
     disabledPaths: [...CLOSED_AUTH_PATHS],
     database: drizzleAdapter(getDb(), {
       provider: "pg",
-      schema: { user: schema.user, session: schema.session, account: schema.account, verification: schema.verification },
+      schema: { user: schema.user, session: schema.session, account: schema.account, verification: schema.verification, ssoProvider: schema.ssoProvider },
+      // The SSO plugin links an institutional identity to an account inside one transaction.
+      transaction: true,
     }),
     emailAndPassword: {
       enabled: true,
@@ -64,6 +72,13 @@ function createAuth() {
     },
     plugins: [
       admin({ ac, roles, defaultRole: "researcher", adminRoles: ["admin"] }),
+      sso({
+        defaultSSO: defaultProviders(institution),
+        resolveUser: resolveInstitutionUser,
+        disableImplicitSignUp: true,
+        // Nobody registers providers over HTTP (those endpoints are closed); this closes it in the plugin too.
+        providersLimit: 0,
+      }),
       nextCookies(), // must stay last
     ],
   });

@@ -13,6 +13,10 @@ export const OPEN_AUTH_ENDPOINTS: readonly { method: "GET" | "POST"; path: strin
   { method: "POST", path: "/reset-password" },
   // The link in the reset e-mail: checks the token, then redirects to the reset page.
   { method: "GET", path: /^\/reset-password\/[A-Za-z0-9_-]{1,200}$/ },
+  // Institutional sign-in (lib/auth/sso.ts): the start, which answers the provider's address, and the
+  // provider's redirect back. lib/auth/handler.ts writes the start's body itself.
+  { method: "POST", path: "/sign-in/sso" },
+  { method: "GET", path: "/sso/callback/institution" },
   { method: "GET", path: "/ok" },
   { method: "GET", path: "/error" },
 ];
@@ -53,6 +57,15 @@ export const CLOSED_AUTH_PATHS: readonly string[] = [
   "/send-verification-email",
   "/sign-in/social",
   "/sign-up/email",
+  "/sso/callback",
+  "/sso/delete-provider",
+  "/sso/get-provider",
+  "/sso/providers",
+  "/sso/register",
+  "/sso/request-domain-verification",
+  "/sso/saml2/sp/metadata",
+  "/sso/update-provider",
+  "/sso/verify-domain",
   "/unlink-account",
   "/update-session",
   "/update-user",

@@ -62,3 +62,27 @@ export async function provision(options: { dataDir: string; ports: Ports; dbName
 
 export const TSX = path.join(ROOT, "node_modules/.bin/tsx");
 export const NEXT = path.join(ROOT, "node_modules/.bin/next");
+
+/**
+ * Institutional sign-in for a local installation: when no real provider is configured (SSO_ISSUER
+ * unset), the stand-in scripts/identity-provider.ts runs on `port` and the app is pointed at it.
+ * Returns the environment to add (empty when a real provider is configured) and whether to start it.
+ */
+export function localIdentityProvider(appUrl: string, port: number): { env: Record<string, string>; start: boolean } {
+  if (process.env.SSO_ISSUER) return { env: {}, start: false };
+  // A fixed secret is fine here: the stand-in listens on loopback only and knows no real person.
+  const secret = "local-identity-provider-secret";
+  return {
+    start: true,
+    env: {
+      SSO_ISSUER: `http://127.0.0.1:${port}`,
+      SSO_CLIENT_ID: "benchwarden",
+      SSO_CLIENT_SECRET: secret,
+      SSO_LABEL: "Northmere University login",
+      IDP_PORT: String(port),
+      IDP_CLIENT_ID: "benchwarden",
+      IDP_CLIENT_SECRET: secret,
+      IDP_REDIRECT_URIS: `${appUrl}/api/auth/sso/callback/institution`,
+    },
+  };
+}

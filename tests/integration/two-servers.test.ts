@@ -1,11 +1,13 @@
 // Two app servers and two mail workers on one PostgreSQL (scripts/test.ts starts the second pair), as
 // an institution runs Benchwarden behind a proxy: a session made on one server works on the other,
-// a sign-out or a deactivation on one holds at once on the other, and every e-mail goes out once.
+// a sign-out or a deactivation on one holds at once on the other, every e-mail goes out once, and
+// an upload stored through one server (in the S3-compatible store both use) is served by the other.
 import { randomUUID } from "node:crypto";
 import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { APP_URL, CATCHER_URL, call, DEMO, signIn, type CaughtMail } from "../support/http";
-import { createAccount, databaseUrl } from "../support/review-fixtures";
+import { createStorage } from "../../lib/storage";
+import { APP_URL, CATCHER_URL, call, DEMO, DEMO_PASSWORD, signIn, type CaughtMail } from "../support/http";
+import { createAccount, createDrawnBench, databaseUrl, labIdByName, sampleBench } from "../support/review-fixtures";
 
 const SECOND = process.env.SECOND_APP_URL ?? "http://127.0.0.1:3101";
 let pool: pg.Pool;
@@ -87,4 +89,38 @@ describe("two mail workers on one outbox", () => {
     );
     expect(caught).toEqual(addresses.map(() => 1));
   });
+});
+
+describe("two app servers on one S3-compatible store", () => {
+  it("an upload stored through the first server is served by the second, from the object store", async () => {
+    expect(process.env.STORAGE_DRIVER, "npm test runs both servers on the S3 fake").toBe("s3");
+    const [researcher, officer, technician] = await Promise.all([signIn(DEMO.researcher), signIn(DEMO.officer), signIn(DEMO.technician)]);
+    const labId = await labIdByName(researcher.cookie, "Wrenfield Imaging Lab");
+    const b = await createDrawnBench(pool, researcher.cookie, labId, sampleBench(`Two servers upload ${randomUUID().slice(0, 8)}`));
+    expect((await call("POST", `/api/revisions/${b.revisionId}/submit`, researcher.cookie, { contentHash: b.contentHash })).status).toBe(200);
+    const decided = await call("POST", `/api/revisions/${b.revisionId}/decision`, officer.cookie, { outcome: "approve", contentHash: b.contentHash, password: DEMO_PASSWORD });
+    expect(decided.status, decided.text).toBe(201);
+    const started = await call("POST", "/api/builds", technician.cookie, { revisionId: b.revisionId });
+    expect(started.status, started.text).toBe(201);
+    const buildId = (started.json!.build as { id: string }).id;
+
+    const png = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.from(randomUUID())]);
+    const form = new FormData();
+    form.set("file", new Blob([new Uint8Array(png)], { type: "image/png" }), "screen-two-servers.png");
+    form.set("kind", "screen-photo");
+    const stored = await fetch(`${APP_URL}/api/builds/${buildId}/uploads`, { method: "POST", headers: { cookie: technician.cookie, origin: APP_URL }, body: form });
+    expect(stored.status).toBe(201);
+    const upload = ((await stored.json()) as { upload: { id: string; url: string } }).upload;
+
+    const served = await fetch(`${SECOND}${upload.url}`, { headers: { cookie: technician.cookie } });
+    expect(served.status).toBe(200);
+    expect(Buffer.compare(Buffer.from(await served.arrayBuffer()), png)).toBe(0);
+
+    // The bytes are in the object store under the row's key (not on one server's disk).
+    const { rows } = await pool.query("select storage_key from upload where id = $1", [upload.id]);
+    expect(rows).toHaveLength(1);
+    const store = createStorage({ ...process.env, STORAGE_DRIVER: "s3" } as Parameters<typeof createStorage>[0]);
+    const kept = await store.get(rows[0].storage_key);
+    expect(kept && Buffer.compare(kept, png)).toBe(0);
+  }, 60_000);
 });
