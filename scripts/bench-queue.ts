@@ -22,7 +22,7 @@ const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
 async function mailFigures(databaseUrl: string, catcherUrl: string, env: NodeJS.ProcessEnv): Promise<Figure[]> {
   startChild("mail catcher", TSX, ["scripts/mail-catcher.ts"], { env, stdio: ["ignore", "ignore", "inherit"] });
-  await waitForHttp(`${catcherUrl}/api/messages`, 30_000);
+  await waitForHttp(`${catcherUrl}/api/messages`, 120_000);
   // The workers poll every 200 ms (the product's default is 2 s) and take 20 messages per round.
   for (let i = 0; i < WORKERS; i++) startChild(`mail worker ${i + 1}`, TSX, ["scripts/mail-worker.ts"], { env: { ...env, MAIL_WORKER_INTERVAL_MS: "200" }, stdio: ["ignore", "ignore", "inherit"] });
   const pool = new pg.Pool({ connectionString: databaseUrl, max: 2 });

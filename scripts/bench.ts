@@ -59,7 +59,7 @@ async function httpFigures(): Promise<Figure[]> {
     const peakKb = peakMemoryKb(app.pid);
     if (process.argv.includes("--queue-only")) {
       const { runQueueBench } = await import("./bench-queue");
-      return runQueueBench({ appUrl: env.APP_URL!, databaseUrl: env.DATABASE_URL!, catcherUrl: env.MAIL_CATCHER_URL!, env, cookie });
+      return await runQueueBench({ appUrl: env.APP_URL!, databaseUrl: env.DATABASE_URL!, catcherUrl: env.MAIL_CATCHER_URL!, env, cookie });
     }
     // The editor's drag frame time and the build sheet, in chromium against this production server.
     const { runEditorBench } = await import("./bench-editor");

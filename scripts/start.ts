@@ -27,7 +27,7 @@ async function main() {
   const shutdown = async (signal: string) => {
     if (shuttingDown) return;
     shuttingDown = true;
-    log(`${signal}: stopping the app, the mail worker, the mail catcher and PostgreSQL`);
+    log(`${signal}: stopping the app, the mail worker, the mail catcher, the sign-in stand-in and PostgreSQL`);
     await stopChildren();
     stopCluster(cluster);
     process.exit(0);

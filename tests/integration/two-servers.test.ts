@@ -7,6 +7,7 @@ import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createStorage } from "../../lib/storage";
 import { APP_URL, CATCHER_URL, call, DEMO, DEMO_PASSWORD, signIn, type CaughtMail } from "../support/http";
+import { DEMO_LAB_NAME } from "../support/demo";
 import { createAccount, createDrawnBench, databaseUrl, labIdByName, sampleBench } from "../support/review-fixtures";
 
 const SECOND = process.env.SECOND_APP_URL ?? "http://127.0.0.1:3101";
@@ -95,7 +96,7 @@ describe("two app servers on one S3-compatible store", () => {
   it("an upload stored through the first server is served by the second, from the object store", async () => {
     expect(process.env.STORAGE_DRIVER, "npm test runs both servers on the S3 fake").toBe("s3");
     const [researcher, officer, technician] = await Promise.all([signIn(DEMO.researcher), signIn(DEMO.officer), signIn(DEMO.technician)]);
-    const labId = await labIdByName(researcher.cookie, "Wrenfield Imaging Lab");
+    const labId = await labIdByName(researcher.cookie, DEMO_LAB_NAME);
     const b = await createDrawnBench(pool, researcher.cookie, labId, sampleBench(`Two servers upload ${randomUUID().slice(0, 8)}`));
     expect((await call("POST", `/api/revisions/${b.revisionId}/submit`, researcher.cookie, { contentHash: b.contentHash })).status).toBe(200);
     const decided = await call("POST", `/api/revisions/${b.revisionId}/decision`, officer.cookie, { outcome: "approve", contentHash: b.contentHash, password: DEMO_PASSWORD });
