@@ -4,7 +4,7 @@ import { useState } from "react";
 import { authClient } from "@/lib/auth/auth-client";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
-import { apiFetch } from "@/lib/api/client";
+import { ApiError, apiFetch } from "@/lib/api/client";
 import { ssoRefusalSentence } from "@/lib/auth/sso-words";
 import { safeCallbackPath } from "./safe-callback";
 
@@ -30,7 +30,10 @@ export function SignInForm({ institution }: { institution: string | null }) {
       window.location.assign(url);
     } catch (failure) {
       setLeaving(false);
-      setError(failure instanceof Error ? failure.message : "Your institution's sign-in did not answer. Try again, or sign in with your e-mail and password.");
+      if (failure instanceof ApiError && failure.status === 429) setError("Too many sign-ins from here at once. Wait a minute, then try again.");
+      // Our own refusals (4xx) and "the server cannot be reached" (0) are sentences already.
+      else if (failure instanceof ApiError && failure.status < 500) setError(failure.message);
+      else setError("Your institution's sign-in did not answer. Try again, or sign in with your e-mail and password.");
     }
   }
 

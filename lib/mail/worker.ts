@@ -1,9 +1,11 @@
 // Sends due outbox rows. A round first CLAIMS rows in a short transaction (FOR UPDATE SKIP LOCKED,
 // then a lease: next_attempt_at moves LEASE_S ahead, so no other worker takes them), then sends over
 // SMTP with no transaction or row lock held, then marks each row sent, or pending with a backoff, or
-// failed after MAX_ATTEMPTS. A worker that dies mid-round leaves leased rows that become due again
-// when the lease ends: delivery is at least once, and exactly once unless a worker dies between
-// the SMTP reply and the mark.
+// failed after MAX_ATTEMPTS. The mark is retried while the database is away (a restart, a failover)
+// for up to MARK_RETRY_MS, so a message sent just before PostgreSQL went down is recorded as sent
+// when it is back, not sent again when its lease ends. A worker that dies between the SMTP reply
+// and the mark still leaves the row to be sent again after the lease: delivery is at least once,
+// and exactly once unless a worker dies (or the database stays away longer than MARK_RETRY_MS) there.
 import { sql } from "drizzle-orm";
 import type { Database } from "@/db";
 import type { MailTransport } from "./transport";
@@ -32,22 +34,52 @@ export async function claimDueMail(db: Database, limit: number): Promise<OutboxR
   return claimed.rows;
 }
 
+/** How long a round keeps trying to record a message's outcome while the database does not answer. */
+export const MARK_RETRY_MS = 120_000;
+
+/** Runs a database write until it succeeds: every 250 ms at first, doubling to 5 s, for at most `retryMs`. */
+async function untilWritten(write: () => Promise<unknown>, retryMs: number): Promise<void> {
+  const deadline = Date.now() + retryMs;
+  let waitMs = 250;
+  for (;;) {
+    try {
+      await write();
+      return;
+    } catch (error) {
+      if (Date.now() + waitMs > deadline) throw error;
+      await new Promise((r) => setTimeout(r, waitMs));
+      waitMs = Math.min(5000, waitMs * 2);
+    }
+  }
+}
+
 /** Sends up to `limit` due messages; returns how many were sent and how many failed this round. */
-export async function sendDueMail(db: Database, transport: MailTransport, from: string, limit = 20): Promise<{ sent: number; failed: number }> {
+export async function sendDueMail(db: Database, transport: MailTransport, from: string, limit = 20, markRetryMs = MARK_RETRY_MS): Promise<{ sent: number; failed: number }> {
   let sent = 0;
   let failed = 0;
   const due = await claimDueMail(db, limit);
   for (const row of due) {
+    // Only the SMTP conversation decides whether the message failed; a database error while
+    // recording the outcome is retried, never counted as a failed send.
+    let failure: unknown = null;
     try {
       await transport.send({ from, to: row.to_address, subject: row.subject, text: row.text_body, html: row.html_body });
-      await db.execute(sql`update mail_outbox set state = 'sent', sent_at = now(), attempts = attempts + 1, last_error = null where id = ${row.id}`);
-      sent++;
     } catch (error) {
+      failure = error;
+    }
+    if (failure === null) {
+      await untilWritten(() => db.execute(sql`update mail_outbox set state = 'sent', sent_at = now(), attempts = attempts + 1, last_error = null where id = ${row.id}`), markRetryMs);
+      sent++;
+    } else {
       const attempts = row.attempts + 1;
-      const reason = error instanceof Error ? error.message : String(error);
+      const reason = failure instanceof Error ? failure.message : String(failure);
       const finalState = attempts >= MAX_ATTEMPTS ? "failed" : "pending";
-      await db.execute(sql`update mail_outbox set attempts = ${attempts}, last_error = ${reason.slice(0, 500)},
-        state = ${finalState}, next_attempt_at = now() + make_interval(secs => ${backoffSeconds(attempts)}) where id = ${row.id}`);
+      await untilWritten(
+        () =>
+          db.execute(sql`update mail_outbox set attempts = ${attempts}, last_error = ${reason.slice(0, 500)},
+            state = ${finalState}, next_attempt_at = now() + make_interval(secs => ${backoffSeconds(attempts)}) where id = ${row.id}`),
+        markRetryMs,
+      );
       failed++;
     }
   }

@@ -12,9 +12,10 @@ const escape = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
 
 async function throughInstitution(page: Page, login: string) {
   await page.goto("/sign-in");
+  await page.waitForLoadState("networkidle");
   await page.getByRole("button", { name: "Continue with Northmere University login" }).click();
   // The provider's own sign-in page (another origin): any password, the address is the login.
-  await expect(page).toHaveURL(new RegExp(`^${escape(ISSUER)}/`));
+  await expect(page).toHaveURL(new RegExp(`^${escape(ISSUER)}/`), { timeout: 20_000 });
   await page.locator('input[name="login"]').fill(login);
   await page.locator('input[name="password"]').fill("anything");
   await page.locator('button[type="submit"]').click();
