@@ -87,11 +87,16 @@ export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocum
     );
   }, [validity, key, base, save, settle]);
 
-  // A copy of an unsaved drawing stays in this browser until the server has it (unsaved-copy.ts).
+  // A copy of an unsaved drawing stays in this browser until the server has it (unsaved-copy.ts). The copy is
+  // forgotten only once this page has held a change and the server has it: on opening the page the copy still
+  // waits to be restored (the editor reads it after this effect has run), so it must not be forgotten then.
+  const heldChange = useRef(false);
   useEffect(() => {
     if (!canEdit) return;
-    if (dirty) keepUnsaved(benchId, { document: doc, baseRevision: base.revisionNumber, baseVersion: base.version, key, savedAtMs: Date.now() });
-    else forgetUnsaved(benchId);
+    if (dirty) {
+      heldChange.current = true;
+      keepUnsaved(benchId, { document: doc, baseRevision: base.revisionNumber, baseVersion: base.version, key, savedAtMs: Date.now() });
+    } else if (heldChange.current) forgetUnsaved(benchId);
   }, [canEdit, dirty, doc, key, base.revisionNumber, base.version, benchId]);
 
   // Leaving the page: send what is pending at once (keepalive outlives the page). Returns false when it cannot be
@@ -99,6 +104,8 @@ export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocum
   const flushOnLeave = useCallback((): boolean => {
     const l = latest.current;
     if (!l.canEdit || !l.dirty) return true;
+    // The browser's copy first, synchronously: whatever happens to the request below, the change is kept here.
+    if (l.document) keepUnsaved(benchId, { document: l.document, baseRevision: l.base.revisionNumber, baseVersion: l.base.version, key: l.key, savedAtMs: Date.now() });
     if (!l.document || l.conflict) return false;
     if (sentOnLeave.current === l.key) return true;
     sentOnLeave.current = l.key;
