@@ -38,6 +38,18 @@ export async function apiFetch<T>(url: string, init?: RequestInit & { offlineMes
   return body as T;
 }
 
+/**
+ * The body a form is about to send, checked in the browser with the same shared schema the route uses (lib/api/
+ * contracts): a problem comes back as the ApiError the server would have answered, with the same field names and
+ * sentences, before anything is sent. Returns the body as the schema reads it.
+ */
+export function checkBeforeSending<T>(schema: { safeParse: (value: unknown) => { success: true; data: T } | { success: false; error: { issues: { path: PropertyKey[]; message: string }[] } } }, value: unknown): T {
+  const parsed = schema.safeParse(value);
+  if (parsed.success) return parsed.data;
+  const fields = parsed.error.issues.map((i) => ({ path: i.path.map(String).join(".") || "(body)", message: i.message }));
+  throw new ApiError(fields[0]?.message ?? "The form is not complete.", 400, fields);
+}
+
 /** The server's copy sent with a 409, when there is one. */
 export function conflictCurrent<T>(error: unknown): T | null {
   return error instanceof ApiError && error.status === 409 && error.extra.current ? (error.extra.current as T) : null;
