@@ -91,7 +91,7 @@ export function BuildWorkspace({ buildId, images, eyewear = null }: { buildId: s
           const img = images[a.apertureId];
           return (
             <article key={a.apertureId} className="grid gap-4 rounded-xl border border-line bg-panel p-4 lg:grid-cols-2" data-testid={`aperture-${a.apertureId}`}>
-              <div className="flex flex-col gap-3">
+              <div className="flex min-w-0 flex-col gap-3">
                 <h3 className="text-lg font-semibold">
                   Predicted behind {a.apertureId} <span className="text-muted">(⌀ {a.diameterMm} mm{a.screenId ? `, on ${a.screenId}` : ""})</span>
                 </h3>
@@ -121,7 +121,7 @@ export function BuildWorkspace({ buildId, images, eyewear = null }: { buildId: s
                   ) : null}
                 </div>
               </div>
-              <div className="flex flex-col gap-3">
+              <div className="flex min-w-0 flex-col gap-3">
                 <h3 className="text-lg font-semibold">Seen</h3>
                 <ul className="flex flex-col gap-2">
                   {build.observations
@@ -138,7 +138,7 @@ export function BuildWorkspace({ buildId, images, eyewear = null }: { buildId: s
                 ) : null}
               </div>
               {screenUploads.length ? (
-                <div className="flex flex-col gap-2 lg:col-span-2">
+                <div className="flex min-w-0 flex-col gap-2 lg:col-span-2">
                   <h3 className="text-lg font-semibold">Photos of the screen behind {a.apertureId}</h3>
                   <ScreenPhotos build={build} apertureId={a.apertureId} />
                 </div>
@@ -152,7 +152,7 @@ export function BuildWorkspace({ buildId, images, eyewear = null }: { buildId: s
               <h3 className="text-lg font-semibold">Predicted on {predictions.screen.screenId}</h3>
               <p>Beam diameter {fmt(predictions.screen.beamDiameterMm)} mm (1/e²), power {fmt(predictions.screen.powerMw)} mW.</p>
             </div>
-            <div className="flex flex-col gap-3">
+            <div className="flex min-w-0 flex-col gap-3">
               <Uploads uploads={screenUploads} />
               <ul className="flex flex-col gap-2">
                 {build.observations.filter((o) => o.apertureId === null).map((o) => <ObservationItem key={o.id} o={o} />)}
