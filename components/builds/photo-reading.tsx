@@ -96,7 +96,7 @@ export function PhotoReadingCard({ reading }: { reading: PhotoReadingView }) {
         </figure>
         <figure className="flex flex-col gap-1">
           <PhotoProfilePlot radiusMm={r.profile.radiusMm} measured={r.profile.measured} fitted={r.profile.fitted} predicted={r.profile.predicted} label={`The photo's radial profile behind ${reading.apertureId} over the predicted one`} />
-          <figcaption className="text-xs text-muted">Intensity relative to the open beam (the photo&apos;s levels through the fitted tone curve).</figcaption>
+          <figcaption className="text-xs text-muted">Intensity relative to the open beam (the photo&apos;s levels through the fitted tone curve). Flat tops are pixels the camera saturated; the fit leaves them out.</figcaption>
         </figure>
       </div>
       <p className="text-xs text-muted">
