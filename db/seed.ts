@@ -187,7 +187,7 @@ export async function seedDemo(db: Database): Promise<boolean> {
                 reason: decided.reason ?? null,
                 validUntil,
                 contentHash: hash,
-                hazardSummary: hazardSummary(b.doc),
+                hazardSummary: hazardSummary(b.doc, { standard: DEMO_STANDARDS[b.lab] }),
                 stepUpVerified: decided.outcome === "approved",
                 decidedAt,
               })

@@ -46,7 +46,7 @@ const BenchCanvas = dynamic(() => import("./bench-canvas").then((m) => m.BenchCa
   loading: () => <div className="flex h-full items-center justify-center text-muted">Loading the drawing…</div>,
 });
 
-type Props = { benchId: string; labName: string; authorName: string; shelf?: LabShelfData | null };
+type Props = { benchId: string; labId?: string; labName: string; authorName: string; shelf?: LabShelfData | null };
 
 export function BenchEditor(props: Props) {
   const draft = useQuery(draftQuery(props.benchId));
@@ -57,11 +57,11 @@ export function BenchEditor(props: Props) {
 
 const BUTTON = "inline-flex min-h-10 min-w-10 items-center justify-center gap-1 rounded-md border border-line px-2.5 text-sm hover:bg-raised disabled:cursor-not-allowed disabled:opacity-40";
 
-function EditorBody({ benchId, labName, authorName, initial, shelf = null }: Props & { initial: DraftView }) {
+function EditorBody({ benchId, labId, labName, authorName, initial, shelf = null }: Props & { initial: DraftView }) {
   const canEdit = initial.canEdit;
   const { state, dispatch, selected, canUndo, canRedo } = useEditorState(initial.document);
   const { doc, selection } = state;
-  const analysis = useAnalysis(doc);
+  const analysis = useAnalysis(doc, labId);
   const save = useAutosave(benchId, initial, doc, canEdit);
 
   // A drawing left unsaved in this browser (the page was closed before the server had it) comes back as it was,

@@ -15,6 +15,7 @@ import { authorize, type Actor } from "./authorize";
 import { checklistFor, compareObservation, positionWithinTolerance, POSITION_TOLERANCE_MM, POWER_TOLERANCE_FRACTION, predictionsFor, signOffSentence, signOffStatus, SPOT_TOLERANCE_FRACTION, whyNotSignOff, type SignOffRecord, type SignOffStatus } from "@/lib/build/rules";
 import { assessRevision } from "@/lib/review/hazard";
 import { OPTICS_ENGINE_VERSION } from "@/lib/optics/version";
+import { labStandard } from "./lab-standard";
 import { loadRevision } from "./reviews";
 import { inScope, notFoundAs } from "./scope";
 import type { BuildableRow, BuildView, CheckView, checkInput, ObservationView, observationInput, startBuildInput } from "@/lib/api/contracts/builds";
@@ -136,7 +137,7 @@ function observationView(row: typeof buildObservation.$inferSelect, name: string
 }
 
 export async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revision: SignedRevision): Promise<BuildView> {
-  const assessed = assessRevision(revision.document);
+  const assessed = assessRevision(revision.document, { standard: await labStandard(db, revision.labId) });
   const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions);
   const checks = await db.select().from(buildCheck).where(eq(buildCheck.buildId, build.id));
   const byKey = new Map(checks.map((c) => [c.itemKey, c]));
@@ -262,7 +263,7 @@ async function startBuildOnce(db: Database, actor: Actor, input: z.infer<typeof 
       .insert(buildRecord)
       .values({ revisionId: revision.id, benchId: revision.benchId, contentHash: revision.contentHash, technicianId: actor.userId })
       .returning();
-    const assessed = assessRevision(revision.document);
+    const assessed = assessRevision(revision.document, { standard: await labStandard(tx, revision.labId) });
     const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions);
     await tx.insert(buildCheck).values(items.map((i) => ({ buildId: build.id, itemKey: i.itemKey })));
     await recordAudit(tx, actor, { ...aboutRevision(revision), action: "build-started", detail: { buildId: build.id, number: revision.number, items: items.length } });
@@ -281,7 +282,7 @@ export async function updateCheck(db: Database, actor: Actor, buildId: string, i
   return db.transaction(async (tx) => {
     const { build, revision } = await loadBuild(tx, actor, buildId, true);
     assertRecordable(build, revision);
-    const assessed = assessRevision(revision.document);
+    const assessed = assessRevision(revision.document, { standard: await labStandard(tx, revision.labId) });
     const item = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions).find((i) => i.itemKey === input.itemKey);
     if (!item) throw new AppError("bad-request", `There is no checklist item "${input.itemKey}" on this build.`, [{ path: "itemKey", message: "No such item" }]);
     if (input.measuredPositionMm !== undefined && item.expectedPositionMm === null) {

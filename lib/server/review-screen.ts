@@ -42,7 +42,7 @@ export async function getReview(db: Database, actor: Actor, revisionId: string):
 
   return {
     revision: { id: r.id, number: r.number, state: r.state, contentHash: r.contentHash, document: r.document, updatedAt: r.updatedAt.toISOString() },
-    bench: { id: r.benchId, title: r.benchTitle, labName: r.labName, authorName: r.authorName, authorId: r.authorId },
+    bench: { id: r.benchId, title: r.benchTitle, labId: r.labId, labName: r.labName, authorName: r.authorName, authorId: r.authorId },
     decision: decisionRow ? decisionView(decisionRow) : null,
     lastApproved: approvedRow
       ? { id: approvedRow.id, number: approvedRow.number, state: approvedRow.state, contentHash: approvedRow.contentHash, diff: diffBenches(approvedRow.document as BenchDocument, r.document) }

@@ -79,7 +79,7 @@ export type CommentThread = { id: string; elementId: string | null; comments: Co
 // ── Reading: the review screen and the queue ──────────────────────────────────────────────────
 export type ReviewDetail = {
   revision: { id: string; number: number; state: ReviewState; contentHash: string; document: BenchDocument; updatedAt: string };
-  bench: { id: string; title: string; labName: string; authorName: string; authorId: string };
+  bench: { id: string; title: string; labId: string; labName: string; authorName: string; authorId: string };
   decision: DecisionView | null;
   /** The newest earlier revision that was ever signed off, and what changed since. */
   lastApproved: { id: string; number: number; state: ReviewState; contentHash: string; diff: BenchDiff } | null;

@@ -17,6 +17,7 @@ import { rolesAllow } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 import { revisionEyewear } from "@/lib/server/eyewear";
+import { labStandard } from "@/lib/server/lab-standard";
 import { assessRevision } from "@/lib/review/hazard";
 import { SIGN_OFF_MEANING } from "@/lib/review/transitions";
 import { getReview } from "@/lib/server/review-screen";
@@ -57,7 +58,8 @@ export default async function ReviewPage({ params }: { params: Promise<{ revisio
   const { revision, bench, decision, lastApproved, may } = review;
   const doc = revision.document;
   const eyewear = rolesAllow(actor.roles, { eyewear: ["read"] }) ? await revisionEyewear(getDb(), actor, revision.id) : null;
-  const assessed = assessRevision(doc, eyewear ? { standard: eyewear.standard } : {});
+  // every hazard figure follows the standard the bench's lab chose, whether or not the reader may see its eyewear
+  const assessed = assessRevision(doc, { standard: eyewear?.standard ?? (await labStandard(getDb(), bench.labId)) });
   const officer = rolesAllow(actor.roles, { review: ["decide"] });
   const mayReadReview = rolesAllow(actor.roles, { review: ["read"] });
   const elementOptions = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm).map((e) => ({ id: e.id, label: `${KIND_WORDS[e.kind] ?? e.kind} ${e.id} (${e.positionMm} mm)` }));
