@@ -84,7 +84,7 @@ export type TableSafetyAssessment = {
   finalSay: string;
 };
 
-const PULSE_KEYS = ["pulseDurationS", "pulseRepetitionRateHz", "pulseEnergyJ"] as const;
+const PULSE_KEYS = ["pulseDurationS", "pulseRepetitionRateHz", "pulseEnergyJ", "pulsesPerBurst", "burstPulseRateHz"] as const;
 const fmt = (v: number) => (Number.isFinite(v) ? String(Number(v.toPrecision(3))) : String(v));
 
 /** The laser's pulse fields as assessBeam takes them; pulses that overlap are assessed as continuous-wave. */
