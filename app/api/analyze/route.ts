@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { getDb } from "@/db";
 import { analyzeRequestSchema } from "@/lib/api/analysis-contracts";
-import { analyzeBench, fieldPowerProbe } from "@/lib/optics";
+import { analyzeBench, ChainPrefixCache, fieldPowerProbe } from "@/lib/optics";
 import { assessBench, type BenchSafetyAssessment, type TableSafetyAssessment } from "@/lib/safety";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
 import { AppError } from "@/lib/errors";
@@ -47,10 +47,11 @@ export const POST = apiRoute({ analysis: ["run"] }, async ({ request }) => {
     }
     return safety ? { analysis, safety: tableWithoutRepeats(safety) } : { analysis };
   }
-  const analysis = analyzeBench(document);
+  const chainCache = new ChainPrefixCache();
+  const analysis = analyzeBench(document, { chainCache });
   let safety: BenchSafetyAssessment | undefined;
   try {
-    safety = assessBench(document, { elements: analysis.elements, enclosedPowerMw: fieldPowerProbe(document) }, options);
+    safety = assessBench(document, { elements: analysis.elements, enclosedPowerMw: fieldPowerProbe(document, { chainCache }) }, options);
   } catch (error) {
     // The optics answer stands on its own; a bench the safety engine cannot assess gets no safety block.
     console.warn("[benchwarden] safety assessment skipped", error);
