@@ -5,7 +5,7 @@
 import dynamic from "next/dynamic";
 import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useCallback, useEffect, useMemo, useRef, useState, type DragEvent, type KeyboardEvent } from "react";
-import { draftQuery, inServiceLasersQuery, type DraftView } from "@/lib/api/bench-queries";
+import { draftQuery, inServiceLasersQuery, type RailDraftView } from "@/lib/api/bench-queries";
 import { ELEMENT_KINDS, type BenchDocument, type ElementKind } from "@/lib/bench/schema";
 import { StateBadge } from "@/components/ui/state-badge";
 import { ApertureTable } from "./aperture-table";
@@ -52,12 +52,20 @@ export function BenchEditor(props: Props) {
   const draft = useQuery(draftQuery(props.benchId));
   if (draft.error) return <p role="alert" className="rounded-lg border border-danger p-4">{draft.error.message}</p>;
   if (!draft.data) return <p className="text-muted">Loading the bench…</p>;
-  return <EditorBody {...props} initial={draft.data} />;
+  if (draft.data.document.version !== 1) {
+    return (
+      <p role="status" className="rounded-lg border border-line bg-panel p-4" data-testid="table-bench-notice">
+        This bench is an optical table (bench document version 2). Its plan, paths and open beams are on the review screen of each
+        revision it has sent; the table editor is not on this page yet.
+      </p>
+    );
+  }
+  return <EditorBody {...props} initial={draft.data as RailDraftView} />;
 }
 
 const BUTTON = "inline-flex min-h-10 min-w-10 items-center justify-center gap-1 rounded-md border border-line px-2.5 text-sm hover:bg-raised disabled:cursor-not-allowed disabled:opacity-40";
 
-function EditorBody({ benchId, labId, labName, authorName, initial, shelf = null }: Props & { initial: DraftView }) {
+function EditorBody({ benchId, labId, labName, authorName, initial, shelf = null }: Props & { initial: RailDraftView }) {
   const canEdit = initial.canEdit;
   const { state, dispatch, selected, canUndo, canRedo } = useEditorState(initial.document);
   const { doc, selection } = state;
@@ -211,7 +219,7 @@ function EditorBody({ benchId, labId, labName, authorName, initial, shelf = null
           )}
         </div>
         <div className="flex items-start gap-3">
-          <ImportExport doc={doc} canEdit={canEdit} onImport={(d: BenchDocument) => dispatch({ type: "replace", doc: d })} />
+          <ImportExport doc={doc} canEdit={canEdit} onImport={(d: BenchDocument) => dispatch({ type: "replace", doc: d })} benchId={benchId} base={save.base} />
           <SaveStatus state={save.state} />
         </div>
       </header>

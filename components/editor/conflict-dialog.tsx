@@ -9,7 +9,8 @@ import { documentDifferences } from "./element-diff";
 type Props = { mine: BenchDocument; current: DraftView; message: string; onKeepMine: () => void; onTakeTheirs: () => void };
 
 export function ConflictDialog({ mine, current, message, onKeepMine, onTakeTheirs }: Props) {
-  const differences = documentDifferences(mine, current.document);
+  // A table (version 2) saved over a rail cannot be compared element by element here: every element then differs.
+  const differences = current.document.version === 1 ? documentDifferences(mine, current.document) : [];
   const heading = useRef<HTMLHeadingElement>(null);
   useEffect(() => heading.current?.focus(), []);
   return (

@@ -170,7 +170,13 @@ export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocum
     queryClient.setQueryData(queryKeys.draft(benchId), conflict.current);
     setBase(baseOf(conflict.current));
     setConflict(null);
-    return conflict.current.document;
+    const theirs = conflict.current.document;
+    // The server's draft is now a table (version 2): this rail editor cannot hold it; the page opens it afresh.
+    if (theirs.version !== 1) {
+      window.location.reload();
+      return null;
+    }
+    return theirs;
   }, [conflict, queryClient, benchId]);
 
   /** A new working draft made elsewhere in the editor (e.g. "make a revision"): the edit is based on it from now on. */

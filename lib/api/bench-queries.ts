@@ -1,17 +1,20 @@
 // Query options and mutations for benches, their working drafts and the analysis, shared by the server
 // prefetch (same keys, a direct queryFn) and the browser. Keys come from queryKeys in ./client.
 import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
-import type { BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument, BenchDocument, BenchDocumentV2 } from "@/lib/bench/schema";
 import type { BenchAnalysis, ScreenSearch } from "@/lib/optics";
-import type { BenchSafetyAssessment } from "@/lib/safety";
+import type { BenchSafetyAssessment, TableSafetyAssessment } from "@/lib/safety";
+import type { TableAnalysis } from "@/lib/optics/table";
 import type { BenchDetail } from "@/lib/server/benches";
-import type { DraftView, FrozenRevision } from "@/lib/server/drafts";
+import type { DraftView, FrozenRevision, RailDraftView } from "@/lib/server/drafts";
 import type { LaserView } from "@/lib/server/register";
 import { apiFetch, conflictCurrent, queryKeys, type ApiError } from "./client";
 
-export type { BenchDetail, DraftView, FrozenRevision, LaserView };
+export type { BenchDetail, DraftView, FrozenRevision, LaserView, RailDraftView };
 
 export type AnalyzeResponse = { analysis: BenchAnalysis; safety?: BenchSafetyAssessment };
+/** POST /api/analyze for a table (version 2): paths with their ends, open beams, one entry per laser; the fixed limitations left out. */
+export type TableAnalyzeResponse = { analysis: TableAnalysis; safety?: Omit<TableSafetyAssessment, "limitations"> };
 /** An analysis tagged with the document key it was computed for, so the editor can tell current from stale. */
 export type KeyedAnalysis = AnalyzeResponse & { documentKey: string };
 export type ProfileResponse = { radiusMm: number[]; relativeIntensity: number[]; method?: string; shadowRadiusMm?: number };
@@ -25,6 +28,17 @@ export const draftQuery = (benchId: string) =>
     // The editor owns the working copy; a background refetch must never move the version it is based on.
     staleTime: Infinity,
     refetchOnWindowFocus: false,
+  });
+
+/** The analysis of a table (version 2), cached under the same key factory as the rail's; with `labId`, as analysisQuery. */
+export const tableAnalysisQuery = (document: BenchDocumentV2, hash: string, labId?: string) =>
+  queryOptions({
+    queryKey: labId ? [...queryKeys.analysis(hash), "lab", labId] : queryKeys.analysis(hash),
+    queryFn: ({ signal }) =>
+      apiFetch<TableAnalyzeResponse>(labId ? `/api/analyze?labId=${encodeURIComponent(labId)}` : "/api/analyze", { method: "POST", body: json(document), signal }),
+    staleTime: Infinity,
+    gcTime: 60_000,
+    retry: false,
   });
 
 /** With `labId`, the hazard figures follow that lab's chosen safety standard (the server reads it). */
@@ -79,7 +93,7 @@ export const screenFinderQuery = (document: BenchDocument, hash: string, request
     retry: false,
   });
 
-export type SaveDraftRequest = { document: BenchDocument; baseRevision: number; baseVersion: number };
+export type SaveDraftRequest = { document: AnyBenchDocument; baseRevision: number; baseVersion: number };
 export type SaveDraftOutcome = { kind: "saved"; draft: DraftView; createdRevision: boolean } | { kind: "conflict"; current: DraftView; message: string };
 
 /** PUT the draft. A 409 is an answer (the server's draft), not an error; other failures throw ApiError (status 0 = offline). */
@@ -118,7 +132,7 @@ export function useSaveDraft(benchId: string) {
 export function useCreateBench() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: { labId: string; title: string }) => apiFetch<{ id: string }>("/api/benches", { method: "POST", body: json(input) }),
+    mutationFn: (input: { labId: string; title: string; table?: BenchDocumentV2["table"] }) => apiFetch<{ id: string }>("/api/benches", { method: "POST", body: json(input) }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: queryKeys.benches() }),
   });
 }
