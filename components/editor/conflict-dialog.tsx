@@ -4,12 +4,14 @@ import { useEffect, useRef } from "react";
 import { Button } from "@/components/ui/button";
 import type { DraftView } from "@/lib/api/bench-queries";
 import type { BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument } from "@/lib/bench/schema-v2";
 import { documentDifferences } from "./element-diff";
 
-type Props = { mine: BenchDocument; current: DraftView; message: string; onKeepMine: () => void; onTakeTheirs: () => void };
+type Props = { mine: AnyBenchDocument; current: DraftView; message: string; onKeepMine: () => void; onTakeTheirs: () => void };
 
 export function ConflictDialog({ mine, current, message, onKeepMine, onTakeTheirs }: Props) {
-  const differences = documentDifferences(mine, current.document);
+  // the sentences read elements of either version (a rail position or a place on the table)
+  const differences = documentDifferences(mine as BenchDocument, current.document as BenchDocument);
   const heading = useRef<HTMLHeadingElement>(null);
   useEffect(() => heading.current?.focus(), []);
   return (

@@ -1,6 +1,6 @@
 // A stable text key for a bench document (sorted keys, elements in their order) and a short hash of it:
 // the key tells whether two documents are the same (the database reorders JSON keys), the hash names queries.
-import type { BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument } from "@/lib/bench/schema-v2";
 
 function sortValue(value: unknown): unknown {
   if (Array.isArray(value)) return value.map(sortValue);
@@ -16,7 +16,7 @@ function sortValue(value: unknown): unknown {
   return value;
 }
 
-export const documentKey = (doc: BenchDocument): string => JSON.stringify(sortValue(doc));
+export const documentKey = (doc: AnyBenchDocument): string => JSON.stringify(sortValue(doc));
 
 /** FNV-1a (two 32-bit lanes) of the key: a cache name, not a security hash. */
 export function shortHash(text: string): string {

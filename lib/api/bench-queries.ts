@@ -2,6 +2,7 @@
 // prefetch (same keys, a direct queryFn) and the browser. Keys come from queryKeys in ./client.
 import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
 import type { BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument } from "@/lib/bench/schema-v2";
 import type { BenchAnalysis, ScreenSearch } from "@/lib/optics";
 import type { BenchSafetyAssessment } from "@/lib/safety";
 import type { BenchDetail } from "@/lib/server/benches";
@@ -27,7 +28,7 @@ export const draftQuery = (benchId: string) =>
     refetchOnWindowFocus: false,
   });
 
-export const analysisQuery = (document: BenchDocument, documentKey: string, hash: string) =>
+export const analysisQuery = (document: AnyBenchDocument, documentKey: string, hash: string) =>
   queryOptions({
     queryKey: queryKeys.analysis(hash),
     queryFn: ({ signal }) =>
@@ -76,7 +77,7 @@ export const screenFinderQuery = (document: BenchDocument, hash: string, request
     retry: false,
   });
 
-export type SaveDraftRequest = { document: BenchDocument; baseRevision: number; baseVersion: number };
+export type SaveDraftRequest = { document: AnyBenchDocument; baseRevision: number; baseVersion: number };
 export type SaveDraftOutcome = { kind: "saved"; draft: DraftView; createdRevision: boolean } | { kind: "conflict"; current: DraftView; message: string };
 
 /** PUT the draft. A 409 is an answer (the server's draft), not an error; other failures throw ApiError (status 0 = offline). */

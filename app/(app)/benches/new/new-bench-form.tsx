@@ -11,10 +11,11 @@ export function NewBenchForm({ labs }: { labs: { id: string; name: string }[] })
   const create = useCreateBench();
   const [title, setTitle] = useState("");
   const [labId, setLabId] = useState(labs[0]?.id ?? "");
+  const [layout, setLayout] = useState<"rail" | "table">("rail");
 
   const submit = (e: FormEvent) => {
     e.preventDefault();
-    create.mutate({ labId, title }, { onSuccess: ({ id }) => router.push(`/benches/${id}`) });
+    create.mutate({ labId, title }, { onSuccess: ({ id }) => router.push(layout === "table" ? `/benches/${id}?on=table` : `/benches/${id}`) });
   };
 
   const labError = fieldError(create.error, "labId");
@@ -34,6 +35,21 @@ export function NewBenchForm({ labs }: { labs: { id: string; name: string }[] })
         </select>
         {labError ? <p className="text-sm text-danger" role="alert">{labError}</p> : null}
       </div>
+      <fieldset className="flex flex-col gap-1">
+        <legend className="mb-1 text-sm font-medium text-muted">Draw it</legend>
+        <label className="flex items-start gap-2">
+          <input type="radio" name="bench-layout" value="rail" checked={layout === "rail"} onChange={() => setLayout("rail")} className="mt-1" />
+          <span>
+            On a rail <span className="text-sm text-muted">— one laser and the optics in a straight line</span>
+          </span>
+        </label>
+        <label className="flex items-start gap-2">
+          <input type="radio" name="bench-layout" value="table" checked={layout === "table"} onChange={() => setLayout("table")} className="mt-1" />
+          <span>
+            On an optical table <span className="text-sm text-muted">— seen from above with its holes: mirrors, beam splitters, windows, several lasers</span>
+          </span>
+        </label>
+      </fieldset>
       {create.error && !fieldError(create.error, "title") && !labError ? (
         <p role="alert" className="text-sm text-danger">
           {create.error.message}
