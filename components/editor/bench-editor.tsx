@@ -8,7 +8,6 @@ import { useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore
 import { draftQuery, inServiceLasersQuery, type DraftView } from "@/lib/api/bench-queries";
 import { ELEMENT_KINDS, type BenchDocument, type ElementKind } from "@/lib/bench/schema";
 import type { AnyBenchDocument, BenchDocumentV2 } from "@/lib/bench/schema-v2";
-import { TableEditor } from "./table/table-editor";
 import { emptyTable, railToTable } from "./table/table-reducer";
 import { StateBadge } from "@/components/ui/state-badge";
 import { ApertureTable } from "./aperture-table";
@@ -45,6 +44,12 @@ import { sig } from "./format";
 import { CENTRE_WORDS, VERTICAL_EXAGGERATION, plainText } from "@/lib/format";
 
 const noChange = () => () => undefined;
+
+// The table editor (and the engine it runs in the browser) loads only for a bench on a table.
+const TableEditor = dynamic(() => import("./table/table-editor").then((m) => m.TableEditor), {
+  ssr: false,
+  loading: () => <p className="text-muted">Loading the table editor…</p>,
+});
 
 const BenchCanvas = dynamic(() => import("./bench-canvas").then((m) => m.BenchCanvas), {
   ssr: false,

@@ -387,7 +387,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
             }}
           />
         </div>
-        <div className={staleLook ? "opacity-80" : ""} data-testid="predictions" data-stale={staleLook} data-source={predictions.source ?? "none"}>
+        <div className={staleLook ? "opacity-80" : ""} data-testid="predictions" data-stale={staleLook} data-source={predictions.source ?? "none"} data-live-runs={predictions.liveRuns}>
           <TableSafety doc={live} predictions={predictions.data} onBeam={setSelectedBeam} />
         </div>
       </div>

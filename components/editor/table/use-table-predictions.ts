@@ -23,6 +23,8 @@ export type TablePredictionView = {
   blockedBy: string | null;
   error: string | null;
   fetching: boolean;
+  /** How many answers the browser's engine has given (the drag benchmark counts them). */
+  liveRuns: number;
 };
 
 type Local = { key: string; predictions?: TablePredictions; error?: string };
@@ -101,8 +103,8 @@ export function useTablePredictions(doc: BenchDocumentV2, live: BenchDocumentV2)
   });
   const serverData = server.data as (TablePredictions & { documentKey: string }) | undefined;
 
-  const [local, setLocal] = useState<Local | null>(null);
-  const submit = useEngineWorker(setLocal);
+  const [local, setLocal] = useState<{ answer: Local; runs: number } | null>(null);
+  const submit = useEngineWorker((answer) => setLocal((l) => ({ answer, runs: (l?.runs ?? 0) + 1 })));
   const serverHasLive = serverData?.documentKey === liveKey;
   useEffect(() => {
     if (serverHasLive) return;
@@ -110,6 +112,7 @@ export function useTablePredictions(doc: BenchDocumentV2, live: BenchDocumentV2)
     submit.current({ key: liveKey, doc: live });
   }, [liveKey, live, serverHasLive, submit]);
 
+  const localAnswer = local?.answer ?? null;
   let data: TablePredictions | undefined;
   let source: TablePredictionView["source"] = null;
   let stale = true;
@@ -117,12 +120,12 @@ export function useTablePredictions(doc: BenchDocumentV2, live: BenchDocumentV2)
     data = serverData;
     source = "server";
     stale = false;
-  } else if (local?.predictions && local.key === liveKey) {
-    data = local.predictions;
+  } else if (localAnswer?.predictions && localAnswer.key === liveKey) {
+    data = localAnswer.predictions;
     source = "browser";
     stale = false;
-  } else if (local?.predictions && (!serverData || liveKey !== key)) {
-    data = local.predictions;
+  } else if (localAnswer?.predictions && (!serverData || liveKey !== key)) {
+    data = localAnswer.predictions;
     source = "browser";
   } else if (serverData) {
     data = serverData;
@@ -134,7 +137,8 @@ export function useTablePredictions(doc: BenchDocumentV2, live: BenchDocumentV2)
     source,
     stale,
     blockedBy,
-    error: server.error ? server.error.message : local?.key === liveKey && local.error ? local.error : null,
+    error: server.error ? server.error.message : localAnswer?.key === liveKey && localAnswer.error ? localAnswer.error : null,
     fetching: server.isFetching || (validity.success && settledKey !== key),
+    liveRuns: local?.runs ?? 0,
   };
 }

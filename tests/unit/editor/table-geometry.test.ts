@@ -156,3 +156,34 @@ describe("the table reducer", () => {
     expect(benchDocumentV2Schema.safeParse(table).success).toBe(true);
   });
 });
+
+describe("the browser's engine", () => {
+  const folded: BenchDocumentV2 = {
+    version: 2,
+    table: metric,
+    elements: [
+      { id: "laser-1", kind: "laser", xMm: 137.5, yMm: 312.5, angleDeg: 0, wavelengthNm: 632.8, powerMw: 20, beamDiameterMm: 0.8 },
+      { id: "mirror-1", kind: "mirror", xMm: 412.5, yMm: 312.5, angleDeg: 135 },
+      { id: "splitter-1", kind: "beam-splitter", xMm: 412.5, yMm: 462.5, angleDeg: 315, reflectance: 0.5 },
+    ],
+  };
+  it("gives the answer POST /api/analyze gives (the same engines; the fixed limitations left out)", async () => {
+    const { predictTable } = await import("@/components/editor/table/table-engine");
+    const { analyzeBench } = await import("@/lib/optics");
+    const { assessBench } = await import("@/lib/safety");
+    const { limitations: _l, ...safety } = assessBench(folded, analyzeBench(folded));
+    expect(predictTable(folded)).toEqual({ analysis: analyzeBench(folded), safety });
+    expect(() => predictTable({ ...folded, elements: [] })).toThrow("The table needs at least one laser; it has none");
+  });
+  it("traces the runs the drag draws: folded by the mirror, split into two arms that leave the table", () => {
+    const beams = traceBeams(folded);
+    expect(beams.map((b) => [b.from, b.to, b.directionDeg, b.open])).toEqual([
+      [{ xMm: 137.5, yMm: 312.5 }, { xMm: 412.5, yMm: 312.5 }, 0, false],
+      [{ xMm: 412.5, yMm: 312.5 }, { xMm: 412.5, yMm: 462.5 }, 90, false],
+      [{ xMm: 412.5, yMm: 462.5 }, { xMm: 900, yMm: 462.5 }, 0, true],
+      [{ xMm: 412.5, yMm: 462.5 }, { xMm: 412.5, yMm: 600 }, 90, true],
+    ]);
+    // 20 mW, 0.99 off the mirror, half each way at the splitter
+    expect(beams.map((b) => Number(b.powerMw.toPrecision(6)))).toEqual([20, 19.8, 9.9, 9.9]);
+  });
+});
