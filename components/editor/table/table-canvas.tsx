@@ -6,7 +6,7 @@
 // A drag stays inside this component while it lasts: the moving elements' places go up as a preview once per frame
 // (the editor traces the beams and asks the browser's engine for figures), and once, on drop, as one change.
 import Konva from "konva";
-import { memo, useEffect, useMemo, useRef, useState } from "react";
+import { memo, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import { Circle, Group, Layer, Line, Rect, Shape, Stage, Text } from "react-konva";
 import { ELEMENT_KIND_RECORDS } from "@/lib/bench/element-kinds";
 import type { BenchDocumentV2, TableElement } from "@/lib/bench/schema-v2";
@@ -138,6 +138,26 @@ export function TableCanvas(props: Props) {
 
   const openMarks = beams.filter((b) => b.open);
 
+  // The elements' gesture handlers as one stable object (calling the newest closures), so an element whose own props
+  // did not change is not drawn again while another one is dragged.
+  const latest = useRef({ selection, startDrag, moveDrag, endDrag, onSelect: props.onSelect, onToggleSelect: props.onToggleSelect });
+  useLayoutEffect(() => {
+    latest.current = { selection, startDrag, moveDrag, endDrag, onSelect: props.onSelect, onToggleSelect: props.onToggleSelect };
+  });
+  const events = useMemo<SymbolEvents>(
+    () => ({
+      pick: (id, shift) => {
+        const l = latest.current;
+        if (shift) l.onToggleSelect(id);
+        else if (!l.selection.includes(id)) l.onSelect([id]);
+      },
+      dragStart: (id) => latest.current.startDrag(id),
+      dragMove: (node, element) => latest.current.moveDrag(node, element),
+      dragEnd: () => latest.current.endDrag(),
+    }),
+    [],
+  );
+
   const onStageDown = (e: Konva.KonvaEventObject<MouseEvent | TouchEvent>) => {
     if (e.target !== e.target.getStage() && e.target.name() !== "table-top") return;
     const pos = e.target.getStage()!.getPointerPosition();
@@ -218,10 +238,7 @@ export function TableCanvas(props: Props) {
             selected={selection.includes(e.id)}
             flagged={flagged.has(e.id)}
             draggable={canEdit}
-            onPick={(shift) => (shift ? props.onToggleSelect(e.id) : selection.includes(e.id) ? undefined : props.onSelect([e.id]))}
-            onDragStart={() => startDrag(e.id)}
-            onDragMove={(node) => moveDrag(node, e)}
-            onDragEnd={endDrag}
+            events={events}
           />
         ))}
         {single && canEdit ? (
@@ -295,21 +312,16 @@ const BeamLine = memo(function BeamLine({ beam, selected, sx, sy, onClick }: { b
   );
 });
 
-type SymbolProps = {
-  element: TableElement;
-  x: number;
-  y: number;
-  s: number;
-  selected: boolean;
-  flagged: boolean;
-  draggable: boolean;
-  onPick: (shift: boolean) => void;
-  onDragStart: () => void;
-  onDragMove: (node: Konva.Node) => void;
-  onDragEnd: () => void;
+type SymbolEvents = {
+  pick: (id: string, shift: boolean) => void;
+  dragStart: (id: string) => void;
+  dragMove: (node: Konva.Node, element: TableElement) => void;
+  dragEnd: () => void;
 };
 
-const ElementSymbol = memo(function ElementSymbol({ element, x, y, s, selected, flagged, draggable, onPick, onDragStart, onDragMove, onDragEnd }: SymbolProps) {
+type SymbolProps = { element: TableElement; x: number; y: number; s: number; selected: boolean; flagged: boolean; draggable: boolean; events: SymbolEvents };
+
+const ElementSymbol = memo(function ElementSymbol({ element, x, y, s, selected, flagged, draggable, events }: SymbolProps) {
   const record = ELEMENT_KIND_RECORDS[element.kind];
   const { shape, faceMm, depthMm } = record.symbol;
   const laser = element.kind === "laser";
@@ -375,15 +387,15 @@ const ElementSymbol = memo(function ElementSymbol({ element, x, y, s, selected, 
       data-element-id={element.id}
       onMouseDown={(e) => {
         e.cancelBubble = true;
-        onPick(e.evt.shiftKey);
+        events.pick(element.id, e.evt.shiftKey);
       }}
       onTouchStart={(e) => {
         e.cancelBubble = true;
-        onPick(false);
+        events.pick(element.id, false);
       }}
-      onDragStart={onDragStart}
-      onDragMove={(e) => onDragMove(e.target)}
-      onDragEnd={onDragEnd}
+      onDragStart={() => events.dragStart(element.id)}
+      onDragMove={(e) => events.dragMove(e.target, element)}
+      onDragEnd={events.dragEnd}
     >
       <Group rotation={-element.angleDeg}>
         {/* a generous invisible hit area, so small optics are easy to take */}

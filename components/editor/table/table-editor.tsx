@@ -100,7 +100,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
     return ids;
   }, [problems, doc.elements]);
 
-  const selected = doc.elements.filter((e) => selection.includes(e.id));
+  const selected = useMemo(() => doc.elements.filter((e) => selection.includes(e.id)), [doc.elements, selection]);
 
   const add = (kind: TableElementKind, at?: { xMm: number; yMm: number; angleDeg: number }, values?: Record<string, number | string | undefined>) => {
     if (!canEdit) return;
@@ -375,7 +375,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
 
       <div className="grid gap-4 lg:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
         <div className="flex flex-col gap-4">
-          {selectedBeam ? <BeamFigures doc={live} pathId={selectedBeam} predictions={predictions.data} onClose={() => setSelectedBeam(null)} /> : null}
+          {selectedBeam ? <BeamFigures table={doc.table} pathId={selectedBeam} predictions={predictions.data} onClose={() => setSelectedBeam(null)} /> : null}
           <TableProperties doc={doc} selected={selected} canEdit={canEdit} dispatch={dispatch} />
           <SubmitForReview
             revisionId={save.base.revisionId}
@@ -388,7 +388,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
           />
         </div>
         <div className={staleLook ? "opacity-80" : ""} data-testid="predictions" data-stale={staleLook} data-source={predictions.source ?? "none"} data-live-runs={predictions.liveRuns}>
-          <TableSafety doc={live} predictions={predictions.data} onBeam={setSelectedBeam} />
+          <TableSafety table={doc.table} predictions={predictions.data} onBeam={setSelectedBeam} />
         </div>
       </div>
     </div>

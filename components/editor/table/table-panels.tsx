@@ -2,8 +2,9 @@
 // The table editor's side panels: the selected element's values (its kind's fields from the one record per kind, plus
 // its place and angle), the figures of a clicked beam, and the open beams with the lasers' hazard figures, the hazard
 // notes and the deferral sentence.
+import { memo } from "react";
 import { ELEMENT_KIND_RECORDS, tableFieldsOf } from "@/lib/bench/element-kinds";
-import { benchDocumentV2Schema, type BenchDocumentV2, type TableElement } from "@/lib/bench/schema-v2";
+import { benchDocumentV2Schema, type BenchDocumentV2, type TableElement, type TableGeometry } from "@/lib/bench/schema-v2";
 import { HazardNotes } from "@/components/ui/hazard-notes";
 import { plainText } from "@/lib/format";
 import { NumberField } from "../number-field";
@@ -15,8 +16,8 @@ import type { TableAction } from "./table-reducer";
 const fmt = (v: number | null | undefined, digits = 3) => (v === null || v === undefined || !Number.isFinite(v) ? "—" : String(Number(v.toPrecision(digits))));
 
 /** Which edge of the table a point lies on, in words a person standing at the front understands. */
-export function edgeWords(doc: BenchDocumentV2, p: { xMm: number; yMm: number }): string {
-  const { widthMm, depthMm } = doc.table;
+export function edgeWords(table: TableGeometry, p: { xMm: number; yMm: number }): string {
+  const { widthMm, depthMm } = table;
   const near = (a: number, b: number) => Math.abs(a - b) < 1e-6;
   if (near(p.yMm, 0)) return "the front edge (towards where people stand)";
   if (near(p.yMm, depthMm)) return "the back edge";
@@ -49,7 +50,7 @@ function checkTableField(doc: BenchDocumentV2, element: TableElement, key: strin
 
 type PropertiesProps = { doc: BenchDocumentV2; selected: TableElement[]; canEdit: boolean; dispatch: (a: TableAction) => void };
 
-export function TableProperties({ doc, selected, canEdit, dispatch }: PropertiesProps) {
+export const TableProperties = memo(function TableProperties({ doc, selected, canEdit, dispatch }: PropertiesProps) {
   if (selected.length === 0) {
     return (
       <section aria-labelledby="table-props-heading" className="rounded-lg border border-line bg-panel p-4">
@@ -106,12 +107,12 @@ export function TableProperties({ doc, selected, canEdit, dispatch }: Properties
       </div>
     </section>
   );
-}
+});
 
-type BeamProps = { doc: BenchDocumentV2; pathId: string; predictions: TablePredictions | undefined; onClose: () => void };
+type BeamProps = { table: TableGeometry; pathId: string; predictions: TablePredictions | undefined; onClose: () => void };
 
 /** The figures of one beam run: power, beam size where it ends, where it ends, and its hazard band (MPE, OD, NOHD). */
-export function BeamFigures({ doc, pathId, predictions, onClose }: BeamProps) {
+export function BeamFigures({ table, pathId, predictions, onClose }: BeamProps) {
   const path = predictions?.analysis.paths.find((p) => p.id === pathId);
   if (!path) {
     return (
@@ -131,7 +132,7 @@ export function BeamFigures({ doc, pathId, predictions, onClose }: BeamProps) {
   const above = safety ? odMax > 0 : null;
   const startAt = path.startElementId;
   const end =
-    "elementId" in path.end ? `ends on ${path.end.elementId}` : "edge" in path.end ? `leaves the table at ${edgeWords(doc, path.end.edge)}` : `goes on as ${path.end.continuesAs.join(", ")}`;
+    "elementId" in path.end ? `ends on ${path.end.elementId}` : "edge" in path.end ? `leaves the table at ${edgeWords(table, path.end.edge)}` : `goes on as ${path.end.continuesAs.join(", ")}`;
   const entry = predictions?.analysis.elements.filter((e) => e.pathId === pathId).at(-1);
   const radiusMm = path.arrival?.radiusMm ?? entry?.incident.radiusMm ?? null;
   return (
@@ -179,10 +180,10 @@ export function BeamFigures({ doc, pathId, predictions, onClose }: BeamProps) {
   );
 }
 
-type SafetyProps = { doc: BenchDocumentV2; predictions: TablePredictions | undefined; onBeam: (pathId: string) => void };
+type SafetyProps = { table: TableGeometry; predictions: TablePredictions | undefined; onBeam: (pathId: string) => void };
 
 /** Open beams first (red when above the MPE), then each laser's class and per-line figures, warnings, and the notes. */
-export function TableSafety({ doc, predictions, onBeam }: SafetyProps) {
+export const TableSafety = memo(function TableSafety({ table, predictions, onBeam }: SafetyProps) {
   const safety = predictions?.safety;
   const open = safety?.openBeams ?? [];
   const hazardous = open.filter((o) => o.exceedsMpe);
@@ -204,7 +205,7 @@ export function TableSafety({ doc, predictions, onBeam }: SafetyProps) {
                 <button type="button" className="font-mono text-danger underline underline-offset-2" onClick={() => onBeam(o.pathId)}>
                   {o.pathId}
                 </button>{" "}
-                from {o.startElementId} leaves at {edgeWords(doc, o)} (x {fmt(o.xMm, 4)} mm, y {fmt(o.yMm, 4)} mm) heading {directionWords(o.directionDeg)}: {powerText(o.powerMw)}, NOHD{" "}
+                from {o.startElementId} leaves at {edgeWords(table, o)} (x {fmt(o.xMm, 4)} mm, y {fmt(o.yMm, 4)} mm) heading {directionWords(o.directionDeg)}: {powerText(o.powerMw)}, NOHD{" "}
                 {fmt(o.nohdM)} m beyond the edge, eyewear OD {fmt(o.opticalDensityRequired, 2)}.
               </li>
             ))}
@@ -223,7 +224,7 @@ export function TableSafety({ doc, predictions, onBeam }: SafetyProps) {
               <button type="button" className="font-mono underline underline-offset-2" onClick={() => onBeam(o.pathId)}>
                 {o.pathId}
               </button>{" "}
-              leaves at {edgeWords(doc, o)} heading {directionWords(o.directionDeg)}, {powerText(o.powerMw)} (within the MPE).
+              leaves at {edgeWords(table, o)} heading {directionWords(o.directionDeg)}, {powerText(o.powerMw)} (within the MPE).
             </li>
           ))}
         </ul>
@@ -284,4 +285,4 @@ export function TableSafety({ doc, predictions, onBeam }: SafetyProps) {
       <HazardNotes />
     </section>
   );
-}
+});
