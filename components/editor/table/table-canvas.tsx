@@ -403,7 +403,15 @@ const ElementSymbol = memo(function ElementSymbol({ element, x, y, s, selected, 
         {body}
       </Group>
       {flagged ? <Circle radius={Math.max(face, depth) / 2 + 8} stroke={THEME.danger} strokeWidth={2} dash={[4, 3]} listening={false} /> : null}
-      <Text x={8} y={-Math.max(face, 18) / 2 - 14} text={element.id} fontSize={11} fill={selected ? THEME.accentStrong : THEME.muted} listening={false} />
+      {/* the name sits above the symbol; a laser's above the middle of its body, clear of the turning handle */}
+      <Text
+        x={laser ? -Math.cos((element.angleDeg * Math.PI) / 180) * (depth / 2) - 20 : 8}
+        y={(laser ? Math.sin((element.angleDeg * Math.PI) / 180) * (depth / 2) : 0) - Math.max(face, 18) / 2 - 14}
+        text={element.id}
+        fontSize={11}
+        fill={selected ? THEME.accentStrong : THEME.muted}
+        listening={false}
+      />
     </Group>
   );
 });
