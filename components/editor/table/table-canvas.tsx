@@ -137,6 +137,22 @@ export function TableCanvas(props: Props) {
   }, [doc.table.holePitchMm, s]);
 
   const openMarks = beams.filter((b) => b.open);
+  // One path for every hole, drawn again only when the table or the scale changes (a new function would redraw the layer).
+  const drawHoles = useMemo(
+    () => (ctx: Konva.Context, shape: Konva.Shape) => {
+      ctx.beginPath();
+      for (let x = holes.off; x <= W + 1e-9; x += holes.pitch) {
+        for (let y = holes.off; y <= D + 1e-9; y += holes.pitch) {
+          const px = MARGIN_PX + x * s;
+          const py = MARGIN_PX + (D - y) * s;
+          ctx.moveTo(px + holes.r, py);
+          ctx.arc(px, py, holes.r, 0, Math.PI * 2);
+        }
+      }
+      ctx.fillShape(shape);
+    },
+    [holes, W, D, s],
+  );
 
   // The elements' gesture handlers as one stable object (calling the newest closures), so an element whose own props
   // did not change is not drawn again while another one is dragged.
@@ -200,19 +216,7 @@ export function TableCanvas(props: Props) {
       {/* The table and its holes: redrawn only when the table or the scale changes. */}
       <Layer listening={false}>
         <Rect x={sx(0)} y={sy(D)} width={W * s} height={D * s} fill={THEME.raised} stroke={THEME.line} strokeWidth={1.5} cornerRadius={2} />
-        <Shape
-          sceneFunc={(ctx, shape) => {
-            ctx.beginPath();
-            for (let x = holes.off; x <= W + 1e-9; x += holes.pitch) {
-              for (let y = holes.off; y <= D + 1e-9; y += holes.pitch) {
-                ctx.moveTo(sx(x) + holes.r, sy(y));
-                ctx.arc(sx(x), sy(y), holes.r, 0, Math.PI * 2);
-              }
-            }
-            ctx.fillShape(shape);
-          }}
-          fill={THEME.line}
-        />
+        <Shape sceneFunc={drawHoles} fill={THEME.line} />
         <Text x={sx(0)} y={sy(0) + 8} text="front edge (y = 0)" fontSize={11} fill={THEME.muted} />
         <Text x={sx(W) - 320} y={sy(0) + 8} width={320} align="right" text={`${fmt(W)} × ${fmt(D)} mm, holes every ${fmt(holes.pitch)} mm`} fontSize={11} fill={THEME.muted} />
       </Layer>
