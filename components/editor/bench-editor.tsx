@@ -69,7 +69,9 @@ export function BenchEditor(props: Props & { startOnTable?: boolean }) {
   const [movedOnto, setMovedOnto] = useState<BenchDocumentV2 | null>(null);
   const initialDoc = draft.data?.document as AnyBenchDocument | undefined;
   // A table drawn here but not yet saved (no laser yet, or the page closed first) is still a rail draft on the server.
-  const unsaved = useSyncExternalStore(noChange, () => unsavedText(props.benchId), () => null);
+  // undefined while hydrating: nothing is drawn until this browser's copy has been looked at, because the rail editor
+  // forgets a copy it does not hold and a table's copy must survive it
+  const unsaved = useSyncExternalStore(noChange, () => unsavedText(props.benchId) ?? "", () => undefined);
   const unsavedTable = useMemo(() => {
     if (!unsaved || !draft.data || !draft.data.canEdit || initialDoc?.version !== 1) return null;
     const copy = readUnsaved(props.benchId);
@@ -77,7 +79,7 @@ export function BenchEditor(props: Props & { startOnTable?: boolean }) {
   }, [unsaved, draft.data, initialDoc, props.benchId]);
   const tableStart = movedOnto ?? unsavedTable;
   if (draft.error) return <p role="alert" className="rounded-lg border border-danger p-4">{draft.error.message}</p>;
-  if (!draft.data || !initialDoc) return <p className="text-muted">Loading the bench…</p>;
+  if (!draft.data || !initialDoc || unsaved === undefined) return <p className="text-muted">Loading the bench…</p>;
   const common = { benchId: props.benchId, labName: props.labName, authorName: props.authorName, initial: draft.data };
   if (initialDoc.version === 2) return <TableEditor {...common} start={initialDoc} />;
   if (tableStart) return <TableEditor {...common} start={tableStart} />;
