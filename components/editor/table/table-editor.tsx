@@ -22,7 +22,7 @@ import { useAutosave } from "../use-autosave";
 import { MARGIN_PX, tableScale, type DrawnBeam, type Place } from "./table-canvas";
 import { traceBeams } from "./table-engine";
 import { arrowDelta, HOLE_PITCHES, movedBy, placementFor, snapPlacement, turnBy, type BeamSegment, type SnapMode } from "./table-geometry";
-import { BeamFigures, TableProperties, TableSafety } from "./table-panels";
+import { BeamFigures, TableElementList, TableProperties, TableSafety } from "./table-panels";
 import { initialTableState, tableReducer } from "./table-reducer";
 import { useTablePredictions } from "./use-table-predictions";
 
@@ -377,6 +377,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
         <div className="flex flex-col gap-4">
           {selectedBeam ? <BeamFigures table={doc.table} pathId={selectedBeam} predictions={predictions.data} onClose={() => setSelectedBeam(null)} /> : null}
           <TableProperties doc={doc} selected={selected} canEdit={canEdit} dispatch={dispatch} />
+          <TableElementList elements={doc.elements} selection={selection} flagged={flagged} dispatch={dispatch} />
           <SubmitForReview
             revisionId={save.base.revisionId}
             contentHash={save.state.kind === "saved" ? save.base.contentHash : null}

@@ -286,3 +286,41 @@ export const TableSafety = memo(function TableSafety({ table, predictions, onBea
     </section>
   );
 });
+
+type ListProps = { elements: readonly TableElement[]; selection: readonly string[]; flagged: ReadonlySet<string>; dispatch: (a: TableAction) => void };
+
+/** Every element as a button (the keyboard's way to pick one): kind, place and angle; Shift+click adds to the selection. */
+export const TableElementList = memo(function TableElementList({ elements, selection, flagged, dispatch }: ListProps) {
+  return (
+    <section aria-labelledby="table-list-heading" className="rounded-lg border border-line bg-panel p-4">
+      <h2 id="table-list-heading" className="mb-2 text-lg font-semibold">
+        Elements ({elements.length})
+      </h2>
+      {elements.length === 0 ? (
+        <p className="text-sm text-muted">The table is empty: add a laser from the palette, then mirrors, splitters and the rest.</p>
+      ) : (
+        <ul className="flex max-h-72 flex-col gap-1 overflow-y-auto">
+          {elements.map((e) => (
+            <li key={e.id}>
+              <button
+                type="button"
+                data-table-row={e.id}
+                aria-pressed={selection.includes(e.id)}
+                onClick={(ev) => dispatch(ev.shiftKey ? { type: "toggle-select", id: e.id } : { type: "select", ids: [e.id] })}
+                className={`flex w-full items-baseline justify-between gap-2 rounded-md border px-2 py-1 text-left text-sm ${selection.includes(e.id) ? "border-accent bg-raised" : "border-transparent hover:bg-raised"}`}
+              >
+                <span>
+                  <span className="font-mono">{e.id}</span> <span className="text-muted">{ELEMENT_KIND_RECORDS[e.kind].label}</span>
+                  {flagged.has(e.id) ? <span className="ml-1 text-warn">⚠ see the message above</span> : null}
+                </span>
+                <span className="font-mono text-xs text-muted">
+                  ({fmt(e.xMm, 6)}, {fmt(e.yMm, 6)}) mm, {fmt(e.angleDeg, 6)}°
+                </span>
+              </button>
+            </li>
+          ))}
+        </ul>
+      )}
+    </section>
+  );
+});
