@@ -180,6 +180,22 @@ export function BeamFigures({ table, pathId, predictions, onClose }: BeamProps) 
   );
 }
 
+/** Warnings shown at once; the rest fold away (a big table can have dozens). */
+const WARNINGS_SHOWN = 6;
+
+function WarningItems({ warnings }: { warnings: { code: string; message: string }[] }) {
+  return (
+    <ul className="flex flex-col gap-1 text-sm text-warn" aria-label="Warnings">
+      {warnings.map((w, i) => (
+        <li key={`${w.code}-${i}`}>
+          <span aria-hidden="true">⚠ </span>
+          {plainText(w.message)}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
 type SafetyProps = { table: TableGeometry; predictions: TablePredictions | undefined; onBeam: (pathId: string) => void };
 
 /** Open beams first (red when above the MPE), then each laser's class and per-line figures, warnings, and the notes. */
@@ -261,14 +277,15 @@ export const TableSafety = memo(function TableSafety({ table, predictions, onBea
         </table>
       ) : null}
       {warnings.length > 0 ? (
-        <ul className="flex flex-col gap-1 text-sm text-warn" aria-label="Warnings" data-testid="table-warnings">
-          {warnings.map((w, i) => (
-            <li key={`${w.code}-${i}`}>
-              <span aria-hidden="true">⚠ </span>
-              {plainText(w.message)}
-            </li>
-          ))}
-        </ul>
+        <div data-testid="table-warnings">
+          <WarningItems warnings={warnings.slice(0, WARNINGS_SHOWN)} />
+          {warnings.length > WARNINGS_SHOWN ? (
+            <details className="mt-1 text-sm">
+              <summary className="cursor-pointer text-warn">{warnings.length - WARNINGS_SHOWN} more warnings</summary>
+              <WarningItems warnings={warnings.slice(WARNINGS_SHOWN)} />
+            </details>
+          ) : null}
+        </div>
       ) : null}
       {(safety?.cautions ?? []).length > 0 ? (
         <details className="text-sm">
