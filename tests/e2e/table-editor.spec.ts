@@ -123,7 +123,7 @@ test("a researcher draws a folded, split bench on a table, blocks its open beams
   await expect(warning).toBeHidden({ timeout: 30_000 });
   await expect(page.getByTestId("no-open-beam")).toBeVisible();
   await expect(page.getByTestId("predictions")).toHaveAttribute("data-source", "server", { timeout: 30_000 });
-  await expect(page.getByText("✓ Saved")).toBeVisible({ timeout: 30_000 });
+  await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 30_000 });
   await shot(page, "blocked");
 
   // Reload: the table comes back as saved, from the server.
@@ -160,11 +160,11 @@ test("bad input: an element typed off the table, two elements on one spot — ea
   await expect(page.getByTestId("properties")).toContainText("block-2");
   for (let i = 0; i < 4; i++) await page.keyboard.press("ArrowDown");
   await expect(page.getByTestId("table-problems")).toContainText('Beam block "block-2" and beam splitter "splitter-1" stand on the same spot (412.5, 462.5) mm');
-  await expect(page.getByText("Not saved")).toBeVisible();
+  await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "invalid");
   await shot(page, "same-spot");
   for (let i = 0; i < 4; i++) await page.keyboard.press("ArrowUp");
   await expect(page.getByTestId("table-problems")).toHaveCount(0);
-  await expect(page.getByText("✓ Saved")).toBeVisible({ timeout: 30_000 });
+  await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 30_000 });
 });
 
 test("a rail bench moves onto a table as a straight beam along +x", async ({ page }) => {
@@ -178,10 +178,10 @@ test("a rail bench moves onto a table as a straight beam along +x", async ({ pag
   await page.getByTestId("palette-laser").click();
   await page.getByTestId("laser-ad-hoc").click();
   await page.getByTestId("palette-screen").click();
-  await expect(page.getByText("✓ Saved")).toBeVisible({ timeout: 30_000 });
+  await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 30_000 });
   await page.getByTestId("move-to-table").click();
   await expect(page.getByTestId("table-editor")).toBeVisible({ timeout: 60_000 });
-  await expect(page.getByText("✓ Saved")).toBeVisible({ timeout: 30_000 });
+  await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 30_000 });
   await page.reload({ timeout: 120_000 });
   await expect(page.getByTestId("table-editor")).toBeVisible({ timeout: 60_000 });
   await expect(page.getByTestId("table-canvas")).toHaveAttribute("data-beams", /^p1:(below|above)-mpe$/, { timeout: 30_000 });
