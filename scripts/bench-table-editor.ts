@@ -82,8 +82,9 @@ export async function runTableEditorBench(appUrl: string, cookie: Cookie[] | str
     await frame.scrollIntoViewIfNeeded();
     const box = (await frame.boundingBox())!;
     const s = Number(await frame.getAttribute("data-px-per-mm"));
-    const margin = Number(await frame.getAttribute("data-margin-px"));
-    const point = (xMm: number, yMm: number) => ({ x: box.x + margin + xMm * s, y: box.y + margin + (doc.table.depthMm - yMm) * s });
+    const left = Number(await frame.getAttribute("data-left-px"));
+  const top = Number(await frame.getAttribute("data-top-px"));
+    const point = (xMm: number, yMm: number) => ({ x: box.x + left + xMm * s, y: box.y + top + (doc.table.depthMm - yMm) * s });
     const start = point(dragged.xMm, dragged.yMm);
     const sweepPx = 300 * s; // 300 mm along the beam and back
     const runsBefore = Number(await page.getByTestId("predictions").getAttribute("data-live-runs"));

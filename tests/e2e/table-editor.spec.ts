@@ -24,9 +24,10 @@ async function at(page: Page, xMm: number, yMm: number) {
   const frame = page.getByTestId("table-canvas");
   const box = (await frame.boundingBox())!;
   const s = Number(await frame.getAttribute("data-px-per-mm"));
-  const margin = Number(await frame.getAttribute("data-margin-px"));
+  const left = Number(await frame.getAttribute("data-left-px"));
+  const top = Number(await frame.getAttribute("data-top-px"));
   const depth = Number(await frame.getAttribute("data-depth-mm"));
-  return { x: box.x + margin + xMm * s, y: box.y + margin + (depth - yMm) * s };
+  return { x: box.x + left + xMm * s, y: box.y + top + (depth - yMm) * s };
 }
 
 async function field(page: Page, key: string) {

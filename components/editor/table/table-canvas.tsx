@@ -29,6 +29,11 @@ export function tableScale(doc: BenchDocumentV2, width: number): number {
   return Math.max(0.02, Math.min(byWidth, byHeight));
 }
 
+/** Where the table's left edge sits in the drawing: centred when the drawing is wider than the table needs. */
+export function tableLeftPx(doc: BenchDocumentV2, width: number): number {
+  return Math.max(MARGIN_PX, (width - doc.table.widthMm * tableScale(doc, width)) / 2);
+}
+
 const BAND_COLOUR = { "above-mpe": THEME.danger, "below-mpe": THEME.ok, unknown: THEME.accent } as const;
 
 type Props = {
@@ -60,9 +65,10 @@ export function TableCanvas(props: Props) {
   const W = doc.table.widthMm;
   const D = doc.table.depthMm;
   const height = Math.round(D * s + 2 * MARGIN_PX);
-  const sx = (x: number) => MARGIN_PX + x * s;
+  const left = tableLeftPx(doc, width);
+  const sx = (x: number) => left + x * s;
   const sy = (y: number) => MARGIN_PX + (D - y) * s;
-  const toMm = (px: number, py: number): PointMm => ({ xMm: (px - MARGIN_PX) / s, yMm: D - (py - MARGIN_PX) / s });
+  const toMm = (px: number, py: number): PointMm => ({ xMm: (px - left) / s, yMm: D - (py - MARGIN_PX) / s });
 
   const drag = useRef<{ session: string; id: string; start: Record<string, PointMm>; snap: BeamSegment[]; frame: number | null; pending: Record<string, Place> | null } | null>(null);
   const [box, setBox] = useState<{ from: { x: number; y: number }; to: { x: number; y: number } } | null>(null);
@@ -143,7 +149,7 @@ export function TableCanvas(props: Props) {
       ctx.beginPath();
       for (let x = holes.off; x <= W + 1e-9; x += holes.pitch) {
         for (let y = holes.off; y <= D + 1e-9; y += holes.pitch) {
-          const px = MARGIN_PX + x * s;
+          const px = left + x * s;
           const py = MARGIN_PX + (D - y) * s;
           ctx.moveTo(px + holes.r, py);
           ctx.arc(px, py, holes.r, 0, Math.PI * 2);
@@ -151,7 +157,7 @@ export function TableCanvas(props: Props) {
       }
       ctx.fillShape(shape);
     },
-    [holes, W, D, s],
+    [holes, W, D, s, left],
   );
 
   // The elements' gesture handlers as one stable object (calling the newest closures), so an element whose own props

@@ -19,7 +19,7 @@ import { laserValuesFrom, type RegisterEntry } from "../register-check";
 import { SaveStatus } from "../save-status";
 import { forgetUnsaved, readUnsaved } from "../unsaved-copy";
 import { useAutosave } from "../use-autosave";
-import { MARGIN_PX, tableScale, type DrawnBeam, type Place } from "./table-canvas";
+import { MARGIN_PX, tableLeftPx, tableScale, type DrawnBeam, type Place } from "./table-canvas";
 import { traceBeams } from "./table-engine";
 import { arrowDelta, HOLE_PITCHES, movedBy, placementFor, snapPlacement, turnBy, type BeamSegment, type SnapMode } from "./table-geometry";
 import { BeamFigures, TableElementList, TableProperties, TableSafety } from "./table-panels";
@@ -115,7 +115,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
     e.preventDefault();
     const rect = e.currentTarget.getBoundingClientRect();
     const s = tableScale(doc, width);
-    const raw = { xMm: (e.clientX - rect.left - MARGIN_PX) / s, yMm: doc.table.depthMm - (e.clientY - rect.top - MARGIN_PX) / s };
+    const raw = { xMm: (e.clientX - rect.left - tableLeftPx(doc, width)) / s, yMm: doc.table.depthMm - (e.clientY - rect.top - MARGIN_PX) / s };
     const snapped = snapPlacement(raw, doc.table, traced, 10 / s, snapMode);
     const facing = snapped.onBeam && ELEMENT_KIND_RECORDS[kind].action !== "source" && ELEMENT_KIND_RECORDS[kind].action !== "turn";
     add(kind, { ...snapped.point, angleDeg: facing ? snapped.onBeam!.directionDeg + 180 : kind === "laser" ? 0 : 180 });
@@ -312,7 +312,8 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
           onMouseDown={(e) => e.currentTarget.focus({ preventScroll: true })}
           data-testid="table-canvas"
           data-px-per-mm={width > 0 ? tableScale(doc, width) : 0}
-          data-margin-px={MARGIN_PX}
+          data-left-px={width > 0 ? tableLeftPx(doc, width) : MARGIN_PX}
+          data-top-px={MARGIN_PX}
           data-depth-mm={doc.table.depthMm}
           data-beams={beams.map((b) => `${b.pathId}:${b.band}${b.open ? ":open" : ""}`).join(" ")}
         >
