@@ -83,7 +83,7 @@ export async function runTableEditorBench(appUrl: string, cookie: Cookie[] | str
     const box = (await frame.boundingBox())!;
     const s = Number(await frame.getAttribute("data-px-per-mm"));
     const left = Number(await frame.getAttribute("data-left-px"));
-  const top = Number(await frame.getAttribute("data-top-px"));
+    const top = Number(await frame.getAttribute("data-top-px"));
     const point = (xMm: number, yMm: number) => ({ x: box.x + left + xMm * s, y: box.y + top + (doc.table.depthMm - yMm) * s });
     const start = point(dragged.xMm, dragged.yMm);
     const sweepPx = 300 * s; // 300 mm along the beam and back
