@@ -76,6 +76,23 @@ test("a researcher draws a folded, split bench on a table, blocks its open beams
   for (let i = 1; i <= 12; i++) await page.mouse.move(from.x + ((to.x - from.x) * i) / 12, from.y + ((to.y - from.y) * i) / 12);
   await page.mouse.up();
   await expectPlace(page, 412.5, 312.5, 135);
+  // Its turning handle (42 px out along the normal) dragged round to the left gives 180°, and back gives 135° again.
+  const centre = await at(page, 412.5, 312.5);
+  const handle = (deg: number) => ({ x: centre.x + Math.cos((deg * Math.PI) / 180) * 42, y: centre.y - Math.sin((deg * Math.PI) / 180) * 42 });
+  const turnHandle = async (fromDeg: number, toDeg: number) => {
+    const a = handle(fromDeg);
+    await page.mouse.move(a.x, a.y);
+    await page.mouse.down();
+    for (let i = 1; i <= 8; i++) {
+      const b = handle(fromDeg + ((toDeg - fromDeg) * i) / 8);
+      await page.mouse.move(b.x, b.y);
+    }
+    await page.mouse.up();
+  };
+  await turnHandle(135, 178);
+  await expect(await field(page, "angleDeg")).toHaveValue("180");
+  await turnHandle(180, 133);
+  await expect(await field(page, "angleDeg")).toHaveValue("135");
 
   // A beam splitter clicked in goes onto the folded beam; the keyboard moves it four holes up and turns it twice by 45°.
   await page.getByTestId("table-palette-beam-splitter").click();
