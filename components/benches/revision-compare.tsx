@@ -2,6 +2,7 @@ import type { BenchDetail } from "@/lib/server/benches";
 import { RevisionDiff } from "@/components/review/revision-diff";
 import { StateBadge } from "@/components/ui/state-badge";
 import { CompareDrawing } from "./compare-drawing";
+import { TableCompare } from "./table-compare";
 import { revisionMarks, type Mark } from "./revision-marks";
 
 // The visual difference between two revisions of a bench: a form to pick them (works without script), the two
@@ -42,6 +43,13 @@ export function RevisionPicker({ benchId, revisions, from, to }: { benchId: stri
 }
 
 export function RevisionCompare({ from, to }: { from: Revision; to: Revision }) {
+  if (from.document.version !== 1 || to.document.version !== 1) return <TableCompare from={from} to={to} />;
+  return <RailCompare from={{ ...from, document: from.document }} to={{ ...to, document: to.document }} />;
+}
+
+type RailRevision = Revision & { document: Extract<Revision["document"], { version: 1 }> };
+
+function RailCompare({ from, to }: { from: RailRevision; to: RailRevision }) {
   const marks = revisionMarks(from.document, to.document);
   const { counts } = marks;
   const summary = marks.diff.identical

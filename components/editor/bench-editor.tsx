@@ -5,10 +5,10 @@
 import dynamic from "next/dynamic";
 import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore, type DragEvent, type KeyboardEvent } from "react";
-import { draftQuery, inServiceLasersQuery, type DraftView } from "@/lib/api/bench-queries";
+import { draftQuery, inServiceLasersQuery, type RailDraftView } from "@/lib/api/bench-queries";
 import { ELEMENT_KINDS, type BenchDocument, type ElementKind } from "@/lib/bench/schema";
 import type { AnyBenchDocument, BenchDocumentV2 } from "@/lib/bench/schema-v2";
-import { emptyTable, railToTable } from "./table/table-reducer";
+import { railToTable } from "./table/table-reducer";
 import { StateBadge } from "@/components/ui/state-badge";
 import { ApertureTable } from "./aperture-table";
 import { ScreenTable } from "./screen-table";
@@ -60,15 +60,14 @@ type Props = { benchId: string; labName: string; authorName: string; shelf?: Lab
 
 /**
  * The editor for the bench's working draft: the rail editor for a version 1 document, the table editor
- * (components/editor/table) for version 2. An empty bench opened with `startOnTable` (a new bench started on the
- * table), a rail bench moved onto the table, and a table drawing left unsaved in this browser open the table editor.
+ * (components/editor/table) for version 2 (a new bench made on a table starts as one). A rail bench moved onto a
+ * table, and a table drawing left unsaved in this browser, open the table editor too.
  */
-export function BenchEditor(props: Props & { startOnTable?: boolean }) {
-  const { startOnTable = false, ...rest } = props;
+export function BenchEditor(props: Props) {
   const draft = useQuery(draftQuery(props.benchId));
   const [movedOnto, setMovedOnto] = useState<BenchDocumentV2 | null>(null);
   const initialDoc = draft.data?.document as AnyBenchDocument | undefined;
-  // A table drawn here but not yet saved (no laser yet, or the page closed first) is still a rail draft on the server.
+  // A rail moved onto a table but not yet saved (the page closed first) is still a rail draft on the server.
   // undefined while hydrating: nothing is drawn until this browser's copy has been looked at, because the rail editor
   // forgets a copy it does not hold and a table's copy must survive it
   const unsaved = useSyncExternalStore(noChange, () => unsavedText(props.benchId) ?? "", () => undefined);
@@ -83,13 +82,12 @@ export function BenchEditor(props: Props & { startOnTable?: boolean }) {
   const common = { benchId: props.benchId, labName: props.labName, authorName: props.authorName, initial: draft.data };
   if (initialDoc.version === 2) return <TableEditor {...common} start={initialDoc} />;
   if (tableStart) return <TableEditor {...common} start={tableStart} />;
-  if (startOnTable && initialDoc.elements.length === 0 && draft.data.canEdit) return <TableEditor {...common} start={emptyTable(initialDoc.title)} />;
-  return <EditorBody {...rest} initial={draft.data} onMoveToTable={(doc) => setMovedOnto(railToTable(doc))} />;
+  return <EditorBody {...props} initial={draft.data as RailDraftView} onMoveToTable={(doc) => setMovedOnto(railToTable(doc))} />;
 }
 
 const BUTTON = "inline-flex min-h-10 min-w-10 items-center justify-center gap-1 rounded-md border border-line px-2.5 text-sm hover:bg-raised disabled:cursor-not-allowed disabled:opacity-40";
 
-function EditorBody({ benchId, labName, authorName, initial, shelf = null, onMoveToTable }: Props & { initial: DraftView; onMoveToTable: (doc: BenchDocument) => void }) {
+function EditorBody({ benchId, labName, authorName, initial, shelf = null, onMoveToTable }: Props & { initial: RailDraftView; onMoveToTable: (doc: BenchDocument) => void }) {
   const canEdit = initial.canEdit;
   const { state, dispatch, selected, canUndo, canRedo } = useEditorState(initial.document as BenchDocument);
   const { doc, selection } = state;
@@ -260,7 +258,7 @@ function EditorBody({ benchId, labName, authorName, initial, shelf = null, onMov
               Move onto a table
             </button>
           ) : null}
-          <ImportExport doc={doc} canEdit={canEdit} onImport={(d: BenchDocument) => dispatch({ type: "replace", doc: d })} />
+          <ImportExport doc={doc} canEdit={canEdit} onImport={(d: BenchDocument) => dispatch({ type: "replace", doc: d })} benchId={benchId} base={save.base} />
           <SaveStatus state={save.state} />
         </div>
       </header>

@@ -31,7 +31,7 @@ export function ChangesSinceReview({ benchId, doc }: Props) {
   }, [queryClient, benchId, revisionNumber, state]);
 
   const sent = bench.data ? lastSentRevision(bench.data.revisions) : null;
-  const changes = useMemo(() => (sent ? changesSinceRevision(sent.document, doc) : []), [sent, doc]);
+  const changes = useMemo(() => (sent && sent.document.version === 1 ? changesSinceRevision(sent.document, doc) : []), [sent, doc]);
 
   return (
     <section aria-labelledby="since-review-heading" className="rounded-lg border border-line bg-panel p-4" data-testid="changes-since-review">

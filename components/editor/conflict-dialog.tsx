@@ -3,15 +3,15 @@
 import { useEffect, useRef } from "react";
 import { Button } from "@/components/ui/button";
 import type { DraftView } from "@/lib/api/bench-queries";
-import type { BenchDocument } from "@/lib/bench/schema";
-import type { AnyBenchDocument } from "@/lib/bench/schema-v2";
+import type { AnyBenchDocument, BenchDocument } from "@/lib/bench/schema";
 import { documentDifferences } from "./element-diff";
 
 type Props = { mine: AnyBenchDocument; current: DraftView; message: string; onKeepMine: () => void; onTakeTheirs: () => void };
 
 export function ConflictDialog({ mine, current, message, onKeepMine, onTakeTheirs }: Props) {
-  // the sentences read elements of either version (a rail position or a place on the table)
-  const differences = documentDifferences(mine as BenchDocument, current.document as BenchDocument);
+  // Element by element when both are rails or both are tables (the sentences read a rail position or a place on the
+  // table); a table saved over a rail, or the other way, cannot be compared so: every element then differs.
+  const differences = current.document.version === mine.version ? documentDifferences(mine as BenchDocument, current.document as BenchDocument) : [];
   const heading = useRef<HTMLHeadingElement>(null);
   useEffect(() => heading.current?.focus(), []);
   return (

@@ -1,6 +1,6 @@
 // A stable text key for a bench document (sorted keys, elements in their order) and a short hash of it:
 // the key tells whether two documents are the same (the database reorders JSON keys), the hash names queries.
-import type { AnyBenchDocument } from "@/lib/bench/schema-v2";
+import type { AnyBenchDocument } from "@/lib/bench/schema";
 
 function sortValue(value: unknown): unknown {
   if (Array.isArray(value)) return value.map(sortValue);

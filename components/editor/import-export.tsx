@@ -1,18 +1,39 @@
 "use client";
-// JSON export of the bench document (the contract format) and import, checked with the shared schema.
+// JSON export of the bench document (the contract format, either version) and import, checked with the shared schema.
+// A file of the other version (a table into a rail bench, or back) replaces the working draft on the server at once
+// and the page opens it afresh, since one editor holds one version.
 import { useRef, useState } from "react";
-import { benchDocumentSchema, describeIssues, type BenchDocument, type FieldProblem } from "@/lib/bench/schema";
+import { putDraft } from "@/lib/api/bench-queries";
+import { describeIssues, type AnyBenchDocument, type FieldProblem } from "@/lib/bench/schema";
+import { anyBenchDocumentSchema } from "@/lib/bench/schema-v2";
 
-type Props = { doc: BenchDocument; canEdit: boolean; onImport: (doc: BenchDocument) => void };
+type Props<D extends AnyBenchDocument> = {
+  doc: D;
+  canEdit: boolean;
+  onImport: (doc: D) => void;
+  /** The bench and the draft the editor's work is based on: needed to save a file of the other version straight away. */
+  benchId?: string;
+  base?: { revisionNumber: number; version: number };
+};
+
+/** The document as the export writes it: version first, then title, table (version 2) and elements. */
+export function exportedDocument(doc: AnyBenchDocument): Record<string, unknown> {
+  return {
+    version: doc.version,
+    ...(doc.title !== undefined ? { title: doc.title } : {}),
+    ...(doc.version === 2 ? { table: doc.table } : {}),
+    elements: doc.elements,
+  };
+}
 
 const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "").slice(0, 60) || "bench";
 
-export function ImportExport({ doc, canEdit, onImport }: Props) {
+export function ImportExport<D extends AnyBenchDocument>({ doc, canEdit, onImport, benchId, base }: Props<D>) {
   const input = useRef<HTMLInputElement>(null);
   const [problems, setProblems] = useState<{ file: string; list: FieldProblem[] } | null>(null);
 
   const exportJson = () => {
-    const ordered = { version: doc.version, ...(doc.title !== undefined ? { title: doc.title } : {}), elements: doc.elements };
+    const ordered = exportedDocument(doc);
     const blob = new Blob([JSON.stringify(ordered, null, 2) + "\n"], { type: "application/json" });
     const url = URL.createObjectURL(blob);
     const a = document.createElement("a");
@@ -30,13 +51,31 @@ export function ImportExport({ doc, canEdit, onImport }: Props) {
       setProblems({ file: file.name, list: [{ path: "(file)", message: "The file is not valid JSON." }] });
       return;
     }
-    const result = benchDocumentSchema.safeParse(parsed);
+    const result = anyBenchDocumentSchema.safeParse(parsed);
     if (!result.success) {
       setProblems({ file: file.name, list: describeIssues(result.error) });
       return;
     }
     setProblems(null);
-    onImport(result.data);
+    if (result.data.version === doc.version) {
+      onImport(result.data as D);
+      return;
+    }
+    const other = result.data.version === 2 ? "an optical table (version 2)" : "a straight rail (version 1)";
+    if (!benchId || !base) {
+      setProblems({ file: file.name, list: [{ path: "version", message: `The file is ${other}; this editor holds version ${doc.version} only.` }] });
+      return;
+    }
+    try {
+      const outcome = await putDraft(benchId, { document: result.data, baseRevision: base.revisionNumber, baseVersion: base.version });
+      if (outcome.kind === "conflict") {
+        setProblems({ file: file.name, list: [{ path: "(bench)", message: `${outcome.message} Reload the page and import the file again.` }] });
+        return;
+      }
+      window.location.reload();
+    } catch (error) {
+      setProblems({ file: file.name, list: [{ path: "(server)", message: error instanceof Error ? error.message : "The server did not take the file." }] });
+    }
   };
 
   return (

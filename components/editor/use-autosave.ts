@@ -172,6 +172,8 @@ export function useAutosave(benchId: string, initial: DraftView, doc: AnyBenchDo
     queryClient.setQueryData(queryKeys.draft(benchId), conflict.current);
     setBase(baseOf(conflict.current));
     setConflict(null);
+    // A draft of the other version (a table saved over a rail, or the reverse) is not taken by this editor: the draft in
+    // the cache is now that document, and BenchEditor opens the editor that holds it.
     return conflict.current.document;
   }, [conflict, queryClient, benchId]);
 

@@ -1,4 +1,4 @@
-import type { BenchDiff } from "@/lib/bench/diff";
+import { whereWords, type BenchDiff } from "@/lib/bench/diff";
 import { KIND_WORDS } from "./format";
 
 function show(value: unknown): string {
@@ -18,6 +18,11 @@ export function RevisionDiff({ diff, againstNumber }: { diff: BenchDiff; against
             <span className="font-medium">~ Title</span>: {show(diff.titleChange.before)} → {show(diff.titleChange.after)}
           </li>
         ) : null}
+        {diff.tableChange ? (
+          <li className="rounded-md border border-line px-3 py-2">
+            <span className="font-medium">~ Table</span>: {show(diff.tableChange.before ?? "a straight rail")} → {show(diff.tableChange.after ?? "a straight rail")}
+          </li>
+        ) : null}
         {changed.map((e) => (
           <li key={`${e.change}-${e.id}`} className={`rounded-md border px-3 py-2 ${e.change === "added" ? "border-ok/70" : e.change === "removed" ? "border-danger/70" : "border-warn/70"}`}>
             <span className="font-medium">
@@ -34,7 +39,7 @@ export function RevisionDiff({ diff, againstNumber }: { diff: BenchDiff; against
             ) : e.change === "added" ? (
               <p className="font-mono text-sm text-muted">{show({ ...e.after, id: undefined, kind: undefined })}</p>
             ) : (
-              <p className="font-mono text-sm text-muted">was at {e.before.positionMm} mm</p>
+              <p className="font-mono text-sm text-muted">was {whereWords(e.before)}</p>
             )}
           </li>
         ))}

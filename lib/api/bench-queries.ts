@@ -1,18 +1,20 @@
 // Query options and mutations for benches, their working drafts and the analysis, shared by the server
 // prefetch (same keys, a direct queryFn) and the browser. Keys come from queryKeys in ./client.
 import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
-import type { BenchDocument } from "@/lib/bench/schema";
-import type { AnyBenchDocument } from "@/lib/bench/schema-v2";
+import type { AnyBenchDocument, BenchDocument, BenchDocumentV2 } from "@/lib/bench/schema";
 import type { BenchAnalysis, ScreenSearch } from "@/lib/optics";
-import type { BenchSafetyAssessment } from "@/lib/safety";
+import type { BenchSafetyAssessment, TableSafetyAssessment } from "@/lib/safety";
+import type { TableAnalysis } from "@/lib/optics/table";
 import type { BenchDetail } from "@/lib/server/benches";
-import type { DraftView, FrozenRevision } from "@/lib/server/drafts";
+import type { DraftView, FrozenRevision, RailDraftView } from "@/lib/server/drafts";
 import type { LaserView } from "@/lib/server/register";
 import { apiFetch, conflictCurrent, queryKeys, type ApiError } from "./client";
 
-export type { BenchDetail, DraftView, FrozenRevision, LaserView };
+export type { BenchDetail, DraftView, FrozenRevision, LaserView, RailDraftView };
 
 export type AnalyzeResponse = { analysis: BenchAnalysis; safety?: BenchSafetyAssessment };
+/** POST /api/analyze for a table (version 2): paths with their ends, open beams, one entry per laser; the fixed limitations left out. */
+export type TableAnalyzeResponse = { analysis: TableAnalysis; safety?: Omit<TableSafetyAssessment, "limitations"> };
 /** An analysis tagged with the document key it was computed for, so the editor can tell current from stale. */
 export type KeyedAnalysis = AnalyzeResponse & { documentKey: string };
 export type ProfileResponse = { radiusMm: number[]; relativeIntensity: number[]; method?: string; shadowRadiusMm?: number };
@@ -28,7 +30,17 @@ export const draftQuery = (benchId: string) =>
     refetchOnWindowFocus: false,
   });
 
-export const analysisQuery = (document: AnyBenchDocument, documentKey: string, hash: string) =>
+/** The analysis of a table (version 2), cached under the same key factory as the rail's. */
+export const tableAnalysisQuery = (document: BenchDocumentV2, hash: string) =>
+  queryOptions({
+    queryKey: queryKeys.analysis(hash),
+    queryFn: ({ signal }) => apiFetch<TableAnalyzeResponse>("/api/analyze", { method: "POST", body: json(document), signal }),
+    staleTime: Infinity,
+    gcTime: 60_000,
+    retry: false,
+  });
+
+export const analysisQuery = (document: BenchDocument, documentKey: string, hash: string) =>
   queryOptions({
     queryKey: queryKeys.analysis(hash),
     queryFn: ({ signal }) =>
@@ -116,7 +128,7 @@ export function useSaveDraft(benchId: string) {
 export function useCreateBench() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: { labId: string; title: string }) => apiFetch<{ id: string }>("/api/benches", { method: "POST", body: json(input) }),
+    mutationFn: (input: { labId: string; title: string; table?: BenchDocumentV2["table"] }) => apiFetch<{ id: string }>("/api/benches", { method: "POST", body: json(input) }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: queryKeys.benches() }),
   });
 }

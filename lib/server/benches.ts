@@ -7,7 +7,8 @@ import { safeText } from "@/lib/validation/text";
 import type { Database } from "@/db";
 import { bench, benchRevision, lab, user, type ReviewState } from "@/db/schema";
 import { contentHash } from "@/lib/bench/canonical";
-import type { BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument } from "@/lib/bench/schema";
+import { tableSchema } from "@/lib/bench/schema-v2";
 import { AppError, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
@@ -85,7 +86,7 @@ export type BenchDetail = {
   labName: string;
   authorId: string;
   authorName: string;
-  revisions: { id: string; number: number; state: ReviewState; contentHash: string; version: number; document: BenchDocument; updatedAt: string }[];
+  revisions: { id: string; number: number; state: ReviewState; contentHash: string; version: number; document: AnyBenchDocument; updatedAt: string }[];
 };
 
 /** One bench with all its revisions. Outside the actor's labs it does not exist (404). */
@@ -108,7 +109,7 @@ export async function getBench(db: Database, actor: Actor, benchId: string): Pro
       state: r.state,
       contentHash: r.contentHash,
       version: r.version,
-      document: r.document as BenchDocument,
+      document: r.document as AnyBenchDocument,
       updatedAt: r.updatedAt.toISOString(),
     })),
   };
@@ -117,13 +118,17 @@ export async function getBench(db: Database, actor: Actor, benchId: string): Pro
 export const createBenchInput = z.object({
   labId: z.uuid({ error: "Choose the lab the bench belongs to" }),
   title: safeText({ error: "Give the bench a title" }).trim().min(1, "Give the bench a title").max(200, "The title must be at most 200 characters"),
+  /** Given: the bench is an optical table of this size (bench document version 2); absent: a straight rail (version 1). */
+  table: tableSchema.optional(),
 });
 
-/** A new bench with an empty first draft (the laser is added in the editor). */
+/** A new bench with an empty first draft (the laser is added in the editor): a rail, or a table when its size is given. */
 export async function createBench(db: Database, actor: Actor, input: z.infer<typeof createBenchInput>): Promise<{ id: string }> {
   authorize(actor, { bench: ["create"] });
   if (!actor.labIds.includes(input.labId)) throw new AppError("forbidden", "You can only create benches in a lab you belong to.");
-  const document: BenchDocument = { version: 1, title: input.title, elements: [] };
+  const document: AnyBenchDocument = input.table
+    ? { version: 2, title: input.title, table: input.table, elements: [] }
+    : { version: 1, title: input.title, elements: [] };
   return db.transaction(async (tx) => {
     const [created] = await tx.insert(bench).values({ labId: input.labId, title: input.title, authorId: actor.userId }).returning({ id: bench.id });
     const [revision] = await tx
@@ -135,7 +140,7 @@ export async function createBench(db: Database, actor: Actor, input: z.infer<typ
       benchId: created.id,
       revisionId: revision.id,
       contentHash: contentHash(document),
-      detail: { title: input.title },
+      detail: { title: input.title, ...(input.table ? { table: input.table } : {}) },
     });
     return created;
   });

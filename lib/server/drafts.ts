@@ -9,13 +9,14 @@ import type { Database, DbOrTx } from "@/db";
 import { bench, benchRevision, type ReviewState } from "@/db/schema";
 import { rolesAllow } from "@/lib/auth/permissions";
 import { contentHash } from "@/lib/bench/canonical";
-import { benchDocumentSchema, type BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument, BenchDocument } from "@/lib/bench/schema";
+import { anyBenchDocumentSchema } from "@/lib/bench/schema-v2";
 import { AppError, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import { authorize, authorizeLab, type Actor } from "./authorize";
 import { visibleOr404 } from "./scope";
 
-export type DraftView = {
+export type DraftView<D extends AnyBenchDocument = AnyBenchDocument> = {
   benchId: string;
   labId: string;
   title: string;
@@ -26,18 +27,21 @@ export type DraftView = {
   /** Optimistic-concurrency counter of that revision; a save must name it. */
   version: number;
   contentHash: string;
-  document: BenchDocument;
+  /** Version 1 (a rail) or version 2 (a table); a stored version 1 document loads exactly as it was saved. */
+  document: D;
   updatedAt: string;
   /** True when the caller may save (bench: edit and a member of the bench's lab). */
   canEdit: boolean;
 };
 
 export const saveDraftInput = z.object({
-  document: benchDocumentSchema,
+  document: anyBenchDocumentSchema,
   baseRevision: z.number({ error: "baseRevision must be the revision number the edit started from" }).int().positive(),
   baseVersion: z.number({ error: "baseVersion must be the version the edit started from" }).int().positive(),
 });
 export type SaveDraftInput = z.infer<typeof saveDraftInput>;
+/** A draft known to hold a rail (version 1), as the rail editor works on it. */
+export type RailDraftView = DraftView<BenchDocument>;
 
 export const makeRevisionInput = z.object({
   baseRevision: z.number({ error: "baseRevision must be the revision number the drawing is based on" }).int().positive(),
@@ -79,7 +83,7 @@ function view(actor: Actor, row: BenchRow, r: typeof benchRevision.$inferSelect)
     state: r.state,
     version: r.version,
     contentHash: r.contentHash,
-    document: r.document as BenchDocument,
+    document: r.document as AnyBenchDocument,
     updatedAt: r.updatedAt.toISOString(),
     canEdit: canEdit(actor, row.labId),
   };
@@ -167,8 +171,8 @@ export async function makeRevision(db: Database, actor: Actor, benchId: string, 
         `Revision ${latest.number} is no longer a draft, so it is already fixed as it is; your next change starts revision ${latest.number + 1} on its own.`,
       );
     }
-    const document = latest.document as BenchDocument;
-    const complete = benchDocumentSchema.safeParse(document);
+    const document = latest.document as AnyBenchDocument;
+    const complete = anyBenchDocumentSchema.safeParse(document);
     if (!complete.success) {
       const first = (complete.error.issues[0]?.message ?? "the drawing is not complete").replace(/\.$/, "");
       throw new AppError("bad-request", `Revision ${latest.number} cannot be made into a revision yet: ${first}.`);

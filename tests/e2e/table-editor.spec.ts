@@ -51,33 +51,33 @@ test("a researcher draws a folded, split bench on a table, blocks its open beams
   await signIn(page, "researcher@northmere.example.edu");
   await page.goto("/benches/new", { timeout: 120_000 });
   await page.getByLabel("Title").fill(`Table e2e ${Date.now()}`);
-  await page.getByLabel("On an optical table").check();
+  await page.getByLabel("Drawn on").selectOption("table-metric"); // 1200 × 900 mm, holes every 25 mm
   await page.getByRole("button", { name: "Create and open the editor" }).click();
-  await page.waitForURL(/\/benches\/[0-9a-f-]{36}\?on=table$/, { timeout: 120_000 });
-  benchUrl = page.url().replace(/\?.*$/, "");
+  await page.waitForURL(/\/benches\/[0-9a-f-]{36}$/, { timeout: 120_000 });
+  benchUrl = page.url();
   await expect(page.getByTestId("table-editor")).toBeVisible({ timeout: 60_000 });
   await expect(page.getByTestId("table-canvas").locator("canvas").first()).toBeVisible({ timeout: 60_000 });
 
   // A laser (ad hoc) at the left, on a hole, aiming +x; its power raised to 20 mW in the properties.
   await page.getByTestId("table-palette-laser").click();
   await page.getByTestId("laser-ad-hoc").click();
-  await expectPlace(page, 137.5, 312.5, 0);
+  await expectPlace(page, 162.5, 462.5, 0);
   await (await field(page, "powerMw")).fill("20");
   await (await field(page, "powerMw")).press("Tab");
 
   // A mirror clicked in lands on the beam, turned 135° so the beam folds to +y (away from the viewer).
   await page.getByTestId("table-palette-mirror").click();
-  await expectPlace(page, 187.5, 312.5, 135);
+  await expectPlace(page, 212.5, 462.5, 135);
   // Dragged with the mouse along the beam to x ≈ 410 mm, a little off the axis: it snaps onto the beam, on a hole.
-  const from = await at(page, 187.5, 312.5);
-  const to = await at(page, 408, 316);
+  const from = await at(page, 212.5, 462.5);
+  const to = await at(page, 408, 466);
   await page.mouse.move(from.x, from.y);
   await page.mouse.down();
   for (let i = 1; i <= 12; i++) await page.mouse.move(from.x + ((to.x - from.x) * i) / 12, from.y + ((to.y - from.y) * i) / 12);
   await page.mouse.up();
-  await expectPlace(page, 412.5, 312.5, 135);
+  await expectPlace(page, 412.5, 462.5, 135);
   // Its turning handle (42 px out along the normal) dragged round to the left gives 180°, and back gives 135° again.
-  const centre = await at(page, 412.5, 312.5);
+  const centre = await at(page, 412.5, 462.5);
   const handle = (deg: number) => ({ x: centre.x + Math.cos((deg * Math.PI) / 180) * 42, y: centre.y - Math.sin((deg * Math.PI) / 180) * 42 });
   const turnHandle = async (fromDeg: number, toDeg: number) => {
     const a = handle(fromDeg);
@@ -96,13 +96,13 @@ test("a researcher draws a folded, split bench on a table, blocks its open beams
 
   // A beam splitter clicked in goes onto the folded beam; the keyboard moves it four holes up and turns it twice by 45°.
   await page.getByTestId("table-palette-beam-splitter").click();
-  await expectPlace(page, 412.5, 362.5, 225);
+  await expectPlace(page, 412.5, 512.5, 225);
   const canvas = page.getByTestId("table-canvas");
   await canvas.focus();
   for (let i = 0; i < 4; i++) await page.keyboard.press("ArrowUp");
   await page.keyboard.press("r");
   await page.keyboard.press("r");
-  await expectPlace(page, 412.5, 462.5, 315);
+  await expectPlace(page, 412.5, 612.5, 315);
   // and a fine turn there and back: 1° each way
   await page.keyboard.press("BracketRight");
   await expect(await field(page, "angleDeg")).toHaveValue("316");
@@ -121,7 +121,7 @@ test("a researcher draws a folded, split bench on a table, blocks its open beams
   await shot(page, "open-beams");
 
   // Click the arm going right for its figures: about 20 mW × 0.99 × 0.5.
-  const arm = await at(page, 650, 462.5);
+  const arm = await at(page, 650, 612.5);
   await page.mouse.click(arm.x, arm.y);
   await expect(page.getByTestId("beam-figures")).toBeVisible();
   await expect(page.getByTestId("beam-power")).toHaveText("9.9 mW");
@@ -133,11 +133,11 @@ test("a researcher draws a folded, split bench on a table, blocks its open beams
     const box = (await canvas.boundingBox())!;
     await page.getByTestId("table-palette-beam-block").dragTo(canvas, { targetPosition: { x: p.x - box.x, y: p.y - box.y } });
   };
-  await blockOn(812.5, 465);
-  await expectPlace(page, 812.5, 462.5, 180);
+  await blockOn(1112.5, 615);
+  await expectPlace(page, 1112.5, 612.5, 180);
   await expect(warning).toContainText("A beam above the MPE leaves the table", { timeout: 30_000 });
-  await blockOn(410, 562.5);
-  await expectPlace(page, 412.5, 562.5, 270);
+  await blockOn(410, 862.5);
+  await expectPlace(page, 412.5, 862.5, 270);
   await expect(warning).toBeHidden({ timeout: 30_000 });
   await expect(page.getByTestId("no-open-beam")).toBeVisible();
   await expect(page.getByTestId("predictions")).toHaveAttribute("data-source", "server", { timeout: 30_000 });
@@ -162,25 +162,25 @@ test("bad input: an element typed off the table, two elements on one spot — ea
   await page.goto(benchUrl, { timeout: 120_000 });
   await expect(page.getByTestId("table-editor")).toBeVisible({ timeout: 60_000 });
   await expect(page.getByTestId("table-canvas").locator("canvas").first()).toBeVisible({ timeout: 60_000 });
-  const block = await at(page, 812.5, 462.5);
+  const block = await at(page, 1112.5, 612.5);
   await page.mouse.click(block.x, block.y);
   await expect(page.getByTestId("properties")).toContainText("block-1");
   // typed off the table: the reason beside the field names the element; the value is not taken
-  await (await field(page, "xMm")).fill("950");
+  await (await field(page, "xMm")).fill("1250");
   await (await field(page, "xMm")).press("Tab");
-  await expect(page.getByTestId("properties")).toContainText('Beam block "block-1" at (950, 462.5) mm is off the table');
+  await expect(page.getByTestId("properties")).toContainText('Beam block "block-1" at (1250, 612.5) mm is off the table');
   await expect(page.getByTestId("table-problems")).toHaveCount(0);
   // moved by keys onto the splitter's hole: the drawing keeps it, says why it cannot be saved, and the way back is one key away
-  await (await field(page, "xMm")).fill("812.5");
+  await (await field(page, "xMm")).fill("1112.5");
   await (await field(page, "xMm")).press("Tab");
-  const otherBlock = await at(page, 412.5, 562.5);
+  const otherBlock = await at(page, 412.5, 862.5);
   await page.mouse.click(otherBlock.x, otherBlock.y);
   await expect(page.getByTestId("properties")).toContainText("block-2");
-  for (let i = 0; i < 4; i++) await page.keyboard.press("ArrowDown");
-  await expect(page.getByTestId("table-problems")).toContainText('Beam block "block-2" and beam splitter "splitter-1" stand on the same spot (412.5, 462.5) mm');
+  for (let i = 0; i < 10; i++) await page.keyboard.press("ArrowDown");
+  await expect(page.getByTestId("table-problems")).toContainText('Beam block "block-2" and beam splitter "splitter-1" stand on the same spot (412.5, 612.5) mm');
   await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "invalid");
   await shot(page, "same-spot");
-  for (let i = 0; i < 4; i++) await page.keyboard.press("ArrowUp");
+  for (let i = 0; i < 10; i++) await page.keyboard.press("ArrowUp");
   await expect(page.getByTestId("table-problems")).toHaveCount(0);
   await expect(page.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 30_000 });
 });

@@ -13,6 +13,7 @@ import { benchDocumentV2Schema, TABLE_ELEMENT_KINDS, type BenchDocumentV2, type 
 import { StateBadge } from "@/components/ui/state-badge";
 import { SubmitForReview } from "@/components/review/submit-for-review";
 import { ConflictDialog } from "../conflict-dialog";
+import { ImportExport } from "../import-export";
 import { documentKey } from "../document-key";
 import { LaserPicker } from "../laser-picker";
 import { laserValuesFrom, type RegisterEntry } from "../register-check";
@@ -186,7 +187,10 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
             <h1 className="text-2xl font-semibold">{doc.title ?? "Untitled bench"}</h1>
           )}
         </div>
-        <SaveStatus state={save.state} />
+        <div className="flex items-start gap-3">
+          <ImportExport doc={doc} canEdit={canEdit} onImport={(d: BenchDocumentV2) => dispatch({ type: "replace", doc: d })} benchId={benchId} base={save.base} />
+          <SaveStatus state={save.state} />
+        </div>
       </header>
 
       {!canEdit ? (

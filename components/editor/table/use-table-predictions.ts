@@ -3,9 +3,10 @@
 // rested, as in the rail editor, and its answer stands. While the drawing moves (a drag, a turn) the same engine runs in
 // a worker in this browser on the newest state, one run at a time (a run asked for while one is busy waits, and only the
 // newest waiting state is kept), so the figures follow the drag without holding up its frames.
-import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 import { useEffect, useMemo, useRef, useState } from "react";
-import { analysisQuery } from "@/lib/api/bench-queries";
+import { apiFetch, queryKeys } from "@/lib/api/client";
+import type { TableAnalyzeResponse } from "@/lib/api/bench-queries";
 import { benchDocumentV2Schema, type BenchDocumentV2 } from "@/lib/bench/schema-v2";
 import { describeIssues } from "@/lib/bench/schema";
 import { documentKey, shortHash } from "../document-key";
@@ -26,6 +27,17 @@ export type TablePredictionView = {
   /** How many answers the browser's engine has given (the drag benchmark counts them). */
   liveRuns: number;
 };
+
+/** POST /api/analyze for the table, tagged with the document key it answers (so the editor tells current from stale). */
+const serverPredictions = (document: BenchDocumentV2, documentKey: string, hash: string) =>
+  queryOptions({
+    queryKey: [...queryKeys.analysis(hash), "table-editor"] as const,
+    queryFn: ({ signal }) =>
+      apiFetch<TableAnalyzeResponse>("/api/analyze", { method: "POST", body: JSON.stringify(document), signal }).then((r) => ({ ...r, documentKey })),
+    staleTime: Infinity,
+    gcTime: 60_000,
+    retry: false,
+  });
 
 type Local = { key: string; predictions?: TablePredictions; error?: string };
 
@@ -97,11 +109,11 @@ export function useTablePredictions(doc: BenchDocumentV2, live: BenchDocumentV2)
   const settled = settledKey === key && validity.success ? { doc: validity.data, key, hash: shortHash(key) } : null;
 
   const server = useQuery({
-    ...analysisQuery(settled?.doc ?? doc, settled?.key ?? key, settled?.hash ?? "pending"),
+    ...serverPredictions(settled?.doc ?? doc, settled?.key ?? key, settled?.hash ?? "pending"),
     enabled: settled !== null,
     placeholderData: keepPreviousData,
   });
-  const serverData = server.data as (TablePredictions & { documentKey: string }) | undefined;
+  const serverData: (TablePredictions & { documentKey: string }) | undefined = server.data;
 
   const [local, setLocal] = useState<{ answer: Local; runs: number } | null>(null);
   const submit = useEngineWorker((answer) => setLocal((l) => ({ answer, runs: (l?.runs ?? 0) + 1 })));

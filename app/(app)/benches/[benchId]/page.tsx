@@ -14,13 +14,11 @@ import { pageActor, refusal } from "@/lib/server/page-guard";
 
 export const metadata = { title: "Bench" };
 
-export default async function BenchPage({ params, searchParams }: { params: Promise<{ benchId: string }>; searchParams: Promise<{ on?: string | string[] }> }) {
+export default async function BenchPage({ params }: { params: Promise<{ benchId: string }> }) {
   const actor = await pageActor();
   const refused = refusal(actor, { bench: ["read"] });
   if (refused) return <Refused reason={refused} />;
   const { benchId } = await params;
-  // "?on=table": a new bench started on an optical table (the table editor opens while the bench is still empty)
-  const startOnTable = (await searchParams).on === "table";
   const db = getDb();
   const queryClient = new QueryClient();
   const detail = await getBench(db, actor, benchId).catch((error: unknown) => {
@@ -33,7 +31,7 @@ export default async function BenchPage({ params, searchParams }: { params: Prom
   return (
     <div className="flex flex-col gap-8">
       <HydrationBoundary state={dehydrate(queryClient)}>
-        <BenchEditor benchId={benchId} labName={detail.labName} authorName={detail.authorName} shelf={shelf} startOnTable={startOnTable} />
+        <BenchEditor benchId={benchId} labName={detail.labName} authorName={detail.authorName} shelf={shelf} />
       </HydrationBoundary>
       <section aria-labelledby="revisions-heading">
         <div className="mb-2 flex flex-wrap items-baseline gap-4">

@@ -6,16 +6,26 @@ import { Field } from "@/components/ui/field";
 import { useCreateBench } from "@/lib/api/bench-queries";
 import { fieldError } from "@/lib/api/client";
 
+/** What the bench is drawn on: a straight rail (document version 1) or an optical table of a common size (version 2). */
+const LAYOUTS = [
+  { id: "rail", words: "A straight rail (one laser, elements along its beam)", table: null },
+  { id: "table-metric", words: "An optical table, 1200 × 900 mm, holes every 25 mm", table: { widthMm: 1200, depthMm: 900, holePitchMm: 25 } },
+  { id: "table-metric-large", words: "An optical table, 2400 × 1200 mm, holes every 25 mm", table: { widthMm: 2400, depthMm: 1200, holePitchMm: 25 } },
+  { id: "table-imperial", words: "An optical table, 4 × 3 ft (1219.2 × 914.4 mm), holes every inch", table: { widthMm: 1219.2, depthMm: 914.4, holePitchMm: 25.4 } },
+  { id: "breadboard", words: "A breadboard, 600 × 450 mm, holes every 25 mm", table: { widthMm: 600, depthMm: 450, holePitchMm: 25 } },
+] as const;
+
 export function NewBenchForm({ labs }: { labs: { id: string; name: string }[] }) {
   const router = useRouter();
   const create = useCreateBench();
   const [title, setTitle] = useState("");
   const [labId, setLabId] = useState(labs[0]?.id ?? "");
-  const [layout, setLayout] = useState<"rail" | "table">("rail");
+  const [layout, setLayout] = useState<(typeof LAYOUTS)[number]["id"]>("rail");
 
   const submit = (e: FormEvent) => {
     e.preventDefault();
-    create.mutate({ labId, title }, { onSuccess: ({ id }) => router.push(layout === "table" ? `/benches/${id}?on=table` : `/benches/${id}`) });
+    const table = LAYOUTS.find((l) => l.id === layout)?.table ?? null;
+    create.mutate({ labId, title, ...(table ? { table } : {}) }, { onSuccess: ({ id }) => router.push(`/benches/${id}`) });
   };
 
   const labError = fieldError(create.error, "labId");
@@ -35,21 +45,18 @@ export function NewBenchForm({ labs }: { labs: { id: string; name: string }[] })
         </select>
         {labError ? <p className="text-sm text-danger" role="alert">{labError}</p> : null}
       </div>
-      <fieldset className="flex flex-col gap-1">
-        <legend className="mb-1 text-sm font-medium text-muted">Draw it</legend>
-        <label className="flex items-start gap-2">
-          <input type="radio" name="bench-layout" value="rail" checked={layout === "rail"} onChange={() => setLayout("rail")} className="mt-1" />
-          <span>
-            On a rail <span className="text-sm text-muted">— one laser and the optics in a straight line</span>
-          </span>
+      <div className="flex flex-col gap-1">
+        <label htmlFor="bench-layout" className="text-sm font-medium text-muted">
+          Drawn on
         </label>
-        <label className="flex items-start gap-2">
-          <input type="radio" name="bench-layout" value="table" checked={layout === "table"} onChange={() => setLayout("table")} className="mt-1" />
-          <span>
-            On an optical table <span className="text-sm text-muted">— seen from above with its holes: mirrors, beam splitters, windows, several lasers</span>
-          </span>
-        </label>
-      </fieldset>
+        <select id="bench-layout" value={layout} onChange={(e) => setLayout(e.target.value as typeof layout)} className="min-h-11 rounded-md border border-line bg-ink px-3">
+          {LAYOUTS.map((l) => (
+            <option key={l.id} value={l.id}>
+              {l.words}
+            </option>
+          ))}
+        </select>
+      </div>
       {create.error && !fieldError(create.error, "title") && !labError ? (
         <p role="alert" className="text-sm text-danger">
           {create.error.message}
