@@ -341,12 +341,14 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
             />
           ) : null}
           <p
-            className={`pointer-events-none absolute top-1 right-2 rounded-full border bg-panel/90 px-3 py-0.5 text-xs ${predictions.error ? "border-danger text-danger" : "border-line text-muted"}`}
+            className={`pointer-events-none absolute top-1 right-2 max-w-[70%] rounded-full border bg-panel/90 px-3 py-0.5 text-xs ${predictions.blockedBy ? "border-warn text-warn" : predictions.error ? "border-danger text-danger" : "border-line text-muted"}`}
             data-testid="prediction-source"
             data-source={predictions.source ?? "none"}
             data-stale={staleLook}
           >
-            {predictions.error
+            {predictions.blockedBy && hasLaser
+              ? `Predictions paused: ${predictions.blockedBy}`
+              : predictions.error
               ? `Predictions failed: ${predictions.error}`
               : !predictions.data
                 ? hasLaser
@@ -394,7 +396,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
           />
         </div>
         <div className={staleLook ? "opacity-80" : ""} data-testid="predictions" data-stale={staleLook} data-source={predictions.source ?? "none"} data-live-runs={predictions.liveRuns}>
-          <TableSafety table={doc.table} predictions={predictions.data} onBeam={setSelectedBeam} />
+          <TableSafety table={doc.table} predictions={predictions.data} stale={staleLook} onBeam={setSelectedBeam} />
         </div>
       </div>
     </div>

@@ -196,10 +196,16 @@ function WarningItems({ warnings }: { warnings: { code: string; message: string 
   );
 }
 
-type SafetyProps = { table: TableGeometry; predictions: TablePredictions | undefined; onBeam: (pathId: string) => void };
+type SafetyProps = {
+  table: TableGeometry;
+  predictions: TablePredictions | undefined;
+  /** The figures are for an earlier state of the drawing (it is moving, or it cannot be analysed as it stands). */
+  stale: boolean;
+  onBeam: (pathId: string) => void;
+};
 
 /** Open beams first (red when above the MPE), then each laser's class and per-line figures, warnings, and the notes. */
-export const TableSafety = memo(function TableSafety({ table, predictions, onBeam }: SafetyProps) {
+export const TableSafety = memo(function TableSafety({ table, predictions, stale, onBeam }: SafetyProps) {
   const safety = predictions?.safety;
   const open = safety?.openBeams ?? [];
   const hazardous = open.filter((o) => o.exceedsMpe);
@@ -209,6 +215,11 @@ export const TableSafety = memo(function TableSafety({ table, predictions, onBea
     <section aria-labelledby="table-safety-heading" className="flex flex-col gap-3 rounded-lg border border-line bg-panel p-4" data-testid="table-safety">
       <h2 id="table-safety-heading" className="text-lg font-semibold">Laser safety on the table</h2>
       {!predictions ? <p className="text-sm text-muted">Place a laser to see where its light goes.</p> : null}
+      {predictions && stale ? (
+        <p className="rounded-md border border-warn/60 p-2 text-sm text-warn" data-testid="safety-stale">
+          <span aria-hidden="true">◌ </span>These figures are for the drawing as it was a moment ago; they follow as soon as the drawing as it stands can be analysed.
+        </p>
+      ) : null}
       {hazardous.length > 0 ? (
         <div role="alert" className="rounded-md border-2 border-danger bg-danger/10 p-3" data-testid="open-beam-warning">
           <p className="font-semibold text-danger">
@@ -228,7 +239,7 @@ export const TableSafety = memo(function TableSafety({ table, predictions, onBea
           </ul>
           <p className="mt-1 text-sm">Put a beam block in its way on the table, or enclose it, before the laser is switched on.</p>
         </div>
-      ) : predictions && safety ? (
+      ) : predictions && safety && !stale ? (
         <p className="rounded-md border border-ok/60 p-3 text-sm" data-testid="no-open-beam">
           <span aria-hidden="true">✓ </span>No beam above the MPE leaves the table{weak.length > 0 ? `; ${weak.length} weaker beam${weak.length === 1 ? "" : "s"} (within the MPE) do.` : "."}
         </p>
