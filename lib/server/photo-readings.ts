@@ -31,6 +31,10 @@ export async function readBuildPhoto(
   authorize(actor, { build: ["record"] });
   const { build, revision } = await loadBuild(db, actor, buildId);
   assertRecordable(build, revision);
+  if ((revision.document as { version: number }).version !== 1) {
+    // A table plan (version 2) has no single rail to move the screen along; the reader takes a straight bench.
+    throw new AppError("bad-request", "Screen photos can be read for benches drawn on a rail; this revision is a table plan, so record what the screen shows by hand.", [{ path: "apertureId", message: "Not a rail bench" }]);
+  }
   const predictions = predictionsFor(revision.document);
   const aperture = predictions.apertures.find((a) => a.apertureId === input.apertureId);
   if (!aperture) {
