@@ -111,6 +111,18 @@ describe("a table bench's draft", () => {
   });
 });
 
+describe("the screen pattern behind an aperture of a table", () => {
+  it("POST /api/analyze/profile answers for the iris on the splitter's arm, and names a dark aperture in words", async () => {
+    const res = await call("POST", "/api/analyze/profile", researcher, { document: foldedTable(), apertureId: "iris", points: 40 });
+    expect(res.status, res.text).toBe(200);
+    expect(res.json).toMatchObject({ pathId: "p3", screenId: "screen" });
+    expect((res.json!.radiusMm as number[]).length).toBe(40);
+    const unknown = await call("POST", "/api/analyze/profile", researcher, { document: foldedTable(), apertureId: "nowhere" });
+    expect(unknown.status).toBe(400);
+    expect(String((unknown.json!.error as { message: string }).message)).toMatch(/No light reaches an aperture "nowhere"/);
+  });
+});
+
 describe("a rail bench (version 1) beside it", () => {
   // The content hash of this drawing computed by the first canonical JSON (before version 2 existed): it must not move.
   const pinned = "a6c2c8f4654499bb534f2adafe827879cd4a37d9be01cdd7506aa457e23153e3";
