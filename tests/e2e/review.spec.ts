@@ -1,6 +1,7 @@
 // The sign-off cycle in chromium: a researcher sends a bench for review, the officer's e-mail arrives
 // in the mail catcher, the officer finds it in the queue, reads the review screen and signs off with a
 // condition and the password; the researcher then sees it signed off, the technician sees it to build.
+import AxeBuilder from "@axe-core/playwright";
 import { expect as baseExpect, test, type Browser, type Page } from "@playwright/test";
 import pg from "pg";
 import { call, DEMO, DEMO_PASSWORD, signIn, waitForMail } from "../support/http";
@@ -147,4 +148,8 @@ test("the review screen of a table shows the plan, its hazard zone, the open bea
   await expect(officer.getByTestId("final-say").first()).toBeVisible();
   await officer.screenshot({ path: `${shots}/review-table-screen.png`, fullPage: true });
   await plan.screenshot({ path: `${shots}/review-table-plan.png` });
+  // no serious accessibility problem on the table's review screen (axe, WCAG 2.1 A and AA)
+  const results = await new AxeBuilder({ page: officer }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
+  const bad = results.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
+  expect(bad.map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(" ")).join(" | ")}`)).toEqual([]);
 });
