@@ -205,7 +205,7 @@ describe("a table through review, sign-off, the build sheet and a build", () => 
     expect(html).toContain("Class 3B");
   });
 
-  it("is signed off, and the summary kept with the signature names the laser, the paths and the open beam", async () => {
+  it("is signed off, and the summary kept with the signature names the laser, the paths and the open beam", { timeout: 90_000 }, async () => {
     const res = await call("POST", `/api/revisions/${revisionId}/decision`, officer, { outcome: "approve", contentHash: hash, password: DEMO_PASSWORD, conditions: "Block the splitter's back arm before switching on" });
     expect(res.status, res.text).toBe(201);
     const review = await call("GET", `/api/revisions/${revisionId}`, officer);
