@@ -1,4 +1,5 @@
 import { defineConfig } from "@playwright/test";
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from "./lib/chromium";
 
 // End-to-end tests in Debian's chromium (never a downloaded browser), against the production
 // server that scripts/test.ts starts on APP_URL. One worker: this machine has two cores.
@@ -14,17 +15,8 @@ export default defineConfig({
     viewport: { width: 1280, height: 860 },
     trace: "retain-on-failure",
     launchOptions: {
-      executablePath: "/usr/bin/chromium",
-      args: [
-        "--no-sandbox",
-        "--disable-gpu",
-        "--disable-dev-shm-usage",
-        "--disable-background-networking",
-        "--disable-component-update",
-        "--disable-sync",
-        "--disable-quic",
-        "--no-first-run",
-      ],
+      executablePath: CHROMIUM_PATH,
+      args: CHROMIUM_ARGS,
     },
   },
 });

@@ -497,6 +497,36 @@ export const upload = pgTable(
   (t) => [index("upload_build_idx").on(t.buildId)],
 );
 
+/**
+ * A screen photo read against the revision's prediction (readScreenPhoto): what was fitted, or the sentence saying why
+ * the photo could not be read. A reading that is compared also records its build_observation (mismatch, reasons, e-mail).
+ */
+export const photoReading = pgTable(
+  "photo_reading",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    buildId: uuid("build_id")
+      .notNull()
+      .references(() => buildRecord.id, { onDelete: "cascade" }),
+    uploadId: uuid("upload_id")
+      .notNull()
+      .references(() => upload.id, { onDelete: "cascade" }),
+    apertureId: text("aperture_id").notNull(),
+    /** The observation this reading recorded; null when the photo was refused. */
+    observationId: uuid("observation_id").references(() => buildObservation.id, { onDelete: "set null" }),
+    /** Why the photo could not be read, in a sentence; null when it was. */
+    refusal: text("refusal"),
+    /** The fitted values, the prediction compared with, and the profiles for the plot (lib/api/contracts/builds.ts PhotoReadingResult). */
+    result: jsonb("result").$type<Record<string, unknown>>(),
+    predictionEngine: text("prediction_engine").notNull(),
+    readBy: text("read_by")
+      .notNull()
+      .references(() => user.id),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("photo_reading_build_idx").on(t.buildId), uniqueIndex("photo_reading_upload_aperture_idx").on(t.uploadId, t.apertureId)],
+);
+
 // ── Eyewear on the lab's shelf: laser protective eyewear, each with its protected bands ─────
 /** One pair (or model) of laser protective eyewear a lab keeps. */
 export const eyewearItem = pgTable(

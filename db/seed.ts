@@ -1,15 +1,22 @@
 // Demo data, loaded once by `npm start` (skipped when the demo labs already exist). An invented
 // scenario: the Department of Applied Optics at Northmere University; no real people or places.
-import { randomUUID } from "node:crypto";
+import { createHash, randomUUID } from "node:crypto";
 import { hashPassword } from "better-auth/crypto";
 import { eq } from "drizzle-orm";
 import type { Database } from "@/db";
-import { account, auditEvent, bench, benchRevision, eyewearBand, eyewearItem, lab, labMember, reviewDecision, user, type ReviewState, type SafetyStandard } from "@/db/schema";
+import { account, auditEvent, bench, benchRevision, buildObservation, buildRecord, eyewearBand, eyewearItem, lab, labMember, photoReading, reviewDecision, upload, user, type ReviewState, type SafetyStandard } from "@/db/schema";
 import { endOfDayInZone } from "@/lib/format/date";
 import { hazardSummary } from "@/lib/review/hazard";
 import { contentHash } from "@/lib/bench/canonical";
 import type { AnyBenchDocument, BenchDocument, BenchDocumentV2 } from "@/lib/bench/schema";
 import type { RoleName } from "@/lib/auth/permissions";
+import { createStorage, type ObjectStore } from "@/lib/storage";
+import { comparePhoto, photoSummary } from "@/lib/build/photo-rules";
+import { predictionsFor } from "@/lib/build/rules";
+import { readScreenPhoto } from "@/lib/optics";
+import { OPTICS_ENGINE_VERSION } from "@/lib/optics/version";
+import { decodePhoto } from "@/lib/server/photo-decode";
+import { DEMO_PHOTOS, demoPhotoBytes } from "./demo-photos";
 
 export const DEMO_PASSWORD = "northmere-demo-2026";
 
@@ -118,6 +125,7 @@ export const twoLaserTable: BenchDocumentV2 = {
 };
 
 const OFFICER_EMAIL = "officer@northmere.example.edu";
+const TECHNICIAN_EMAIL = "technician@northmere.example.edu";
 const DAY_MS = 86_400_000;
 
 /** What the officer decided on a seeded revision, as the review workflow would have recorded it. */
@@ -172,7 +180,8 @@ const DEMO_BENCHES: { lab: LabKey; author: string; doc: AnyBenchDocument; states
 ];
 
 /** Loads the demo data unless it is already there. Returns true when it loaded something. */
-export async function seedDemo(db: Database): Promise<boolean> {
+export async function seedDemo(db: Database, store: ObjectStore = createStorage(process.env as Parameters<typeof createStorage>[0])): Promise<boolean> {
+  const written: string[] = [];
   const existing = await db.select({ id: lab.id }).from(lab).where(eq(lab.name, DEMO_LABS[0].name));
   if (existing.length > 0) return false;
 
@@ -195,6 +204,7 @@ export async function seedDemo(db: Database): Promise<boolean> {
       await tx.insert(account).values({ id: randomUUID(), accountId: id, providerId: "credential", userId: id, password: passwordHash });
       for (const key of u.labs) await tx.insert(labMember).values({ labId: labIds.get(key)!, userId: id });
     }
+    let demoBuildOf: DemoBuildOf | null = null;
     for (const b of DEMO_BENCHES) {
       const authorId = userIds.get(b.author)!;
       const [row] = await tx
@@ -242,6 +252,7 @@ export async function seedDemo(db: Database): Promise<boolean> {
                 decidedAt,
               })
               .returning({ id: reviewDecision.id });
+            if (decided.outcome === "approved" && b.doc === heNeZones) demoBuildOf = { benchId: row.id, revisionId: revision.id, contentHash: hash, doc: b.doc, authorId, startAt: new Date(decidedAt.getTime() + 2 * DAY_MS) };
             await audit(decidedAt, officerId, "officer", `review-${decided.outcome}`, {
               from: "submitted",
               to: decided.outcome,
@@ -258,6 +269,84 @@ export async function seedDemo(db: Database): Promise<boolean> {
         number += 1;
       }
     }
+    if (demoBuildOf) await seedDemoBuild(tx, store, demoBuildOf, userIds.get(TECHNICIAN_EMAIL)!, written);
+  }).catch(async (error: unknown) => {
+    for (const key of written) await store.delete(key).catch(() => undefined); // nothing is kept without its row
+    throw error;
   });
   return true;
+}
+
+type DemoBuildOf = { benchId: string; revisionId: string; contentHash: string; doc: BenchDocument; authorId: string; startAt: Date };
+type Tx = Parameters<Parameters<Database["transaction"]>[0]>[0];
+
+/**
+ * The demo technician's build of the signed-off HeNe bench, in progress, with the generated screen photos
+ * (db/demo-photos.ts) kept as uploads; the photo of the screen as drawn is already read (it matches), the others wait
+ * for a visitor to press "Read the pattern". No e-mail is queued: nothing in the demo differs from its prediction yet.
+ */
+async function seedDemoBuild(tx: Tx, store: ObjectStore, of: DemoBuildOf, technicianId: string, written: string[]): Promise<void> {
+  const apertureId = "iris-1";
+  const aperture = predictionsFor(of.doc).apertures.find((a) => a.apertureId === apertureId);
+  if (!aperture || !aperture.screenId || aperture.observationDistanceMm === null) throw new Error(`the demo bench has no screen behind ${apertureId}`);
+  const screenAperture = { ...aperture, screenId: aperture.screenId, observationDistanceMm: aperture.observationDistanceMm };
+  const at = (hours: number) => new Date(of.startAt.getTime() + hours * 3_600_000);
+  const [build] = await tx
+    .insert(buildRecord)
+    .values({ revisionId: of.revisionId, benchId: of.benchId, contentHash: of.contentHash, technicianId, createdAt: at(0), updatedAt: at(0) })
+    .returning({ id: buildRecord.id });
+  const audit = (when: Date, action: string, detail: Record<string, unknown>) =>
+    tx.insert(auditEvent).values({ at: when, actorId: technicianId, actorRole: "technician", action, benchId: of.benchId, revisionId: of.revisionId, contentHash: of.contentHash, detail: { ...detail, seeded: true } });
+  await audit(at(0), "build-started", { buildId: build.id });
+  for (const [i, photo] of DEMO_PHOTOS.entries()) {
+    const bytes = demoPhotoBytes(of.doc, apertureId, aperture.screenId, photo);
+    const id = randomUUID();
+    const key = `uploads/${build.id}/${id}.${photo.extension}`;
+    const sha256 = createHash("sha256").update(bytes).digest("hex");
+    await store.put(key, bytes, photo.contentType);
+    written.push(key);
+    await tx.insert(upload).values({ id, buildId: build.id, kind: "screen-photo", fileName: photo.fileName, contentType: photo.contentType, sizeBytes: bytes.length, sha256, storageKey: key, uploadedBy: technicianId, createdAt: at(1 + i) });
+    await audit(at(1 + i), "build-upload-stored", { buildId: build.id, uploadId: id, kind: "screen-photo", fileName: photo.fileName, contentType: photo.contentType, sizeBytes: bytes.length, sha256 });
+    if (!photo.readInSeed) continue;
+    const decoded = await decodePhoto(bytes);
+    const { result, reasons, prediction } = comparePhoto(of.doc, screenAperture, readScreenPhoto(decoded, { doc: of.doc, apertureId }), decoded);
+    const note = photoSummary(photo.fileName, prediction, result);
+    const [observation] = await tx
+      .insert(buildObservation)
+      .values({
+        buildId: build.id,
+        apertureId,
+        centreSeen: result.centre,
+        centrePredicted: aperture.centre,
+        predictedSpotDiameterMm: aperture.spotDiameterMm,
+        predictedScreenPowerMw: aperture.screenPowerMw,
+        predictionEngine: OPTICS_ENGINE_VERSION,
+        reasons,
+        mismatch: reasons.length > 0,
+        note,
+        recordedBy: technicianId,
+        createdAt: at(1.5 + i),
+      })
+      .returning({ id: buildObservation.id });
+    const [reading] = await tx
+      .insert(photoReading)
+      .values({ buildId: build.id, uploadId: id, apertureId, observationId: observation.id, result, predictionEngine: OPTICS_ENGINE_VERSION, readBy: technicianId, createdAt: at(1.5 + i) })
+      .returning({ id: photoReading.id });
+    await audit(at(1.5 + i), "build-photo-read", {
+      buildId: build.id,
+      photoReadingId: reading.id,
+      uploadId: id,
+      fileName: photo.fileName,
+      apertureId,
+      refusal: null,
+      zoneCount: result.zoneCount,
+      predictedZoneCount: result.predictedZoneCount,
+      centreSeen: result.centre,
+      centrePredicted: result.centrePredicted,
+      screenDistanceMm: result.screenDistanceMm,
+      drawnDistanceMm: result.drawnDistanceMm,
+      quality: result.quality,
+    });
+    await audit(at(1.5 + i), "build-observation-recorded", { buildId: build.id, observationId: observation.id, photoReadingId: reading.id, uploadId: id, apertureId, centreSeen: result.centre, centrePredicted: aperture.centre, spotDiameterMm: null, screenPowerMw: null, mismatch: reasons.length > 0, reasons });
+  }
 }

@@ -8,6 +8,7 @@
 import { pathToFileURL } from "node:url";
 import { gzipSync } from "node:zlib";
 import { chromium } from "playwright-core";
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from "../lib/chromium";
 
 type Figure = { name: string; value: number; unit: string; target: string };
 type Cookie = { name: string; value: string };
@@ -18,16 +19,6 @@ const DRAG_MS = 2000;
 const TARGET_MS = 16.7;
 const RAIL_Y_PX = 190; // the optical axis inside the drawing (components/editor/bench-canvas.tsx)
 const VIEWPORT = { width: 1280, height: 860 };
-const CHROMIUM_ARGS = [
-  "--no-sandbox",
-  "--disable-gpu",
-  "--disable-dev-shm-usage",
-  "--disable-background-networking",
-  "--disable-component-update",
-  "--disable-sync",
-  "--disable-quic",
-  "--no-first-run",
-];
 
 function cookieList(cookie: Cookie[] | string): Cookie[] {
   if (typeof cookie !== "string") return cookie;
@@ -93,7 +84,7 @@ export async function runEditorBench(appUrl: string, cookie: Cookie[] | string):
   const cookieHeader = cookies.map((c) => `${c.name}=${c.value}`).join("; ");
   const benchId = await createBench(base, cookieHeader);
 
-  const browser = await chromium.launch({ executablePath: "/usr/bin/chromium", args: CHROMIUM_ARGS });
+  const browser = await chromium.launch({ executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS });
   try {
     const context = await browser.newContext({ viewport: VIEWPORT });
     await context.addCookies(cookies.map((c) => ({ name: c.name, value: c.value, url: base })));

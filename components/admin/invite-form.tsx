@@ -4,7 +4,8 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
-import { apiFetch, ApiError, fieldError } from "@/lib/api/client";
+import { apiFetch, ApiError, checkBeforeSending, fieldError } from "@/lib/api/client";
+import { inviteInput } from "@/lib/api/contracts/people";
 import { ROLE_LABELS, ROLES, type RoleName } from "@/lib/auth/permissions";
 
 export function InviteForm({ labs }: { labs: { id: string; name: string }[] }) {
@@ -14,7 +15,10 @@ export function InviteForm({ labs }: { labs: { id: string; name: string }[] }) {
   const [roles, setRoles] = useState<RoleName[]>(["researcher"]);
   const [labIds, setLabIds] = useState<string[]>([]);
   const invite = useMutation({
-    mutationFn: () => apiFetch<{ id: string }>("/api/invitations", { method: "POST", body: JSON.stringify({ email, name, roles, labIds }) }),
+    mutationFn: async () => {
+      checkBeforeSending(inviteInput, { email, name, roles, labIds });
+      return apiFetch<{ id: string }>("/api/invitations", { method: "POST", body: JSON.stringify({ email, name, roles, labIds }) });
+    },
     onSuccess: () => {
       setEmail("");
       setName("");

@@ -4,14 +4,18 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
-import { apiFetch, ApiError, fieldError } from "@/lib/api/client";
+import { apiFetch, ApiError, checkBeforeSending, fieldError } from "@/lib/api/client";
+import { createLabInput } from "@/lib/api/contracts/people";
 
 export function LabForm() {
   const router = useRouter();
   const [name, setName] = useState("");
   const [room, setRoom] = useState("");
   const create = useMutation({
-    mutationFn: () => apiFetch("/api/labs", { method: "POST", body: JSON.stringify({ name, room }) }),
+    mutationFn: async () => {
+      checkBeforeSending(createLabInput, { name, room });
+      return apiFetch("/api/labs", { method: "POST", body: JSON.stringify({ name, room }) });
+    },
     onSuccess: () => {
       setName("");
       setRoom("");

@@ -3,7 +3,8 @@ import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
-import { apiFetch, ApiError } from "@/lib/api/client";
+import { apiFetch, ApiError, checkBeforeSending } from "@/lib/api/client";
+import { rolesInput } from "@/lib/api/contracts/people";
 import { ROLE_LABELS, ROLES, type RoleName } from "@/lib/auth/permissions";
 
 /** Roles, deactivation and reactivation for one person; the server refuses what would lock the institution out. */
@@ -15,7 +16,7 @@ export function PersonActions({ person, isSelf }: { person: { id: string; name: 
     setOpen(false);
     router.refresh();
   };
-  const saveRoles = useMutation({ mutationFn: () => apiFetch(`/api/admin/people/${person.id}/roles`, { method: "PUT", body: JSON.stringify({ roles }) }), onSuccess: done });
+  const saveRoles = useMutation({ mutationFn: async () => apiFetch(`/api/admin/people/${person.id}/roles`, { method: "PUT", body: JSON.stringify(checkBeforeSending(rolesInput, { roles })) }), onSuccess: done });
   const deactivate = useMutation({ mutationFn: () => apiFetch(`/api/admin/people/${person.id}/deactivate`, { method: "POST", body: JSON.stringify({}) }), onSuccess: done });
   const reactivate = useMutation({ mutationFn: () => apiFetch(`/api/admin/people/${person.id}/reactivate`, { method: "POST", body: JSON.stringify({}) }), onSuccess: done });
   const error = [saveRoles.error, deactivate.error, reactivate.error].find((e) => e instanceof ApiError);

@@ -26,7 +26,7 @@ export function SignInForm() {
     setBusy(false);
     if (failure) {
       // One sentence for every wrong-credential case: no hint whether the account exists.
-      setError(failure.status === 429 ? "Too many attempts. Wait a minute, then try again." : "Wrong e-mail or password.");
+      setError(failure.status === 429 ? refusalOf(failure) : "Wrong e-mail or password.");
       return;
     }
     router.replace(callback);
@@ -52,4 +52,10 @@ export function SignInForm() {
       </a>
     </form>
   );
+}
+
+/** The server's own sentence for a refused sign-in (it names the wait); the longest wait when it gives none. */
+function refusalOf(failure: { message?: string; error?: { message?: string } }): string {
+  const message = failure.error?.message ?? failure.message ?? "";
+  return /^Too many wrong/.test(message) ? message : "Too many attempts. Wait up to 15 minutes, then try again.";
 }

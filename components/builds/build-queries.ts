@@ -2,7 +2,7 @@
 // browser. Every mutation answers with the whole build, which replaces the cached one.
 import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiFetch, queryKeys } from "@/lib/api/client";
-import type { BuildView, ObservationView } from "@/lib/api/contracts/builds";
+import type { BuildView, ObservationView, PhotoReadingView } from "@/lib/api/contracts/builds";
 
 export type { BuildView, ObservationView };
 
@@ -45,4 +45,11 @@ export function useUpload(buildId: string) {
     form.set("kind", input.kind);
     return apiFetch<{ build: BuildView }>(`/api/builds/${buildId}/uploads`, { method: "POST", body: form });
   });
+}
+
+/** Reads an uploaded screen photo against the prediction behind one aperture. */
+export function usePhotoReading(buildId: string) {
+  return useBuildMutation(buildId, (input: { uploadId: string; apertureId: string }) =>
+    apiFetch<{ build: BuildView; reading: PhotoReadingView; created: boolean }>(`/api/builds/${buildId}/photo-reading`, { method: "POST", body: JSON.stringify(input) }),
+  );
 }

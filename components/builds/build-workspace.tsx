@@ -11,6 +11,7 @@ import type { CoverageData } from "@/components/eyewear/coverage-list";
 import { Checklist } from "./checklist";
 import { ObservationForm } from "./observation-form";
 import { UploadForm } from "./upload-form";
+import { ScreenPhotos } from "./photo-reading";
 
 export type PredictionImages = Record<string, { ringPng: string | null; profile: { radiusMm: number[]; relativeIntensity: number[]; shadowRadiusMm: number } | null; acrossMm: number | null }>;
 
@@ -83,14 +84,14 @@ export function BuildWorkspace({ buildId, images, eyewear = null }: { buildId: s
       <section aria-labelledby="seen-heading" className="flex flex-col gap-4">
         <h2 id="seen-heading" className="text-xl font-semibold">What you saw, beside the prediction</h2>
         <p className="text-muted">
-          A diameter more than {build.tolerance.spotPercent} % or a power more than {build.tolerance.powerPercent} % away from the prediction, or a centre of the other brightness, is flagged as a mismatch and e-mailed to the bench&apos;s author.
+          A diameter more than {build.tolerance.spotPercent} % or a power more than {build.tolerance.powerPercent} % away from the prediction, or a centre of the other brightness, is flagged as a mismatch and e-mailed to the bench&apos;s author. Upload a photo of the screen and read its pattern: the zone count, centre and screen distance fitted to it are judged the same way.
         </p>
         {predictions.problem ? <p role="alert" className="rounded-md border border-warn p-3">The predictions cannot be computed: {predictions.problem}</p> : null}
         {predictions.apertures.map((a) => {
           const img = images[a.apertureId];
           return (
             <article key={a.apertureId} className="grid gap-4 rounded-xl border border-line bg-panel p-4 lg:grid-cols-2" data-testid={`aperture-${a.apertureId}`}>
-              <div className="flex flex-col gap-3">
+              <div className="flex min-w-0 flex-col gap-3">
                 <h3 className="text-lg font-semibold">
                   Predicted behind {a.apertureId} <span className="text-muted">(⌀ {a.diameterMm} mm{a.screenId ? `, on ${a.screenId}` : ""})</span>
                 </h3>
@@ -120,9 +121,8 @@ export function BuildWorkspace({ buildId, images, eyewear = null }: { buildId: s
                   ) : null}
                 </div>
               </div>
-              <div className="flex flex-col gap-3">
+              <div className="flex min-w-0 flex-col gap-3">
                 <h3 className="text-lg font-semibold">Seen</h3>
-                <Uploads uploads={screenUploads} />
                 <ul className="flex flex-col gap-2">
                   {build.observations
                     .filter((o) => o.apertureId === a.apertureId)
@@ -137,6 +137,12 @@ export function BuildWorkspace({ buildId, images, eyewear = null }: { buildId: s
                   </>
                 ) : null}
               </div>
+              {screenUploads.length ? (
+                <div className="flex min-w-0 flex-col gap-2 lg:col-span-2">
+                  <h3 className="text-lg font-semibold">Photos of the screen behind {a.apertureId}</h3>
+                  <ScreenPhotos build={build} apertureId={a.apertureId} />
+                </div>
+              ) : null}
             </article>
           );
         })}
@@ -146,7 +152,7 @@ export function BuildWorkspace({ buildId, images, eyewear = null }: { buildId: s
               <h3 className="text-lg font-semibold">Predicted on {predictions.screen.screenId}</h3>
               <p>Beam diameter {fmt(predictions.screen.beamDiameterMm)} mm (1/e²), power {fmt(predictions.screen.powerMw)} mW.</p>
             </div>
-            <div className="flex flex-col gap-3">
+            <div className="flex min-w-0 flex-col gap-3">
               <Uploads uploads={screenUploads} />
               <ul className="flex flex-col gap-2">
                 {build.observations.filter((o) => o.apertureId === null).map((o) => <ObservationItem key={o.id} o={o} />)}

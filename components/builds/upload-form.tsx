@@ -36,9 +36,9 @@ export function UploadForm({ buildId, defaultKind = "screen-photo", id }: { buil
             ))}
           </select>
         </label>
-        <label className="flex flex-col gap-1 text-sm text-muted">
+        <label className="flex min-w-0 max-w-full flex-col gap-1 text-sm text-muted">
           File (PNG, JPEG or PDF, at most 10 MB)
-          <input ref={fileRef} type="file" accept="image/png,image/jpeg,application/pdf" className="min-h-11 text-base text-text" aria-label={`File to upload (${id})`} />
+          <input ref={fileRef} type="file" accept="image/png,image/jpeg,application/pdf" className="min-h-11 max-w-full text-base text-text" aria-label={`File to upload (${id})`} />
         </label>
         <Button type="submit" variant="quiet" disabled={upload.isPending}>
           {upload.isPending ? "Uploading…" : "Upload"}

@@ -139,10 +139,20 @@ export function eventDetail(action: string, detail: unknown): string | null {
   }
   if (action === "build-observation-recorded") {
     const parts = [d.mismatch ? "✕ Mismatch with the prediction" : "✓ Matches the prediction"];
+    if (d.photoReadingId) parts.push("read from a screen photo");
     if (d.apertureId) parts.push(`behind ${String(d.apertureId)}`);
     if (d.centreSeen) parts.push(`centre seen: ${centreWords(d.centreSeen === "unclear" ? "between" : String(d.centreSeen))} (predicted ${centreWords(d.centrePredicted as string | null)})`);
     if (Array.isArray(d.reasons) && d.reasons.length) parts.push(d.reasons.join(" "));
     return parts.join("; ");
+  }
+  if (action === "build-photo-read") {
+    const file = typeof d.fileName === "string" ? `“${d.fileName}”` : "the photo";
+    if (typeof d.refusal === "string" && d.refusal) return `${file} behind ${String(d.apertureId ?? "—")} could not be read: ${d.refusal}`;
+    const parts = [`${file} behind ${String(d.apertureId ?? "—")}`];
+    if (typeof d.zoneCount === "number") parts.push(`${formatNumber(d.zoneCount)} half-period zones (predicted ${formatNumber(d.predictedZoneCount as number)})`);
+    if (d.centreSeen) parts.push(centreWords(String(d.centreSeen)));
+    if (typeof d.screenDistanceMm === "number") parts.push(`screen about ${formatNumber(d.screenDistanceMm, { digits: 4 })} mm behind the aperture (drawn ${formatNumber(d.drawnDistanceMm as number, { digits: 4 })} mm)`);
+    return parts.join(", ");
   }
   return null;
 }

@@ -32,7 +32,10 @@ export function FinderPanel({ apertureId, current = null, range, data, stale, lo
   const verb = range?.screenId ? "Move the screen here" : "Put a screen here";
   // each row under the heading of the centre it predicts, so heading and rows always agree
   const all = data ? [...data.bright.slice(0, FINDER_SHOWN), ...data.dark.slice(0, FINDER_SHOWN)] : [];
-  const byCentre = (centre: "bright" | "dark" | "between") => all.filter((c) => c.centre === centre);
+  // A place where the screen already stands is listed once, as "where it stands now", not again as a candidate.
+  const standsThere = (c: ScreenCandidate) =>
+    Boolean(current && range?.screenId && c.centre === current.centre && Math.abs(screenTarget(c) - current.positionMm) <= Math.max(c.toleranceMm, 0.5));
+  const byCentre = (centre: "bright" | "dark" | "between") => all.filter((c) => c.centre === centre && !standsThere(c));
   const here = (centre: "bright" | "dark" | "between") =>
     current && current.centre === centre && range?.screenId ? (
       <li className="flex flex-wrap items-center gap-x-3 gap-y-1 rounded-md border border-accent px-2 py-1.5" data-testid="finder-current" data-centre={current.centre}>
@@ -51,7 +54,7 @@ export function FinderPanel({ apertureId, current = null, range, data, stale, lo
       <h4 className="mb-1 text-sm font-semibold">{HEADINGS[goal]}</h4>
       {here(goal)}
       {candidates.length === 0 ? (
-        <p className="text-sm text-muted">None in the searched stretch.</p>
+        <p className="text-sm text-muted">{here(goal) ? "No other place in the searched stretch." : "None in the searched stretch."}</p>
       ) : (
         <ul className="flex flex-col gap-1.5" data-testid={`finder-${goal}`}>
           {candidates.slice(0, FINDER_SHOWN).map((c, i) => (

@@ -87,18 +87,30 @@ export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocum
     );
   }, [validity, key, base, save, settle]);
 
-  // A copy of an unsaved drawing stays in this browser until the server has it (unsaved-copy.ts).
+  // A copy of an unsaved drawing stays in this browser until the server has it (unsaved-copy.ts). The copy is
+  // forgotten only once this page has held a change and the server has it, and never while the page is being left:
+  // - on opening the page the copy still waits to be restored (the editor reads it after this effect has run);
+  // - a save that lands while a reload is under way may land after the new page has read the draft, so that page
+  //   must still find the copy (based on the version it read) to put the change back. A copy the server already
+  //   holds is harmless: its base version is older than the draft's, and the editor then drops it.
+  const heldChange = useRef(false);
+  const leaving = useRef(false);
   useEffect(() => {
     if (!canEdit) return;
-    if (dirty) keepUnsaved(benchId, { document: doc, baseRevision: base.revisionNumber, baseVersion: base.version, key, savedAtMs: Date.now() });
-    else forgetUnsaved(benchId);
+    if (dirty) {
+      heldChange.current = true;
+      keepUnsaved(benchId, { document: doc, baseRevision: base.revisionNumber, baseVersion: base.version, key, savedAtMs: Date.now() });
+    } else if (heldChange.current && !leaving.current) forgetUnsaved(benchId);
   }, [canEdit, dirty, doc, key, base.revisionNumber, base.version, benchId]);
 
   // Leaving the page: send what is pending at once (keepalive outlives the page). Returns false when it cannot be
   // sent (an incomplete drawing, an open conflict), so the browser asks before the page goes.
   const flushOnLeave = useCallback((): boolean => {
+    leaving.current = true;
     const l = latest.current;
     if (!l.canEdit || !l.dirty) return true;
+    // The browser's copy first, synchronously: whatever happens to the request below, the change is kept here.
+    if (l.document) keepUnsaved(benchId, { document: l.document, baseRevision: l.base.revisionNumber, baseVersion: l.base.version, key: l.key, savedAtMs: Date.now() });
     if (!l.document || l.conflict) return false;
     if (sentOnLeave.current === l.key) return true;
     sentOnLeave.current = l.key;
@@ -117,6 +129,10 @@ export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocum
   useEffect(() => {
     const onHidden = () => {
       if (document.visibilityState === "hidden") flushOnLeave();
+      else leaving.current = false; // back on this page (another tab was shown, or a leave was cancelled)
+    };
+    const onPageShow = () => {
+      leaving.current = false;
     };
     const onPageHide = () => flushOnLeave();
     const onBeforeUnload = (event: BeforeUnloadEvent) => {
@@ -127,10 +143,12 @@ export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocum
     };
     document.addEventListener("visibilitychange", onHidden);
     window.addEventListener("pagehide", onPageHide);
+    window.addEventListener("pageshow", onPageShow);
     window.addEventListener("beforeunload", onBeforeUnload);
     return () => {
       document.removeEventListener("visibilitychange", onHidden);
       window.removeEventListener("pagehide", onPageHide);
+      window.removeEventListener("pageshow", onPageShow);
       window.removeEventListener("beforeunload", onBeforeUnload);
     };
   }, [flushOnLeave]);

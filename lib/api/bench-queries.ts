@@ -93,6 +93,9 @@ export type SaveDraftRequest = { document: AnyBenchDocument; baseRevision: numbe
 export type SaveDraftOutcome = { kind: "saved"; draft: DraftView; createdRevision: boolean } | { kind: "conflict"; current: DraftView; message: string };
 
 /** PUT the draft. A 409 is an answer (the server's draft), not an error; other failures throw ApiError (status 0 = offline). */
+/** A save that has not answered after this long is taken as not arrived: the change stays here and is sent again. */
+export const SAVE_TIMEOUT_MS = 20_000;
+
 export async function putDraft(benchId: string, request: SaveDraftRequest, options: { keepalive?: boolean } = {}): Promise<SaveDraftOutcome> {
   try {
     const body = await apiFetch<{ draft: DraftView; createdRevision?: boolean }>(`/api/benches/${benchId}/draft`, {
@@ -100,6 +103,7 @@ export async function putDraft(benchId: string, request: SaveDraftRequest, optio
       body: json(request),
       // keepalive: a save sent while the page is being left still reaches the server
       keepalive: options.keepalive,
+      timeoutMs: SAVE_TIMEOUT_MS,
       offlineMessage: "The server cannot be reached. Your changes are kept here and saved when it answers.",
     });
     return { kind: "saved", draft: body.draft, createdRevision: Boolean(body.createdRevision) };

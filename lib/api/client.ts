@@ -20,14 +20,17 @@ type ErrorBody = { error?: { message?: string; fields?: FieldProblem[] } } & Rec
  * Calls a route and returns its JSON; any non-2xx answer throws ApiError (status 0 when the server cannot be
  * reached, with `offlineMessage`). A JSON body is sent with its content type; a FormData body as multipart.
  */
-export async function apiFetch<T>(url: string, init?: RequestInit & { offlineMessage?: string }): Promise<T> {
-  const { offlineMessage, ...rest } = init ?? {};
+export async function apiFetch<T>(url: string, init?: RequestInit & { offlineMessage?: string; timeoutMs?: number }): Promise<T> {
+  const { offlineMessage, timeoutMs, ...rest } = init ?? {};
   const isForm = typeof FormData !== "undefined" && rest.body instanceof FormData;
+  // A request that never answers (a dead connection) counts as "cannot be reached" after timeoutMs, so the caller
+  // can keep the change and try again rather than wait for ever.
+  const signal = timeoutMs && !rest.signal ? AbortSignal.timeout(timeoutMs) : rest.signal;
   let response: Response;
   try {
-    response = await fetch(url, { ...rest, headers: isForm ? rest.headers : { "content-type": "application/json", ...rest.headers } });
+    response = await fetch(url, { ...rest, signal, headers: isForm ? rest.headers : { "content-type": "application/json", ...rest.headers } });
   } catch (error) {
-    if (error instanceof DOMException && error.name === "AbortError") throw error;
+    if (error instanceof DOMException && error.name === "AbortError" && !(timeoutMs && signal?.aborted)) throw error;
     throw new ApiError(offlineMessage ?? "The server cannot be reached. Check the connection and try again.", 0, []);
   }
   const body = (await response.json().catch(() => null)) as ErrorBody | null;
@@ -36,6 +39,18 @@ export async function apiFetch<T>(url: string, init?: RequestInit & { offlineMes
     throw new ApiError(error?.message ?? `The server answered ${response.status}.`, response.status, error?.fields ?? [], extra);
   }
   return body as T;
+}
+
+/**
+ * The body a form is about to send, checked in the browser with the same shared schema the route uses (lib/api/
+ * contracts): a problem comes back as the ApiError the server would have answered, with the same field names and
+ * sentences, before anything is sent. Returns the body as the schema reads it.
+ */
+export function checkBeforeSending<T>(schema: { safeParse: (value: unknown) => { success: true; data: T } | { success: false; error: { issues: { path: PropertyKey[]; message: string }[] } } }, value: unknown): T {
+  const parsed = schema.safeParse(value);
+  if (parsed.success) return parsed.data;
+  const fields = parsed.error.issues.map((i) => ({ path: i.path.map(String).join(".") || "(body)", message: i.message }));
+  throw new ApiError(fields[0]?.message ?? "The form is not complete.", 400, fields);
 }
 
 /** The server's copy sent with a 409, when there is one. */

@@ -97,6 +97,7 @@ export const ACTION_WORDS: Record<string, string> = {
   "build-check-recorded": "Checklist line recorded",
   "build-observation-recorded": "Observation recorded",
   "build-upload-stored": "Photo or file uploaded",
+  "build-photo-read": "Screen photo read",
   "build-signed-off": "Build completed",
   "desk-exported-trail": "Trail exported",
 };

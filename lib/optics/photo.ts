@@ -57,7 +57,15 @@ export type ScreenPhotoReading = {
   ringRadiiPx: number[];
   quality: number;
   /** The photo's profile and the fitted model, for plotting: radius on the screen (mm), both in the photo's 0–255 levels. */
-  profile: { radiusMm: number[]; measuredLevel: number[]; fittedLevel: number[] };
+  profile: {
+    radiusMm: number[];
+    measuredLevel: number[];
+    fittedLevel: number[];
+    /** The fitted tone curve: level = offset + gain · (blurred relative intensity)^gamma; blurPx the fitted blur. */
+    tone: { offset: number; gain: number; gamma: number; blurPx: number };
+    /** The edge of the aperture's geometric shadow at the fitted distance (mm on the screen; edge in pixels × mmPerPixel). */
+    shadowRadiusMm: number;
+  };
 };
 
 /** Less contrast than this (levels between the 0.5th and 99.5th percentile) is a blank photo. */
@@ -326,6 +334,8 @@ export function readScreenPhoto(image: PhotoImage, context: PhotoContext): Scree
       radiusMm: Array.from(sample.radiusPx, (r) => r * mmPerPixel),
       measuredLevel: Array.from(sample.level),
       fittedLevel: Array.from(fitted),
+      tone: { offset: final.fit.offset, gain: final.fit.gain, gamma: final.fit.gamma, blurPx: final.fit.blurPx },
+      shadowRadiusMm: final.model.shadowRadiusMm,
     },
   };
 }

@@ -6,19 +6,9 @@ import { mkdtemp, rm } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
 import puppeteer, { type Browser } from "puppeteer-core";
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from "@/lib/chromium";
 
-export const CHROMIUM_PATH = "/usr/bin/chromium";
-/** Chromium flags for a headless server with no network beyond loopback; --no-sandbox because the server may run as root. */
-export const CHROMIUM_ARGS = [
-  "--no-sandbox",
-  "--disable-gpu",
-  "--disable-dev-shm-usage",
-  "--disable-background-networking",
-  "--disable-component-update",
-  "--disable-sync",
-  "--disable-quic",
-  "--no-first-run",
-];
+export { CHROMIUM_ARGS, CHROMIUM_PATH };
 export const MAX_PAGES = 2;
 const IDLE_CLOSE_MS = 5 * 60 * 1000;
 

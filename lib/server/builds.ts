@@ -5,7 +5,7 @@ import "server-only";
 import { and, asc, desc, eq, inArray } from "drizzle-orm";
 import { z } from "zod";
 import type { Database, DbOrTx } from "@/db";
-import { bench, benchRevision, buildCheck, buildObservation, buildRecord, lab, reviewDecision, upload, user, type ReviewState } from "@/db/schema";
+import { bench, benchRevision, buildCheck, buildObservation, buildRecord, lab, photoReading, reviewDecision, upload, user, type ReviewState } from "@/db/schema";
 import type { AnyBenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { observationMismatchMail } from "@/lib/mail/build-mail";
@@ -17,7 +17,7 @@ import { assessAnyRevision } from "@/lib/review/hazard";
 import { OPTICS_ENGINE_VERSION } from "@/lib/optics/version";
 import { loadRevision } from "./reviews";
 import { inScope, notFoundAs } from "./scope";
-import type { BuildableRow, BuildView, CheckView, checkInput, ObservationView, observationInput, startBuildInput } from "@/lib/api/contracts/builds";
+import type { BuildableRow, BuildView, CheckView, checkInput, ObservationView, observationInput, PhotoReadingResult, PhotoReadingView, startBuildInput } from "@/lib/api/contracts/builds";
 
 // ── Signed-off revisions ──────────────────────────────────────────────────────────────────────
 export type SignedRevision = {
@@ -116,7 +116,7 @@ export async function loadBuild(db: DbOrTx, actor: Actor, buildId: string, lock 
 }
 
 /** An observation as recorded: the prediction and the sentences kept with it, never recomputed by a later engine. */
-function observationView(row: typeof buildObservation.$inferSelect, name: string): ObservationView {
+export function observationView(row: typeof buildObservation.$inferSelect, name: string): ObservationView {
   return {
     id: row.id,
     apertureId: row.apertureId,
@@ -204,8 +204,36 @@ export async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revis
       url: `/api/builds/${build.id}/uploads/${u.id}`,
     })),
     predictions,
+    photoReadings: await photoReadingViews(db, build.id),
     may: { record: mayRecord, signOff: why === null, whyNotSignOff: why },
   };
+}
+
+/** The screen photos read on a build, oldest first, with the observation each recorded. */
+export async function photoReadingViews(db: DbOrTx, buildId: string, readingId?: string): Promise<PhotoReadingView[]> {
+  const rows = await db
+    .select({ r: photoReading, fileName: upload.fileName, name: user.name, mismatch: buildObservation.mismatch, reasons: buildObservation.reasons })
+    .from(photoReading)
+    .innerJoin(upload, eq(upload.id, photoReading.uploadId))
+    .innerJoin(user, eq(user.id, photoReading.readBy))
+    .leftJoin(buildObservation, eq(buildObservation.id, photoReading.observationId))
+    .where(readingId ? and(eq(photoReading.buildId, buildId), eq(photoReading.id, readingId)) : eq(photoReading.buildId, buildId))
+    .orderBy(asc(photoReading.createdAt));
+  return rows.map(({ r, fileName, name, mismatch, reasons }) => ({
+    id: r.id,
+    uploadId: r.uploadId,
+    apertureId: r.apertureId,
+    fileName,
+    photoUrl: `/api/builds/${buildId}/uploads/${r.uploadId}`,
+    readByName: name,
+    createdAt: r.createdAt.toISOString(),
+    refusal: r.refusal,
+    result: (r.result as PhotoReadingResult | null) ?? null,
+    observationId: r.observationId,
+    mismatch: r.observationId ? (mismatch ?? null) : null,
+    reasons: reasons ?? [],
+    predictionEngine: r.predictionEngine,
+  }));
 }
 
 function canRecord(actor: Actor): boolean {

@@ -62,6 +62,28 @@ export function deskQueryFromParams(params: URLSearchParams | Record<string, str
   };
 }
 
+/**
+ * The desk page's reading of its address: a filter the desk cannot read is dropped and named, and every other
+ * filter is kept (the API, by contrast, refuses the whole query with 400).
+ */
+export function deskQueryKeepingGoodFilters(raw: unknown): { query: DeskQuery; dropped: { field: string; message: string }[] } {
+  const input = { ...(raw as Record<string, unknown>) };
+  const dropped: { field: string; message: string }[] = [];
+  for (let round = 0; round < 16; round++) {
+    const parsed = deskQuery.safeParse(input);
+    if (parsed.success) return { query: parsed.data, dropped };
+    const issue = parsed.error.issues[0];
+    const key = String(issue?.path[0] ?? "");
+    if (!key || !(key in input) || input[key] === undefined) break;
+    dropped.push({ field: ADDRESS_NAMES[key] ?? key, message: issue.message });
+    input[key] = undefined;
+  }
+  return { query: deskQuery.parse({}), dropped: dropped.length ? dropped : [{ field: "the address", message: "it could not be read" }] };
+}
+
+/** The name each query field has in the page's address (deskQueryFromParams reads them). */
+const ADDRESS_NAMES: Record<string, string> = { hazardClass: "class", expiringDays: "expiring" };
+
 // ── Approvals ─────────────────────────────────────────────────────────────────────────────────
 export type ApprovalRow = {
   decisionId: string;

@@ -6,7 +6,6 @@ import { createHash, randomBytes, randomUUID } from "node:crypto";
 import { hashPassword } from "better-auth/crypto";
 import { and, asc, eq, gt, isNull, sql } from "drizzle-orm";
 import { z } from "zod";
-import { safeText } from "@/lib/validation/text";
 import { type Database, type DbOrTx } from "@/db";
 import { account, invitation, lab, labMember, user, session } from "@/db/schema";
 import { parseRoles, ROLE_LABELS, ROLES, type RoleName } from "@/lib/auth/permissions";
@@ -14,10 +13,11 @@ import { env } from "@/lib/env";
 import { AppError, notFound } from "@/lib/errors";
 import { enqueueMail } from "@/lib/mail/outbox";
 import { invitationMail } from "@/lib/mail/templates";
+import { acceptInput, createLabInput, deactivateInput, inviteInput, memberInput, rolesInput, type AdminLab, type AdminPerson, type PendingInvitation, type PersonSummary } from "@/lib/api/contracts/people";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
 
-export type PersonSummary = { id: string; name: string; email: string; roles: RoleName[]; labs: string[]; active: boolean };
+export { acceptInput, createLabInput, deactivateInput, inviteInput, memberInput, rolesInput, type AdminLab, type AdminPerson, type PendingInvitation, type PersonSummary };
 
 /** Users without secrets: never the password hash or session tokens. */
 export async function listPeople(db: Database, actor: Actor): Promise<PersonSummary[]> {
@@ -43,11 +43,6 @@ export async function listLabs(db: Database, actor: Actor) {
   return rows;
 }
 
-export const createLabInput = z.object({
-  name: safeText({ error: "Give the lab a name" }).trim().min(2, "The lab name must be at least 2 characters").max(120, "The lab name must be at most 120 characters"),
-  room: safeText().trim().max(120, "The room must be at most 120 characters").optional(),
-});
-
 export async function createLab(db: Database, actor: Actor, input: z.infer<typeof createLabInput>) {
   authorize(actor, { lab: ["manage"] });
   return db.transaction(async (tx) => {
@@ -58,13 +53,6 @@ export async function createLab(db: Database, actor: Actor, input: z.infer<typeo
     return row;
   });
 }
-
-export const inviteInput = z.object({
-  email: z.email({ error: "Enter a valid e-mail address" }).transform((e) => e.toLowerCase()),
-  name: safeText({ error: "Enter the person's name" }).trim().min(2, "Enter the person's name").max(120, "The name must be at most 120 characters"),
-  roles: z.array(z.enum(ROLES, { error: `Each role must be one of: ${ROLES.join(", ")}` })).min(1, "Choose at least one role"),
-  labIds: z.array(z.uuid({ error: "Each lab must be a lab id" })).default([]),
-});
 
 const hashToken = (token: string) => createHash("sha256").update(token).digest("hex");
 const INVITATION_DAYS = 7;
@@ -107,11 +95,6 @@ export async function invitePerson(db: Database, actor: Actor, input: z.infer<ty
   });
 }
 
-export const acceptInput = z.object({
-  token: safeText({ error: "The invitation link is incomplete" }).min(10, "The invitation link is incomplete"),
-  password: safeText({ error: "Choose a password" }).min(10, "The password must be at least 10 characters long").max(128, "The password must be at most 128 characters long"),
-});
-
 /** Turns a valid invitation into an account with its roles and labs. The token is the authority. */
 export async function acceptInvitation(db: Database, input: z.infer<typeof acceptInput>): Promise<{ email: string }> {
   const passwordHash = await hashPassword(input.password);
@@ -133,16 +116,6 @@ export async function acceptInvitation(db: Database, input: z.infer<typeof accep
 }
 
 // ── Administration ─────────────────────────────────────────────────────────────────────────────
-export const rolesInput = z.object({
-  roles: z.array(z.enum(ROLES, { error: `Each role must be one of: ${ROLES.join(", ")}` })).min(1, "Choose at least one role").max(ROLES.length),
-});
-export const deactivateInput = z.object({ reason: safeText().trim().max(500, "The reason must be at most 500 characters").optional() });
-export const memberInput = z.object({ userId: safeText({ error: "Choose a person" }).min(1, "Choose a person").max(64) });
-
-export type AdminPerson = { id: string; name: string; email: string; roles: RoleName[]; labIds: string[]; active: boolean; banReason: string | null; createdAt: string };
-export type AdminLab = { id: string; name: string; room: string | null; members: { id: string; name: string; roles: RoleName[]; active: boolean }[] };
-export type PendingInvitation = { id: string; email: string; name: string; roles: RoleName[]; expiresAt: string };
-
 
 async function loadUser(db: DbOrTx, userId: string) {
   const [row] = await db.select({ id: user.id, name: user.name, email: user.email, role: user.role, banned: user.banned }).from(user).where(eq(user.id, userId));

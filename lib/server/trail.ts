@@ -84,8 +84,19 @@ async function trailOf(db: Database, b: BenchHead): Promise<BenchTrail> {
       .orderBy(asc(auditEvent.at)),
   ]);
   const numberOf = new Map(revisions.map((r) => [r.id, r.number]));
+  // A revision's "made" row shows the content hash it had then: a draft's hash moves with every save, so the
+  // row takes the first hash the audit trail recorded for that revision (the current one when none was recorded).
+  const hashWhenMade = new Map<string, string>();
+  for (const e of events) {
+    // "make a revision" is recorded on the revision it copies; the new draft starts with that content and hash
+    const newDraft = e.action === "revision-made" ? (e.detail as { newDraft?: { revisionId?: unknown } } | null)?.newDraft?.revisionId : undefined;
+    const made = typeof newDraft === "string" ? newDraft : e.revisionId;
+    if (made && e.contentHash && !hashWhenMade.has(made)) hashWhenMade.set(made, e.contentHash);
+  }
   const entries: TrailEntry[] = [
-    ...revisions.map((r): TrailEntry => ({ kind: "revision", at: r.createdAt.toISOString(), revisionNumber: r.number, revisionId: r.id, contentHash: r.contentHash, state: r.state, by: r.by })),
+    ...revisions.map(
+      (r): TrailEntry => ({ kind: "revision", at: r.createdAt.toISOString(), revisionNumber: r.number, revisionId: r.id, contentHash: hashWhenMade.get(r.id) ?? r.contentHash, state: r.state, by: r.by }),
+    ),
     ...decisions.map(
       (d): TrailEntry => ({
         kind: "decision",

@@ -248,6 +248,9 @@ test("the finder's ticks move the screen to a dark or bright centre; the beam sh
     await freshPredictions(page);
     await expect(centre).toHaveText(goal);
     await expect(finder).toHaveAttribute("data-stale", "false", { timeout: 20_000 });
+    // where the screen now stands is listed once, as the current place, not again among the candidates
+    await expect(page.getByTestId("finder-current")).toHaveAttribute("data-centre", goal);
+    await expect(finder.locator(`[data-testid="finder-candidate"][data-position-mm="${target}"]`)).toHaveCount(0);
     if (goal === "dark") await page.screenshot({ path: "test-results/screenshots/editor-finder-dark.png", fullPage: true });
   }
   await page.getByTestId("bench-canvas").screenshot({ path: "test-results/screenshots/editor-finder-ticks.png" });

@@ -1,14 +1,17 @@
 // The technician in chromium: downloads the build sheet of a signed-off bench (with progress), starts the
 // build, enters a measured position out of tolerance and sees it flagged, then measures every element within
 // tolerance and ticks the whole checklist; records a matching and a mismatching observation and sees each
-// judged; uploads a PNG of the screen, is refused a text file named .png with a sentence, signs the build off,
+// judged; uploads a PNG of the screen, is refused a text file named .png with a sentence, uploads a rendered photo of
+// the screen and reads its pattern (zone count, centre, distance, the plot), signs the build off,
 // and reads it all back in the bench's trail.
 import { readFileSync } from "node:fs";
 import { expect as baseExpect, test, type Page } from "@playwright/test";
 import pg from "pg";
+import { PNG } from "pngjs";
 import { greyPng } from "../../lib/pdf/png";
 import { call, DEMO, DEMO_PASSWORD, signIn } from "../support/http";
 import { createDrawnBench, databaseUrl, labIdByName, sampleBench } from "../support/review-fixtures";
+import { defaultPhoto, renderPhoto, truePattern, type SyntheticBench } from "../unit/photo/render";
 
 // The dev server compiles a route on its first request, and the sheet is printed by chromium: be patient.
 const expect = baseExpect.configure({ timeout: 30_000 });
@@ -146,6 +149,29 @@ test("a technician builds a signed-off bench from its sheet and records what was
   await upload.getByLabel("File to upload (iris-1)").setInputFiles({ name: "fake.png", mimeType: "image/png", buffer: Buffer.from("this is only text, not a picture") });
   await upload.getByRole("button", { name: "Upload", exact: true }).click();
   await expect(upload.getByRole("alert")).toContainText("is not a PNG, JPEG or PDF file");
+
+  // The 16 × 16 picture cannot be read as a screen photo: the sentence says why.
+  await card.getByRole("button", { name: "Read the pattern in screen.png behind iris-1" }).click();
+  await expect(card.getByTestId("screen-photo").filter({ hasText: "screen.png" }).getByRole("alert")).toContainText("it must be at least 32 × 32 pixels");
+
+  // A photo of the screen as drawn, rendered by the tests' own renderer (blur, noise, the pattern off the middle):
+  // "Read the pattern" fits the zone count, centre and distance and shows them beside the prediction with the plot.
+  const photoBench: SyntheticBench = { wavelengthNm: 632.8, beamDiameterMm: 0.8, lenses: [{ positionMm: 100, focalLengthMm: -25 }], aperturePositionMm: 400, apertureDiameterMm: 2, screenDistanceMm: 1000 };
+  const rendered = renderPhoto(photoBench, defaultPhoto({ widthPx: 640, heightPx: 480, centrePx: { x: 352.4, y: 221.7 }, mmPerPixel: truePattern(photoBench).shadowRadiusMm / 150, blurPx: 1.2, seed: 7 }));
+  const encoded = new PNG({ width: rendered.widthPx, height: rendered.heightPx });
+  encoded.data = Buffer.from(rendered.data);
+  await upload.getByLabel("File to upload (iris-1)").setInputFiles({ name: "screen-photo.png", mimeType: "image/png", buffer: PNG.sync.write(encoded) });
+  await upload.getByRole("button", { name: "Upload", exact: true }).click();
+  await expect(upload.getByText("Kept, with its SHA-256 fingerprint")).toBeVisible();
+  await card.getByRole("button", { name: "Read the pattern in screen-photo.png behind iris-1" }).click();
+  const reading = card.getByTestId("photo-reading").filter({ hasText: "screen-photo.png" });
+  await expect(reading).toContainText("✓ Matches", { timeout: 60_000 });
+  await expect(reading).toContainText("Half-period zones");
+  await expect(reading).toContainText("Dark rings at");
+  await expect(reading.getByTestId("photo-distance")).toContainText("drawn 1,000 mm");
+  await expect(reading.getByTestId("photo-profile-plot")).toBeVisible();
+  await expect(card.getByTestId("observation").filter({ hasText: 'Read from the screen photo "screen-photo.png"' })).toContainText("✓ Matches");
+  await reading.screenshot({ path: `${shots}/technician-4b-photo-reading.png` });
   await page.screenshot({ path: `${shots}/technician-5-build-page.png`, fullPage: true });
 
   // Complete the build: everything is ticked and within tolerance.
@@ -156,7 +182,7 @@ test("a technician builds a signed-off bench from its sheet and records what was
   await page.goto(`/benches/${benchId}/trail`);
   const trail = page.getByTestId("trail-timeline");
   await expect(page.getByRole("heading", { name: `Trail of ${title}` })).toBeVisible();
-  for (const words of ["Signed off", "Build started", "Observation recorded", "Photo or file uploaded", "Build completed"]) await expect(trail).toContainText(words);
+  for (const words of ["Signed off", "Build started", "Observation recorded", "Photo or file uploaded", "Screen photo read", "Build completed"]) await expect(trail).toContainText(words);
   await expect(page.getByTestId("trail-comments-hidden")).toBeVisible();
   await page.screenshot({ path: `${shots}/technician-6-trail.png`, fullPage: true });
 });

@@ -76,12 +76,10 @@ test("Send for review right after an edit: no conflict, the editor shows the new
   expect(view.document.title).toBe(`Send at once ${run} (after sending)`);
 });
 
-// KNOWN DEFECT, open on the screens issue: in a quiet fresh-clone run (2026-12-02) a title typed and reloaded at
-// once came back as the old title (neither the keepalive save nor the browser copy restored it); it passed on a
-// loaded machine. Fix the race in components/editor/use-autosave.ts and unsaved-copy.ts, then turn this back on.
-test.fixme("a change followed at once by a reload or by leaving the page is kept", async ({ browser }) => {
+test("a change followed at once by a reload or by leaving the page is kept", async ({ browser }) => {
   const bench = await freshBench(`Leave at once ${run}`);
   const page = await signedIn(browser, DEMO.researcher);
+  const browserContext = page.context();
   await openEditor(page, bench.benchId);
 
   // reload well inside the autosave's quiet period
@@ -103,6 +101,24 @@ test.fixme("a change followed at once by a reload or by leaving the page is kept
   const researcher = await signIn(DEMO.researcher);
   const draft = await call("GET", `/api/benches/${bench.benchId}/draft`, researcher.cookie);
   expect((draft.json!.draft as { document: { title: string } }).document.title).toBe(`Left at once ${run}`);
+
+  // typed while the network is down, then the tab closed: the save on leaving cannot arrive, so the copy kept in
+  // this browser brings the change back when the editor is opened again, and it is saved then
+  await page.context().setOffline(true);
+  await titleBox(page).fill(`Kept in the browser ${run}`);
+  await expect(page.getByTestId("save-status")).not.toHaveAttribute("data-state", "saved");
+  await page.waitForTimeout(1_500); // past the autosave's quiet period: its save goes nowhere
+  await page.close({ runBeforeUnload: true });
+  const before = await call("GET", `/api/benches/${bench.benchId}/draft`, researcher.cookie);
+  expect((before.json!.draft as { document: { title: string } }).document.title).toBe(`Left at once ${run}`);
+  await browserContext.setOffline(false);
+  const again = await browserContext.newPage();
+  await again.goto(`/benches/${bench.benchId}`);
+  await expect(again.getByTestId("bench-editor")).toBeVisible({ timeout: 60_000 });
+  await expect(titleBox(again)).toHaveValue(`Kept in the browser ${run}`);
+  await expect(again.getByTestId("save-status")).toHaveAttribute("data-state", "saved", { timeout: 30_000 });
+  const after = await call("GET", `/api/benches/${bench.benchId}/draft`, researcher.cookie);
+  expect((after.json!.draft as { document: { title: string } }).document.title).toBe(`Kept in the browser ${run}`);
 });
 
 async function pdfText(bytes: Buffer): Promise<string> {

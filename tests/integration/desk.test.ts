@@ -8,6 +8,7 @@ import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { call, DEMO, signIn, type DemoKey } from "../support/http";
 import { createAccount, databaseUrl } from "../support/review-fixtures";
+import { DEMO_LAB_NAME } from "../support/demo";
 
 const DAY = 86_400_000;
 const marker = `dk${Date.now().toString(36)}`;
@@ -128,6 +129,26 @@ describe("approvals list: filters, sorting, paging", () => {
 });
 
 describe("a bench's trail", () => {
+  it("shows a revision's row with the content hash it had when it was made, not the hash its draft has now", async () => {
+    const labs = await call("GET", "/api/labs", cookies.researcher);
+    const demoLabId = (labs.json!.labs as { id: string; name: string }[]).find((l) => l.name === DEMO_LAB_NAME)!.id;
+    const created = await call("POST", "/api/benches", cookies.researcher, { labId: demoLabId, title: `Trail hash ${marker}` });
+    expect(created.status).toBe(201);
+    const id = (created.json as { id: string }).id;
+    const document = { version: 1, title: `Trail hash ${marker}`, elements: [{ id: "laser-1", kind: "laser", positionMm: 0, wavelengthNm: 632.8, powerMw: 1, beamDiameterMm: 0.8 }] };
+    const saved = await call("PUT", `/api/benches/${id}/draft`, cookies.researcher, { document, baseRevision: 1, baseVersion: 1 });
+    expect(saved.status, saved.text).toBe(200);
+    const res = await call("GET", `/api/desk/benches/${id}/trail`, cookies.auditor);
+    expect(res.status).toBe(200);
+    const trail = res.json as { revisions: { contentHash: string }[]; entries: { kind: string; action?: string; contentHash?: string | null }[] };
+    const made = trail.entries.find((e) => e.kind === "revision")!;
+    const createdEvent = trail.entries.find((e) => e.kind === "event" && e.action === "bench-created")!;
+    const savedEvent = trail.entries.find((e) => e.kind === "event" && e.action === "draft-saved")!;
+    expect(made.contentHash).toBe(createdEvent.contentHash);
+    expect(trail.revisions[0].contentHash).toBe(savedEvent.contentHash);
+    expect(made.contentHash).not.toBe(trail.revisions[0].contentHash);
+  });
+
   it("shows every revision with its hash, the decision with its meaning and conditions, comments and events", async () => {
     const res = await call("GET", `/api/desk/benches/${benchIds.A}/trail`, cookies.auditor);
     expect(res.status).toBe(200);

@@ -10,6 +10,9 @@ import { call, DEMO, signIn, type DemoKey } from "../support/http";
 const cookies = {} as Record<DemoKey, string>;
 let imagingLabId = "";
 let imagingBenchId = "";
+/** The demo technician's build of the signed-off HeNe bench (db/seed.ts) and its screen photo already read. */
+let demoBuildId = "";
+let demoReadPhotoId = "";
 
 beforeAll(async () => {
   for (const key of Object.keys(DEMO) as DemoKey[]) {
@@ -21,6 +24,11 @@ beforeAll(async () => {
   imagingLabId = (labs.json!.labs as { id: string; name: string }[]).find((l) => l.name === "Wrenfield Imaging Lab")!.id;
   const benches = await call("GET", "/api/benches", cookies.researcher);
   imagingBenchId = (benches.json!.benches as { id: string; labId: string }[]).find((b) => b.labId === imagingLabId)!.id;
+  const buildable = await call("GET", "/api/builds", cookies.technician);
+  const rows = buildable.json!.revisions as { title: string; builds: { id: string; technicianName: string }[] }[];
+  demoBuildId = rows.find((r) => r.title === "HeNe through a 2 mm iris, diverging lens")!.builds.find((b) => b.technicianName === "Kit Varga-Lind")!.id;
+  const demoBuild = await call("GET", `/api/builds/${demoBuildId}`, cookies.technician);
+  demoReadPhotoId = ((demoBuild.json!.build as { photoReadings: { uploadId: string; result: unknown }[] }).photoReadings.find((p) => p.result !== null)!).uploadId;
 });
 
 type Row = { label: string; method: string; path: () => string; body?: () => unknown; expect: Record<DemoKey | "anonymous", number> };
@@ -55,6 +63,13 @@ const matrix: Row[] = [
     path: () => `/api/benches/${imagingBenchId}/revisions`,
     body: () => ({ baseRevision: 1, baseVersion: 999_999 }),
     expect: { anonymous: 401, researcher: 409, officer: 403, technician: 403, auditor: 403, admin: 403, student: 404 },
+  },
+  {
+    label: "read the demo build's screen photo (already read: 200 for the lab's technician)",
+    method: "POST",
+    path: () => `/api/builds/${demoBuildId}/photo-reading`,
+    body: () => ({ uploadId: demoReadPhotoId, apertureId: "iris-1" }),
+    expect: { anonymous: 401, researcher: 403, officer: 403, technician: 200, auditor: 403, admin: 403, student: 403 },
   },
   { label: "list people", method: "GET", path: () => "/api/people", expect: { anonymous: 401, researcher: 403, officer: 403, technician: 403, auditor: 403, admin: 200, student: 403 } },
   {

@@ -6,7 +6,7 @@ import { ApprovalsTable } from "@/components/desk/approvals-table";
 import { DeskFilters } from "@/components/desk/desk-filters";
 import { Refused } from "@/components/shell/refused";
 import { rolesAllow } from "@/lib/auth/permissions";
-import { deskFilterOptions, deskQuery, deskQueryFromParams, listApprovals } from "@/lib/server/desk";
+import { deskFilterOptions, deskQueryFromParams, deskQueryKeepingGoodFilters, listApprovals } from "@/lib/server/desk";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 
 export const metadata = { title: "Sign-off desk" };
@@ -18,12 +18,12 @@ export default async function DeskPage({ searchParams }: { searchParams: SearchP
   const refused = refusal(actor, { audit: ["read"] });
   if (refused) return <Refused reason={refused} />;
   const raw = await searchParams;
-  const parsed = deskQuery.safeParse(deskQueryFromParams(raw));
-  const query = parsed.success ? parsed.data : deskQuery.parse({});
+  const { query, dropped } = deskQueryKeepingGoodFilters(deskQueryFromParams(raw));
   const now = new Date();
   const [page, options] = await Promise.all([listApprovals(getDb(), actor, query, now), deskFilterOptions(getDb(), actor)]);
   const exportParams = new URLSearchParams();
-  for (const [k, v] of Object.entries(raw)) if (typeof v === "string" && v && !["page", "pageSize", "sort", "dir"].includes(k)) exportParams.set(k, v);
+  const droppedNames = new Set(dropped.map((d) => d.field));
+  for (const [k, v] of Object.entries(raw)) if (typeof v === "string" && v && !["page", "pageSize", "sort", "dir"].includes(k) && !droppedNames.has(k)) exportParams.set(k, v);
   const mayExport = rolesAllow(actor.roles, { audit: ["export"] });
   const verifyExists = existsSync(path.join(process.cwd(), "app/(app)/verify"));
 
@@ -54,9 +54,10 @@ export default async function DeskPage({ searchParams }: { searchParams: SearchP
           ) : null}
         </div>
       </div>
-      {!parsed.success ? (
-        <p role="alert" className="rounded-md border border-danger p-3 text-danger">
-          The address holds a filter the desk cannot read ({parsed.error.issues[0]?.message}); showing every sign-off instead.
+      {dropped.length > 0 ? (
+        <p role="alert" className="rounded-md border border-danger p-3 text-danger" data-testid="desk-dropped-filters">
+          {dropped.length === 1 ? "One filter in the address could not be read and is left out" : `${dropped.length} filters in the address could not be read and are left out`}:{" "}
+          {dropped.map((d) => `“${d.field}” (${d.message})`).join("; ")}. The other filters still apply.
         </p>
       ) : null}
       <DeskFilters key={JSON.stringify(query)} labs={options.labs} officers={options.officers} />

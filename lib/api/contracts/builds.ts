@@ -75,6 +75,8 @@ export type BuildView = {
   observations: ObservationView[];
   uploads: UploadView[];
   predictions: Predictions;
+  /** Screen photos read against the prediction, oldest first. */
+  photoReadings: PhotoReadingView[];
   may: { record: boolean; signOff: boolean; whyNotSignOff: string | null };
 };
 
@@ -114,3 +116,52 @@ export const observationInput = z
 
 // ── Uploads ───────────────────────────────────────────────────────────────────────────────────
 export const uploadKindInput = z.enum(UPLOAD_KINDS, { error: `Say what the file shows: ${UPLOAD_KINDS.join(", ")}` });
+
+// ── Reading a screen photo ────────────────────────────────────────────────────────────────────
+export const photoReadingInput = z.object({
+  uploadId: z.uuid({ error: "Choose the uploaded photo of the screen to read" }),
+  apertureId: safeText({ error: "Say which aperture's pattern the photo shows" }).min(1, "Say which aperture's pattern the photo shows").max(64, "The aperture's id is at most 64 characters"),
+});
+
+type Centre = "bright" | "dark" | "between";
+
+/** What a photo showed, as fitted, beside what the revision predicts; radii on the screen in mm, intensities relative to the open beam. */
+export type PhotoReadingResult = {
+  centre: Centre;
+  centrePredicted: Centre;
+  centrePx: { x: number; y: number };
+  imageWidthPx: number;
+  imageHeightPx: number;
+  /** The EXIF orientation applied before reading (1 = none). */
+  orientation: number;
+  zoneCount: number;
+  predictedZoneCount: number;
+  screenDistanceMm: number;
+  drawnDistanceMm: number;
+  distanceToleranceMm: number;
+  mmPerPixel: number;
+  ringRadiiPx: number[];
+  ringRadiiMm: number[];
+  /** The edge of the aperture's shadow on the screen as fitted (mm). */
+  shadowRadiusMm: number;
+  quality: number;
+  /** The photo's profile (measured), the fitted pattern and the pattern predicted as drawn, relative to the open beam. */
+  profile: { radiusMm: number[]; measured: number[]; fitted: number[]; predicted: number[] };
+};
+
+export type PhotoReadingView = {
+  id: string;
+  uploadId: string;
+  apertureId: string;
+  fileName: string;
+  photoUrl: string;
+  readByName: string;
+  createdAt: string;
+  /** Why the photo could not be read; null when it was. */
+  refusal: string | null;
+  result: PhotoReadingResult | null;
+  observationId: string | null;
+  mismatch: boolean | null;
+  reasons: string[];
+  predictionEngine: string;
+};
