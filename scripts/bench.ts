@@ -60,6 +60,8 @@ async function httpFigures(): Promise<Figure[]> {
     // The editor's drag frame time and the build sheet, in chromium against this production server.
     const { runEditorBench } = await import("./bench-editor");
     const editor = await runEditorBench(env.APP_URL!, cookie);
+    const { runTableEditorBench } = await import("./bench-table-editor");
+    const tableEditor = await runTableEditorBench(env.APP_URL!, cookie);
     const { runSheetBench } = await import("./bench-sheet");
     const sheet = await runSheetBench(env.APP_URL!, cookie);
     // The sign-off desk at scale: 10 000 benches and 100 000+ trail rows in this throwaway database.
@@ -70,6 +72,7 @@ async function httpFigures(): Promise<Figure[]> {
     const desk = await runDeskBench(env.DATABASE_URL!);
     return [
       ...editor,
+      ...tableEditor,
       ...sheet,
       ...desk,
       { name: "GET /api/health throughput (trivial route)", value: trivial.requests.average, unit: "req/s", target: "reference" },

@@ -33,10 +33,8 @@ export async function readBuildPhoto(
   assertRecordable(build, revision);
   const document = revision.document;
   if (document.version !== 1) {
-    // the photo fit compares against one straight bench; a table's path would first have to be unfolded for it
-    throw new AppError("bad-request", "Reading a photo of the screen works for a straight rail only so far; on a table, record the centre and the spot size you see by hand.", [
-      { path: "uploadId", message: "Not available for a table yet" },
-    ]);
+    // A table plan (version 2) has no single rail to move the screen along; the reader takes a straight bench.
+    throw new AppError("bad-request", "Screen photos can be read for benches drawn on a rail; this revision is a table plan, so record what the screen shows by hand.", [{ path: "apertureId", message: "Not a rail bench" }]);
   }
   const predictions = predictionsFor(document);
   const aperture = predictions.apertures.find((a) => a.apertureId === input.apertureId);
