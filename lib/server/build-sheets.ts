@@ -9,7 +9,7 @@ import type { Database } from "@/db";
 import { getDb } from "@/db";
 import { buildSheet, laserRegister, type SafetyStandard, type SheetState } from "@/db/schema";
 import { rolesAllow } from "@/lib/auth/permissions";
-import type { BenchDocument, LaserElement } from "@/lib/bench/schema";
+import type { BenchDocument, BenchDocumentV2, LaserElement } from "@/lib/bench/schema";
 import { env } from "@/lib/env";
 import { AppError, notFound } from "@/lib/errors";
 import { screenProfile } from "@/lib/optics";
@@ -19,10 +19,11 @@ import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
 import { loadSignedRevision, type SignedRevision } from "./builds";
 import { labStandard } from "./lab-standard";
-import { buildSteps, PROFILE_POINTS, ringPngFor, type RegisterEntry, type SheetAperture, type SheetContent } from "@/lib/build/sheet";
+import { buildSteps, PROFILE_POINTS, ringPngFor, type RegisterEntry, type SheetAperture, type SheetContent, type TableSheetContent } from "@/lib/build/sheet";
 import { checklistFor, elementSettings, POSITION_TOLERANCE_MM, predictionsFor, signOffSentence, signOffStatus, type SignOffStatus } from "@/lib/build/rules";
 import { kindTitle } from "@/lib/bench/kinds";
-import { assessRevision } from "@/lib/review/hazard";
+import { assessRevision, assessTableRevision } from "@/lib/review/hazard";
+import { beamEnds, buildOrderV2, pathRows } from "@/lib/review/table-paths";
 import { notFoundAs } from "./scope";
 
 export const PAPERS = ["A4", "Letter"] as const;
@@ -330,12 +331,42 @@ async function computeDrawingContent(doc: BenchDocument, url: string, standard: 
   };
 }
 
-/** Everything the printed sheet shows, for a revision that was signed off. */
-export async function sheetContent(db: Database, actor: Actor, revisionId: string): Promise<SheetContent> {
+/** What a table's sheet shows that follows from the drawing alone (not cached: a table is traced in milliseconds). */
+async function tableSheetContent(r: SignedRevision & { document: BenchDocumentV2 }, status: SignOffStatus, db: Database): Promise<TableSheetContent> {
+  const doc = r.document;
+  const url = verifyUrl(r.contentHash);
+  const assessed = assessTableRevision(doc);
+  const analysis = assessed.ok ? assessed.analysis : null;
+  const safety = assessed.ok ? assessed.safety : null;
+  const rows = analysis ? pathRows(doc, analysis, safety) : [];
+  const lasers = doc.elements.filter((e) => e.kind === "laser" && e.registerId) as { id: string; registerId?: string }[];
+  const registers = await Promise.all(lasers.map(async (l) => ({ laserId: l.id, registerId: l.registerId as string, entry: await registerEntry(db, l.registerId as string) })));
+  return {
+    kind: "table",
+    document: doc,
+    analysis,
+    safety,
+    rows,
+    ends: beamEnds(rows),
+    steps: analysis ? buildOrderV2(doc, analysis) : [],
+    registers,
+    checklist: checklistFor(doc, safety, r.decision?.conditions),
+    problem: assessed.ok ? null : assessed.problem,
+    revision: { id: r.id, number: r.number, contentHash: r.contentHash, benchTitle: r.benchTitle, labName: r.labName, authorName: r.authorName, status, statusSentence: signOffSentence(r, status) },
+    decision: r.decision,
+    toleranceMm: POSITION_TOLERANCE_MM,
+    verifyUrl: url,
+    qrSvg: await QRCode.toString(url, { type: "svg", margin: 1, errorCorrectionLevel: "M" }),
+  };
+}
+
+/** Everything the printed sheet shows, for a revision that was signed off: a rail's sheet, or a table's. */
+export async function sheetContent(db: Database, actor: Actor, revisionId: string): Promise<SheetContent | TableSheetContent> {
   authorize(actor, { bench: ["read"] });
   const r = await loadSignedRevision(db, actor, revisionId);
   const status = signOffStatus(r);
   if (status === "not-signed-off") throw new AppError("conflict", signOffSentence(r, status));
+  if (r.document.version === 2) return tableSheetContent({ ...r, document: r.document }, status, db);
   const doc = r.document;
   const laser = doc.elements.find((e): e is LaserElement => e.kind === "laser") ?? null;
   const [drawing, entry] = await Promise.all([drawingContent(doc, r.contentHash, await labStandard(db, r.labId)), laser?.registerId ? registerEntry(db, laser.registerId) : null]);

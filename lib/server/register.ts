@@ -7,7 +7,7 @@ import { z } from "zod";
 import { safeText } from "@/lib/validation/text";
 import type { Database, DbOrTx } from "@/db";
 import { lab, laserRegister, LASER_STATUSES, user, type LaserStatus } from "@/db/schema";
-import type { BenchDocument, LaserElement } from "@/lib/bench/schema";
+import type { AnyBenchDocument, BenchDocument, LaserElement } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { classifyBeam, compareLabel, HAZARD_CLASSES, type HazardClass } from "@/lib/safety";
 import { recordAudit } from "./audit";
@@ -395,10 +395,25 @@ export async function checkBenchAgainstRegister(db: DbOrTx, actor: Actor, docume
   return { laserId: entry.id, labelClass: entry.labelClass, computedClass, warnings };
 }
 
-/** For the submit path: refuses (409) a submission whose laser the register lists as out of service or disposed of. */
-export async function assertRegisterAllowsSubmission(db: DbOrTx, actor: Actor, document: BenchDocument): Promise<RegisterCheck> {
-  const check = await checkBenchAgainstRegister(db, actor, document);
-  const blocking = check.warnings.find((w) => w.blocksSubmission);
-  if (blocking) throw new AppError("conflict", blocking.message, [{ path: "registerId", message: blocking.message }]);
-  return check;
+/**
+ * For the submit path: refuses (409) a submission whose laser the register lists as out of service or disposed of.
+ * On a table (version 2) every laser is checked; the first laser's check is returned.
+ */
+export async function assertRegisterAllowsSubmission(db: DbOrTx, actor: Actor, document: AnyBenchDocument): Promise<RegisterCheck> {
+  const rails: BenchDocument[] =
+    document.version === 1
+      ? [document]
+      : document.elements.flatMap((e) => {
+          if (e.kind !== "laser") return [];
+          const { xMm: _x, yMm: _y, angleDeg: _a, ...laser } = e;
+          return [{ version: 1 as const, elements: [{ ...laser, positionMm: 0 }] }];
+        });
+  const checks: RegisterCheck[] = [];
+  for (const rail of rails) {
+    const check = await checkBenchAgainstRegister(db, actor, rail);
+    const blocking = check.warnings.find((w) => w.blocksSubmission);
+    if (blocking) throw new AppError("conflict", blocking.message, [{ path: "registerId", message: blocking.message }]);
+    checks.push(check);
+  }
+  return checks[0] ?? { laserId: null, labelClass: null, computedClass: null, warnings: [] };
 }
