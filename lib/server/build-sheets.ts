@@ -335,7 +335,8 @@ async function computeDrawingContent(doc: BenchDocument, url: string, standard: 
 async function tableSheetContent(r: SignedRevision & { document: BenchDocumentV2 }, status: SignOffStatus, db: Database): Promise<TableSheetContent> {
   const doc = r.document;
   const url = verifyUrl(r.contentHash);
-  const assessed = assessTableRevision(doc);
+  // every hazard figure on the sheet follows the lab's chosen standard, as on a rail's sheet
+  const assessed = assessTableRevision(doc, { standard: await labStandard(db, r.labId) });
   const analysis = assessed.ok ? assessed.analysis : null;
   const safety = assessed.ok ? assessed.safety : null;
   const rows = analysis ? pathRows(doc, analysis, safety) : [];
