@@ -9,6 +9,9 @@ const SECURITY_HEADERS = [
 ];
 
 const NOTHING_RUNS = { key: "Content-Security-Policy", value: "default-src 'none'; frame-ancestors 'none'" };
+// A web worker's own script sets the worker's policy: the bundler's worker entry loads the worker's chunks from this
+// origin (importScripts) and nothing else (the table editor runs the analysis engine in one).
+const WORKER_RUNS = { key: "Content-Security-Policy", value: "default-src 'none'; script-src 'self'; frame-ancestors 'none'" };
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {
@@ -23,6 +26,7 @@ const nextConfig = {
       { source: "/:path*", headers: SECURITY_HEADERS },
       { source: "/api/:path*", headers: [NOTHING_RUNS] },
       { source: "/_next/:path*", headers: [NOTHING_RUNS] },
+      { source: "/_next/static/chunks/:file(turbopack-worker-.*)", headers: [WORKER_RUNS] },
       { source: "/favicon.ico", headers: [NOTHING_RUNS] },
     ];
   },

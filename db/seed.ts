@@ -8,7 +8,7 @@ import { account, auditEvent, bench, benchRevision, buildObservation, buildRecor
 import { endOfDayInZone } from "@/lib/format/date";
 import { hazardSummary } from "@/lib/review/hazard";
 import { contentHash } from "@/lib/bench/canonical";
-import type { BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument, BenchDocument, BenchDocumentV2 } from "@/lib/bench/schema";
 import type { RoleName } from "@/lib/auth/permissions";
 import { createStorage, type ObjectStore } from "@/lib/storage";
 import { comparePhoto, photoSummary } from "@/lib/build/photo-rules";
@@ -82,6 +82,48 @@ const teachingBench: BenchDocument = {
   ],
 };
 
+/** Holes of a metric table: the first half a pitch in from the front left corner (hole 1, 1). */
+const hole = (column: number, pitchMm = 25) => pitchMm / 2 + (column - 1) * pitchMm;
+
+/**
+ * A folded 532 nm bench on a metric table: a mirror turns the beam away from the viewer through a 5× expander, a
+ * 50/50 splitter sends half to an iris and a screen and half into a block, so every beam ends on the table.
+ */
+export const foldedTable: BenchDocumentV2 = {
+  version: 2,
+  title: "Folded green table with a splitter",
+  table: { widthMm: 1200, depthMm: 900, holePitchMm: 25 },
+  elements: [
+    { id: "green", kind: "laser", xMm: hole(4), yMm: hole(6), angleDeg: 0, wavelengthNm: 532, powerMw: 20, beamDiameterMm: 1, m2: 1.1 },
+    { id: "M1", kind: "mirror", xMm: hole(16), yMm: hole(6), angleDeg: 135 },
+    { id: "L1", kind: "lens", xMm: hole(16), yMm: hole(11), angleDeg: 90, focalLengthMm: 25 },
+    { id: "L2", kind: "lens", xMm: hole(16), yMm: hole(17), angleDeg: 90, focalLengthMm: 125 },
+    { id: "BS", kind: "beam-splitter", xMm: hole(16), yMm: hole(24), angleDeg: 315, reflectance: 0.5 },
+    { id: "iris", kind: "aperture", xMm: hole(32), yMm: hole(24), angleDeg: 180, diameterMm: 4 },
+    { id: "screen", kind: "screen", xMm: hole(46), yMm: hole(24), angleDeg: 180 },
+    { id: "block", kind: "beam-block", xMm: hole(16), yMm: hole(34), angleDeg: 270 },
+  ],
+};
+
+/**
+ * Two lasers on one imperial breadboard, sent for review: a HeNe through a tilted window (whose weak ghosts leave the
+ * table, below the MPE) onto a screen, and a violet diode whose splitter sends half into a block and lets the other
+ * half run off the right edge — the open beam above the MPE the officer should send back.
+ */
+export const twoLaserTable: BenchDocumentV2 = {
+  version: 2,
+  title: "Two lasers on the imperial breadboard",
+  table: { widthMm: 1219.2, depthMm: 914.4, holePitchMm: 25.4 },
+  elements: [
+    { id: "hene", kind: "laser", xMm: hole(4, 25.4), yMm: hole(4, 25.4), angleDeg: 0, wavelengthNm: 632.8, powerMw: 2, beamDiameterMm: 0.8 },
+    { id: "W1", kind: "window", xMm: hole(16, 25.4), yMm: hole(4, 25.4), angleDeg: 170 },
+    { id: "red-screen", kind: "screen", xMm: hole(36, 25.4), yMm: hole(4, 25.4), angleDeg: 180 },
+    { id: "violet", kind: "laser", xMm: hole(4, 25.4), yMm: hole(20, 25.4), angleDeg: 0, wavelengthNm: 405, powerMw: 5, beamDiameterMm: 1.2, m2: 1.3 },
+    { id: "BS2", kind: "beam-splitter", xMm: hole(28, 25.4), yMm: hole(20, 25.4), angleDeg: 135, reflectance: 0.5 },
+    { id: "violet-block", kind: "beam-block", xMm: hole(28, 25.4), yMm: hole(32, 25.4), angleDeg: 270 },
+  ],
+};
+
 const OFFICER_EMAIL = "officer@northmere.example.edu";
 const TECHNICIAN_EMAIL = "technician@northmere.example.edu";
 const DAY_MS = 86_400_000;
@@ -122,11 +164,19 @@ const DEMO_EYEWEAR: { lab: LabKey; name: string; quantity: number; note: string;
 /** The demo labs' chosen standards: one lab per standard, so both show on screens. */
 const DEMO_STANDARDS: Record<LabKey, SafetyStandard> = { imaging: "ANSI Z136.1-2014", spectro: "IEC 60825-1:2014" };
 
-const DEMO_BENCHES: { lab: LabKey; author: string; doc: BenchDocument; states: ReviewState[] }[] = [
+const DEMO_BENCHES: { lab: LabKey; author: string; doc: AnyBenchDocument; states: ReviewState[]; conditions?: string }[] = [
   { lab: "imaging", author: "researcher@northmere.example.edu", doc: heNeZones, states: ["approved", "draft"] },
   { lab: "imaging", author: "researcher@northmere.example.edu", doc: expander, states: ["submitted"] },
   { lab: "imaging", author: "researcher@northmere.example.edu", doc: violetDiode, states: ["draft"] },
   { lab: "spectro", author: "student@northmere.example.edu", doc: teachingBench, states: ["changes-requested", "draft"] },
+  {
+    lab: "imaging",
+    author: "researcher@northmere.example.edu",
+    doc: foldedTable,
+    states: ["approved"],
+    conditions: "Laser eyewear for 532 nm worn by everyone at the table; the splitter's block in place before the laser is switched on",
+  },
+  { lab: "imaging", author: "researcher@northmere.example.edu", doc: twoLaserTable, states: ["submitted"] },
 ];
 
 /** Loads the demo data unless it is already there. Returns true when it loaded something. */
@@ -193,11 +243,11 @@ export async function seedDemo(db: Database, store: ObjectStore = createStorage(
                 signerName: "Rafe Dunmore",
                 signerRole: "Laser safety officer",
                 meaning: decided.meaning,
-                conditions: decided.conditions ?? null,
+                conditions: (decided.outcome === "approved" ? b.conditions : undefined) ?? decided.conditions ?? null,
                 reason: decided.reason ?? null,
                 validUntil,
                 contentHash: hash,
-                hazardSummary: hazardSummary(b.doc),
+                hazardSummary: hazardSummary(b.doc, { standard: DEMO_STANDARDS[b.lab] }),
                 stepUpVerified: decided.outcome === "approved",
                 decidedAt,
               })
@@ -209,7 +259,7 @@ export async function seedDemo(db: Database, store: ObjectStore = createStorage(
               number,
               decisionId: decision.id,
               meaning: decided.meaning,
-              conditions: decided.conditions ?? null,
+              conditions: (decided.outcome === "approved" ? b.conditions : undefined) ?? decided.conditions ?? null,
               reason: decided.reason ?? null,
               validUntil: validUntil?.toISOString() ?? null,
               seeded: true,

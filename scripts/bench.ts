@@ -64,6 +64,8 @@ async function httpFigures(): Promise<Figure[]> {
     // The editor's drag frame time and the build sheet, in chromium against this production server.
     const { runEditorBench } = await import("./bench-editor");
     const editor = await runEditorBench(env.APP_URL!, cookie);
+    const { runTableEditorBench } = await import("./bench-table-editor");
+    const tableEditor = await runTableEditorBench(env.APP_URL!, cookie);
     const { runSheetBench } = await import("./bench-sheet");
     const sheet = await runSheetBench(env.APP_URL!, cookie);
     // Queue throughput: e-mails through two mail workers to the catcher, build sheets per minute.
@@ -77,6 +79,7 @@ async function httpFigures(): Promise<Figure[]> {
     const desk = await runDeskBench(env.DATABASE_URL!);
     return [
       ...editor,
+      ...tableEditor,
       ...sheet,
       ...queue,
       ...desk,

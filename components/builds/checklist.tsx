@@ -91,7 +91,10 @@ export function Checklist({ build, eyewear = null }: { build: BuildView; eyewear
   return (
     <div className="flex flex-col gap-4" data-testid="checklist">
       <p className="text-muted">
-        {done} of {build.checklist.length} ticked. Each element must sit within ±{build.tolerance.positionMm} mm of its drawn position, measured along the beam.
+        {done} of {build.checklist.length} ticked.{" "}
+        {build.checklist.some((c) => c.expectedPositionMm !== null)
+          ? `Each element must sit within ±${build.tolerance.positionMm} mm of its drawn position, measured along the beam.`
+          : "Each element stands on the hole and at the angle given (the hole numbered from the front left corner, the angle counter-clockwise from the +x direction)."}
       </p>
       {groups.filter((g) => build.checklist.some((c) => c.group === g.group)).map((g) => (
         <section key={g.group} className="flex flex-col gap-2">

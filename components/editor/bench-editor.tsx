@@ -4,9 +4,11 @@
 // working document is client state with undo/redo (use-editor-state).
 import dynamic from "next/dynamic";
 import { useQuery, useQueryClient } from "@tanstack/react-query";
-import { useCallback, useEffect, useMemo, useRef, useState, type DragEvent, type KeyboardEvent } from "react";
+import { useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore, type DragEvent, type KeyboardEvent } from "react";
 import { draftQuery, inServiceLasersQuery, type RailDraftView } from "@/lib/api/bench-queries";
 import { ELEMENT_KINDS, type BenchDocument, type ElementKind } from "@/lib/bench/schema";
+import type { AnyBenchDocument, BenchDocumentV2 } from "@/lib/bench/schema-v2";
+import { railToTable } from "./table/table-reducer";
 import { StateBadge } from "@/components/ui/state-badge";
 import { ApertureTable } from "./aperture-table";
 import { ScreenTable } from "./screen-table";
@@ -33,7 +35,7 @@ import { useAnalysis, useProfile } from "./use-analysis";
 import { useAutosave } from "./use-autosave";
 import { useEditorState } from "./use-editor-state";
 import { documentKey } from "./document-key";
-import { forgetUnsaved, readUnsaved } from "./unsaved-copy";
+import { forgetUnsaved, readUnsaved, unsavedText } from "./unsaved-copy";
 import { SubmitForReview } from "@/components/review/submit-for-review";
 import { useScreenFinder } from "./use-screen-finder";
 import { fitAll, mmAt, zoomAbout, type View } from "./view";
@@ -41,35 +43,55 @@ import type { ElementPatch } from "./editor-reducer";
 import { sig } from "./format";
 import { CENTRE_WORDS, VERTICAL_EXAGGERATION, plainText } from "@/lib/format";
 
+const noChange = () => () => undefined;
+
+// The table editor (and the engine it runs in the browser) loads only for a bench on a table.
+const TableEditor = dynamic(() => import("./table/table-editor").then((m) => m.TableEditor), {
+  ssr: false,
+  loading: () => <p className="text-muted">Loading the table editor…</p>,
+});
+
 const BenchCanvas = dynamic(() => import("./bench-canvas").then((m) => m.BenchCanvas), {
   ssr: false,
   loading: () => <div className="flex h-full items-center justify-center text-muted">Loading the drawing…</div>,
 });
 
-type Props = { benchId: string; labName: string; authorName: string; shelf?: LabShelfData | null };
+type Props = { benchId: string; labId?: string; labName: string; authorName: string; shelf?: LabShelfData | null };
 
+/**
+ * The editor for the bench's working draft: the rail editor for a version 1 document, the table editor
+ * (components/editor/table) for version 2 (a new bench made on a table starts as one). A rail bench moved onto a
+ * table, and a table drawing left unsaved in this browser, open the table editor too.
+ */
 export function BenchEditor(props: Props) {
   const draft = useQuery(draftQuery(props.benchId));
+  const [movedOnto, setMovedOnto] = useState<BenchDocumentV2 | null>(null);
+  const initialDoc = draft.data?.document as AnyBenchDocument | undefined;
+  // A rail moved onto a table but not yet saved (the page closed first) is still a rail draft on the server.
+  // undefined while hydrating: nothing is drawn until this browser's copy has been looked at, because the rail editor
+  // forgets a copy it does not hold and a table's copy must survive it
+  const unsaved = useSyncExternalStore(noChange, () => unsavedText(props.benchId) ?? "", () => undefined);
+  const unsavedTable = useMemo(() => {
+    if (!unsaved || !draft.data || !draft.data.canEdit || initialDoc?.version !== 1) return null;
+    const copy = readUnsaved(props.benchId);
+    return copy && copy.document.version === 2 && copy.baseRevision === draft.data.revisionNumber && copy.baseVersion === draft.data.version ? copy.document : null;
+  }, [unsaved, draft.data, initialDoc, props.benchId]);
+  const tableStart = movedOnto ?? unsavedTable;
   if (draft.error) return <p role="alert" className="rounded-lg border border-danger p-4">{draft.error.message}</p>;
-  if (!draft.data) return <p className="text-muted">Loading the bench…</p>;
-  if (draft.data.document.version !== 1) {
-    return (
-      <p role="status" className="rounded-lg border border-line bg-panel p-4" data-testid="table-bench-notice">
-        This bench is an optical table (bench document version 2). Its plan, paths and open beams are on the review screen of each
-        revision it has sent; the table editor is not on this page yet.
-      </p>
-    );
-  }
-  return <EditorBody {...props} initial={draft.data as RailDraftView} />;
+  if (!draft.data || !initialDoc || unsaved === undefined) return <p className="text-muted">Loading the bench…</p>;
+  const common = { benchId: props.benchId, labName: props.labName, authorName: props.authorName, initial: draft.data };
+  if (initialDoc.version === 2) return <TableEditor {...common} start={initialDoc} />;
+  if (tableStart) return <TableEditor {...common} start={tableStart} />;
+  return <EditorBody {...props} initial={draft.data as RailDraftView} onMoveToTable={(doc) => setMovedOnto(railToTable(doc))} />;
 }
 
 const BUTTON = "inline-flex min-h-10 min-w-10 items-center justify-center gap-1 rounded-md border border-line px-2.5 text-sm hover:bg-raised disabled:cursor-not-allowed disabled:opacity-40";
 
-function EditorBody({ benchId, labName, authorName, initial, shelf = null }: Props & { initial: RailDraftView }) {
+function EditorBody({ benchId, labId, labName, authorName, initial, shelf = null, onMoveToTable }: Props & { initial: RailDraftView; onMoveToTable: (doc: BenchDocument) => void }) {
   const canEdit = initial.canEdit;
-  const { state, dispatch, selected, canUndo, canRedo } = useEditorState(initial.document);
+  const { state, dispatch, selected, canUndo, canRedo } = useEditorState(initial.document as BenchDocument);
   const { doc, selection } = state;
-  const analysis = useAnalysis(doc);
+  const analysis = useAnalysis(doc, labId);
   const save = useAutosave(benchId, initial, doc, canEdit);
 
   // A drawing left unsaved in this browser (the page was closed before the server had it) comes back as it was,
@@ -79,7 +101,8 @@ function EditorBody({ benchId, labName, authorName, initial, shelf = null }: Pro
     if (restoreChecked.current || !canEdit) return;
     restoreChecked.current = true;
     const copy = readUnsaved(benchId);
-    if (!copy) return;
+    // a table drawing is the table editor's to restore (BenchEditor)
+    if (!copy || copy.document.version !== 1) return;
     if (copy.baseRevision === initial.revisionNumber && copy.baseVersion === initial.version && copy.key !== documentKey(initial.document)) {
       dispatch({ type: "replace", doc: copy.document });
     } else forgetUnsaved(benchId);
@@ -219,6 +242,22 @@ function EditorBody({ benchId, labName, authorName, initial, shelf = null }: Pro
           )}
         </div>
         <div className="flex items-start gap-3">
+          {canEdit ? (
+            <button
+              type="button"
+              className={BUTTON}
+              disabled={save.state.kind !== "saved"}
+              onClick={() => onMoveToTable(doc)}
+              data-testid="move-to-table"
+              title={
+                save.state.kind === "saved"
+                  ? "Put this bench on an optical table: the rail becomes a straight beam along +x on the middle hole row, every value kept. Then mirrors, beam splitters and windows can fold and split the beam."
+                  : "Waiting until your changes are saved"
+              }
+            >
+              Move onto a table
+            </button>
+          ) : null}
           <ImportExport doc={doc} canEdit={canEdit} onImport={(d: BenchDocument) => dispatch({ type: "replace", doc: d })} benchId={benchId} base={save.base} />
           <SaveStatus state={save.state} />
         </div>
@@ -242,7 +281,7 @@ function EditorBody({ benchId, labName, authorName, initial, shelf = null }: Pro
           onKeepMine={save.keepMine}
           onTakeTheirs={() => {
             const theirs = save.takeTheirs();
-            if (theirs) dispatch({ type: "replace", doc: theirs });
+            if (theirs && theirs.version === 1) dispatch({ type: "replace", doc: theirs });
           }}
         />
       ) : null}

@@ -3,14 +3,15 @@
 import { useEffect, useRef } from "react";
 import { Button } from "@/components/ui/button";
 import type { DraftView } from "@/lib/api/bench-queries";
-import type { BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument, BenchDocument } from "@/lib/bench/schema";
 import { documentDifferences } from "./element-diff";
 
-type Props = { mine: BenchDocument; current: DraftView; message: string; onKeepMine: () => void; onTakeTheirs: () => void };
+type Props = { mine: AnyBenchDocument; current: DraftView; message: string; onKeepMine: () => void; onTakeTheirs: () => void };
 
 export function ConflictDialog({ mine, current, message, onKeepMine, onTakeTheirs }: Props) {
-  // A table (version 2) saved over a rail cannot be compared element by element here: every element then differs.
-  const differences = current.document.version === 1 ? documentDifferences(mine, current.document) : [];
+  // Element by element when both are rails or both are tables (the sentences read a rail position or a place on the
+  // table); a table saved over a rail, or the other way, cannot be compared so: every element then differs.
+  const differences = current.document.version === mine.version ? documentDifferences(mine as BenchDocument, current.document as BenchDocument) : [];
   const heading = useRef<HTMLHeadingElement>(null);
   useEffect(() => heading.current?.focus(), []);
   return (

@@ -2,7 +2,8 @@
 // short sentences two ways — the conflict dialog (yours vs the saved version) and the revisions panel (what
 // changed since the revision last sent for review).
 import type { BenchDocument, BenchElement } from "@/lib/bench/schema";
-import { KIND_INFO, shortLabel } from "./element-kinds";
+import { kindLabel } from "@/lib/bench/element-kinds";
+import { shortLabel } from "./element-kinds";
 
 export type ElementDifference = { id: string; sentence: string };
 
@@ -16,6 +17,12 @@ export type DocumentChanges = { title: { before: string; after: string } | null;
 /** Field names in words, with their unit ("" when the quantity has none). */
 const FIELD_WORDS: Record<string, { label: string; unit: string }> = {
   positionMm: { label: "position", unit: "mm" },
+  xMm: { label: "x", unit: "mm" },
+  yMm: { label: "y", unit: "mm" },
+  angleDeg: { label: "angle", unit: "°" },
+  reflectance: { label: "reflectance", unit: "" },
+  reflectancePerSurface: { label: "reflectance per surface", unit: "" },
+  clearApertureMm: { label: "clear aperture", unit: "mm" },
   wavelengthNm: { label: "wavelength", unit: "nm" },
   powerMw: { label: "power", unit: "mW" },
   beamDiameterMm: { label: "beam diameter", unit: "mm" },
@@ -28,7 +35,12 @@ const FIELD_WORDS: Record<string, { label: string; unit: string }> = {
 };
 
 const words = (key: string) => FIELD_WORDS[key] ?? { label: key, unit: "" };
-const describe = (e: BenchElement) => `${KIND_INFO[e.kind].label.toLowerCase()} at ${e.positionMm} mm`;
+// A table element (bench document version 2) has x and y instead of a rail position; the same sentences serve both.
+const describe = (e: BenchElement) => {
+  const placed = e as unknown as { positionMm?: number; xMm?: number; yMm?: number };
+  const at = placed.positionMm !== undefined ? `${placed.positionMm} mm` : `(${placed.xMm}, ${placed.yMm}) mm`;
+  return `${kindLabel(e.kind).toLowerCase()} at ${at}`;
+};
 const shown = (v: unknown) => (v === undefined || v === null ? "—" : String(v));
 
 /** What changed going from `before` to `after`: elements of `after` in their order (added or changed), then those only in `before`. */

@@ -20,6 +20,7 @@ export type NumericField = {
   unit: string;
   hint?: string;
   optional?: boolean;
+  allowEmpty?: boolean;
   step?: number;
 };
 

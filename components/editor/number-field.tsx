@@ -13,6 +13,8 @@ type Props = {
   unit: string;
   hint?: string;
   optional?: boolean;
+  /** Empty is passed on as undefined (for the check to judge) without the label saying "optional". */
+  allowEmpty?: boolean;
   value: number | undefined;
   step?: number;
   readOnly?: boolean;
@@ -24,7 +26,8 @@ type Props = {
 
 const show = (v: number | undefined) => (v === undefined ? "" : String(v));
 
-export function NumberField({ id, label, unit, hint, optional = false, value, step, readOnly, check, onCommit }: Props) {
+export function NumberField({ id, label, unit, hint, optional = false, allowEmpty = false, value, step, readOnly, check, onCommit }: Props) {
+  const emptyOk = optional || allowEmpty;
   const [text, setText] = useState(show(value));
   const [shown, setShown] = useState(value);
   const [error, setError] = useState<string | null>(null);
@@ -33,7 +36,7 @@ export function NumberField({ id, label, unit, hint, optional = false, value, st
   // An outside change (drag, undo, import) replaces the text unless the text already says that value.
   if (value !== shown) {
     setShown(value);
-    const parsed = parseNumber(text, optional);
+    const parsed = parseNumber(text, emptyOk);
     if (!("value" in parsed) || parsed.value !== value) {
       setText(show(value));
       setError(null);
@@ -42,7 +45,7 @@ export function NumberField({ id, label, unit, hint, optional = false, value, st
 
   const change = (next: string) => {
     setText(next);
-    const parsed = parseNumber(next, optional);
+    const parsed = parseNumber(next, emptyOk);
     if ("error" in parsed) return setError(parsed.error);
     const problem = check(parsed.value);
     setError(problem);

@@ -3,7 +3,8 @@
 // laser also its link to the laser register (register-entry.tsx).
 import type { BenchElement } from "@/lib/bench/schema";
 import { ElementIcon } from "./element-icon";
-import { ELEMENT_SCHEMAS, KIND_INFO } from "./element-kinds";
+import { checkField } from "./field-check";
+import { KIND_INFO } from "./element-kinds";
 import { LaserLines } from "./laser-lines";
 import { NumberField } from "./number-field";
 import { RegisterEntryBox } from "./register-entry";
@@ -17,16 +18,6 @@ type Props = {
   labId: string;
   labName: string;
 };
-
-function checkField(element: BenchElement, key: string) {
-  return (value: number | undefined): string | null => {
-    const candidate = { ...element, [key]: value } as Record<string, unknown>;
-    if (value === undefined) delete candidate[key];
-    const result = ELEMENT_SCHEMAS[element.kind].safeParse(candidate);
-    if (result.success) return null;
-    return result.error.issues.find((i) => i.path[0] === key)?.message ?? null;
-  };
-}
 
 export function PropertiesPanel({ selected, canEdit, dispatch, warnings, labId, labName }: Props) {
   if (selected.length === 0) {
@@ -69,6 +60,7 @@ export function PropertiesPanel({ selected, canEdit, dispatch, warnings, labId, 
             unit={f.unit}
             hint={f.hint}
             optional={f.optional}
+            allowEmpty={f.allowEmpty}
             step={f.step}
             readOnly={!canEdit}
             value={values[f.key] as number | undefined}

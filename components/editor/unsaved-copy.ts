@@ -1,8 +1,8 @@
 // A copy of the drawing kept in this browser while a change is not yet saved, so nothing typed is lost when the page
 // is reloaded, closed or left before the save reached the server (the save on leaving usually gets there first).
-import type { BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument } from "@/lib/bench/schema-v2";
 
-export type UnsavedCopy = { document: BenchDocument; baseRevision: number; baseVersion: number; key: string; savedAtMs: number };
+export type UnsavedCopy = { document: AnyBenchDocument; baseRevision: number; baseVersion: number; key: string; savedAtMs: number };
 
 const storageKey = (benchId: string) => `benchwarden:unsaved:${benchId}`;
 
@@ -19,6 +19,15 @@ export function forgetUnsaved(benchId: string): void {
     window.localStorage.removeItem(storageKey(benchId));
   } catch {
     // nothing to forget
+  }
+}
+
+/** The stored copy as text (a stable value to subscribe to), or null. */
+export function unsavedText(benchId: string): string | null {
+  try {
+    return window.localStorage.getItem(storageKey(benchId));
+  } catch {
+    return null;
   }
 }
 

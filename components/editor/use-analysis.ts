@@ -23,7 +23,8 @@ export type AnalysisView = {
   settled: { doc: BenchDocument; hash: string } | null;
 };
 
-export function useAnalysis(doc: BenchDocument): AnalysisView {
+/** `labId`: the bench's lab, whose chosen safety standard the hazard figures follow. */
+export function useAnalysis(doc: BenchDocument, labId?: string): AnalysisView {
   const key = useMemo(() => documentKey(doc), [doc]);
   const validity = useMemo(() => benchDocumentSchema.safeParse(doc), [doc]);
   const settledKey = useDebounced(key, ANALYSIS_DELAY_MS);
@@ -33,7 +34,7 @@ export function useAnalysis(doc: BenchDocument): AnalysisView {
   }, [settledKey, key, validity]);
 
   const query = useQuery({
-    ...analysisQuery(settled?.doc ?? doc, settled?.key ?? key, settled?.hash ?? "pending"),
+    ...analysisQuery(settled?.doc ?? doc, settled?.key ?? key, settled?.hash ?? "pending", labId),
     enabled: settled !== null,
     placeholderData: keepPreviousData,
   });

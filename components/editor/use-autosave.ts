@@ -7,7 +7,8 @@ import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } fr
 import { useQueryClient } from "@tanstack/react-query";
 import { putDraft, useSaveDraft, type DraftView, type SaveDraftOutcome } from "@/lib/api/bench-queries";
 import { ApiError, queryKeys } from "@/lib/api/client";
-import { benchDocumentSchema, describeIssues, type BenchDocument } from "@/lib/bench/schema";
+import { describeIssues } from "@/lib/bench/schema";
+import { anyBenchDocumentSchema, type AnyBenchDocument } from "@/lib/bench/schema-v2";
 import { documentKey } from "./document-key";
 import { forgetUnsaved, keepUnsaved } from "./unsaved-copy";
 
@@ -36,7 +37,8 @@ const baseOf = (draft: DraftView): Base => ({
   key: documentKey(draft.document),
 });
 
-export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocument, canEdit: boolean) {
+/** doc: the working document, a rail (version 1) or a table (version 2); either is saved the same way. */
+export function useAutosave(benchId: string, initial: DraftView, doc: AnyBenchDocument, canEdit: boolean) {
   const queryClient = useQueryClient();
   const save = useSaveDraft(benchId);
   const [base, setBase] = useState<Base>(() => baseOf(initial));
@@ -45,7 +47,7 @@ export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocum
   const [retryTick, setRetryTick] = useState(0);
 
   const key = useMemo(() => documentKey(doc), [doc]);
-  const validity = useMemo(() => benchDocumentSchema.safeParse(doc), [doc]);
+  const validity = useMemo(() => anyBenchDocumentSchema.safeParse(doc), [doc]);
   const dirty = key !== base.key;
 
   // What the leave handlers need, current at the moment the page is left.
@@ -183,18 +185,14 @@ export function useAutosave(benchId: string, initial: DraftView, doc: BenchDocum
   }, [conflict, queryClient, benchId]);
 
   /** Take theirs: the server's document becomes the drawing (one undo step brings mine back). */
-  const takeTheirs = useCallback((): BenchDocument | null => {
+  const takeTheirs = useCallback((): AnyBenchDocument | null => {
     if (!conflict) return null;
     queryClient.setQueryData(queryKeys.draft(benchId), conflict.current);
     setBase(baseOf(conflict.current));
     setConflict(null);
-    const theirs = conflict.current.document;
-    // The server's draft is now a table (version 2): this rail editor cannot hold it; the page opens it afresh.
-    if (theirs.version !== 1) {
-      window.location.reload();
-      return null;
-    }
-    return theirs;
+    // A draft of the other version (a table saved over a rail, or the reverse) is not taken by this editor: the draft in
+    // the cache is now that document, and BenchEditor opens the editor that holds it.
+    return conflict.current.document;
   }, [conflict, queryClient, benchId]);
 
   /** A new working draft made elsewhere in the editor (e.g. "make a revision"): the edit is based on it from now on. */

@@ -8,7 +8,18 @@ const TITLES = { approved: "● Signed off", "changes-requested": "◑ Changes a
 /** The signature as recorded: who, in which role, when, what it means, for which content hash, and the hazard picture then. */
 export function DecisionRecord({ decision, expiredOrReplaced }: { decision: DecisionView; expiredOrReplaced?: string | null }) {
   const h = decision.hazardSummary as
-    | { hazardClass?: { value: string }; governingOd?: { value: number; elementId: string } | null; nohd?: { value: number }; mpe?: { value: number; unit: string }; problem?: string }
+    | {
+        hazardClass?: { value: string };
+        governingOd?: { value: number; elementId: string } | null;
+        nohd?: { value: number };
+        mpe?: { value: number; unit: string };
+        problem?: string;
+        /** A table's summary (version 2): every laser, the paths, the open beams. */
+        version?: number;
+        lasers?: unknown[];
+        paths?: unknown[];
+        openBeams?: { exceedsMpe: boolean }[];
+      }
     | null;
   const tone = decision.outcome === "approved" ? "border-ok" : decision.outcome === "rejected" ? "border-danger" : "border-warn";
   return (
@@ -55,7 +66,9 @@ export function DecisionRecord({ decision, expiredOrReplaced }: { decision: Deci
           Hazard picture when signed:{" "}
           {h.problem
             ? h.problem
-            : `Class ${h.hazardClass?.value ?? "—"}, MPE ${fmt(h.mpe?.value)} ${h.mpe?.unit ?? ""}, NOHD ${nohdWords(h.nohd?.value, (v) => fmt(v))}, ${h.governingOd ? `${eyewearWords(h.governingOd.value).line} at ${h.governingOd.elementId}` : "eyewear —"}.`}
+            : h.version === 2
+              ? `Class ${h.hazardClass?.value ?? "—"} (the most hazardous of ${h.lasers?.length ?? 0} laser${h.lasers?.length === 1 ? "" : "s"}), ${h.paths?.length ?? 0} beam paths, ${(h.openBeams ?? []).filter((o) => o.exceedsMpe).length} open beam${(h.openBeams ?? []).filter((o) => o.exceedsMpe).length === 1 ? "" : "s"} above the MPE, largest NOHD ${nohdWords(h.nohd?.value, (v) => fmt(v))}, ${h.governingOd ? `${eyewearWords(h.governingOd.value).line} at ${h.governingOd.elementId}` : "eyewear —"}.`
+              : `Class ${h.hazardClass?.value ?? "—"}, MPE ${fmt(h.mpe?.value)} ${h.mpe?.unit ?? ""}, NOHD ${nohdWords(h.nohd?.value, (v) => fmt(v))}, ${h.governingOd ? `${eyewearWords(h.governingOd.value).line} at ${h.governingOd.elementId}` : "eyewear —"}.`}
         </p>
       ) : null}
       {h && !h.problem ? <FinalSay className="mt-2 text-muted" /> : null}

@@ -2,7 +2,8 @@ import { fmt } from "@/components/review/format";
 import { displayedCautions } from "@/components/ui/cautions";
 import { capitalise, CENTRE_WORDS, eyewearWords, formatDate, formatDateTime, HAZARD_LABELS, nohdWords, ONE_OVER_E_NOTE, plainText, limitationText } from "@/lib/format";
 import { FINAL_SAY, LIMITATIONS } from "@/lib/safety";
-import type { SheetContent } from "@/lib/build/sheet";
+import { isTableSheet, type SheetContent, type TableSheetContent } from "@/lib/build/sheet";
+import { PrintTableSheet } from "./print-table-sheet";
 import type { CoverageData } from "@/components/eyewear/coverage-list";
 import { PrintCoverage, PrintStandard } from "@/components/eyewear/print-coverage";
 import { ProfilePlot } from "./profile-plot";
@@ -10,7 +11,7 @@ import { ScaleDrawing } from "./scale-drawing";
 
 // The printed build sheet: black on white, big type for reading at the bench with gloves on, every figure
 // with its unit. Page 1 identity, drawing and parts; then build order, predictions, safety and approval.
-const CSS = `
+export const SHEET_CSS = `
 @page { margin: 16mm 15mm 18mm 15mm; }
 html, body { background: #fff !important; color: #000 !important; }
 /* The app's own font (Inter, shipped from the @fontsource-variable/inter npm package), so the sheet
@@ -77,7 +78,120 @@ function day(d: Date | string | null | undefined): string {
   return formatDate(d);
 }
 
-export function PrintSheet({ sheet, paper, eyewear = null }: { sheet: SheetContent; paper: "A4" | "Letter"; eyewear?: CoverageData | null }) {
+/** What arrives on each screen the light reaches (the engine's analysis.screens): power, centre and its ratio. */
+export function ScreenFigures({ screens }: { screens: readonly { id: string; pathId?: string; powerMw: number; centre: string | null; centreIntensityRatio: number | null; positionMm?: number }[] }) {
+  return (
+    <div style={{ marginBottom: "4mm" }} data-testid="sheet-screens">
+      <h3>On each screen</h3>
+      <table>
+        <thead>
+          <tr>
+            <th>Screen</th>
+            <th>Power arriving</th>
+            <th>Centre of the pattern</th>
+            <th>Centre intensity</th>
+          </tr>
+        </thead>
+        <tbody>
+          {screens.map((s) => (
+            <tr key={`${s.id}-${s.pathId ?? ""}`}>
+              <td>
+                <strong>{s.id}</strong>
+                {s.pathId ? ` (beam ${s.pathId})` : s.positionMm !== undefined ? ` (${s.positionMm} mm)` : ""}
+              </td>
+              <td className="num">{fmt(s.powerMw)} mW</td>
+              <td>{s.centre ? (CENTRE_WORDS[s.centre as keyof typeof CENTRE_WORDS] ?? s.centre) : "—"}</td>
+              <td className="num">{s.centreIntensityRatio !== null ? `×${fmt(s.centreIntensityRatio)} of the open beam` : "—"}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+type SheetIdentity = Pick<SheetContent, "revision" | "decision" | "qrSvg" | "verifyUrl">;
+
+/** Page 1's head: the bench, the revision and its sign-off, the content hash and the QR code of the online record. */
+export function SheetHead({ sheet }: { sheet: SheetIdentity }) {
+  const { revision, decision } = sheet;
+  return (
+    <header className="head">
+      <div>
+        <p style={{ margin: 0, fontSize: "12pt" }}>Build sheet · {revision.labName}</p>
+        <h1>{revision.benchTitle}</h1>
+        <p className="big" style={{ margin: "2mm 0" }}>
+          Revision {revision.number} · {revision.status === "valid" ? "SIGNED OFF" : revision.status === "expired" ? "SIGN-OFF EXPIRED — DO NOT BUILD" : "REPLACED — DO NOT BUILD"}
+        </p>
+        <p style={{ margin: 0 }}>
+          Signed off by <strong>{decision?.signerName ?? "—"}</strong> on <strong className="nowrap">{day(decision?.decidedAt)}</strong>
+          {decision?.validUntil ? (
+            <>
+              {" "}
+              · valid until <strong className="nowrap">{day(decision.validUntil)}</strong>
+            </>
+          ) : null}{" "}
+          · drawn by {revision.authorName}
+        </p>
+        <p style={{ margin: "2mm 0 0" }}>
+          Content hash (SHA-256):
+          <br />
+          <span className="hash" data-testid="sheet-hash">
+            {revision.contentHash}
+          </span>
+        </p>
+      </div>
+      <div className="qr" aria-label="QR code linking to the online record">
+        <div dangerouslySetInnerHTML={{ __html: sheet.qrSvg }} />
+        <p style={{ fontSize: "9pt", margin: "1mm 0 0", textAlign: "center" }}>Scan to check the online record</p>
+      </div>
+    </header>
+  );
+}
+
+/** The approval box that closes every sheet. */
+export function ApprovalBox({ sheet }: { sheet: SheetIdentity }) {
+  const { revision, decision } = sheet;
+  return (
+    <section className="box">
+      <h2>Approval</h2>
+      <dl className="facts">
+        <dt>Officer</dt>
+        <dd>
+          {decision?.signerName ?? "—"}
+          {decision ? `, ${decision.signerRole}` : ""}
+        </dd>
+        <dt>Signed on</dt>
+        <dd className="nowrap">{decision ? formatDateTime(decision.decidedAt) : "—"}</dd>
+        <dt>Meaning</dt>
+        <dd>{decision?.meaning ?? "—"}</dd>
+        <dt>Conditions</dt>
+        <dd>{decision?.conditions || "None"}</dd>
+        <dt>Valid until</dt>
+        <dd className="nowrap">{decision?.validUntil ? `${day(decision.validUntil)} (to the end of that day)` : "No end date"}</dd>
+        <dt>Revision</dt>
+        <dd>
+          {revision.number} of “{revision.benchTitle}”, {revision.labName}
+        </dd>
+        <dt>Content hash</dt>
+        <dd className="hash">{revision.contentHash}</dd>
+        <dt>Check online</dt>
+        <dd className="mono">{sheet.verifyUrl}</dd>
+      </dl>
+      <p style={{ margin: "3mm 0 0" }}>
+        The figures on this sheet are advice. Work is authorised by the sign-off above, under its conditions, for as long as it is valid.
+      </p>
+      <p style={{ margin: "3mm 0 0", fontWeight: 700 }}>Uncontrolled when printed — check the online record before use (scan the QR code on page 1).</p>
+    </section>
+  );
+}
+
+export function PrintSheet({ sheet, paper, eyewear = null }: { sheet: SheetContent | TableSheetContent; paper: "A4" | "Letter"; eyewear?: CoverageData | null }) {
+  if (isTableSheet(sheet)) return <PrintTableSheet sheet={sheet} paper={paper} eyewear={eyewear} />;
+  return <RailSheet sheet={sheet} paper={paper} eyewear={eyewear} />;
+}
+
+function RailSheet({ sheet, paper, eyewear = null }: { sheet: SheetContent; paper: "A4" | "Letter"; eyewear?: CoverageData | null }) {
   const { revision, decision, safety, analysis } = sheet;
   const governing = safety?.governing ?? null;
   const od = governing?.opticalDensityRequired ?? 0;
@@ -86,39 +200,10 @@ export function PrintSheet({ sheet, paper, eyewear = null }: { sheet: SheetConte
   const cautions = safety ? displayedCautions(safety.cautions) : [];
   return (
     <div className="sheet" data-print-ready="" data-paper={paper}>
-      <style dangerouslySetInnerHTML={{ __html: CSS }} />
+      <style dangerouslySetInnerHTML={{ __html: SHEET_CSS }} />
 
       {/* ── Page 1: identity, drawing, parts ───────────────────────────────────────────── */}
-      <header className="head">
-        <div>
-          <p style={{ margin: 0, fontSize: "12pt" }}>Build sheet · {revision.labName}</p>
-          <h1>{revision.benchTitle}</h1>
-          <p className="big" style={{ margin: "2mm 0" }}>
-            Revision {revision.number} · {revision.status === "valid" ? "SIGNED OFF" : revision.status === "expired" ? "SIGN-OFF EXPIRED — DO NOT BUILD" : "REPLACED — DO NOT BUILD"}
-          </p>
-          <p style={{ margin: 0 }}>
-            Signed off by <strong>{decision?.signerName ?? "—"}</strong> on <strong className="nowrap">{day(decision?.decidedAt)}</strong>
-            {decision?.validUntil ? (
-              <>
-                {" "}
-                · valid until <strong className="nowrap">{day(decision.validUntil)}</strong>
-              </>
-            ) : null}{" "}
-            · drawn by {revision.authorName}
-          </p>
-          <p style={{ margin: "2mm 0 0" }}>
-            Content hash (SHA-256):
-            <br />
-            <span className="hash" data-testid="sheet-hash">
-              {revision.contentHash}
-            </span>
-          </p>
-        </div>
-        <div className="qr" aria-label="QR code linking to the online record">
-          <div dangerouslySetInnerHTML={{ __html: sheet.qrSvg }} />
-          <p style={{ fontSize: "9pt", margin: "1mm 0 0", textAlign: "center" }}>Scan to check the online record</p>
-        </div>
-      </header>
+      <SheetHead sheet={sheet} />
       {decision?.conditions ? (
         <p className="warn">Conditions of the sign-off: {decision.conditions}</p>
       ) : null}
@@ -261,6 +346,7 @@ export function PrintSheet({ sheet, paper, eyewear = null }: { sheet: SheetConte
             ) : null}
           </div>
         ))}
+        {analysis?.screens.length ? <ScreenFigures screens={analysis.screens} /> : null}
         {analysis?.warnings.length ? (
           <div className="box">
             <h3 style={{ marginTop: 0 }}>Notes on the predictions</h3>
@@ -349,36 +435,7 @@ export function PrintSheet({ sheet, paper, eyewear = null }: { sheet: SheetConte
         <p className="warn">{FINAL_SAY}</p>
       </section>
 
-      <section className="box">
-        <h2>Approval</h2>
-        <dl className="facts">
-          <dt>Officer</dt>
-          <dd>
-            {decision?.signerName ?? "—"}
-            {decision ? `, ${decision.signerRole}` : ""}
-          </dd>
-          <dt>Signed on</dt>
-          <dd className="nowrap">{decision ? formatDateTime(decision.decidedAt) : "—"}</dd>
-          <dt>Meaning</dt>
-          <dd>{decision?.meaning ?? "—"}</dd>
-          <dt>Conditions</dt>
-          <dd>{decision?.conditions || "None"}</dd>
-          <dt>Valid until</dt>
-          <dd className="nowrap">{decision?.validUntil ? `${day(decision.validUntil)} (to the end of that day)` : "No end date"}</dd>
-          <dt>Revision</dt>
-          <dd>
-            {revision.number} of “{revision.benchTitle}”, {revision.labName}
-          </dd>
-          <dt>Content hash</dt>
-          <dd className="hash">{revision.contentHash}</dd>
-          <dt>Check online</dt>
-          <dd className="mono">{sheet.verifyUrl}</dd>
-        </dl>
-        <p style={{ margin: "3mm 0 0" }}>
-          The figures on this sheet are advice. Work is authorised by the sign-off above, under its conditions, for as long as it is valid.
-        </p>
-        <p style={{ margin: "3mm 0 0", fontWeight: 700 }}>Uncontrolled when printed — check the online record before use (scan the QR code on page 1).</p>
-      </section>
+      <ApprovalBox sheet={sheet} />
     </div>
   );
 }

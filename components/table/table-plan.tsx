@@ -28,13 +28,18 @@ type Props = {
   idPrefix?: string;
   /** Hide the legend (the build sheet prints its own). */
   legend?: boolean;
+  /**
+   * Draw the nominal hazard zone: beyond the edge, each open beam above the MPE as a red corridor out to its NOHD (cut
+   * at the drawing's margin, with the distance written), and round each screen its diffuse-reflection hazard zone.
+   */
+  zones?: { screenHazards?: readonly { elementId: string; diffuseReflectionNhzM: number }[] } | null;
 };
 
-export function TablePlan({ doc, analysis, safety = null, idPrefix = "table-plan", legend = true }: Props) {
+export function TablePlan({ doc, analysis, safety = null, idPrefix = "table-plan", legend = true, zones = null }: Props) {
   const plan = tablePlan(doc, analysis, safety);
   const { widthMm: w, depthMm: d } = plan;
   const size = Math.max(w, d);
-  const margin = size * 0.04;
+  const margin = size * (zones ? 0.14 : 0.04);
   const text = size / 70;
   const beamWidth = size / 400;
   const flipY = (y: number) => d - y;
@@ -63,6 +68,63 @@ export function TablePlan({ doc, analysis, safety = null, idPrefix = "table-plan
         </defs>
         <rect x={0} y={0} width={w} height={d} fill="var(--color-raised)" stroke="var(--color-line)" strokeWidth={beamWidth} />
         <rect x={0} y={0} width={w} height={d} fill={`url(#${patternId})`} />
+        {zones ? (
+          <g data-testid="hazard-zone">
+            {plan.openBeams
+              .filter((o) => o.exceedsMpe)
+              .map((o) => {
+                // the corridor beyond the edge: as long as the NOHD, cut where the drawing ends
+                const a = (o.directionDeg * Math.PI) / 180;
+                const reachMm = Math.min(o.nohdM * 1000, margin * 0.92);
+                const half = text * 0.9;
+                const ux = Math.cos(a);
+                const uy = Math.sin(a);
+                const px = -uy * half;
+                const py = ux * half;
+                const far = { x: o.xMm + ux * reachMm, y: o.yMm + uy * reachMm };
+                const pts = [
+                  [o.xMm + px, o.yMm + py],
+                  [far.x + px * 1.6, far.y + py * 1.6],
+                  [far.x - px * 1.6, far.y - py * 1.6],
+                  [o.xMm - px, o.yMm - py],
+                ];
+                return (
+                  <polygon
+                    key={`nhz-${o.pathId}`}
+                    points={pts.map(([x, y]) => `${x},${flipY(y)}`).join(" ")}
+                    fill="var(--color-danger)"
+                    fillOpacity={0.22}
+                    stroke="var(--color-danger)"
+                    strokeWidth={beamWidth * 0.6}
+                    strokeDasharray={o.nohdM * 1000 > reachMm ? `${beamWidth * 4} ${beamWidth * 2}` : undefined}
+                    data-nhz-path={o.pathId}
+                  >
+                    <title>{`Nominal hazard zone of beam ${o.pathId}: along the beam to ${fmt(o.nohdM)} m beyond the table edge${o.nohdM * 1000 > reachMm ? " (drawn cut short)" : ""}`}</title>
+                  </polygon>
+                );
+              })}
+            {(zones.screenHazards ?? []).map((h) => {
+              const screen = plan.elements.find((e) => e.id === h.elementId);
+              if (!screen || !(h.diffuseReflectionNhzM > 0)) return null;
+              return (
+                <circle
+                  key={`nhz-${h.elementId}`}
+                  cx={screen.xMm}
+                  cy={flipY(screen.yMm)}
+                  r={Math.min(h.diffuseReflectionNhzM * 1000, size)}
+                  fill="var(--color-danger)"
+                  fillOpacity={0.1}
+                  stroke="var(--color-danger)"
+                  strokeWidth={beamWidth * 0.6}
+                  strokeDasharray={`${beamWidth * 3} ${beamWidth * 2}`}
+                  data-nhz-screen={h.elementId}
+                >
+                  <title>{`Diffuse-reflection hazard zone round ${h.elementId}: ${fmt(h.diffuseReflectionNhzM)} m`}</title>
+                </circle>
+              );
+            })}
+          </g>
+        ) : null}
         {plan.beams.map((b) => (
           <line
             key={b.pathId}
@@ -116,7 +178,7 @@ export function TablePlan({ doc, analysis, safety = null, idPrefix = "table-plan
       {legend ? (
         <figcaption className="text-sm text-muted">
           Top view to scale, holes every {fmt(plan.holePitchMm)} mm; y runs away from the viewer. Beams: red above the MPE, green within it; dashed where a beam
-          leaves the table. {plan.openBeams.length === 0 ? "Every beam ends on the table." : `${plan.openBeams.length} beam${plan.openBeams.length === 1 ? " leaves" : "s leave"} the table (circled).`}
+          leaves the table.{zones ? " Shaded red: the nominal hazard zone (open beams above the MPE out to their NOHD; dashed where cut short)." : ""} {plan.openBeams.length === 0 ? "Every beam ends on the table." : `${plan.openBeams.length} beam${plan.openBeams.length === 1 ? " leaves" : "s leave"} the table (circled).`}
         </figcaption>
       ) : null}
     </figure>

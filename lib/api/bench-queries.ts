@@ -30,21 +30,25 @@ export const draftQuery = (benchId: string) =>
     refetchOnWindowFocus: false,
   });
 
-/** The analysis of a table (version 2), cached under the same key factory as the rail's. */
-export const tableAnalysisQuery = (document: BenchDocumentV2, hash: string) =>
+/** The analysis of a table (version 2), cached under the same key factory as the rail's; with `labId`, as analysisQuery. */
+export const tableAnalysisQuery = (document: BenchDocumentV2, hash: string, labId?: string) =>
   queryOptions({
-    queryKey: queryKeys.analysis(hash),
-    queryFn: ({ signal }) => apiFetch<TableAnalyzeResponse>("/api/analyze", { method: "POST", body: json(document), signal }),
+    queryKey: labId ? [...queryKeys.analysis(hash), "lab", labId] : queryKeys.analysis(hash),
+    queryFn: ({ signal }) =>
+      apiFetch<TableAnalyzeResponse>(labId ? `/api/analyze?labId=${encodeURIComponent(labId)}` : "/api/analyze", { method: "POST", body: json(document), signal }),
     staleTime: Infinity,
     gcTime: 60_000,
     retry: false,
   });
 
-export const analysisQuery = (document: BenchDocument, documentKey: string, hash: string) =>
+/** With `labId`, the hazard figures follow that lab's chosen safety standard (the server reads it). */
+export const analysisQuery = (document: BenchDocument, documentKey: string, hash: string, labId?: string) =>
   queryOptions({
-    queryKey: queryKeys.analysis(hash),
+    queryKey: labId ? [...queryKeys.analysis(hash), "lab", labId] : queryKeys.analysis(hash),
     queryFn: ({ signal }) =>
-      apiFetch<AnalyzeResponse>("/api/analyze", { method: "POST", body: json(document), signal }).then((r): KeyedAnalysis => ({ ...r, documentKey })),
+      apiFetch<AnalyzeResponse>(labId ? `/api/analyze?labId=${encodeURIComponent(labId)}` : "/api/analyze", { method: "POST", body: json(document), signal }).then(
+        (r): KeyedAnalysis => ({ ...r, documentKey }),
+      ),
     staleTime: Infinity,
     gcTime: 60_000,
     retry: false,

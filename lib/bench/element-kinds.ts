@@ -10,6 +10,11 @@ export type KindField = {
   unit: string;
   hint?: string;
   optional?: boolean;
+  /**
+   * The field may be left empty although the label does not say "optional": whether empty is acceptable depends on
+   * other fields (a laser's power may be empty only for a single pulse given by its energy), and the schema says so.
+   */
+  allowEmpty?: boolean;
   step?: number;
 };
 
@@ -70,12 +75,14 @@ export const ELEMENT_KIND_RECORDS: Record<TableElementKind, ElementKindRecord> =
     defaults: { wavelengthNm: 632.8, powerMw: 1, beamDiameterMm: 0.8 },
     fields: [
       { key: "wavelengthNm", label: "Wavelength", unit: "nm", step: 0.1 },
-      { key: "powerMw", label: "Power", unit: "mW", hint: "Average power for a pulse train.", step: 0.1 },
+      { key: "powerMw", label: "Power", unit: "mW", allowEmpty: true, hint: "Average power for a pulse train. For a single pulse given by its energy, leave it empty.", step: 0.1 },
       { key: "beamDiameterMm", label: "Beam diameter (1/e², at the waist)", unit: "mm", step: 0.1 },
       { key: "m2", label: "Beam quality M²", unit: "", optional: true, hint: "Leave empty for an ideal beam (M² = 1).", step: 0.1 },
       { key: "pulseEnergyJ", label: "Pulse energy", unit: "J", optional: true, hint: "Pulsed lasers: energy of one pulse (e.g. 1e-3 for 1 mJ). Leave empty for a continuous laser." },
       { key: "pulseDurationS", label: "Pulse duration", unit: "s", optional: true, hint: "Pulsed lasers: e.g. 1e-8 for 10 ns, 1e-13 for 100 fs." },
-      { key: "pulseRepetitionRateHz", label: "Repetition rate", unit: "Hz", optional: true, hint: "Pulse trains only; empty for a single pulse." },
+      { key: "pulseRepetitionRateHz", label: "Repetition rate", unit: "Hz", optional: true, hint: "Pulse trains only: pulses per second on average (for bursts, pulses per burst × bursts per second); empty for a single pulse." },
+      { key: "pulsesPerBurst", label: "Pulses per burst", unit: "", optional: true, hint: "Trains in bursts only: how many pulses each burst holds." },
+      { key: "burstPulseRateHz", label: "Pulse rate inside a burst", unit: "Hz", optional: true, hint: "Trains in bursts only: the rate of the pulses within one burst." },
     ],
     effect: "Emits the beam along its direction.",
   },

@@ -6,6 +6,8 @@ type LaserPowerFields = {
   pulseEnergyJ?: number;
   pulseDurationS?: number;
   pulseRepetitionRateHz?: number;
+  pulsesPerBurst?: number;
+  burstPulseRateHz?: number;
 };
 
 /** Average power in mW: CW power, a train's average (energy × rate); null for a single pulse. */
@@ -50,5 +52,9 @@ export function laserPowerText(laser: LaserPowerFields): string {
   const energyText = energy >= 1e-3 ? `${fmt(energy * 1e3)} mJ` : `${fmt(energy * 1e6)} µJ`;
   const duration = laser.pulseDurationS !== undefined ? `, ${fmt(laser.pulseDurationS)} s pulses` : "";
   if (average === null) return `${energyText} single pulse${duration}`;
-  return `${energyText} × ${fmt(laser.pulseRepetitionRateHz ?? 0)} Hz (${fmt(average)} mW average)${duration}`;
+  const bursts =
+    laser.pulsesPerBurst !== undefined && laser.burstPulseRateHz !== undefined
+      ? `, in bursts of ${fmt(laser.pulsesPerBurst)} at ${fmt(laser.burstPulseRateHz)} Hz (${fmt((laser.pulseRepetitionRateHz ?? 0) / laser.pulsesPerBurst)} bursts per second)`
+      : "";
+  return `${energyText} × ${fmt(laser.pulseRepetitionRateHz ?? 0)} Hz (${fmt(average)} mW average)${duration}${bursts}`;
 }

@@ -48,6 +48,17 @@ export const laserSchema = z.object({
   pulseRepetitionRateHz: positive("Pulse repetition rate", "Hz", 1e12).optional(),
   /** Pulsed lasers only: energy of one pulse in joules. Peak power (energy ÷ duration) has no upper cap. */
   pulseEnergyJ: positive("Pulse energy", "J", 1e6).optional(),
+  /**
+   * Trains in bursts only: pulses in each burst (a whole number ≥ 2), with burstPulseRateHz. pulseRepetitionRateHz
+   * stays the average number of pulses per second (pulses per burst × bursts per second).
+   */
+  pulsesPerBurst: finite("Pulses per burst (pulsesPerBurst)")
+    .refine(Number.isInteger, "Pulses per burst (pulsesPerBurst) must be a whole number")
+    .refine((v) => v >= 2, "Pulses per burst (pulsesPerBurst) must be at least 2")
+    .refine((v) => v <= 1e9, "Pulses per burst (pulsesPerBurst) must be at most 1e9")
+    .optional(),
+  /** Trains in bursts only: the pulse rate inside a burst, in hertz. */
+  burstPulseRateHz: positive("Pulse rate inside a burst (burstPulseRateHz)", "Hz", 1e15).optional(),
   /** Further emission lines leaving with the main beam (residual pump, other harmonics); powerMw as for the main line. */
   lines: z
     .array(
@@ -173,11 +184,12 @@ type IssueSink = { addIssue: (issue: { code: "custom"; path: (string | number)[]
  * pulseRepetitionRateHz given together must agree within 1 %; pulses may not overlap (duration × rate < 1).
  */
 export function checkLaserFields(
-  laser: Pick<LaserElement, "powerMw" | "pulseEnergyJ" | "pulseDurationS" | "pulseRepetitionRateHz">,
+  laser: Pick<LaserElement, "powerMw" | "pulseEnergyJ" | "pulseDurationS" | "pulseRepetitionRateHz"> & Partial<Pick<LaserElement, "pulsesPerBurst" | "burstPulseRateHz">>,
   ctx: IssueSink,
   basePath: (string | number)[] = [],
 ): void {
   const { powerMw, pulseEnergyJ, pulseDurationS: τ, pulseRepetitionRateHz: f } = laser;
+  checkBurst(laser, ctx, basePath);
   if (powerMw === undefined && pulseEnergyJ === undefined) {
     ctx.addIssue({ code: "custom", path: [...basePath, "powerMw"], message: "Power (powerMw) is required unless a single pulse is given by its energy (pulseEnergyJ)" });
   }
@@ -211,6 +223,37 @@ export function checkLaserFields(
       code: "custom",
       path: [...basePath, "pulseRepetitionRateHz"],
       message: "Pulse duration × repetition rate must be below 1: at this rate the pulses would overlap. Enter the laser as continuous-wave instead",
+    });
+  }
+}
+
+/**
+ * Bursts: both burst fields or neither, on a train (duration and rate); the pulses inside a burst may not overlap
+ * (duration × rate inside < 1), the rate inside a burst is above the average rate, and one burst (n − 1 pulse gaps plus a
+ * pulse) is shorter than the time from one burst to the next (n ÷ average rate).
+ */
+function checkBurst(laser: Partial<Pick<LaserElement, "pulseDurationS" | "pulseRepetitionRateHz" | "pulsesPerBurst" | "burstPulseRateHz">>, ctx: IssueSink, basePath: (string | number)[]): void {
+  const { pulsesPerBurst: n, burstPulseRateHz: fb, pulseDurationS: τ, pulseRepetitionRateHz: f } = laser;
+  if (n === undefined && fb === undefined) return;
+  if (n === undefined || fb === undefined) {
+    const missing = n === undefined ? "pulsesPerBurst" : "burstPulseRateHz";
+    ctx.addIssue({ code: "custom", path: [...basePath, missing], message: "Bursts need both the pulses per burst (pulsesPerBurst) and the pulse rate inside a burst (burstPulseRateHz)" });
+    return;
+  }
+  if (τ === undefined || f === undefined) {
+    ctx.addIssue({ code: "custom", path: [...basePath, "pulseRepetitionRateHz"], message: "Bursts need a pulse duration and the average pulse repetition rate (pulses per burst × bursts per second)" });
+    return;
+  }
+  if (τ * fb >= 1) {
+    ctx.addIssue({ code: "custom", path: [...basePath, "burstPulseRateHz"], message: "Pulse duration × the rate inside a burst must be below 1: the pulses in a burst would overlap" });
+  }
+  if (fb <= f) {
+    ctx.addIssue({ code: "custom", path: [...basePath, "burstPulseRateHz"], message: "The pulse rate inside a burst (burstPulseRateHz) must be above the average pulse repetition rate" });
+  } else if ((n - 1) / fb + τ >= n / f) {
+    ctx.addIssue({
+      code: "custom",
+      path: [...basePath, "pulsesPerBurst"],
+      message: `One burst (${fmtNumber(n)} pulses at ${fmtNumber(fb)} Hz) lasts as long as the time between bursts (${fmtNumber(n)} ÷ ${fmtNumber(f)} Hz): the bursts would run into each other`,
     });
   }
 }

@@ -4,10 +4,11 @@
 import { laserPowerText } from "@/lib/bench/laser-power";
 import type { ReviewState } from "@/db/schema";
 import { kindTitle } from "@/lib/bench/kinds";
-import type { BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument, BenchDocument, BenchDocumentV2 } from "@/lib/bench/schema";
 import { screenProfile } from "@/lib/optics";
-import { assessRevision } from "@/lib/review/hazard";
-import type { BenchSafetyAssessment } from "@/lib/safety";
+import { assessRevision, assessTableRevision } from "@/lib/review/hazard";
+import { buildOrderV2, directionWords, edgeWords, tableElementSettings } from "@/lib/review/table-paths";
+import type { BenchSafetyAssessment, TableSafetyAssessment } from "@/lib/safety";
 import { capitalise, eyewearWords, formatDate } from "@/lib/format";
 import { conditionLines } from "./conditions";
 import { AppError } from "@/lib/errors";
@@ -90,7 +91,9 @@ export function elementSettings(e: BenchDocument["elements"][number]): string {
  * The items to tick: each element at its position (±POSITION_TOLERANCE_MM), each control the cautions call for, each
  * condition of the officer's sign-off, the eyewear (worded by the one OD rule, lib/format eyewearWords).
  */
-export function checklistFor(doc: BenchDocument, safety: BenchSafetyAssessment | null, conditions?: string | null): ChecklistItem[] {
+export function checklistFor(doc: AnyBenchDocument, safety: BenchSafetyAssessment | TableSafetyAssessment | null, conditions?: string | null): ChecklistItem[] {
+  if (doc.version === 2) return tableChecklist(doc, safety && "openBeams" in safety && Array.isArray(safety.openBeams) ? (safety as TableSafetyAssessment) : null, conditions);
+  const railSafety = safety as BenchSafetyAssessment | null;
   const elements = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm || a.id.localeCompare(b.id));
   const items: ChecklistItem[] = elements.map((e) => ({
     itemKey: `element:${e.id}`,
@@ -100,20 +103,73 @@ export function checklistFor(doc: BenchDocument, safety: BenchSafetyAssessment |
     elementId: e.id,
     expectedPositionMm: e.positionMm,
   }));
-  for (const c of safety?.cautions ?? []) {
+  for (const c of railSafety?.cautions ?? []) {
     if (c.id === "eyewear-od") continue; // the eyewear line below covers it, with the figure
     items.push({ itemKey: `control:${c.id}`, group: "control", label: c.title, detail: c.text, elementId: null, expectedPositionMm: null });
   }
   conditionLines(conditions).forEach((line, i) => {
     items.push({ itemKey: `condition:${i + 1}`, group: "condition", label: line, detail: "A condition of the laser safety officer's sign-off.", elementId: null, expectedPositionMm: null });
   });
-  const od = safety?.governing?.opticalDensityRequired ?? 0;
-  const wavelength = safety?.wavelengthNm ?? doc.elements.find((e) => e.kind === "laser")?.wavelengthNm;
+  const od = railSafety?.governing?.opticalDensityRequired ?? 0;
+  const wavelength = railSafety?.wavelengthNm ?? doc.elements.find((e) => e.kind === "laser")?.wavelengthNm;
   const eyewear = eyewearWords(od, wavelength);
   items.push({
     itemKey: "eyewear",
     group: "eyewear",
     label: eyewear.wholeOd > 0 ? `${eyewear.wear}, for everyone present` : eyewear.wear,
+    detail: eyewear.wholeOd > 0 ? `${capitalise(eyewear.need)}. ${eyewear.check}` : `${capitalise(eyewear.need)}; follow local rules, which may ask for eyewear anyway.`,
+    elementId: null,
+    expectedPositionMm: null,
+  });
+  return items;
+}
+
+/**
+ * A table's checklist: each element in the order the light reaches it, placed by hole and angle (the hole nearest its
+ * centre, and its offset from that hole, on the table's grid; the angle counter-clockwise from +x, as drawn); each
+ * open beam above the MPE to block or enclose; the cautions, the sign-off's conditions and the eyewear.
+ */
+function tableChecklist(doc: BenchDocumentV2, safety: TableSafetyAssessment | null, conditions?: string | null): ChecklistItem[] {
+  const analysis = assessTableRevision(doc);
+  const order = analysis.ok ? buildOrderV2(doc, analysis.analysis) : doc.elements.map((element, i) => ({ order: i + 1, element, hole: "", angleDeg: element.angleDeg, reached: true }));
+  const items: ChecklistItem[] = order.map((s) => {
+    const e = s.element;
+    const settings = tableElementSettings(e);
+    const facing = e.kind === "laser" ? `aimed ${directionWords(e.angleDeg)}` : `face normal ${Number(s.angleDeg.toFixed(2))}° from +x`;
+    return {
+      itemKey: `element:${e.id}`,
+      group: "element",
+      label: `${kindTitle(e.kind)} ${e.id} at ${s.hole || `(${e.xMm}, ${e.yMm}) mm`}, ${Number(s.angleDeg.toFixed(2))}°`,
+      detail: `(${e.xMm}, ${e.yMm}) mm from the front left corner, ${facing}${settings ? `; ${settings}` : ""}${s.reached ? "" : "; no beam reaches it as drawn"}`,
+      elementId: e.id,
+      expectedPositionMm: null,
+    };
+  });
+  for (const o of safety?.openBeams ?? []) {
+    if (!o.exceedsMpe) continue;
+    items.push({
+      itemKey: `open-beam:${o.pathId}`,
+      group: "control",
+      label: `Block or enclose beam ${o.pathId}, which leaves the ${edgeWords(doc, o)} at (${Number(o.xMm.toFixed(1))}, ${Number(o.yMm.toFixed(1))}) mm`,
+      detail: `${Number(o.powerMw.toPrecision(3))} mW heading ${directionWords(o.directionDeg)}, above the MPE; NOHD ${Number(o.nohdM.toPrecision(3))} m beyond the edge.`,
+      elementId: o.startElementId,
+      expectedPositionMm: null,
+    });
+  }
+  for (const c of safety?.cautions ?? []) {
+    if (c.id === "eyewear-od") continue;
+    items.push({ itemKey: `control:${c.id}`, group: "control", label: c.title, detail: c.text, elementId: null, expectedPositionMm: null });
+  }
+  conditionLines(conditions).forEach((line, i) => {
+    items.push({ itemKey: `condition:${i + 1}`, group: "condition", label: line, detail: "A condition of the laser safety officer's sign-off.", elementId: null, expectedPositionMm: null });
+  });
+  const od = safety?.governing?.opticalDensityRequired ?? 0;
+  const lasers = doc.elements.filter((e) => e.kind === "laser");
+  const eyewear = eyewearWords(od, lasers.length === 1 ? lasers[0].wavelengthNm : undefined);
+  items.push({
+    itemKey: "eyewear",
+    group: "eyewear",
+    label: eyewear.wholeOd > 0 ? `${eyewear.wear}, for everyone present${lasers.length > 1 ? " (per line: see the eyewear list)" : ""}` : eyewear.wear,
     detail: eyewear.wholeOd > 0 ? `${capitalise(eyewear.need)}. ${eyewear.check}` : `${capitalise(eyewear.need)}; follow local rules, which may ask for eyewear anyway.`,
     elementId: null,
     expectedPositionMm: null,
@@ -138,7 +194,8 @@ export type AperturePrediction = {
 export type ScreenPrediction = { screenId: string; positionMm: number; beamDiameterMm: number; powerMw: number };
 export type Predictions = { apertures: AperturePrediction[]; screen: ScreenPrediction | null; problem: string | null };
 
-export function predictionsFor(doc: BenchDocument): Predictions {
+export function predictionsFor(doc: AnyBenchDocument): Predictions {
+  if (doc.version === 2) return tablePredictions(doc);
   const assessed = assessRevision(doc);
   if (!assessed.ok) return { apertures: [], screen: null, problem: assessed.problem };
   const { analysis } = assessed;
@@ -169,6 +226,39 @@ export function predictionsFor(doc: BenchDocument): Predictions {
     };
   });
   const lit = analysis.elements.find((e) => e.kind === "screen" && e.status === "lit" && e.incident.powerMw > 0);
+  const screen = lit ? { screenId: lit.id, positionMm: lit.positionMm, beamDiameterMm: 2 * lit.incident.radiusMm, powerMw: lit.incident.powerMw } : null;
+  return { apertures, screen, problem: null };
+}
+
+/**
+ * A table's predictions: each lit aperture on each path (spot size not given: the screen profile is a rail
+ * computation), and the screen receiving the most power, its position the unfolded length from its laser.
+ */
+function tablePredictions(doc: BenchDocumentV2): Predictions {
+  const assessed = assessTableRevision(doc);
+  if (!assessed.ok) return { apertures: [], screen: null, problem: assessed.problem };
+  const { analysis } = assessed;
+  const screenEntry = (id: string | null, pathId: string) => (id ? analysis.elements.find((e) => e.id === id && e.kind === "screen") : undefined) ?? analysis.elements.find((e) => e.pathId === pathId && e.kind === "screen");
+  const seen = new Set<string>();
+  const apertures: AperturePrediction[] = [];
+  for (const a of analysis.apertures) {
+    if (seen.has(a.id)) continue;
+    seen.add(a.id);
+    const screen = a.screenId ? screenEntry(a.screenId, a.pathId) : undefined;
+    apertures.push({
+      apertureId: a.id,
+      diameterMm: a.diameterMm,
+      screenId: a.screenId,
+      observationDistanceMm: a.observationDistanceMm,
+      fresnelNumber: a.fresnelNumber,
+      centre: a.centre,
+      centreIntensityRatio: a.centreIntensityRatio,
+      transmittedFraction: a.transmittedFraction,
+      spotDiameterMm: null,
+      screenPowerMw: screen ? screen.incident.powerMw : null,
+    });
+  }
+  const lit = analysis.elements.filter((e) => e.kind === "screen" && e.incident.powerMw > 0).sort((a, b) => b.incident.powerMw - a.incident.powerMw)[0];
   const screen = lit ? { screenId: lit.id, positionMm: lit.positionMm, beamDiameterMm: 2 * lit.incident.radiusMm, powerMw: lit.incident.powerMw } : null;
   return { apertures, screen, problem: null };
 }

@@ -9,6 +9,10 @@ import { assessRevision } from "@/lib/review/hazard";
 import type { BenchSafetyAssessment } from "@/lib/safety";
 import { eyewearWords } from "@/lib/format/eyewear";
 import { elementSettings, POSITION_TOLERANCE_MM, type ChecklistItem, type SignOffRecord, type SignOffStatus } from "./rules";
+import type { BenchDocumentV2 } from "@/lib/bench/schema-v2";
+import type { TableAnalysis } from "@/lib/optics/table";
+import type { TableSafetyAssessment } from "@/lib/safety/table";
+import type { BuildStepV2, PathRow } from "@/lib/review/table-paths";
 
 // ── The sheet's content, for the print route ──────────────────────────────────────────────────
 export type RegisterEntry = {
@@ -52,6 +56,24 @@ export type SheetContent = {
   verifyUrl: string;
   qrSvg: string;
 };
+
+/** The printed sheet of a table (bench document version 2): the plan, the build order following the light, where every beam ends. */
+export type TableSheetContent = Pick<SheetContent, "revision" | "decision" | "checklist" | "problem" | "toleranceMm" | "verifyUrl" | "qrSvg"> & {
+  kind: "table";
+  document: BenchDocumentV2;
+  analysis: TableAnalysis | null;
+  safety: TableSafetyAssessment | null;
+  /** Every path: power, band, OD, end. */
+  rows: PathRow[];
+  /** The paths that end (block, screen, table edge, cut), open beams first. */
+  ends: PathRow[];
+  /** Each element in the order the light reaches it, with its hole and angle. */
+  steps: BuildStepV2[];
+  /** Each laser's register entry, where it names one. */
+  registers: { laserId: string; registerId: string; entry: RegisterEntry | null }[];
+};
+
+export const isTableSheet = (sheet: SheetContent | TableSheetContent): sheet is TableSheetContent => "kind" in sheet && sheet.kind === "table";
 
 const RING_PX = 220;
 /** Points of the printed radial profile: a smooth line at 90 mm wide, without a path of a thousand segments. */

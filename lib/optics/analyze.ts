@@ -44,7 +44,7 @@ import {
   waistsOf,
 } from "./propagate";
 import { type OpticsWarning, formatLengthMm, formatNumber, warning } from "./warnings";
-import { type ChainElement, FieldChain } from "./chain";
+import { type ChainElement, type ChainPrefixCache, FieldChain } from "./chain";
 import { gsmBlurWidth, gsmCentreRatio } from "./coherence";
 import { kindNoun } from "@/lib/bench/kinds";
 
@@ -278,7 +278,7 @@ export function nonParaxialZoneShift(apertureRadiusM: number, wavelengthM: numbe
 export type ChainBuild = { chain: FieldChain; indexOf: Map<string, number> };
 
 /** The field chain of the traced bench (lit elements after the laser, to the stop); null when nothing can clip. */
-export function buildChain(trace: BenchTrace, options: { refinement?: number; exactBessel?: boolean } = {}): ChainBuild | null {
+export function buildChain(trace: BenchTrace, options: { refinement?: number; exactBessel?: boolean; prefixCache?: ChainPrefixCache } = {}): ChainBuild | null {
   const laser = trace.laser;
   if (laser === null) return null;
   const elements: ChainElement[] = [];
@@ -369,8 +369,11 @@ const focalShift = (shiftMm: number): string =>
   Math.abs(shiftMm) < 1e-3 ? "at the focal plane" : `${formatLengthMm(Math.abs(shiftMm))} ${shiftMm < 0 ? "before" : "beyond"} the focal plane`;
 const named = (e: { id: string; kind: string }): string => `${kindNoun(e.kind)} "${e.id}"`;
 
+/** What a caller may share between analyses: the field chain's cache of common beginnings (see FieldChain). */
+export type AnalyzeOptions = { chainCache?: ChainPrefixCache };
+
 /** Pure and synchronous; never throws for a document the schema accepts. */
-export function analyzeBench(doc: BenchDocument): BenchAnalysis {
+export function analyzeBench(doc: BenchDocument, options: AnalyzeOptions = {}): BenchAnalysis {
   const trace = traceBench(doc);
   const warnings: OpticsWarning[] = [];
   const { entries } = trace;
@@ -438,7 +441,7 @@ export function analyzeBench(doc: BenchDocument): BenchAnalysis {
     );
   }
 
-  const chainBuild = buildChain(trace);
+  const chainBuild = buildChain(trace, options.chainCache ? { prefixCache: options.chainCache } : {});
 
   // apertures
   const apertures: ApertureAnalysis[] = [];

@@ -45,6 +45,9 @@ const MAX_PLANE_NODES = 65_536;
 
 const GL = gaussLegendre(GL_ORDER);
 
+/** Each plane's field on the node sets asked of it, by panel count (see FieldChain.fieldOn). */
+const PLANE_FIELDS = new WeakMap<object, Map<number, NodeField>>();
+
 /** e^{iπx} with x reduced mod 2 first, so large phases keep their digits. */
 function cisPi(x: number): [number, number] {
   const red = x - 2 * Math.floor(x / 2);
@@ -110,7 +113,53 @@ export type ChainStart = {
   powerMw: number;
 };
 
-export type ChainOptions = { refinement?: number; exactBessel?: boolean };
+export type ChainOptions = {
+  refinement?: number;
+  exactBessel?: boolean;
+  /**
+   * Chains that begin alike (the unfolded leaves of one table share every path before they split) reuse the work done
+   * for their common first elements: pass one cache to every chain of the same analysis. The answers are the same as
+   * without it (the same operations on the same numbers); only repeated work is skipped.
+   */
+  prefixCache?: ChainPrefixCache;
+};
+
+/** The chain's state after some first elements: what the constructor needs to go on from there. */
+type PrefixState = {
+  q: BeamParameter;
+  last: number;
+  powerMw: number;
+  referencePowerMw: number;
+  qc: BeamParameter | null;
+  firstPlaneQ: BeamParameter | null;
+  sinceLast: AbcdMatrix;
+  states: PlaneState[];
+  results: ChainElementResult[];
+  coherentQ: BeamParameter[];
+  kept: ChainElement[];
+};
+
+type PrefixNode = { state: PrefixState | null; next: Map<string, PrefixNode> };
+
+/** A trie of chain states keyed by the start, the options and each element in turn (see ChainOptions.prefixCache). */
+export class ChainPrefixCache {
+  private readonly roots = new Map<string, PrefixNode>();
+  private readonly keys = new WeakMap<object, string>();
+  /** The key of an element: its JSON (elements are plain data), remembered per object. */
+  keyOf(e: ChainElement): string {
+    let k = this.keys.get(e);
+    if (k === undefined) {
+      k = JSON.stringify(e);
+      this.keys.set(e, k);
+    }
+    return k;
+  }
+  root(key: string): PrefixNode {
+    let node = this.roots.get(key);
+    if (!node) this.roots.set(key, (node = { state: null, next: new Map() }));
+    return node;
+  }
+}
 
 /** Elements a chain may hold: v1 kinds other than the laser, with an optional mount size on lenses and filters. */
 export type ChainElement = Exclude<BenchElement, { kind: "laser" }>;
@@ -162,9 +211,9 @@ export class FieldChain {
     this.exactBessel = options.exactBessel ?? false;
     this.maxHopWork = MAX_HOP_WORK * this.refinement * this.refinement;
     const lambda = wavelengthM;
-    const states: PlaneState[] = [];
-    const results: ChainElementResult[] = [];
-    const coherentQ: BeamParameter[] = [];
+    let states: PlaneState[] = [];
+    let results: ChainElementResult[] = [];
+    let coherentQ: BeamParameter[] = [];
     let stopIndex: number | null = null;
     // embedded Gaussian (for the real W and R), and power
     let q = start.q;
@@ -174,8 +223,30 @@ export class FieldChain {
     let qc: BeamParameter | null = null; // coherent q from the first clip plane on
     let firstPlaneQ: BeamParameter | null = null;
     let sinceLast: AbcdMatrix = IDENTITY; // from the last clip plane to here
-    const kept: ChainElement[] = [];
-    for (let i = 0; i < elements.length; i++) {
+    let kept: ChainElement[] = [];
+    // go on from the longest cached beginning (a stop ends a chain, so a cached state never follows one)
+    const cache = options.prefixCache;
+    let node: PrefixNode | null = null;
+    let from = 0;
+    if (cache) {
+      node = cache.root(JSON.stringify([start, wavelengthM, m2, this.refinement, this.exactBessel]));
+      let best: PrefixState | null = null;
+      for (let i = 0; i < elements.length; i++) {
+        const child: PrefixNode | undefined = node.next.get(cache.keyOf(elements[i]));
+        if (!child || child.state === null) break;
+        node = child;
+        best = child.state;
+        from = i + 1;
+      }
+      if (best !== null) {
+        ({ q, last, powerMw, referencePowerMw, qc, firstPlaneQ, sinceLast } = best);
+        states = best.states.slice();
+        results = best.results.slice();
+        coherentQ = best.coherentQ.slice();
+        kept = best.kept.slice();
+      }
+    }
+    for (let i = from; i < elements.length; i++) {
       const e = elements[i];
       kept.push(e);
       const d = (e.positionMm - last) * M_PER_MM;
@@ -234,6 +305,15 @@ export class FieldChain {
         stopIndex = i;
         break;
       }
+      if (cache && node) {
+        const key = cache.keyOf(e);
+        let child = node.next.get(key);
+        if (!child) node.next.set(key, (child = { state: null, next: new Map() }));
+        if (child.state === null) {
+          child.state = { q, last, powerMw, referencePowerMw, qc, firstPlaneQ, sinceLast, states: states.slice(), results: results.slice(), coherentQ: coherentQ.slice(), kept: kept.slice() };
+        }
+        node = child;
+      }
     }
     this.elements = kept;
     this.results = results;
@@ -264,8 +344,8 @@ export class FieldChain {
     const source = this.sourceNodesFor(prev, matrix, reach);
     if (source !== null && Number.isFinite(panelsHere) && source.rho.length * panelsHere * GL_ORDER <= this.maxHopWork) {
       const plane: PlaneState = { ...base, method: "quadrature", powerOutRel: 0, cutM: radius, amplitudeScale: 1, from: { plane: prev, matrix, source }, reachM: reach };
-      const nodes = quadratureNodes(reach, panelsHere);
-      const field = this.evaluate(plane, nodes.rho);
+      const nodes = this.fieldOn(plane, panelsHere);
+      const field = nodes;
       let power = 0;
       for (let k = 0; k < nodes.rho.length; k++) power += 2 * Math.PI * nodes.wr[k] * (field.re[k] * field.re[k] + field.im[k] * field.im[k]);
       plane.powerOutRel = Math.min(power, prev.powerOutRel);
@@ -314,14 +394,16 @@ export class FieldChain {
   }
 
   /** The plane's field on its own nodes, prepared (kernel phase and measure folded in) for a hop of `matrix` out to rOut. Null if unaffordable. */
-  private sourceNodesFor(plane: PlaneState, matrix: AbcdMatrix, rOutM: number): NodeField | null {
-    const panels = this.panelsFor(plane, matrix, plane.reachM, "hop", rOutM);
+  private sourceNodesFor(plane: PlaneState, matrix: AbcdMatrix, rOutM: number, roundUp = false): NodeField | null {
+    const needed = this.panelsFor(plane, matrix, plane.reachM, "hop", rOutM);
+    // rounded up to a power of two (finer, never coarser), so many probes share one set of nodes on the plane
+    const panels = roundUp && Number.isFinite(needed) ? 2 ** Math.ceil(Math.log2(needed)) : needed;
     if (!Number.isFinite(panels) || !(Math.abs(matrix.b) > 0)) return null;
     const count = panels * GL_ORDER;
     if (count > MAX_PLANE_NODES * this.refinement) return null;
     if (plane.from !== null && plane.from.source.rho.length * count > this.maxHopWork) return null;
-    const nodes = quadratureNodes(plane.reachM, panels);
-    const field = this.evaluate(plane, nodes.rho);
+    const nodes = this.fieldOn(plane, panels);
+    const field = nodes;
     const lambda = this.wavelengthM;
     const re = new Float64Array(count);
     const im = new Float64Array(count);
@@ -333,6 +415,24 @@ export class FieldChain {
       im[k] = fr * s + fi * c;
     }
     return { rho: nodes.rho, wr: nodes.wr, re, im };
+  }
+
+  /**
+   * The plane's field on its own `panels`-panel quadrature nodes over [0, reach], computed once per plane and panel
+   * count (the same numbers every time; a plane is asked for the same nodes by its power, its next hop and the
+   * safety engine's power probes).
+   */
+  private fieldOn(plane: PlaneState, panels: number): NodeField {
+    let byPanels = PLANE_FIELDS.get(plane);
+    if (!byPanels) PLANE_FIELDS.set(plane, (byPanels = new Map()));
+    let hit = byPanels.get(panels);
+    if (!hit) {
+      const nodes = quadratureNodes(plane.reachM, panels);
+      const field = this.evaluate(plane, nodes.rho);
+      hit = { rho: nodes.rho, wr: nodes.wr, re: field.re, im: field.im };
+      byPanels.set(panels, hit);
+    }
+    return hit;
   }
 
   /** The field just behind a plane at the given radii (0 beyond its edge), in √(relative power)/m. */
@@ -439,7 +539,7 @@ export class FieldChain {
    * where no clip plane lies upstream (the plain Gaussian holds there) or the position is outside the chain.
    * `beforeIndex`: count only the planes before that element (the light arriving at it).
    */
-  powerInsideMw(positionMm: number, radiusM: number, beforeIndex?: number): number | null {
+  powerInsideMw(positionMm: number, radiusM: number, beforeIndex?: number, options: { boundWithin?: number } = {}): number | null {
     let plane: PlaneState | null = null;
     for (const p of this.states) {
       if (beforeIndex !== undefined ? p.index < beforeIndex : p.positionMm < positionMm) plane = p;
@@ -457,9 +557,30 @@ export class FieldChain {
     }
     const scaleMw = this.referencePowerMw * filters;
     const total = plane.powerOutRel;
+    if (options.boundWithin !== undefined) {
+      // An upper bound without the field: the field here is the unclipped Gaussian minus what each edge blocked, carried
+      // on by the same lossless paraxial system, and each blocked part holds the power lost at its edge. By the triangle
+      // inequality on the circle, √P_in ≤ √P_in(Gaussian) + Σ √(lost). Used when it is within `boundWithin` of the
+      // Gaussian's own figure (edges that cut almost nothing); never below the true value, so never less cautious.
+      const first = this.states[0];
+      let rootLost = 0;
+      for (const p of this.states) {
+        if (beforeIndex !== undefined ? p.index >= beforeIndex : p.positionMm >= positionMm) break;
+        rootLost += Math.sqrt(Math.max(0, p.powerInRel - p.powerOutRel));
+      }
+      const toHere = this.matrixFrom(first, beforeIndex ?? this.elements.length, beforeIndex === undefined ? positionMm : undefined);
+      const firstQ = qFromBeam(first.gaussianRadiusM, first.gaussianCurvaturePerM === 0 ? null : 1 / first.gaussianCurvaturePerM, this.wavelengthM);
+      // matrixFrom starts behind the first plane's element; a lens there acts on the unclipped Gaussian as well
+      const w = beamRadiusM(applyAbcd(toHere, firstQ), this.wavelengthM);
+      const gaussianRel = first.powerInRel * -Math.expm1((-2 * radiusM * radiusM) / (w * w));
+      if (rootLost <= options.boundWithin * Math.sqrt(gaussianRel)) {
+        const bound = (Math.sqrt(gaussianRel) + rootLost) ** 2;
+        return Math.min(bound, total) * scaleMw;
+      }
+    }
     const matrix = this.matrixFrom(plane, beforeIndex ?? this.elements.length, beforeIndex === undefined ? positionMm : undefined);
     const panels = this.panelsFor(plane, matrix, radiusM, "power", null);
-    const source = Number.isFinite(panels) ? this.sourceNodesFor(plane, matrix, radiusM) : null;
+    const source = Number.isFinite(panels) ? this.sourceNodesFor(plane, matrix, radiusM, options.boundWithin !== undefined) : null;
     let rel: number;
     if (source !== null && source.rho.length * panels * GL_ORDER <= this.maxHopWork) {
       const nodes = quadratureNodes(radiusM, panels);

@@ -7,7 +7,9 @@
 // screen on any branch, one entry without a screen. Rail warnings that are artefacts of the unfolding are dropped.
 import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import type { BenchDocumentV2, TableElement } from "@/lib/bench/schema-v2";
-import { analyzeBench as analyzeRail, type ApertureAnalysis, type IncidentBeam } from "./analyze";
+import { analyzeBench as analyzeRail, type AnalyzeOptions, type ApertureAnalysis, type IncidentBeam } from "./analyze";
+import { ChainPrefixCache } from "./chain";
+import { fieldPowerProbe, type FieldPowerProbe } from "./field-power";
 import { MAX_GENERATIONS, MAX_PATHS, MIN_SHARE_OF_LASER, traceTable, type PathRole, type TableHit, type TablePathEnd, type TablePoint, type TableWarning } from "./table-trace";
 import { unfoldPath, type ChainOrigin, type UnfoldCache } from "./table-unfold";
 
@@ -63,8 +65,19 @@ export type TableElementAnalysis = {
 export type TableApertureAnalysis = ApertureAnalysis & { pathId: string; laserId: string };
 export type TableScreenAnalysis = { id: string; pathId: string; laserId: string; powerMw: number; centreIntensityRatio: number | null; centre: string | null };
 
+/**
+ * The propagated field's power probe of one leaf path's unfolded bench (chain element ids, as unfoldPath names them), for
+ * the safety engine behind a clipping aperture; undefined where nothing on that path clips.
+ */
+export type TableFieldPower = (leafPathId: string) => FieldPowerProbe | undefined;
+
 export type TableAnalysis = {
   version: 2;
+  /**
+   * Not part of the JSON answer (a non-enumerable property, absent after serialisation): the field power probes of the
+   * leaf paths, sharing the analysis' field chains. assessBench uses it for E behind clipping apertures.
+   */
+  readonly fieldPower?: TableFieldPower;
   lasers: { id: string; wavelengthNm: number; m2: number }[];
   paths: TablePath[];
   elements: TableElementAnalysis[];
@@ -72,6 +85,13 @@ export type TableAnalysis = {
   screens: TableScreenAnalysis[];
   warnings: TableWarning[];
 };
+
+/**
+ * Behind edges that cut almost nothing, the table's safety figures take a rigorous upper bound on the enclosed power
+ * (at most (1.005)² ≈ 1 % above the unclipped Gaussian's) instead of integrating the field at every point; elsewhere the
+ * field itself (see fieldPowerProbe).
+ */
+export const FIELD_BOUND_WITHIN = 0.005;
 
 /** Rail warnings that come from the unfolding itself, not from the table. */
 const UNFOLDING_ARTEFACTS = new Set(["same-position", "no-screen", "screen-not-reached", "element-beyond-stop", "element-upstream-of-laser", "no-laser"]);
@@ -84,8 +104,12 @@ const rename = (message: string): string => (message.includes("⟨") ? message.r
 
 type RailScreen = { id: string; centreIntensityRatio?: number; centre?: string; powerMw?: number };
 
-/** Pure and synchronous; never throws for a document the version 2 schema accepts. */
-export function analyzeTable(doc: BenchDocumentV2): TableAnalysis {
+/**
+ * Pure and synchronous; never throws for a document the version 2 schema accepts. The leaves share their common
+ * beginnings through one field-chain cache (every leaf's unfolded bench starts with the paths before it).
+ */
+export function analyzeTable(doc: BenchDocumentV2, options: AnalyzeOptions = {}): TableAnalysis {
+  const chainCache = options.chainCache ?? new ChainPrefixCache();
   const trace = traceTable(doc);
   const byId = new Map<string, TableElement>(doc.elements.map((e) => [e.id, e]));
   const pathsById = new Map(trace.paths.map((p) => [p.id, p]));
@@ -102,7 +126,7 @@ export function analyzeTable(doc: BenchDocumentV2): TableAnalysis {
   const leaves = trace.paths.filter((p) => !("continuesAs" in p.end) || p.end.continuesAs.length === 0);
   for (const leaf of leaves) {
     const chain = unfoldPath(doc, byId, pathsById, leaf.id, cache);
-    const rail = analyzeRail(chain.doc);
+    const rail = analyzeRail(chain.doc, { chainCache });
     const fresh = new Set<string>(); // (path, element) pairs first met in this leaf
     const originOf = (cid: string): ChainOrigin | undefined => chain.origin.get(cid);
 
@@ -255,7 +279,30 @@ export function analyzeTable(doc: BenchDocumentV2): TableAnalysis {
     .map((e) => (e.kind === "laser" ? { id: e.id, wavelengthNm: e.wavelengthNm, m2: e.m2 ?? 1 } : null))
     .filter((x): x is { id: string; wavelengthNm: number; m2: number } => x !== null)
     .sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
-  return { version: 2, lasers, paths, elements, apertures: apertureList, screens: screenList, warnings: filteredWarnings };
+  const result: TableAnalysis = { version: 2, lasers, paths, elements, apertures: apertureList, screens: screenList, warnings: filteredWarnings };
+  // The light arriving at an element of a path is the same in every leaf below that path (the same chain up to it):
+  // answers asked by element are shared between leaves; answers by position (a focus in a gap) stay per leaf.
+  const probes = new Map<string, FieldPowerProbe | undefined>();
+  const byElement = new Map<string, number | null>();
+  const fieldPower: TableFieldPower = (leafPathId) => {
+    if (!probes.has(leafPathId)) {
+      const probe = pathsById.has(leafPathId) ? fieldPowerProbe(unfoldPath(doc, byId, pathsById, leafPathId, cache).doc, { chainCache, boundWithin: FIELD_BOUND_WITHIN }) : undefined;
+      probes.set(
+        leafPathId,
+        probe &&
+          ((positionMm, radiusMm, elementId) => {
+            if (elementId === undefined) return probe(positionMm, radiusMm);
+            const key = `${elementId}|${radiusMm}`;
+            let value = byElement.get(key);
+            if (value === undefined) byElement.set(key, (value = probe(positionMm, radiusMm, elementId)));
+            return value;
+          }),
+      );
+    }
+    return probes.get(leafPathId);
+  };
+  Object.defineProperty(result, "fieldPower", { value: fieldPower, enumerable: false });
+  return result;
 }
 
 /** Screens lit, when the rail engine does not list them: the power arriving, and the centre from the last aperture before it. */

@@ -4,7 +4,7 @@ import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import { benchDocumentSchema, type AnyBenchDocument, type BenchDocument, type LaserElement } from "@/lib/bench/schema";
 import { HAZARD_CLASSES, type HazardClass } from "@/lib/safety/types";
 import type { HazardSummary } from "@/db/schema";
-import { analyzeBench, fieldPowerProbe, type BenchAnalysis } from "@/lib/optics";
+import { analyzeBench, ChainPrefixCache, fieldPowerProbe, type BenchAnalysis } from "@/lib/optics";
 import { assessBench, type BenchSafetyAssessment, type BenchSafetyOptions, type TableSafetyAssessment } from "@/lib/safety";
 import { benchDocumentV2Schema, type BenchDocumentV2 } from "@/lib/bench/schema-v2";
 import type { TableAnalysis } from "@/lib/optics/table";
@@ -21,9 +21,11 @@ export function assessRevision(doc: BenchDocument, options: AssessOptions = {}):
   const parsed = benchDocumentSchema.safeParse(doc);
   if (!parsed.success) return { ok: false, problem: parsed.error.issues[0]?.message ?? "The bench document is not complete." };
   try {
-    const analysis = analyzeBench(parsed.data);
+    // one field chain for the optics and the safety engine's power probe
+    const chainCache = new ChainPrefixCache();
+    const analysis = analyzeBench(parsed.data, { chainCache });
     const safetyOptions = (options.standard ? { standard: options.standard } : {}) as BenchSafetyOptions;
-    const safety = assessBench(parsed.data, { elements: analysis.elements, enclosedPowerMw: fieldPowerProbe(parsed.data) }, safetyOptions);
+    const safety = assessBench(parsed.data, { elements: analysis.elements, enclosedPowerMw: fieldPowerProbe(parsed.data, { chainCache }) }, safetyOptions);
     return { ok: true, analysis, safety };
   } catch (error) {
     return { ok: false, problem: error instanceof Error ? error.message : "The hazard engines could not assess this bench." };

@@ -2,7 +2,7 @@
 // Formulas: ANSI Z136.1-2014 Tables 5a/7/8 and Appendix B, or IEC 60825-1:2014 Annex A; class by IEC 60825-1:2014 (values from memory).
 
 import { z } from "zod";
-import { checkLaserFields } from "@/lib/bench/schema";
+import { checkLaserFields, laserSchema } from "@/lib/bench/schema";
 import { selectCautions, type CautionSituation, type SelectedCaution } from "./cautions";
 import { classifyBeam, compareLabel, type Classification, type LabelCheck } from "./classify";
 import { exposureLimit, worstExceedance, type ExposureLimit, type SiteLimit } from "./exposure-limit";
@@ -46,6 +46,9 @@ export const beamInputSchema = z
       .refine((v) => v >= MIN_EXPOSURE_S, "Pulse duration must be at least 1e-13 s: no standard gives limits for shorter pulses")
       .optional(),
     pulseRepetitionRateHz: positive("Pulse repetition rate", "Hz", 1e12).optional(),
+    /** Trains in bursts: pulses per burst and the pulse rate inside a burst (pulseRepetitionRateHz stays the average rate). */
+    pulsesPerBurst: laserSchema.shape.pulsesPerBurst,
+    burstPulseRateHz: laserSchema.shape.burstPulseRateHz,
     labelClass: z
       .enum(HAZARD_CLASSES, { error: `Label class must be one of: ${HAZARD_CLASSES.join(", ")}` })
       .optional(),

@@ -213,6 +213,16 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
     pulseRepetitionRateHz = undefined;
     pulseEnergyJ = undefined;
   }
+  // Bursts (the document schema checks them; a stored document that breaks the rules is assessed as the even train,
+  // with every pulse counted, and the user is told).
+  let burst = pulseRepetitionRateHz !== undefined && laser.pulsesPerBurst !== undefined && laser.burstPulseRateHz !== undefined ? { pulsesPerBurst: laser.pulsesPerBurst, burstPulseRateHz: laser.burstPulseRateHz } : undefined;
+  if (burst && pulseDurationS !== undefined && pulseRepetitionRateHz !== undefined) {
+    const lengthS = (burst.pulsesPerBurst - 1) / burst.burstPulseRateHz + pulseDurationS;
+    if (burst.burstPulseRateHz <= pulseRepetitionRateHz || pulseDurationS * burst.burstPulseRateHz >= 1 || lengthS >= burst.pulsesPerBurst / pulseRepetitionRateHz) {
+      warnings.push({ code: "burst-not-modelled", elementId: laser.id, message: "The burst figures are inconsistent (pulses or bursts would overlap), so the bursts could not be modelled: the laser is assessed as an even train at its average pulse rate. Correct the burst figures and ask your laser safety officer." });
+      burst = undefined;
+    }
+  }
   if (pulseEnergyJ !== undefined && powerMw !== undefined) {
     // Both given and (per the document schema) consistent: the energy is the figure the pulse rules use.
     if (pulseRepetitionRateHz === undefined) powerMw = undefined;
@@ -235,6 +245,7 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
     exposureS: options.exposureS,
     pulseDurationS,
     pulseRepetitionRateHz,
+    ...(burst ?? {}),
     labelClass: options.labelClass,
     standard,
   };

@@ -38,7 +38,11 @@ export type ClassInput = {
   /** 1/e² full-angle divergence. */
   divergenceMrad: number;
   pulseDurationS?: number;
+  /** For bursts, the average number of pulses per second. */
   pulseRepetitionRateHz?: number;
+  /** Trains in bursts: pulses per burst and the pulse rate inside a burst (both, or neither). */
+  pulsesPerBurst?: number;
+  burstPulseRateHz?: number;
 };
 
 export type AccessibleEmission = { condition: "1" | "3"; apertureMm: number; distanceMm: number; powerMw: number; fraction: number };
@@ -260,6 +264,35 @@ export function emissionOf(input: ClassInput): { averageMw: number | null; energ
  * (optical aids) exceeds it.
  */
 export function classifyBeam(input: ClassInput): Classification {
+  if (input.pulsesPerBurst !== undefined && input.burstPulseRateHz !== undefined && input.pulseDurationS !== undefined && input.pulseRepetitionRateHz !== undefined) {
+    return classifyBursts(input as ClassInput & { pulsesPerBurst: number; burstPulseRateHz: number; pulseDurationS: number; pulseRepetitionRateHz: number });
+  }
+  return classifyEven(input);
+}
+
+/**
+ * A train in bursts, classed as the higher of two even trains with the same average power (IEC 60825-1:2014 §4.3 f):
+ * rules 1–3, and any group of pulses against the limit for the group's duration — from memory): (A) the same pulses
+ * evenly spread at the average rate (every pulse counted, rule 1 per pulse), and (B) each burst as one pulse of its
+ * total energy and length, repeated at the burst rate (the pulses inside a burst grouped). The cautious reading.
+ */
+function classifyBursts(input: ClassInput & { pulsesPerBurst: number; burstPulseRateHz: number; pulseDurationS: number; pulseRepetitionRateHz: number }): Classification {
+  const { pulsesPerBurst: n, burstPulseRateHz: fb, pulseDurationS: τ, pulseRepetitionRateHz: f, ...rest } = input;
+  const even: ClassInput = { ...rest, pulseDurationS: τ, pulseRepetitionRateHz: f };
+  const a = classifyEven(even);
+  const energyJ = a.pulseEnergyMj === null ? null : a.pulseEnergyMj / 1e3;
+  const burstS = (n - 1) / fb + τ;
+  const { powerMw: _p, pulseEnergyJ: _e, ...beam } = rest;
+  const b = energyJ === null ? null : classifyEven({ ...beam, pulseEnergyJ: energyJ * n, pulseDurationS: burstS, pulseRepetitionRateHz: f / n });
+  const worse = b !== null && classRank(b.hazardClass) > classRank(a.hazardClass) ? b : a;
+  const reasons = [
+    ...worse.reasons,
+    `Pulses in bursts (${fmt(n)} at ${fmt(fb)} Hz inside a burst, ${fmt(f / n)} bursts per second): classed as the higher of the pulses spread evenly at ${fmt(f)} Hz (Class ${a.hazardClass}) and each burst as one ${fmt(burstS)} s pulse of ${fmt(n)} pulses' energy (Class ${b ? b.hazardClass : "not assessed"}).`,
+  ];
+  return { ...worse, pulseEnergyMj: a.pulseEnergyMj, averagePowerMw: a.averagePowerMw, reasons };
+}
+
+function classifyEven(input: ClassInput): Classification {
   const λ = input.wavelengthNm;
   const { averageMw, energyJ } = emissionOf(input);
   const pulse: PulseTiming | undefined =

@@ -11,6 +11,9 @@ export type LaserEmission = {
   exposureS?: number;
   pulseDurationS?: number;
   pulseRepetitionRateHz?: number;
+  /** Trains in bursts: pulses per burst and the pulse rate inside a burst. */
+  pulsesPerBurst?: number;
+  burstPulseRateHz?: number;
 };
 
 /** The limit protecting one site of the eye (the retina, or the cornea/lens), with its own limiting aperture. */
@@ -69,7 +72,9 @@ function siteLimit(λ: number, site: MpeSite, exposureS: number, emission: Laser
       pulsed: null,
     };
   }
-  const pulsed = pulsedEyeMpe({ wavelengthNm: λ, pulseDurationS: τ, pulseRepetitionRateHz: emission.pulseRepetitionRateHz, exposureS, standard, site });
+  const burst =
+    emission.pulsesPerBurst !== undefined && emission.burstPulseRateHz !== undefined ? { pulsesPerBurst: emission.pulsesPerBurst, pulseRateHz: emission.burstPulseRateHz } : undefined;
+  const pulsed = pulsedEyeMpe({ wavelengthNm: λ, pulseDurationS: τ, pulseRepetitionRateHz: emission.pulseRepetitionRateHz, ...(burst ? { burst } : {}), exposureS, standard, site });
   // The aperture for the pulse duration: the smallest in play, so the averaged exposure is never understated.
   const aperture = limitingAperture(λ, Math.min(τ, exposureS), "eye", standard, site);
   const train = pulsed.pulseRepetitionRateHz !== null;

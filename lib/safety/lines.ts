@@ -90,6 +90,7 @@ export function lineInput(input: BeamInput, line: EmissionLine): BeamInput {
     exposureS: input.exposureS,
     pulseDurationS: input.pulseDurationS,
     pulseRepetitionRateHz: input.pulseRepetitionRateHz,
+    ...(input.pulsesPerBurst !== undefined && input.burstPulseRateHz !== undefined ? { pulsesPerBurst: input.pulsesPerBurst, burstPulseRateHz: input.burstPulseRateHz } : {}),
     standard: input.standard,
   };
 }

@@ -8,7 +8,16 @@
 import { correctionCP, eyeMpe, type EyeMpe, type MpeSite } from "./mpe";
 import { type StandardId, DEFAULT_MPE_STANDARD, SOURCE, UNCHECKED } from "./types";
 
-export type PulseRule = "single-pulse" | "average-power" | "pulse-train";
+export type PulseRule = "single-pulse" | "average-power" | "pulse-train" | "burst";
+
+/**
+ * Pulses in bursts: `pulsesPerBurst` pulses at `pulseRateHz` inside each burst. The train's pulseRepetitionRateHz stays
+ * the average number of pulses per second (pulses per burst × bursts per second), so energy × rate is the average power.
+ */
+export type Burst = { pulsesPerBurst: number; pulseRateHz: number };
+
+/** Length of one burst: from the start of its first pulse to the end of its last. */
+export const burstDurationS = (burst: Burst, pulseDurationS: number): number => (burst.pulsesPerBurst - 1) / burst.pulseRateHz + pulseDurationS;
 
 export type PulseRuleResult = {
   rule: PulseRule;
@@ -56,8 +65,10 @@ export function minimumPulseGroupS(wavelengthNm: number): number | null {
 export type PulsedInput = {
   wavelengthNm: number;
   pulseDurationS: number;
-  /** Omit for a single pulse. */
+  /** Omit for a single pulse. For bursts, the average number of pulses per second. */
   pulseRepetitionRateHz?: number;
+  /** Pulses grouped in bursts (with pulseRepetitionRateHz only). */
+  burst?: Burst;
   exposureS: number;
   standard?: StandardId;
   /** Only the retinal or only the corneal/lens limits (dual limits with different apertures). */
@@ -96,11 +107,23 @@ export function pulsedEyeMpe(input: PulsedInput): PulsedMpe {
   });
 
   const tMin = minimumPulseGroupS(λ);
+  // Inside a burst the pulses follow each other at the burst's own rate: grouping within t_min goes by that rate.
+  const burst = input.burst && input.burst.pulsesPerBurst >= 2 && input.burst.pulseRateHz > prf ? input.burst : undefined;
+  const closeRate = burst ? burst.pulseRateHz : prf;
   if (tMin !== null && single.thermalJPerCm2 !== null) {
-    if (prf * tMin > 1) {
-      // Several pulses fall inside t_min: treat each group of n pulses as one pulse of duration t_min.
-      const perGroup = prf * tMin;
-      const groups = Math.max(1, T / tMin);
+    if (closeRate * tMin > 1) {
+      // Several pulses fall inside t_min: treat each group of n pulses as one pulse of duration t_min. In bursts, a group
+      // is the pulses of one burst inside t_min, or the average count in t_min when bursts crowd closer (the larger).
+      const perGroup = burst ? Math.max(Math.min(burst.pulsesPerBurst, closeRate * tMin), prf * tMin) : prf * tMin;
+      if (burst) {
+        // the even train's count as well (every pulse counted, C_P = N^−0.25): the stricter of the two governs
+        rules.push({
+          rule: "pulse-train",
+          perPulseJPerCm2: correctionCP(pulseCount) * single.thermalJPerCm2,
+          explanation: say(() => `Rule 3: single-pulse thermal MPE × C_P, C_P = N^−0.25 = ${fmt(correctionCP(pulseCount))} for N = ${fmt(pulseCount)}`),
+        });
+      }
+      const groups = Math.max(1, pulseCount / perGroup);
       const groupMpe = eyeMpe(λ, tMin, mpeOptions).thermalJPerCm2 ?? single.thermalJPerCm2;
       rules.push({
         rule: "pulse-train",
@@ -124,6 +147,28 @@ export function pulsedEyeMpe(input: PulsedInput): PulsedMpe {
     }
   } else {
     notes.push("Rule 3 (C_P) applies to thermal limits only; below 315 nm the photochemical limit governs and rule 3 is not used.");
+  }
+  if (burst) {
+    // Any group of pulses together ≤ the MPE for the group's duration (ANSI Z136.1-2014 §8.2.3, IEC 60825-1:2014
+    // §4.3 f) and A.3 — from memory): each burst as one pulse of n pulses' energy over its length D, and (thermal
+    // limits) the bursts as a train of such pulses with C_P = N_b^−0.25. Never more lenient than the groups within t_min.
+    const n = burst.pulsesPerBurst;
+    const D = burstDurationS(burst, τ);
+    const whole = eyeMpe(λ, Math.min(D, T), mpeOptions);
+    const burstsInT = Math.max(1, (prf / n) * T);
+    let perPulse = whole.radiantExposureJPerCm2 / n;
+    if (whole.thermalJPerCm2 !== null && burstsInT > 1) perPulse = Math.min(perPulse, (correctionCP(burstsInT) * whole.thermalJPerCm2) / n);
+    rules.push({
+      rule: "burst",
+      perPulseJPerCm2: perPulse,
+      explanation: say(
+        () =>
+          `Bursts: each burst of ${fmt(n)} pulses (${fmt(D)} s long) ≤ the MPE for its length (${whole.governingRow}), and the ${fmt(burstsInT)} bursts in ${T} s as a train with C_P = N^−0.25 = ${fmt(correctionCP(burstsInT))}; shared over the ${fmt(n)} pulses of a burst`,
+      ),
+    });
+    notes.push(
+      `Pulses in bursts (${fmt(n)} at ${fmt(burst.pulseRateHz)} Hz inside each burst, ${fmt(prf / n)} bursts per second): rules 1–3 with every pulse counted and pulses grouped at the rate inside a burst, and each burst also taken as one pulse of its total energy and length; the strictest governs (the conservative reading, ${UNCHECKED}).`,
+    );
   }
   return finish(pulseCount);
 

@@ -14,13 +14,18 @@ import type { TableAnalysis } from "@/lib/optics/table";
 import { railLaser, unfoldPath } from "@/lib/optics/table-unfold";
 import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import { assessBeam, type BeamAssessment, type BeamInput } from "./beam";
-import { assessBench as assessRail, waistFrom, type BeamAtElement, type BenchSafetyOptions, type HazardPoint } from "./bench";
+import { assessBench as assessRail, waistFrom, type BeamAtElement, type BenchSafetyOptions, type EnclosedPowerMw, type HazardPoint } from "./bench";
 import { selectCautions, type CautionSituation, type SelectedCaution } from "./cautions";
 import { LIMITATIONS, type Limitation } from "./limitations";
 import { FINAL_SAY, type HazardClass } from "./types";
 
-/** What the table assessment needs of analyzeBench's version 2 answer. */
-export type TableBeam = Pick<TableAnalysis, "paths" | "elements">;
+/**
+ * What the table assessment needs of analyzeBench's version 2 answer. `fieldPower` (the analysis carries it, not in
+ * its JSON) gives each leaf's power probe from the propagated field behind clipping apertures, as the rail has; without
+ * it, every point behind a clipping element is taken to put all its power inside the limiting aperture (the cautious
+ * answer) and a note says so.
+ */
+export type TableBeam = Pick<TableAnalysis, "paths" | "elements"> & { fieldPower?: (leafPathId: string) => EnclosedPowerMw | undefined };
 
 export type TableLineFigures = {
   wavelengthNm: number;
@@ -84,7 +89,7 @@ export type TableSafetyAssessment = {
   finalSay: string;
 };
 
-const PULSE_KEYS = ["pulseDurationS", "pulseRepetitionRateHz", "pulseEnergyJ"] as const;
+const PULSE_KEYS = ["pulseDurationS", "pulseRepetitionRateHz", "pulseEnergyJ", "pulsesPerBurst", "burstPulseRateHz"] as const;
 const fmt = (v: number) => (Number.isFinite(v) ? String(Number(v.toPrecision(3))) : String(v));
 
 /** The laser's pulse fields as assessBeam takes them; pulses that overlap are assessed as continuous-wave. */
@@ -189,6 +194,7 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
   const lensHazards = new Map<string, TableSafetyAssessment["lensHazards"][number]>();
   const screenHazards = new Map<string, TableSafetyAssessment["screenHazards"][number]>();
   const leaves = beam.paths.filter((p) => !("continuesAs" in p.end) || p.end.continuesAs.length === 0);
+  const fieldless = new Set<string>(); // lasers whose clipped light was taken as all inside the limiting aperture
   for (const leaf of leaves) {
     const chain = unfoldPath(doc, byId, pathsById, leaf.id);
     const elements: BeamAtElement[] = chain.doc.elements.map((e) => {
@@ -200,7 +206,9 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
     });
     let rail: ReturnType<typeof assessRail>;
     try {
-      rail = assessRail(chain.doc, { elements }, { ...options, labelClass: undefined });
+      // behind a clipping aperture, E from the propagated field (the bench document contract revision 2), as on the rail
+      const enclosedPowerMw = beam.fieldPower ? beam.fieldPower(leaf.id) : allInsideBehindClip(chain.doc, () => fieldless.add(leaf.laserId));
+      rail = assessRail(chain.doc, { elements, ...(enclosedPowerMw ? { enclosedPowerMw } : {}) }, { ...options, labelClass: undefined });
     } catch (error) {
       warnings.push({
         code: "path-not-assessed",
@@ -253,6 +261,10 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
       const entry = { code: w.code, ...(o?.elementId ? { elementId: o.elementId } : {}), message: w.message };
       if (!warnings.some((x) => x.code === entry.code && x.elementId === entry.elementId && x.message === entry.message)) warnings.push(entry);
     }
+  }
+
+  for (const laserId of fieldless) {
+    notes.push(`Laser "${laserId}": behind a clipping aperture the light was taken to fall wholly inside the limiting aperture (the propagated field was not available here), the cautious reading.`);
   }
 
   // 3. Every path that leaves the table.
@@ -373,4 +385,22 @@ function describeRole(role: string, e: TableElement | undefined): string {
     default:
       return e?.kind === "beam-splitter" ? `the reflected port of beam splitter ${id}` : `the beam reflected by ${e ? `${e.kind.replace("-", " ")} ${id}` : "a mirror"}`;
   }
+}
+
+/**
+ * Without the propagated field: at every point at or behind the first element that can clip (an aperture, or a lens or
+ * filter with a clear aperture), all the power is taken to lie inside the limiting aperture — never less cautious than
+ * any field. Undefined when nothing on the unfolded bench can clip.
+ */
+function allInsideBehindClip(doc: { elements: readonly { id: string; kind: string; positionMm: number; clearApertureMm?: number }[] }, used: () => void): EnclosedPowerMw | undefined {
+  const clip = doc.elements.find((e) => e.kind === "aperture" || ((e.kind === "lens" || e.kind === "filter") && e.clearApertureMm !== undefined));
+  if (!clip) return undefined;
+  const order = new Map(doc.elements.map((e, i) => [e.id, i]));
+  const clipIndex = order.get(clip.id) as number;
+  return (positionMm, _radiusMm, elementId) => {
+    const behind = elementId !== undefined ? (order.get(elementId) ?? -1) > clipIndex : positionMm > clip.positionMm;
+    if (!behind) return null;
+    used();
+    return Number.POSITIVE_INFINITY;
+  };
 }

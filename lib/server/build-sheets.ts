@@ -7,9 +7,9 @@ import QRCode from "qrcode";
 import { z } from "zod";
 import type { Database } from "@/db";
 import { getDb } from "@/db";
-import { buildSheet, laserRegister, type SheetState } from "@/db/schema";
+import { buildSheet, laserRegister, type SafetyStandard, type SheetState } from "@/db/schema";
 import { rolesAllow } from "@/lib/auth/permissions";
-import type { BenchDocument, LaserElement } from "@/lib/bench/schema";
+import type { BenchDocument, BenchDocumentV2, LaserElement } from "@/lib/bench/schema";
 import { env } from "@/lib/env";
 import { AppError, notFound } from "@/lib/errors";
 import { screenProfile } from "@/lib/optics";
@@ -18,10 +18,12 @@ import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
 import { loadSignedRevision, type SignedRevision } from "./builds";
-import { buildSteps, PROFILE_POINTS, ringPngFor, type RegisterEntry, type SheetAperture, type SheetContent } from "@/lib/build/sheet";
+import { labStandard } from "./lab-standard";
+import { buildSteps, PROFILE_POINTS, ringPngFor, type RegisterEntry, type SheetAperture, type SheetContent, type TableSheetContent } from "@/lib/build/sheet";
 import { checklistFor, elementSettings, POSITION_TOLERANCE_MM, predictionsFor, signOffSentence, signOffStatus, type SignOffStatus } from "@/lib/build/rules";
 import { kindTitle } from "@/lib/bench/kinds";
-import { assessRevision } from "@/lib/review/hazard";
+import { assessRevision, assessTableRevision } from "@/lib/review/hazard";
+import { beamEnds, buildOrderV2, pathRows } from "@/lib/review/table-paths";
 import { notFoundAs } from "./scope";
 
 export const PAPERS = ["A4", "Letter"] as const;
@@ -135,8 +137,9 @@ async function run(job: Job): Promise<void> {
   }
 }
 
-function storageKeyFor(r: SignedRevision, paper: Paper): string {
-  return `sheets/${r.id}/${r.contentHash}-${paper}.pdf`;
+/** The stored PDF of a revision on one paper, under the lab's standard (a sheet made under the other standard is not reused). */
+function storageKeyFor(r: SignedRevision, paper: Paper, standard: SafetyStandard): string {
+  return `sheets/${r.id}/${r.contentHash}-${paper}-${standard.startsWith("IEC") ? "iec" : "ansi"}.pdf`;
 }
 
 /** Whether this actor may have a sheet of the revision now: only while its sign-off holds (auditors may export the record later too). */
@@ -153,11 +156,11 @@ export async function requestSheet(db: Database, actor: Actor, revisionId: strin
   assertSheetAllowed(actor, r, signOffStatus(r));
   const paper = input.paper;
   const headerText = `${r.benchTitle} — revision ${r.number} — ${paper}`;
-  const storageKey = storageKeyFor(r, paper);
+  const storageKey = storageKeyFor(r, paper, await labStandard(db, r.labId));
   const [existing] = await db.select().from(buildSheet).where(and(eq(buildSheet.revisionId, r.id), eq(buildSheet.paper, paper)));
   let row = existing;
   let reused = false;
-  if (row && row.state === "ready" && row.contentHash === r.contentHash && row.storageKey && (await storage().exists(row.storageKey))) {
+  if (row && row.state === "ready" && row.contentHash === r.contentHash && row.storageKey === storageKey && (await storage().exists(row.storageKey))) {
     reused = true;
   } else if (row) {
     // Take the job over only if no server has it on its way: the row is not queued or rendering, or
@@ -221,6 +224,9 @@ export async function downloadSheet(db: Database, actor: Actor, sheetId: string)
     throw new AppError("conflict", row.state === "failed" ? (row.error ?? "The build sheet could not be made; ask for it again.") : `The build sheet is not ready yet (${row.progressPercent} %).`);
   }
   if (row.contentHash !== r.contentHash) throw new AppError("conflict", "This sheet was made for a different version of the drawing; ask for the sheet again.");
+  if (row.storageKey !== storageKeyFor(r, row.paper, await labStandard(db, r.labId))) {
+    throw new AppError("conflict", "This sheet was made under the other safety standard, before the lab changed its choice; ask for the sheet again.");
+  }
   const bytes = await storage().get(row.storageKey);
   if (!bytes) throw new AppError("conflict", "The stored PDF is missing; ask for the build sheet again and it will be made anew.");
   await recordAudit(db, actor, {
@@ -260,24 +266,25 @@ type DrawingContent = Pick<SheetContent, "laser" | "parts" | "checklist" | "step
 const DRAWING_CACHE_SIZE = 32;
 const drawingCache = new Map<string, Promise<DrawingContent>>();
 
-function drawingContent(doc: BenchDocument, contentHash: string): Promise<DrawingContent> {
+function drawingContent(doc: BenchDocument, contentHash: string, standard: SafetyStandard): Promise<DrawingContent> {
   const url = verifyUrl(contentHash);
-  const key = `${contentHash}\n${url}`;
+  const key = `${contentHash}\n${url}\n${standard}`;
   const hit = drawingCache.get(key);
   if (hit) {
     drawingCache.delete(key); // most recently used last
     drawingCache.set(key, hit);
     return hit;
   }
-  const made = computeDrawingContent(doc, url);
+  const made = computeDrawingContent(doc, url, standard);
   drawingCache.set(key, made);
   made.catch(() => drawingCache.delete(key));
   while (drawingCache.size > DRAWING_CACHE_SIZE) drawingCache.delete(drawingCache.keys().next().value!);
   return made;
 }
 
-async function computeDrawingContent(doc: BenchDocument, url: string): Promise<DrawingContent> {
-  const assessed = assessRevision(doc);
+async function computeDrawingContent(doc: BenchDocument, url: string, standard: SafetyStandard): Promise<DrawingContent> {
+  // every hazard figure on the sheet follows the lab's chosen standard
+  const assessed = assessRevision(doc, { standard });
   const safety = assessed.ok ? assessed.safety : null;
   const analysis = assessed.ok ? assessed.analysis : null;
   const laser = doc.elements.find((e): e is LaserElement => e.kind === "laser") ?? null;
@@ -324,15 +331,46 @@ async function computeDrawingContent(doc: BenchDocument, url: string): Promise<D
   };
 }
 
-/** Everything the printed sheet shows, for a revision that was signed off. */
-export async function sheetContent(db: Database, actor: Actor, revisionId: string): Promise<SheetContent> {
+/** What a table's sheet shows that follows from the drawing alone (not cached: a table is traced in milliseconds). */
+async function tableSheetContent(r: SignedRevision & { document: BenchDocumentV2 }, status: SignOffStatus, db: Database): Promise<TableSheetContent> {
+  const doc = r.document;
+  const url = verifyUrl(r.contentHash);
+  // every hazard figure on the sheet follows the lab's chosen standard, as on a rail's sheet
+  const assessed = assessTableRevision(doc, { standard: await labStandard(db, r.labId) });
+  const analysis = assessed.ok ? assessed.analysis : null;
+  const safety = assessed.ok ? assessed.safety : null;
+  const rows = analysis ? pathRows(doc, analysis, safety) : [];
+  const lasers = doc.elements.filter((e) => e.kind === "laser" && e.registerId) as { id: string; registerId?: string }[];
+  const registers = await Promise.all(lasers.map(async (l) => ({ laserId: l.id, registerId: l.registerId as string, entry: await registerEntry(db, l.registerId as string) })));
+  return {
+    kind: "table",
+    document: doc,
+    analysis,
+    safety,
+    rows,
+    ends: beamEnds(rows),
+    steps: analysis ? buildOrderV2(doc, analysis) : [],
+    registers,
+    checklist: checklistFor(doc, safety, r.decision?.conditions),
+    problem: assessed.ok ? null : assessed.problem,
+    revision: { id: r.id, number: r.number, contentHash: r.contentHash, benchTitle: r.benchTitle, labName: r.labName, authorName: r.authorName, status, statusSentence: signOffSentence(r, status) },
+    decision: r.decision,
+    toleranceMm: POSITION_TOLERANCE_MM,
+    verifyUrl: url,
+    qrSvg: await QRCode.toString(url, { type: "svg", margin: 1, errorCorrectionLevel: "M" }),
+  };
+}
+
+/** Everything the printed sheet shows, for a revision that was signed off: a rail's sheet, or a table's. */
+export async function sheetContent(db: Database, actor: Actor, revisionId: string): Promise<SheetContent | TableSheetContent> {
   authorize(actor, { bench: ["read"] });
   const r = await loadSignedRevision(db, actor, revisionId);
   const status = signOffStatus(r);
   if (status === "not-signed-off") throw new AppError("conflict", signOffSentence(r, status));
+  if (r.document.version === 2) return tableSheetContent({ ...r, document: r.document }, status, db);
   const doc = r.document;
   const laser = doc.elements.find((e): e is LaserElement => e.kind === "laser") ?? null;
-  const [drawing, entry] = await Promise.all([drawingContent(doc, r.contentHash), laser?.registerId ? registerEntry(db, laser.registerId) : null]);
+  const [drawing, entry] = await Promise.all([drawingContent(doc, r.contentHash, await labStandard(db, r.labId)), laser?.registerId ? registerEntry(db, laser.registerId) : null]);
   return {
     ...drawing,
     // the officer's conditions are lines to tick too; they belong to the sign-off, not to the drawing

@@ -6,15 +6,16 @@ import { and, asc, desc, eq, inArray } from "drizzle-orm";
 import { z } from "zod";
 import type { Database, DbOrTx } from "@/db";
 import { bench, benchRevision, buildCheck, buildObservation, buildRecord, lab, photoReading, reviewDecision, upload, user, type ReviewState } from "@/db/schema";
-import type { BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { observationMismatchMail } from "@/lib/mail/build-mail";
 import { enqueueMail } from "@/lib/mail/outbox";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
 import { checklistFor, compareObservation, positionWithinTolerance, POSITION_TOLERANCE_MM, POWER_TOLERANCE_FRACTION, predictionsFor, signOffSentence, signOffStatus, SPOT_TOLERANCE_FRACTION, whyNotSignOff, type SignOffRecord, type SignOffStatus } from "@/lib/build/rules";
-import { assessRevision } from "@/lib/review/hazard";
+import { assessAnyRevision } from "@/lib/review/hazard";
 import { OPTICS_ENGINE_VERSION } from "@/lib/optics/version";
+import { labStandard } from "./lab-standard";
 import { loadRevision } from "./reviews";
 import { inScope, notFoundAs } from "./scope";
 import type { BuildableRow, BuildView, CheckView, checkInput, ObservationView, observationInput, PhotoReadingResult, PhotoReadingView, startBuildInput } from "@/lib/api/contracts/builds";
@@ -26,7 +27,7 @@ export type SignedRevision = {
   number: number;
   state: ReviewState;
   contentHash: string;
-  document: BenchDocument;
+  document: AnyBenchDocument;
   benchTitle: string;
   labId: string;
   labName: string;
@@ -136,7 +137,7 @@ export function observationView(row: typeof buildObservation.$inferSelect, name:
 }
 
 export async function buildView(db: DbOrTx, actor: Actor, build: BuildRow, revision: SignedRevision): Promise<BuildView> {
-  const assessed = assessRevision(revision.document);
+  const assessed = assessAnyRevision(revision.document, { standard: await labStandard(db, revision.labId) });
   const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions);
   const checks = await db.select().from(buildCheck).where(eq(buildCheck.buildId, build.id));
   const byKey = new Map(checks.map((c) => [c.itemKey, c]));
@@ -290,7 +291,7 @@ async function startBuildOnce(db: Database, actor: Actor, input: z.infer<typeof 
       .insert(buildRecord)
       .values({ revisionId: revision.id, benchId: revision.benchId, contentHash: revision.contentHash, technicianId: actor.userId })
       .returning();
-    const assessed = assessRevision(revision.document);
+    const assessed = assessAnyRevision(revision.document, { standard: await labStandard(tx, revision.labId) });
     const items = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions);
     await tx.insert(buildCheck).values(items.map((i) => ({ buildId: build.id, itemKey: i.itemKey })));
     await recordAudit(tx, actor, { ...aboutRevision(revision), action: "build-started", detail: { buildId: build.id, number: revision.number, items: items.length } });
@@ -309,7 +310,7 @@ export async function updateCheck(db: Database, actor: Actor, buildId: string, i
   return db.transaction(async (tx) => {
     const { build, revision } = await loadBuild(tx, actor, buildId, true);
     assertRecordable(build, revision);
-    const assessed = assessRevision(revision.document);
+    const assessed = assessAnyRevision(revision.document, { standard: await labStandard(tx, revision.labId) });
     const item = checklistFor(revision.document, assessed.ok ? assessed.safety : null, revision.decision?.conditions).find((i) => i.itemKey === input.itemKey);
     if (!item) throw new AppError("bad-request", `There is no checklist item "${input.itemKey}" on this build.`, [{ path: "itemKey", message: "No such item" }]);
     if (input.measuredPositionMm !== undefined && item.expectedPositionMm === null) {

@@ -11,7 +11,7 @@ import { eyewearBandsSchema, eyewearCoverage, eyewearNameSchema, lineNeeds, type
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
 import { labStandard } from "./lab-standard";
-import { assessRevision } from "@/lib/review/hazard";
+import { assessAnyRevision } from "@/lib/review/hazard";
 import { inScope, scopeHolds } from "./scope";
 import { loadRevision } from "./reviews";
 
@@ -220,7 +220,7 @@ export async function revisionEyewear(db: DbOrTx, actor: Actor, revisionId: stri
   authorize(actor, { eyewear: ["read"] });
   const r = await loadRevision(db, actor, revisionId);
   const standard = await labStandard(db, r.labId);
-  const assessed = assessRevision(r.document, { standard });
+  const assessed = assessAnyRevision(r.document, { standard });
   const result = await benchEyewear(db, r.labId, assessed.ok ? assessed.safety : null);
   return { ...result, revisionId: r.id, problem: assessed.ok ? null : assessed.problem };
 }

@@ -8,9 +8,14 @@ import { lab, type SafetyStandard } from "@/db/schema";
 
 export const DEFAULT_STANDARD: SafetyStandard = "ANSI Z136.1-2014";
 
+/** The standard a lab chose; null when there is no such lab. */
+export async function findLabStandard(db: DbOrTx, labId: string): Promise<SafetyStandard | null> {
+  if (!z.uuid().safeParse(labId).success) return null;
+  const [row] = await db.select({ standard: lab.safetyStandard }).from(lab).where(eq(lab.id, labId));
+  return row?.standard ?? null;
+}
+
 /** The standard a lab chose; the default when the lab is unknown. */
 export async function labStandard(db: DbOrTx, labId: string): Promise<SafetyStandard> {
-  if (!z.uuid().safeParse(labId).success) return DEFAULT_STANDARD;
-  const [row] = await db.select({ standard: lab.safetyStandard }).from(lab).where(eq(lab.id, labId));
-  return row?.standard ?? DEFAULT_STANDARD;
+  return (await findLabStandard(db, labId)) ?? DEFAULT_STANDARD;
 }

@@ -31,7 +31,12 @@ export async function readBuildPhoto(
   authorize(actor, { build: ["record"] });
   const { build, revision } = await loadBuild(db, actor, buildId);
   assertRecordable(build, revision);
-  const predictions = predictionsFor(revision.document);
+  const document = revision.document;
+  if (document.version !== 1) {
+    // A table plan (version 2) has no single rail to move the screen along; the reader takes a straight bench.
+    throw new AppError("bad-request", "Screen photos can be read for benches drawn on a rail; this revision is a table plan, so record what the screen shows by hand.", [{ path: "apertureId", message: "Not a rail bench" }]);
+  }
+  const predictions = predictionsFor(document);
   const aperture = predictions.apertures.find((a) => a.apertureId === input.apertureId);
   if (!aperture) {
     throw new AppError("bad-request", `No light reaches an aperture "${input.apertureId}" on this bench, so there is no pattern to compare the photo with.`, [{ path: "apertureId", message: "Not a lit aperture of this bench" }]);
@@ -50,7 +55,7 @@ export async function readBuildPhoto(
   if (existing.length) return answer(db, actor, buildId, existing[0].id, false);
 
   const screenAperture = { ...aperture, screenId: aperture.screenId, observationDistanceMm: aperture.observationDistanceMm };
-  const { result, reasons, prediction, refusal } = await readStored(file, revision.document, screenAperture);
+  const { result, reasons, prediction, refusal } = await readStored(file, document, screenAperture);
 
   const readingId = await db.transaction(async (tx) => {
     const { build: locked } = await loadBuild(tx, actor, buildId, true);

@@ -7,7 +7,7 @@ import { z } from "zod";
 import { safeText } from "@/lib/validation/text";
 import type { Database, DbOrTx } from "@/db";
 import { lab, laserRegister, LASER_STATUSES, user, type LaserStatus } from "@/db/schema";
-import type { BenchDocument, LaserElement } from "@/lib/bench/schema";
+import type { AnyBenchDocument, BenchDocument, LaserElement } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { classifyBeam, compareLabel, HAZARD_CLASSES, type HazardClass } from "@/lib/safety";
 import { recordAudit } from "./audit";
@@ -62,6 +62,9 @@ export const laserInput = z
     if (v.pulseRepetitionRateHz !== null && v.pulseDurationS === null) {
       ctx.addIssue({ code: "custom", path: ["pulseDurationS"], message: "A repetition rate needs a pulse duration" });
     }
+    if (v.pulseEnergyMj !== null && v.pulseDurationS === null) {
+      ctx.addIssue({ code: "custom", path: ["pulseDurationS"], message: "A pulse energy needs a pulse duration" });
+    }
     if (v.pulseDurationS !== null && v.pulseRepetitionRateHz !== null && v.pulseDurationS * v.pulseRepetitionRateHz >= 1) {
       ctx.addIssue({ code: "custom", path: ["pulseRepetitionRateHz"], message: "Pulse duration × repetition rate must be below 1; enter the laser as continuous-wave" });
     }
@@ -113,30 +116,48 @@ export type LaserView = {
 
 export const STATUS_WORDS: Record<LaserStatus, string> = { "in-service": "In service", "out-of-service": "Out of service", disposed: "Disposed of" };
 
-type LaserFacts = Pick<LaserView, "labelClass" | "wavelengthsNm" | "maxPowerMw" | "pulseDurationS" | "pulseRepetitionRateHz" | "beamDiameterMm" | "divergenceMrad"> & { lines?: LaserView["lines"] };
+type LaserFacts = Pick<LaserView, "labelClass" | "wavelengthsNm" | "maxPowerMw" | "pulseDurationS" | "pulseRepetitionRateHz" | "beamDiameterMm" | "divergenceMrad"> & {
+  lines?: LaserView["lines"];
+  pulseEnergyMj?: number | null;
+};
 
-/** Classifies the laser at its maximum power at each wavelength and keeps the highest class. */
+/**
+ * Classifies the laser at each wavelength and keeps the highest class: at its maximum power (a train's average power),
+ * and, where the entry gives a pulse energy and duration, also from that energy per pulse (with the rate, its average
+ * energy × rate). Maximum power and energy need not agree in a register (they may be rated at different rates), so the
+ * higher class of the two readings is kept: the cautious answer.
+ */
 export function computeClass(facts: LaserFacts): ComputedClass {
   let worst: HazardClass | null = null;
   const reasons: string[] = [];
+  const raise = (c: HazardClass) => {
+    if (worst === null || HAZARD_CLASSES.indexOf(c) > HAZARD_CLASSES.indexOf(worst)) worst = c;
+  };
+  const energyMj = facts.pulseEnergyMj ?? null;
+  const timing = {
+    ...(facts.pulseDurationS !== null ? { pulseDurationS: facts.pulseDurationS } : {}),
+    ...(facts.pulseDurationS !== null && facts.pulseRepetitionRateHz !== null ? { pulseRepetitionRateHz: facts.pulseRepetitionRateHz } : {}),
+  };
   try {
     for (const wavelengthNm of facts.wavelengthsNm) {
-      const c = classifyBeam({
-        wavelengthNm,
-        powerMw: facts.maxPowerMw,
-        beamDiameterMm: facts.beamDiameterMm,
-        divergenceMrad: facts.divergenceMrad,
-        ...(facts.pulseDurationS !== null ? { pulseDurationS: facts.pulseDurationS } : {}),
-        ...(facts.pulseDurationS !== null && facts.pulseRepetitionRateHz !== null ? { pulseRepetitionRateHz: facts.pulseRepetitionRateHz } : {}),
-      });
+      const beam = { wavelengthNm, beamDiameterMm: facts.beamDiameterMm, divergenceMrad: facts.divergenceMrad, ...timing };
+      const c = classifyBeam({ ...beam, powerMw: facts.maxPowerMw });
       reasons.push(`${wavelengthNm} nm: Class ${c.hazardClass}. ${c.reasons.join(" ")}`);
-      if (worst === null || HAZARD_CLASSES.indexOf(c.hazardClass) > HAZARD_CLASSES.indexOf(worst)) worst = c.hazardClass;
+      raise(c.hazardClass);
+      if (energyMj !== null && facts.pulseDurationS !== null) {
+        const e = classifyBeam({ ...beam, pulseEnergyJ: energyMj / 1e3 });
+        reasons.push(`${wavelengthNm} nm from the pulse energy ${energyMj} mJ: Class ${e.hazardClass}. ${e.reasons.join(" ")}`);
+        raise(e.hazardClass);
+      }
+    }
+    if (energyMj !== null && facts.pulseDurationS === null) {
+      reasons.push("The pulse energy is not used: the entry gives no pulse duration. Add the duration so the estimate can take it into account.");
     }
     // Further lines, each at its own power, as continuous beams (a residual pump or harmonic); the class is the highest over all.
     for (const line of facts.lines ?? []) {
       const c = classifyBeam({ wavelengthNm: line.wavelengthNm, powerMw: line.powerMw, beamDiameterMm: facts.beamDiameterMm, divergenceMrad: facts.divergenceMrad });
       reasons.push(`Further line ${line.wavelengthNm} nm at ${line.powerMw} mW: Class ${c.hazardClass}. ${c.reasons.join(" ")}`);
-      if (worst === null || HAZARD_CLASSES.indexOf(c.hazardClass) > HAZARD_CLASSES.indexOf(worst)) worst = c.hazardClass;
+      raise(c.hazardClass);
     }
   } catch (error) {
     return { hazardClass: null, matchesLabel: null, warning: `The class could not be estimated: ${error instanceof Error ? error.message : "unknown problem"}.`, reasons };
@@ -374,10 +395,25 @@ export async function checkBenchAgainstRegister(db: DbOrTx, actor: Actor, docume
   return { laserId: entry.id, labelClass: entry.labelClass, computedClass, warnings };
 }
 
-/** For the submit path: refuses (409) a submission whose laser the register lists as out of service or disposed of. */
-export async function assertRegisterAllowsSubmission(db: DbOrTx, actor: Actor, document: BenchDocument): Promise<RegisterCheck> {
-  const check = await checkBenchAgainstRegister(db, actor, document);
-  const blocking = check.warnings.find((w) => w.blocksSubmission);
-  if (blocking) throw new AppError("conflict", blocking.message, [{ path: "registerId", message: blocking.message }]);
-  return check;
+/**
+ * For the submit path: refuses (409) a submission whose laser the register lists as out of service or disposed of.
+ * On a table (version 2) every laser is checked; the first laser's check is returned.
+ */
+export async function assertRegisterAllowsSubmission(db: DbOrTx, actor: Actor, document: AnyBenchDocument): Promise<RegisterCheck> {
+  const rails: BenchDocument[] =
+    document.version === 1
+      ? [document]
+      : document.elements.flatMap((e) => {
+          if (e.kind !== "laser") return [];
+          const { xMm: _x, yMm: _y, angleDeg: _a, ...laser } = e;
+          return [{ version: 1 as const, elements: [{ ...laser, positionMm: 0 }] }];
+        });
+  const checks: RegisterCheck[] = [];
+  for (const rail of rails) {
+    const check = await checkBenchAgainstRegister(db, actor, rail);
+    const blocking = check.warnings.find((w) => w.blocksSubmission);
+    if (blocking) throw new AppError("conflict", blocking.message, [{ path: "registerId", message: blocking.message }]);
+    checks.push(check);
+  }
+  return checks[0] ?? { laserId: null, labelClass: null, computedClass: null, warnings: [] };
 }

@@ -6,7 +6,7 @@ import type { Database } from "@/db";
 import { auditEvent, bench, benchRevision, lab, reviewDecision, user } from "@/db/schema";
 import { rolesAllow } from "@/lib/auth/permissions";
 import { diffBenches } from "@/lib/bench/diff";
-import { type BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument } from "@/lib/bench/schema";
 import { authorize, type Actor } from "./authorize";
 import { COMMENTS_OPEN, ONCE_APPROVED, canMove, stateSentence } from "@/lib/review/transitions";
 import { inScope } from "./scope";
@@ -42,10 +42,10 @@ export async function getReview(db: Database, actor: Actor, revisionId: string):
 
   return {
     revision: { id: r.id, number: r.number, state: r.state, contentHash: r.contentHash, document: r.document, updatedAt: r.updatedAt.toISOString() },
-    bench: { id: r.benchId, title: r.benchTitle, labName: r.labName, authorName: r.authorName, authorId: r.authorId },
+    bench: { id: r.benchId, title: r.benchTitle, labId: r.labId, labName: r.labName, authorName: r.authorName, authorId: r.authorId },
     decision: decisionRow ? decisionView(decisionRow) : null,
     lastApproved: approvedRow
-      ? { id: approvedRow.id, number: approvedRow.number, state: approvedRow.state, contentHash: approvedRow.contentHash, diff: diffBenches(approvedRow.document as BenchDocument, r.document) }
+      ? { id: approvedRow.id, number: approvedRow.number, state: approvedRow.state, contentHash: approvedRow.contentHash, diff: diffBenches(approvedRow.document as AnyBenchDocument, r.document) }
       : null,
     threads,
     trail: trailRows.map((t) => ({ at: t.at.toISOString(), action: t.action, actorName: t.actorName, detail: t.detail })),

@@ -12,7 +12,8 @@ import type { Database, DbOrTx } from "@/db";
 import { account, bench, benchRevision, lab, labMember, reviewComment, reviewDecision, user, type DecisionOutcome, type HazardSummary, type ReviewState } from "@/db/schema";
 import { ROLE_LABELS, parseRoles } from "@/lib/auth/permissions";
 import { contentHash } from "@/lib/bench/canonical";
-import { benchDocumentSchema, describeIssues, type BenchDocument } from "@/lib/bench/schema";
+import { describeIssues, type AnyBenchDocument } from "@/lib/bench/schema";
+import { anyBenchDocumentSchema } from "@/lib/bench/schema-v2";
 import { AppError, notFound } from "@/lib/errors";
 import { enqueueMail } from "@/lib/mail/outbox";
 import { reviewDecisionMail, reviewSubmittedMail, reviewWithdrawnMail, type Recipient, type RevisionMailContext } from "@/lib/mail/review-mail";
@@ -34,7 +35,8 @@ export type RevisionRow = {
   number: number;
   state: ReviewState;
   contentHash: string;
-  document: BenchDocument;
+  /** Version 1 (a rail) or 2 (a table). */
+  document: AnyBenchDocument;
   createdBy: string;
   updatedAt: Date;
   benchTitle: string;
@@ -72,7 +74,7 @@ export async function loadRevision(db: DbOrTx, actor: Actor, revisionId: string,
     .where(eq(benchRevision.id, revisionId));
   const [row] = lock ? await query.for("update", { of: benchRevision }) : await query;
   visibleOr404(actor, row, "The revision");
-  return { ...row, document: row.document as BenchDocument };
+  return { ...row, document: row.document as AnyBenchDocument };
 }
 
 export function mailContext(r: RevisionRow): RevisionMailContext {
@@ -117,7 +119,7 @@ export async function submitRevision(db: Database, actor: Actor, revisionId: str
       .limit(1);
     if (waiting) throw new AppError("conflict", `Revision ${waiting.number} of this bench is still waiting for review; withdraw it first.`);
 
-    const parsed = benchDocumentSchema.safeParse(r.document);
+    const parsed = anyBenchDocumentSchema.safeParse(r.document);
     if (!parsed.success) {
       const fields = describeIssues(parsed.error);
       throw new AppError("bad-request", `The bench cannot be sent for review yet: ${fields[0]?.message ?? "the drawing is incomplete"}.`, fields);
@@ -243,7 +245,7 @@ export async function decideRevision(db: Database, actor: Actor, revisionId: str
       if (input.contentHash !== r.contentHash) {
         throw new AppError("conflict", `Revision ${r.number} is not the one you reviewed (its content hash differs); open it again before deciding.`);
       }
-      const parsed = benchDocumentSchema.safeParse(r.document);
+      const parsed = anyBenchDocumentSchema.safeParse(r.document);
       if (!parsed.success || contentHash(parsed.data) !== r.contentHash) {
         throw new AppError("conflict", `Revision ${r.number}'s drawing does not match its content hash, so it cannot be signed; ask the author to save it again.`);
       }

@@ -1,6 +1,7 @@
 // The sign-off cycle in chromium: a researcher sends a bench for review, the officer's e-mail arrives
 // in the mail catcher, the officer finds it in the queue, reads the review screen and signs off with a
 // condition and the password; the researcher then sees it signed off, the technician sees it to build.
+import AxeBuilder from "@axe-core/playwright";
 import { expect as baseExpect, test, type Browser, type Page } from "@playwright/test";
 import pg from "pg";
 import { call, DEMO, DEMO_PASSWORD, signIn, waitForMail } from "../support/http";
@@ -114,4 +115,41 @@ test("a bench goes from draft to signed off in the browser", async ({ browser })
   await expect(technician.getByTestId("home-technician").getByRole("link", { name: title })).toBeVisible();
   const res = await call("GET", `/api/revisions/${revisionId}`, (await signIn(DEMO.technician)).cookie);
   expect((res.json!.revision as { state: string }).state).toBe("approved");
+});
+
+test("the review screen of a table shows the plan, its hazard zone, the open beam in red and where every beam ends", async ({ browser }) => {
+  // The demo data's two-laser table waits for review: its violet splitter lets half the beam run off the right edge.
+  const cookie = (await signIn(DEMO.researcher)).cookie;
+  const benches = (await call("GET", "/api/benches", cookie)).json!.benches as { id: string; title: string }[];
+  const table = benches.find((b) => b.title === "Two lasers on the imperial breadboard");
+  expect(table, "the demo data holds the two-laser table").toBeTruthy();
+  const detail = (await call("GET", `/api/benches/${table!.id}`, cookie)).json as { revisions: { id: string; state: string }[] };
+  const waiting = detail.revisions.find((r) => r.state === "submitted")!;
+
+  const officer = await signedIn(browser, DEMO.officer);
+  await officer.setViewportSize({ width: 1280, height: 900 });
+  await officer.goto(`/reviews/${waiting.id}`);
+  await expect(officer.getByRole("heading", { name: "Two lasers on the imperial breadboard" })).toBeVisible();
+  const plan = officer.getByTestId("review-table-plan");
+  await expect(plan).toBeVisible();
+  // readable: the plan spans most of the main column
+  expect((await plan.boundingBox())!.width).toBeGreaterThan(600);
+  await expect(plan.locator("[data-nhz-path]")).toHaveCount(1);
+  const open = officer.locator('[data-open-beam][data-exceeds-mpe="true"]');
+  await expect(open).toHaveCount(1);
+  await expect(open).toContainText("Open beam above the MPE");
+  await expect(open).toContainText("from beam splitter BS2");
+  await expect(open).toContainText(/Leaves the right edge at .* heading to the right \(\+x\), 0°; 2\.5\d* mW; NOHD/);
+  // the HeNe window's two weak ghosts leave the table too, but within the MPE
+  await expect(officer.locator('[data-open-beam][data-exceeds-mpe="false"]')).toHaveCount(2);
+  await expect(officer.getByTestId("beam-ends")).toContainText("ends on beam block violet-block");
+  await expect(officer.getByTestId("beam-ends")).toContainText("ends on screen red-screen");
+  await expect(officer.getByTestId("path-table").locator('tr[data-band="above-mpe"]').first()).toBeVisible();
+  await expect(officer.getByTestId("final-say").first()).toBeVisible();
+  await officer.screenshot({ path: `${shots}/review-table-screen.png`, fullPage: true });
+  await plan.screenshot({ path: `${shots}/review-table-plan.png` });
+  // no serious accessibility problem on the table's review screen (axe, WCAG 2.1 A and AA)
+  const results = await new AxeBuilder({ page: officer }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
+  const bad = results.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
+  expect(bad.map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(" ")).join(" | ")}`)).toEqual([]);
 });

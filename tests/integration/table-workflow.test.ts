@@ -1,14 +1,23 @@
 // A table (bench document version 2) through the workflow over HTTP against the running server and PostgreSQL:
 // created, saved and loaded as a draft (its content hash the canonical one), made into a revision; bad tables
 // refused with a 400 naming the element, never a 500; a version 1 drawing keeps the content hash it always had.
+// Then sent for review, read on the review screen (plan, open beam in red, beam ends), signed off (the summary kept
+// with the signature names every laser and the open beam), printed (pdf.js reads "every beam ends here" from the
+// PDF) and built (the checklist places each element by hole and angle).
+import { execFileSync } from "node:child_process";
+import { mkdirSync, writeFileSync } from "node:fs";
+import path from "node:path";
+import { getDocument } from "pdfjs-dist/legacy/build/pdf.mjs";
 import { beforeAll, describe, expect, it } from "vitest";
 import { contentHash } from "../../lib/bench/canonical";
 import type { BenchDocumentV2 } from "../../lib/bench/schema-v2";
 import { DEMO_LAB_NAME } from "../support/demo";
-import { call, DEMO, signIn } from "../support/http";
+import { APP_URL, call, DEMO, DEMO_PASSWORD, signIn } from "../support/http";
 import { labIdByName } from "../support/review-fixtures";
 
 let researcher = "";
+let officer = "";
+let technician = "";
 let labId = "";
 let tableBenchId = "";
 
@@ -43,6 +52,8 @@ async function save(benchId: string, document: unknown) {
 
 beforeAll(async () => {
   researcher = (await signIn(DEMO.researcher)).cookie;
+  officer = (await signIn(DEMO.officer)).cookie;
+  technician = (await signIn(DEMO.technician)).cookie;
   labId = await labIdByName(researcher, DEMO_LAB_NAME);
   const created = await call("POST", "/api/benches", researcher, { labId, title: `Table workflow ${Date.now()}`, table });
   expect(created.status).toBe(201);
@@ -100,6 +111,18 @@ describe("a table bench's draft", () => {
   });
 });
 
+describe("the screen pattern behind an aperture of a table", () => {
+  it("POST /api/analyze/profile answers for the iris on the splitter's arm, and names a dark aperture in words", async () => {
+    const res = await call("POST", "/api/analyze/profile", researcher, { document: foldedTable(), apertureId: "iris", points: 40 });
+    expect(res.status, res.text).toBe(200);
+    expect(res.json).toMatchObject({ pathId: "p3", screenId: "screen" });
+    expect((res.json!.radiusMm as number[]).length).toBe(40);
+    const unknown = await call("POST", "/api/analyze/profile", researcher, { document: foldedTable(), apertureId: "nowhere" });
+    expect(unknown.status).toBe(400);
+    expect(String((unknown.json!.error as { message: string }).message)).toMatch(/No light reaches an aperture "nowhere"/);
+  });
+});
+
 describe("a rail bench (version 1) beside it", () => {
   // The content hash of this drawing computed by the first canonical JSON (before version 2 existed): it must not move.
   const pinned = "a6c2c8f4654499bb534f2adafe827879cd4a37d9be01cdd7506aa457e23153e3";
@@ -130,5 +153,111 @@ describe("a rail bench (version 1) beside it", () => {
     const res = await call("POST", "/api/benches", researcher, { labId, title: "No size", table: { widthMm: -1, depthMm: 900, holePitchMm: 25 } });
     expect(res.status).toBe(400);
     expect(problemsOf(res.json).some((p) => /Table width must be greater than 0/.test(p.message))).toBe(true);
+  });
+});
+
+/** The text of every page of a PDF, with pdf.js (Mozilla's PDF library, legacy build for Node). */
+async function pdfText(bytes: Buffer): Promise<string> {
+  const doc = await getDocument({ data: new Uint8Array(bytes), isEvalSupported: false, useSystemFonts: false }).promise;
+  const pages: string[] = [];
+  try {
+    for (let n = 1; n <= doc.numPages; n++) {
+      const content = await (await doc.getPage(n)).getTextContent();
+      pages.push(content.items.map((item) => ("str" in item ? `${item.str}${item.hasEOL ? "\n" : ""}` : "")).join(""));
+    }
+  } finally {
+    await doc.destroy();
+  }
+  return pages.join("\n").replace(/\s+/g, " ");
+}
+
+describe("a table through review, sign-off, the build sheet and a build", () => {
+  let benchId = "";
+  let revisionId = "";
+  let hash = "";
+
+  beforeAll(async () => {
+    const created = await call("POST", "/api/benches", researcher, { labId, title: `Table to sign ${Date.now()}`, table });
+    benchId = String(created.json!.id);
+    // the folded table as drawn: the splitter's other arm runs off the back edge (an open beam above the MPE)
+    expect((await save(benchId, foldedTable())).status).toBe(200);
+    const draft = await draftOf(benchId);
+    const revisions = await call("GET", `/api/benches/${benchId}`, researcher);
+    revisionId = (revisions.json!.revisions as { id: string; number: number }[]).find((r) => r.number === draft.revisionNumber)!.id;
+    hash = draft.contentHash;
+  });
+
+  it("is sent for review", async () => {
+    const res = await call("POST", `/api/revisions/${revisionId}/submit`, researcher, { contentHash: hash });
+    expect(res.status, res.text).toBe(200);
+  });
+
+  it("shows the officer the plan, the open beam in words with its direction, power and NOHD, and every beam's end", async () => {
+    const res = await fetch(`${APP_URL}/reviews/${revisionId}`, { headers: { cookie: officer } });
+    expect(res.status).toBe(200);
+    const html = (await res.text()).replace(/<!-- -->/g, "");
+    expect(html).toContain('data-testid="review-table-plan"');
+    expect(html).toContain('data-testid="hazard-zone"');
+    expect(html).toMatch(/data-open-beam="p4" data-exceeds-mpe="true"/);
+    expect(html).toMatch(/Open beam above the MPE.*beam p4 of laser green, from beam splitter BS/);
+    expect(html).toMatch(/Leaves the back edge at \(500, 900\) mm heading away from the viewer \(\+y\), 90°; 9\.9\d* mW; NOHD\s*\d/);
+    expect(html).toMatch(/Beam p3 \(laser green, 9\.9\d* mW from beam splitter BS\) ends on screen screen/);
+    expect(html).toContain("Class 3B");
+  });
+
+  it("is signed off, and the summary kept with the signature names the laser, the paths and the open beam", { timeout: 90_000 }, async () => {
+    const res = await call("POST", `/api/revisions/${revisionId}/decision`, officer, { outcome: "approve", contentHash: hash, password: DEMO_PASSWORD, conditions: "Block the splitter's back arm before switching on" });
+    expect(res.status, res.text).toBe(201);
+    const review = await call("GET", `/api/revisions/${revisionId}`, officer);
+    expect(review.status).toBe(200);
+    const summary = (review.json!.decision as { hazardSummary: Record<string, unknown> }).hazardSummary;
+    expect(summary).toMatchObject({ version: 2, hazardClass: { value: "3B" } });
+    expect((summary.openBeams as { pathId: string; exceedsMpe: boolean }[]).map((o) => [o.pathId, o.exceedsMpe])).toEqual([["p4", true]]);
+    expect((summary.paths as unknown[]).length).toBe(4);
+  });
+
+  it("prints a sheet whose text lists where every beam ends, the holes and angles, and the screen's figures", async () => {
+    const started = await call("POST", `/api/revisions/${revisionId}/sheet`, technician, { paper: "A4" });
+    expect([200, 202], started.text).toContain(started.status);
+    let sheet = started.json!.sheet as { state: string; downloadUrl: string | null; error: string | null };
+    const deadline = Date.now() + 150_000;
+    while (sheet.state !== "ready" && sheet.state !== "failed" && Date.now() < deadline) {
+      await new Promise((r) => setTimeout(r, 500));
+      sheet = (await call("GET", `/api/revisions/${revisionId}/sheet?paper=A4`, technician)).json!.sheet as typeof sheet;
+    }
+    expect(sheet.error).toBeNull();
+    expect(sheet.state).toBe("ready");
+    const res = await fetch(`${APP_URL}${sheet.downloadUrl}`, { headers: { cookie: technician } });
+    expect(res.status).toBe(200);
+    const pdf = Buffer.from(await res.arrayBuffer());
+    const out = path.resolve(import.meta.dirname, "../../test-results/sheets");
+    mkdirSync(out, { recursive: true });
+    writeFileSync(path.join(out, "table-sheet.pdf"), pdf);
+    try {
+      execFileSync("pdftoppm", ["-png", "-r", "60", path.join(out, "table-sheet.pdf"), path.join(out, "table-sheet")]);
+    } catch {
+      // pictures are for people to look at; the text checks below are the test
+    }
+    const text = await pdfText(pdf);
+    expect(text).toContain("Every beam ends here");
+    expect(text).toMatch(/p3 laser green beam splitter BS 9\.9\d* mW ends on screen screen/);
+    expect(text).toMatch(/p4 laser green beam splitter BS 9\.9\d* mW OPEN BEAM above the MPE: leaves the table at the back edge, \(500, 900\) mm, heading away from the viewer \(\+y\), 90°/);
+    expect(text).toMatch(/Build order, following the light/);
+    expect(text).toMatch(/Laser green: hole 5, 5 \+ \(-12\.5, -12\.5\) mm, 0°/);
+    expect(text).toMatch(/Mirror M1: hole 21, 5 \+ \(-12\.5, -12\.5\) mm, 135°/);
+    expect(text).toContain("On each screen");
+    expect(text).toContain(hash);
+  }, 180_000);
+
+  it("can be built: the checklist places each element by hole and angle and asks for the open beam to be blocked", async () => {
+    const res = await call("POST", "/api/builds", technician, { revisionId });
+    expect([200, 201], res.text).toContain(res.status);
+    const build = res.json!.build as { id: string; checklist: { itemKey: string; label: string; detail: string }[] };
+    const labels = build.checklist.map((c) => c.label);
+    expect(labels).toContain("Laser green at hole 5, 5 + (-12.5, -12.5) mm, 0°");
+    expect(labels).toContain("Beam splitter BS at hole 21, 17 + (-12.5, -12.5) mm, 315°");
+    expect(build.checklist.some((c) => c.itemKey === "open-beam:p4" && /back edge/.test(c.label))).toBe(true);
+    const ticked = await call("PATCH", `/api/builds/${build.id}/checks`, technician, { itemKey: "element:M1", done: true });
+    expect(ticked.status, ticked.text).toBe(200);
   });
 });

@@ -4,7 +4,7 @@ import { z } from "zod";
 import { safeText } from "@/lib/validation/text";
 import type { DecisionOutcome, HazardSummary, ReviewState } from "@/db/schema";
 import type { BenchDiff } from "@/lib/bench/diff";
-import type { BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument } from "@/lib/bench/schema";
 
 // ── Inputs (the one contract for routes and client forms) ─────────────────────────────────────
 export const hashField = safeText({ error: "Send the content hash of the revision you reviewed" }).regex(/^[0-9a-f]{64}$/, "The content hash must be 64 hexadecimal characters");
@@ -78,8 +78,8 @@ export type CommentThread = { id: string; elementId: string | null; comments: Co
 
 // ── Reading: the review screen and the queue ──────────────────────────────────────────────────
 export type ReviewDetail = {
-  revision: { id: string; number: number; state: ReviewState; contentHash: string; document: BenchDocument; updatedAt: string };
-  bench: { id: string; title: string; labName: string; authorName: string; authorId: string };
+  revision: { id: string; number: number; state: ReviewState; contentHash: string; document: AnyBenchDocument; updatedAt: string };
+  bench: { id: string; title: string; labId: string; labName: string; authorName: string; authorId: string };
   decision: DecisionView | null;
   /** The newest earlier revision that was ever signed off, and what changed since. */
   lastApproved: { id: string; number: number; state: ReviewState; contentHash: string; diff: BenchDiff } | null;

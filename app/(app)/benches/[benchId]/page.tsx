@@ -31,7 +31,7 @@ export default async function BenchPage({ params }: { params: Promise<{ benchId:
   return (
     <div className="flex flex-col gap-8">
       <HydrationBoundary state={dehydrate(queryClient)}>
-        <BenchEditor benchId={benchId} labName={detail.labName} authorName={detail.authorName} shelf={shelf} />
+        <BenchEditor benchId={benchId} labId={detail.labId} labName={detail.labName} authorName={detail.authorName} shelf={shelf} />
       </HydrationBoundary>
       <section aria-labelledby="revisions-heading">
         <div className="mb-2 flex flex-wrap items-baseline gap-4">

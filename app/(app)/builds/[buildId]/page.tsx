@@ -52,7 +52,7 @@ export default async function BuildPage({ params }: { params: Promise<{ buildId:
       </header>
       {valid ? <SheetDownload revisionId={build.revision.id} /> : null}
       <HydrationBoundary state={dehydrate(queryClient)}>
-        <BuildWorkspace buildId={buildId} images={predictionImages(revision.document)} eyewear={eyewear} />
+        <BuildWorkspace buildId={buildId} images={revision.document.version === 1 ? predictionImages(revision.document) : {}} eyewear={eyewear} />
       </HydrationBoundary>
     </div>
   );

@@ -17,7 +17,10 @@ import { rolesAllow } from "@/lib/auth/permissions";
 import { AppError } from "@/lib/errors";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 import { revisionEyewear } from "@/lib/server/eyewear";
-import { assessRevision } from "@/lib/review/hazard";
+import { labStandard } from "@/lib/server/lab-standard";
+import { assessRevision, assessTableRevision } from "@/lib/review/hazard";
+import { TableReview } from "@/components/review/table-review";
+import { whereWords } from "@/lib/bench/diff";
 import { SIGN_OFF_MEANING } from "@/lib/review/transitions";
 import { getReview } from "@/lib/server/review-screen";
 
@@ -57,10 +60,16 @@ export default async function ReviewPage({ params }: { params: Promise<{ revisio
   const { revision, bench, decision, lastApproved, may } = review;
   const doc = revision.document;
   const eyewear = rolesAllow(actor.roles, { eyewear: ["read"] }) ? await revisionEyewear(getDb(), actor, revision.id) : null;
-  const assessed = assessRevision(doc, eyewear ? { standard: eyewear.standard } : {});
+  // every hazard figure follows the standard the bench's lab chose, whether or not the reader may see its eyewear
+  const options = { standard: eyewear?.standard ?? (await labStandard(getDb(), bench.labId)) };
   const officer = rolesAllow(actor.roles, { review: ["decide"] });
   const mayReadReview = rolesAllow(actor.roles, { review: ["read"] });
-  const elementOptions = [...doc.elements].sort((a, b) => a.positionMm - b.positionMm).map((e) => ({ id: e.id, label: `${KIND_WORDS[e.kind] ?? e.kind} ${e.id} (${e.positionMm} mm)` }));
+  const elementOptions =
+    doc.version === 1
+      ? [...doc.elements].sort((a, b) => a.positionMm - b.positionMm).map((e) => ({ id: e.id, label: `${KIND_WORDS[e.kind] ?? e.kind} ${e.id} (${e.positionMm} mm)` }))
+      : [...doc.elements].sort((a, b) => a.id.localeCompare(b.id, undefined, { numeric: true })).map((e) => ({ id: e.id, label: `${KIND_WORDS[e.kind] ?? e.kind} ${e.id} (${whereWords(e)})` }));
+  const assessed = doc.version === 1 ? assessRevision(doc, options) : null;
+  const table = doc.version === 2 ? assessTableRevision(doc, options) : null;
   const afterNote =
     revision.state === "expired"
       ? "This sign-off has expired: the laser must not be used on this setup until a revision is signed off again."
@@ -91,11 +100,22 @@ export default async function ReviewPage({ params }: { params: Promise<{ revisio
 
       <div className="grid gap-8 lg:grid-cols-[minmax(0,1fr)_22rem]">
         <div className="flex min-w-0 flex-col gap-8">
-          <Section id="drawing-heading" title="The bench">
-            <BenchDrawing doc={doc} />
-          </Section>
+          {doc.version === 1 ? (
+            <Section id="drawing-heading" title="The bench">
+              <BenchDrawing doc={doc} />
+            </Section>
+          ) : null}
 
-          {assessed.ok ? (
+          {table ? (
+            table.ok ? (
+              <TableReview assessed={table} eyewear={eyewear ? <CoverageList data={eyewear} safety={table.safety} /> : null} />
+            ) : (
+              <p role="alert" className="rounded-lg border border-warn p-4">
+                <span aria-hidden="true" className="text-warn">▲ </span>
+                The hazard and beam figures cannot be computed for this table: {table.problem}
+              </p>
+            )
+          ) : !assessed ? null : assessed.ok ? (
             <>
               <Section id="hazard-heading" title="Laser hazard">
                 <HazardPanel safety={assessed.safety} />
