@@ -253,6 +253,23 @@ export async function getBuild(db: Database, actor: Actor, buildId: string): Pro
 }
 
 /** What a build's audit rows are about: the signed-off revision. */
+/** The revision's author is told of an observation that does not match the prediction, typed or read from a photo. */
+export async function mailMismatchToAuthor(tx: DbOrTx, actor: Actor, revision: SignedRevision, seen: { apertureId: string | null; reasons: string[]; note: string | null }): Promise<void> {
+  await enqueueMail(
+    tx,
+    observationMismatchMail({
+      to: { email: revision.authorEmail, name: revision.authorName },
+      benchTitle: revision.benchTitle,
+      labName: revision.labName,
+      revisionId: revision.id,
+      revisionNumber: revision.number,
+      contentHash: revision.contentHash,
+      technicianName: actor.name,
+      ...seen,
+    }),
+  );
+}
+
 export function aboutRevision(revision: SignedRevision) {
   return { benchId: revision.benchId, revisionId: revision.id, contentHash: revision.contentHash };
 }
@@ -378,23 +395,7 @@ export async function addObservation(db: Database, actor: Actor, buildId: string
       action: "build-observation-recorded",
       detail: { buildId: build.id, observationId: row.id, apertureId, centreSeen: row.centreSeen, centrePredicted: row.centrePredicted, spotDiameterMm: row.spotDiameterMm, screenPowerMw: row.screenPowerMw, mismatch, reasons: compared.reasons },
     });
-    if (mismatch) {
-      await enqueueMail(
-        tx,
-        observationMismatchMail({
-          to: { email: revision.authorEmail, name: revision.authorName },
-          benchTitle: revision.benchTitle,
-          labName: revision.labName,
-          revisionId: revision.id,
-          revisionNumber: revision.number,
-          contentHash: revision.contentHash,
-          technicianName: actor.name,
-          apertureId,
-          reasons: compared.reasons,
-          note: row.note,
-        }),
-      );
-    }
+    if (mismatch) await mailMismatchToAuthor(tx, actor, revision, { apertureId, reasons: compared.reasons, note: row.note });
     return { observation: observationView(row, actor.name), build: await buildView(tx, actor, build, revision) };
   });
 }

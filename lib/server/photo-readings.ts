@@ -12,14 +12,12 @@ import type { photoReadingInput, PhotoReadingResult, PhotoReadingView, BuildView
 import { comparePhoto, photoSummary, type PhotoPrediction } from "@/lib/build/photo-rules";
 import { predictionsFor } from "@/lib/build/rules";
 import { AppError, notFound } from "@/lib/errors";
-import { observationMismatchMail } from "@/lib/mail/build-mail";
-import { enqueueMail } from "@/lib/mail/outbox";
 import { PhotoReadError, readScreenPhoto } from "@/lib/optics";
 import { OPTICS_ENGINE_VERSION } from "@/lib/optics/version";
 import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
-import { aboutRevision, assertRecordable, buildView, loadBuild, photoReadingViews } from "./builds";
+import { aboutRevision, assertRecordable, buildView, loadBuild, mailMismatchToAuthor, photoReadingViews } from "./builds";
 import { decodePhoto, PhotoDecodeError, type DecodedPhoto } from "./photo-decode";
 
 export async function readBuildPhoto(
@@ -112,21 +110,8 @@ export async function readBuildPhoto(
         detail: { buildId: build.id, observationId, photoReadingId: kept.id, uploadId: file.id, apertureId: aperture.apertureId, centreSeen: result.centre, centrePredicted: aperture.centre, spotDiameterMm: null, screenPowerMw: null, mismatch, reasons },
       });
       if (mismatch) {
-        await enqueueMail(
-          tx,
-          observationMismatchMail({
-            to: { email: revision.authorEmail, name: revision.authorName },
-            benchTitle: revision.benchTitle,
-            labName: revision.labName,
-            revisionId: revision.id,
-            revisionNumber: revision.number,
-            contentHash: revision.contentHash,
-            technicianName: actor.name,
-            apertureId: aperture.apertureId,
-            reasons,
-            note: photoSummary(file.fileName, prediction, { centre: result.centre, screenDistanceMm: result.screenDistanceMm, zoneCount: result.zoneCount, quality: result.quality }),
-          }),
-        );
+        const note = photoSummary(file.fileName, prediction, { centre: result.centre, screenDistanceMm: result.screenDistanceMm, zoneCount: result.zoneCount, quality: result.quality });
+        await mailMismatchToAuthor(tx, actor, revision, { apertureId: aperture.apertureId, reasons, note });
       }
     }
     return kept.id;
