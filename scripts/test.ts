@@ -9,14 +9,19 @@ import { stopCluster } from "./lib/postgres";
 import { localIdentityProvider, NEXT, provision, TSX } from "./lib/provision";
 import { log, ROOT, startChild, stopChildren, superviseChild, waitForHttp } from "./lib/system";
 
-const ports = { app: 3100, postgres: 5434, smtp: 2526, catcherWeb: 1081 };
+// BW_TEST_PORT_OFFSET (default 0) moves every port below by the same amount, so two checkouts can
+// run their tests side by side (e.g. 1000: app on 4100, PostgreSQL on 6434). CI leaves it unset.
+const offset = Number(process.env.BW_TEST_PORT_OFFSET ?? 0) || 0;
+const ports = { app: 3100 + offset, postgres: 5434 + offset, smtp: 2526 + offset, catcherWeb: 1081 + offset };
 // A second app server and a second mail worker on the same PostgreSQL, as an institution runs it
 // behind a proxy; tests/integration/two-servers.test.ts talks to both.
-const SECOND_APP_PORT = 3101;
+const SECOND_APP_PORT = 3101 + offset;
 // The stand-in for the institution's OpenID Connect provider (scripts/identity-provider.ts).
-const IDENTITY_PROVIDER_PORT = 3190;
+const IDENTITY_PROVIDER_PORT = 3190 + offset;
 // Both app servers keep uploads and sheets in one S3-compatible store (scripts/s3-fake.ts, s3rver).
-const S3_FAKE_PORT = 3193;
+const S3_FAKE_PORT = 3193 + offset;
+// tests/integration/security-limits.test.ts starts its own server here, with the proxy setting off.
+const UNTRUSTING_PORT = 3199 + offset;
 const dataDir = path.join(ROOT, ".data/test");
 const resultsDir = path.join(ROOT, "test-results");
 
@@ -68,6 +73,7 @@ async function main(): Promise<number> {
     MAIL_WORKER_INTERVAL_MS: "300",
     TRUSTED_PROXY_COUNT: "1",
     SECOND_APP_URL: secondAppUrl,
+    TEST_UNTRUSTING_PORT: String(UNTRUSTING_PORT),
     // tests/integration/postgres-restart.test.ts stops and starts this cluster.
     TEST_PG_DATA_DIR: cluster.dataDir,
     TEST_PG_PORT: String(cluster.port),

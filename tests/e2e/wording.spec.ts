@@ -108,11 +108,13 @@ test("a change followed at once by a reload or by leaving the page is kept", asy
   await titleBox(page).fill(`Kept in the browser ${run}`);
   await expect(page.getByTestId("save-status")).not.toHaveAttribute("data-state", "saved");
   await page.waitForTimeout(1_500); // past the autosave's quiet period: its save goes nowhere
+  // A second tab of the same browser is opened first, so closing the first never leaves the context without a page.
+  const again = await browserContext.newPage();
   await page.close({ runBeforeUnload: true });
+  await expect.poll(() => page.isClosed(), { message: "the first tab closes" }).toBe(true);
   const before = await call("GET", `/api/benches/${bench.benchId}/draft`, researcher.cookie);
   expect((before.json!.draft as { document: { title: string } }).document.title).toBe(`Left at once ${run}`);
   await browserContext.setOffline(false);
-  const again = await browserContext.newPage();
   await again.goto(`/benches/${bench.benchId}`);
   await expect(again.getByTestId("bench-editor")).toBeVisible({ timeout: 60_000 });
   await expect(titleBox(again)).toHaveValue(`Kept in the browser ${run}`);

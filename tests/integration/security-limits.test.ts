@@ -11,7 +11,7 @@ import { APP_URL, call, DEMO, signIn } from "../support/http";
 import { createAccount, createDrawnBench, databaseUrl, labIdByName, sampleBench } from "../support/review-fixtures";
 
 const root = path.resolve(import.meta.dirname, "../..");
-const UNTRUSTING_PORT = 3199;
+const UNTRUSTING_PORT = Number(process.env.TEST_UNTRUSTING_PORT ?? 3199);
 const UNTRUSTING_URL = `http://127.0.0.1:${UNTRUSTING_PORT}`;
 let untrusting: ChildProcess | null = null;
 let pool: pg.Pool;
