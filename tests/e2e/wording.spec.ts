@@ -278,14 +278,15 @@ test("a laser in bursts: the review screen and the build sheet give each line's 
   const response = await techPage.request.get(downloadUrl!);
   expect(response.status()).toBe(200);
   const bytes = Buffer.from(await response.body());
+  // Rendered for people to look at: test-results/screenshots/wording-burst-sheet-<page>.png
+  const file = path.join(shots, "wording-burst-sheet.pdf");
+  writeFileSync(file, bytes);
+  execFileSync("pdftoppm", ["-png", "-r", "70", file, path.join(shots, "wording-burst-sheet")]);
   const text = await pdfText(bytes);
+  writeFileSync(path.join(shots, "wording-burst-sheet.txt"), text);
   expect(text).toContain("Pulse regime");
   expect(text).toContain("Pulses in bursts: 10 pulses per burst, 1,000 bursts per second, 1 MHz inside a burst; 10 µJ per pulse, 10 ns pulses (10 kHz, 100 mW on average)");
   expect(text).toMatch(/MPE governed by.*(rule [123],|the burst rule)/);
   expect(text).toContain("not yet checked against the standard's text — confirm with your laser safety officer");
   expect(text).not.toMatch(/from memory|recalled|PRODUCT\.md|\.ts\b/);
-  // Rendered for people to look at: test-results/screenshots/wording-burst-sheet-<page>.png
-  const file = path.join(shots, "wording-burst-sheet.pdf");
-  writeFileSync(file, bytes);
-  execFileSync("pdftoppm", ["-png", "-r", "70", file, path.join(shots, "wording-burst-sheet")]);
 });
