@@ -127,6 +127,13 @@ describe("reading a screen photo against the prediction", () => {
     const trail = await call("GET", `/api/desk/benches/${benchId}/trail`, cookie.auditor);
     expect(trail.status, trail.text).toBe(200);
     expect(trail.text).toContain("build-photo-read");
+
+    // The sign-off desk flags the signed revision: one observation differs, read from a screen photo.
+    const desk = await call("GET", `/api/desk/approvals?q=${encodeURIComponent(title)}&builds=mismatch`, cookie.auditor);
+    expect(desk.status, desk.text).toBe(200);
+    const deskRows = (desk.json as { rows: { revisionId: string; builds: number; mismatches: number; photoMismatches: number }[] }).rows;
+    expect(deskRows.map((row) => row.revisionId)).toEqual([revisionId]);
+    expect(deskRows[0]).toMatchObject({ builds: 1, mismatches: 1, photoMismatches: 1 });
   });
 
   it("a blank photo is kept refused, with the sentence saying why, and records no observation", async () => {
