@@ -21,8 +21,13 @@ function peakMemoryKb(pid: number | undefined): number {
   }
 }
 
+// BW_TEST_PORT_OFFSET (default 0) moves every port, as for `npm test`, so checkouts can run side by side.
+const offset = Number(process.env.BW_TEST_PORT_OFFSET ?? 0) || 0;
+
 async function httpFigures(): Promise<Figure[]> {
-  const ports = { app: 3300, postgres: 5435, smtp: 2527, catcherWeb: 1082 };
+  const ports = { app: 3300 + offset, postgres: 5435 + offset, smtp: 2527 + offset, catcherWeb: 1082 + offset };
+  // The second app server of the two-servers-versus-one figures (scripts/bench-servers.ts).
+  const secondAppPort = 3301 + offset;
   const dataDir = path.join(ROOT, ".data/bench");
   rmSync(dataDir, { recursive: true, force: true });
   const { cluster, env, ownerUrl } = await provision({ dataDir, ports, dbName: "benchwarden_bench", seed: true, rateLimitMax: 1000 });
@@ -57,6 +62,16 @@ async function httpFigures(): Promise<Figure[]> {
     if (analyze.non2xx > 0) throw new Error(`POST /api/analyze answered ${analyze.non2xx} non-2xx responses`);
     const ratio = analyze.requests.average / trivial.requests.average;
     const peakKb = peakMemoryKb(app.pid);
+    // Two app servers versus one on the scale data: the bench list and the approvals list.
+    const serversBench = async () => {
+      const { runServersBench } = await import("./bench-servers");
+      return await runServersBench({ env, firstUrl: env.APP_URL!, firstPid: app.pid!, secondPort: secondAppPort, pgDataDir: cluster.dataDir });
+    };
+    if (process.argv.includes("--servers-only")) {
+      const { seedScale } = await import("./seed-scale");
+      await seedScale(ownerUrl);
+      return await serversBench();
+    }
     if (process.argv.includes("--queue-only")) {
       const { runQueueBench } = await import("./bench-queue");
       return await runQueueBench({ appUrl: env.APP_URL!, databaseUrl: env.DATABASE_URL!, catcherUrl: env.MAIL_CATCHER_URL!, env, cookie });
@@ -77,12 +92,14 @@ async function httpFigures(): Promise<Figure[]> {
     // As the owning role: the scale seed ends with VACUUM ANALYZE, which only a table's owner may run.
     await seedScale(ownerUrl);
     const desk = await runDeskBench(env.DATABASE_URL!);
+    const servers = await serversBench();
     return [
       ...editor,
       ...tableEditor,
       ...sheet,
       ...queue,
       ...desk,
+      ...servers,
       { name: "GET /api/health throughput (trivial route)", value: trivial.requests.average, unit: "req/s", target: "reference" },
       { name: "POST /api/analyze throughput (signed in, 4 elements)", value: analyze.requests.average, unit: "req/s", target: "≥ 70 % of the trivial route" },
       { name: "POST /api/analyze ÷ trivial route", value: Math.round(ratio * 1000) / 10, unit: "%", target: "≥ 70 %" },
@@ -98,7 +115,8 @@ async function httpFigures(): Promise<Figure[]> {
 async function main() {
   const figures: Figure[] = [];
   // --queue-only: only the queue figures (e-mails per second, sheets per minute): npm run bench -- --queue-only
-  if (process.argv.includes("--queue-only")) {
+  // --servers-only: only two app servers versus one on the scale data: npm run bench -- --servers-only
+  if (process.argv.includes("--queue-only") || process.argv.includes("--servers-only")) {
     figures.push(...(await httpFigures()));
     log("benchmark figures");
     for (const f of figures) process.stdout.write(`  ${f.name}: ${Number(f.value.toPrecision(4))} ${f.unit}   (target ${f.target})\n`);

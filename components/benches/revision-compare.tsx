@@ -1,4 +1,5 @@
 import type { BenchDetail } from "@/lib/server/benches";
+import type { SafetyStandard } from "@/db/schema";
 import { RevisionDiff } from "@/components/review/revision-diff";
 import { StateBadge } from "@/components/ui/state-badge";
 import { CompareDrawing } from "./compare-drawing";
@@ -42,8 +43,8 @@ export function RevisionPicker({ benchId, revisions, from, to }: { benchId: stri
   );
 }
 
-export function RevisionCompare({ from, to }: { from: Revision; to: Revision }) {
-  if (from.document.version !== 1 || to.document.version !== 1) return <TableCompare from={from} to={to} />;
+export function RevisionCompare({ from, to, standard }: { from: Revision; to: Revision; standard: SafetyStandard }) {
+  if (from.document.version !== 1 || to.document.version !== 1) return <TableCompare from={from} to={to} standard={standard} />;
   return <RailCompare from={{ ...from, document: from.document }} to={{ ...to, document: to.document }} />;
 }
 

@@ -1,4 +1,5 @@
 import type { BenchDetail } from "@/lib/server/benches";
+import type { SafetyStandard } from "@/db/schema";
 import { diffBenches, whereWords } from "@/lib/bench/diff";
 import { assessTableRevision, EMPTY_TABLE_ANALYSIS } from "@/lib/review/hazard";
 import { RevisionDiff } from "@/components/review/revision-diff";
@@ -11,7 +12,7 @@ type Revision = BenchDetail["revisions"][number];
 
 const n = (v: number) => String(Number(v.toPrecision(4)));
 
-function Side({ revision, label }: { revision: Revision; label: string }) {
+function Side({ revision, label, standard }: { revision: Revision; label: string; standard: SafetyStandard }) {
   const doc = revision.document;
   if (doc.version !== 2) {
     return (
@@ -20,7 +21,7 @@ function Side({ revision, label }: { revision: Revision; label: string }) {
       </p>
     );
   }
-  const assessed = assessTableRevision(doc);
+  const assessed = assessTableRevision(doc, { standard });
   const open = assessed.ok ? assessed.safety.openBeams : [];
   return (
     <section className="rounded-lg border border-line bg-panel p-3" aria-label={`${label}: revision ${revision.number}`} data-testid={`table-compare-${label.toLowerCase()}`}>
@@ -32,7 +33,7 @@ function Side({ revision, label }: { revision: Revision; label: string }) {
   );
 }
 
-export function TableCompare({ from, to }: { from: Revision; to: Revision }) {
+export function TableCompare({ from, to, standard }: { from: Revision; to: Revision; standard: SafetyStandard }) {
   const diff = diffBenches(from.document, to.document);
   const moved = diff.elements.flatMap((e) => {
     if (e.change !== "changed") return [];
@@ -69,8 +70,8 @@ export function TableCompare({ from, to }: { from: Revision; to: Revision }) {
             : "Nothing on the table differs."
           : `${diff.elements.filter((e) => e.change !== "same").length} element${diff.elements.filter((e) => e.change !== "same").length === 1 ? "" : "s"} differ${diff.tableChange ? "; the table itself changed" : ""}.`}
       </p>
-      <Side revision={from} label="From" />
-      <Side revision={to} label="To" />
+      <Side revision={from} label="From" standard={standard} />
+      <Side revision={to} label="To" standard={standard} />
       {moved.length ? (
         <section aria-labelledby="moved-heading">
           <h2 id="moved-heading" className="text-lg font-semibold">

@@ -24,7 +24,7 @@ import { MARGIN_PX, tableLeftPx, tableScale, type DrawnBeam, type Place } from "
 import { traceBeams } from "./table-engine";
 import { arrowDelta, HOLE_PITCHES, movedBy, placementFor, snapPlacement, turnBy, type BeamSegment, type SnapMode } from "./table-geometry";
 import { BeamFigures, TableElementList, TableProperties, TableSafety } from "./table-panels";
-import { initialTableState, tableReducer } from "./table-reducer";
+import { initialTableState, tableReducer, type TablePatch } from "./table-reducer";
 import { useTablePredictions } from "./use-table-predictions";
 
 const TableCanvas = dynamic(() => import("./table-canvas").then((m) => m.TableCanvas), {
@@ -103,7 +103,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
 
   const selected = useMemo(() => doc.elements.filter((e) => selection.includes(e.id)), [doc.elements, selection]);
 
-  const add = (kind: TableElementKind, at?: { xMm: number; yMm: number; angleDeg: number }, values?: Record<string, number | string | undefined>) => {
+  const add = (kind: TableElementKind, at?: { xMm: number; yMm: number; angleDeg: number }, values?: TablePatch) => {
     if (!canEdit) return;
     dispatch({ type: "add", kind, at: at ?? placementFor(kind, doc, traced), values });
     if (kind === "laser") setLaserChooserOpen(false);

@@ -5,6 +5,7 @@ import { RevisionCompare, RevisionPicker } from "@/components/benches/revision-c
 import { Refused } from "@/components/shell/refused";
 import { AppError } from "@/lib/errors";
 import { getBench } from "@/lib/server/benches";
+import { labStandard } from "@/lib/server/lab-standard";
 import { pageActor, refusal } from "@/lib/server/page-guard";
 
 export const metadata = { title: "Compare revisions" };
@@ -24,6 +25,8 @@ export default async function CompareRevisionsPage({ params, searchParams }: { p
     if (error instanceof AppError && error.status === 404) notFound();
     throw error;
   });
+  // a table's open beams are counted above the MPE of the lab's chosen standard, as on its review screen
+  const standard = await labStandard(getDb(), bench.labId);
   const newest = bench.revisions[0]?.number ?? 1;
   const to = revisionNumber(query.to) ?? newest;
   const from = revisionNumber(query.from) ?? Math.max(1, to - 1);
@@ -49,7 +52,7 @@ export default async function CompareRevisionsPage({ params, searchParams }: { p
           {missing.map((n) => `Revision ${n}`).join(" and ")} {missing.length === 1 ? "does" : "do"} not exist; this bench has revisions 1 to {newest}. Pick two above.
         </p>
       ) : fromRevision && toRevision ? (
-        <RevisionCompare from={fromRevision} to={toRevision} />
+        <RevisionCompare from={fromRevision} to={toRevision} standard={standard} />
       ) : null}
     </div>
   );
