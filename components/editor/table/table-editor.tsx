@@ -12,7 +12,7 @@ import { ELEMENT_KIND_RECORDS } from "@/lib/bench/element-kinds";
 import { benchDocumentV2Schema, TABLE_ELEMENT_KINDS, type BenchDocumentV2, type TableElement, type TableElementKind } from "@/lib/bench/schema-v2";
 import { StateBadge } from "@/components/ui/state-badge";
 import { SubmitForReview } from "@/components/review/submit-for-review";
-import { ConflictDialog } from "../conflict-dialog";
+import { EditorNotices } from "../editor-notices";
 import { ImportExport } from "../import-export";
 import { documentKey } from "../document-key";
 import { LaserPicker } from "../laser-picker";
@@ -193,28 +193,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
         </div>
       </header>
 
-      {!canEdit ? (
-        <p className="rounded-md border border-line bg-panel px-3 py-2 text-sm" data-testid="read-only-note">
-          <span aria-hidden="true">◇ </span>Read only: you can look at the table and the predictions, but only researchers of {labName} can change this bench.
-        </p>
-      ) : baseState !== "draft" ? (
-        <p className="rounded-md border border-warn/60 bg-panel px-3 py-2 text-sm">
-          Revision {save.base.revisionNumber} is no longer a draft, so it stays exactly as it is: your first change starts revision {save.base.revisionNumber + 1} as a new draft.
-        </p>
-      ) : null}
-
-      {save.state.kind === "conflict" ? (
-        <ConflictDialog
-          mine={doc}
-          current={save.state.current}
-          message={save.state.message}
-          onKeepMine={save.keepMine}
-          onTakeTheirs={() => {
-            const theirs = save.takeTheirs();
-            if (theirs && theirs.version === 2) dispatch({ type: "replace", doc: theirs });
-          }}
-        />
-      ) : null}
+      <EditorNotices doc={doc} save={save} canEdit={canEdit} labName={labName} what="the table" onTakeTheirs={(theirs) => dispatch({ type: "replace", doc: theirs as BenchDocumentV2 })} />
 
       <div className="flex flex-col gap-2 rounded-lg border border-line bg-panel p-2">
         <div className="flex flex-wrap items-center justify-between gap-2">
