@@ -154,6 +154,12 @@ test("a researcher draws a folded, split bench on a table, blocks its open beams
   await page.keyboard.press("Control+a");
   await expect(page.getByTestId("properties")).toContainText("5 elements selected: laser-1, mirror-1, splitter-1, block-1, block-2");
   await shot(page, "reloaded");
+
+  // The table keeps revisions as a rail does: make one, and the next change is listed against what was last sent.
+  await expect(page.getByTestId("changes-since-review")).toContainText("No revision of this bench has been sent for review yet, so everything on the table is new");
+  await page.getByTestId("make-revision").click();
+  await expect(page.getByTestId("revision-made")).toContainText("revision 2", { timeout: 30_000 });
+  await expect(page.getByTestId("compare-revisions")).toBeVisible();
 });
 
 test("bad input: an element typed off the table, two elements on one spot — each named in a clear message, nothing lost", async ({ page }) => {

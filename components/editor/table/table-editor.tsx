@@ -12,7 +12,9 @@ import { ELEMENT_KIND_RECORDS } from "@/lib/bench/element-kinds";
 import { benchDocumentV2Schema, TABLE_ELEMENT_KINDS, type BenchDocumentV2, type TableElement, type TableElementKind } from "@/lib/bench/schema-v2";
 import { StateBadge } from "@/components/ui/state-badge";
 import { SubmitForReview } from "@/components/review/submit-for-review";
+import { ChangesSinceReview } from "../changes-since-review";
 import { EditorNotices } from "../editor-notices";
+import { RevisionsPanel } from "../revisions-panel";
 import { ImportExport } from "../import-export";
 import { documentKey } from "../document-key";
 import { LaserPicker } from "../laser-picker";
@@ -373,6 +375,8 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
               save.adopt(fresh);
             }}
           />
+          <RevisionsPanel benchId={benchId} canEdit={canEdit} doc={doc} base={save.base} saveState={save.state} onMade={save.adopt} />
+          <ChangesSinceReview benchId={benchId} doc={doc} />
         </div>
         <div className={staleLook ? "opacity-80" : ""} data-testid="predictions" data-stale={staleLook} data-source={predictions.source ?? "none"} data-live-runs={predictions.liveRuns}>
           <TableSafety table={doc.table} predictions={predictions.data} stale={staleLook} onBeam={setSelectedBeam} />
