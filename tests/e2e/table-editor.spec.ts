@@ -64,6 +64,9 @@ test("a researcher draws a folded, split bench on a table, blocks its open beams
   await expectPlace(page, 162.5, 462.5, 0);
   await (await field(page, "powerMw")).fill("20");
   await (await field(page, "powerMw")).press("Tab");
+  // the laser's own panels, as on the rail: its (absent) register link and its further lines
+  await expect(page.getByTestId("register-entry")).toHaveAttribute("data-linked", "false");
+  await expect(page.getByTestId("laser-lines").getByRole("button", { name: "Add a further line" })).toBeVisible();
 
   // A mirror clicked in lands on the beam, turned 135° so the beam folds to +y (away from the viewer).
   await page.getByTestId("table-palette-mirror").click();

@@ -364,7 +364,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
       <div className="grid gap-4 lg:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
         <div className="flex flex-col gap-4">
           {selectedBeam ? <BeamFigures table={doc.table} pathId={selectedBeam} predictions={predictions.data} onClose={() => setSelectedBeam(null)} /> : null}
-          <TableProperties doc={doc} selected={selected} canEdit={canEdit} dispatch={dispatch} />
+          <TableProperties doc={doc} selected={selected} canEdit={canEdit} dispatch={dispatch} labId={initial.labId} labName={labName} />
           <TableElementList elements={doc.elements} selection={selection} flagged={flagged} dispatch={dispatch} />
           <SubmitForReview
             revisionId={save.base.revisionId}
