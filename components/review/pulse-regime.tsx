@@ -18,6 +18,11 @@ export function tableRegime(doc: BenchDocumentV2, safety: Pick<TableSafetyAssess
 
 const lineName = (r: RegimeRow, showLaser: boolean) => `${showLaser ? `${r.laserId}, ` : ""}${fmt(r.wavelengthNm, 5)} nm${r.main ? "" : " (further line)"}`;
 
+/** Where a table's line figures come from (MPE and NOHD of every line), each once; "not assessed" left out. */
+export function tableLineSources(safety: Pick<TableSafetyAssessment, "lasers">): string[] {
+  return [...new Set(safety.lasers.flatMap((l) => l.lines.flatMap((line) => [line.mpeSource, line.nohdSource])).filter((x) => x !== "not assessed"))];
+}
+
 /** The review screen's list: one line per emission line, the regime, its figures and the rule that governs the MPE. */
 export function PulseRegimeList({ rows, source, showLaser = false }: { rows: readonly RegimeRow[]; source: string | null; showLaser?: boolean }) {
   if (rows.length === 0) return null;

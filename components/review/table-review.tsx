@@ -5,7 +5,7 @@ import { displayedCautions } from "@/components/ui/cautions";
 import { HazardNotes } from "@/components/ui/hazard-notes";
 import { TablePlan } from "@/components/table/table-plan";
 import { fmt } from "./format";
-import { PulseRegimeList, tableRegime } from "./pulse-regime";
+import { PulseRegimeList, tableLineSources, tableRegime } from "./pulse-regime";
 
 // The review screen of a table (bench document version 2): the plan at a readable size with the nominal hazard zone,
 // the open beams named in red, where every beam ends, each laser's class and lines, and every path with its power,
@@ -133,6 +133,11 @@ export function TableReview({ assessed, eyewear }: { assessed: Ok; eyewear?: Rea
               </tbody>
             </table>
           </div>
+          <ul className="flex list-disc flex-col gap-0.5 pl-5 text-xs text-muted" data-testid="line-sources">
+            {tableLineSources(safety).map((x) => (
+              <li key={x}>{plainText(x)}</li>
+            ))}
+          </ul>
           <PulseRegimeList rows={regime.rows} source={regime.source} showLaser={safety.lasers.length > 1} />
           <p className="rounded-md border border-line px-3 py-2 text-sm" data-testid="eyewear-od">
             <span className="font-medium">{HAZARD_LABELS.eyewear}: </span>

@@ -10,11 +10,11 @@ import { PrintCoverage, PrintStandard } from "@/components/eyewear/print-coverag
 import { TablePlan } from "@/components/table/table-plan";
 import { EMPTY_TABLE_ANALYSIS } from "@/lib/review/hazard";
 import { ApprovalBox, ScreenFigures, SHEET_CSS, SheetHead } from "./print-sheet";
-import { PrintPulseRegime, tableRegime } from "@/components/review/pulse-regime";
+import { PrintPulseRegime, tableLineSources, tableRegime } from "@/components/review/pulse-regime";
 
 /** Where the lines' MPE and NOHD come from, each once, in words (the clause and that it is not yet checked). */
 function SheetSources({ safety }: { safety: NonNullable<TableSheetContent["safety"]> }) {
-  const sources = [...new Set(safety.lasers.flatMap((l) => l.lines.flatMap((line) => [line.mpeSource, line.nohdSource])).filter((x) => x !== "not assessed"))];
+  const sources = tableLineSources(safety);
   if (sources.length === 0) return null;
   return (
     <ul className="scope" style={{ margin: "0 0 3mm" }} data-testid="sheet-sources">

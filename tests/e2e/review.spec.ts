@@ -146,6 +146,15 @@ test("the review screen of a table shows the plan, its hazard zone, the open bea
   await expect(officer.getByTestId("beam-ends")).toContainText("ends on screen red-screen");
   await expect(officer.getByTestId("path-table").locator('tr[data-band="above-mpe"]').first()).toBeVisible();
   await expect(officer.getByTestId("final-say").first()).toBeVisible();
+  // each laser's line says its regime (both continuous here), and the line figures' sources are on the screen, not yet checked
+  const regime = officer.getByTestId("pulse-regime").getByTestId("pulse-regime-line");
+  await expect(regime).toHaveCount(2);
+  await expect(regime.nth(0)).toContainText("hene, 632.8 nm: Continuous-wave — 2 mW");
+  await expect(regime.nth(1)).toContainText("violet, 405 nm: Continuous-wave — 5 mW");
+  const sources = officer.getByTestId("line-sources");
+  await expect(sources).toContainText("ANSI Z136.1-2014 Table 5a");
+  await expect(sources).toContainText("not yet checked against the standard's text — confirm with your laser safety officer");
+  await expect(officer.getByTestId("hazard-panel")).not.toContainText(/from memory|recalled|\.ts\b/);
   await officer.screenshot({ path: `${shots}/review-table-screen.png`, fullPage: true });
   await plan.screenshot({ path: `${shots}/review-table-plan.png` });
   // no serious accessibility problem on the table's review screen (axe, WCAG 2.1 A and AA)
