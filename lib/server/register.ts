@@ -108,6 +108,8 @@ export type ComputedClass = {
   /** Present when label and estimate differ; the label is never changed. */
   warning: string | null;
   reasons: string[];
+  /** The class limits' clauses, saying they are not yet checked against the standard's text; null when nothing was classified. */
+  source: string | null;
 };
 
 export type LaserView = {
@@ -155,6 +157,7 @@ type LaserFacts = Pick<LaserView, "labelClass" | "wavelengthsNm" | "maxPowerMw" 
  */
 export function computeClass(facts: LaserFacts): ComputedClass {
   let worst: HazardClass | null = null;
+  let source: string | null = null;
   const reasons: string[] = [];
   const raise = (c: HazardClass) => {
     if (worst === null || HAZARD_CLASSES.indexOf(c) > HAZARD_CLASSES.indexOf(worst)) worst = c;
@@ -171,6 +174,7 @@ export function computeClass(facts: LaserFacts): ComputedClass {
     for (const wavelengthNm of facts.wavelengthsNm) {
       const beam = { wavelengthNm, beamDiameterMm: facts.beamDiameterMm, divergenceMrad: facts.divergenceMrad, ...timing };
       const c = classifyBeam({ ...beam, powerMw: facts.maxPowerMw });
+      source ??= c.source;
       reasons.push(`${wavelengthNm} nm: Class ${c.hazardClass}. ${c.reasons.join(" ")}`);
       raise(c.hazardClass);
       if (energyMj !== null && facts.pulseDurationS !== null) {
@@ -189,11 +193,11 @@ export function computeClass(facts: LaserFacts): ComputedClass {
       raise(c.hazardClass);
     }
   } catch (error) {
-    return { hazardClass: null, matchesLabel: null, warning: `The class could not be estimated: ${error instanceof Error ? error.message : "unknown problem"}.`, reasons };
+    return { hazardClass: null, matchesLabel: null, warning: `The class could not be estimated: ${error instanceof Error ? error.message : "unknown problem"}.`, reasons, source };
   }
-  if (worst === null) return { hazardClass: null, matchesLabel: null, warning: null, reasons };
+  if (worst === null) return { hazardClass: null, matchesLabel: null, warning: null, reasons, source };
   const check = compareLabel(facts.labelClass, worst);
-  return { hazardClass: worst, matchesLabel: check.matches, warning: check.warning, reasons };
+  return { hazardClass: worst, matchesLabel: check.matches, warning: check.warning, reasons, source };
 }
 
 const columns = {

@@ -59,6 +59,8 @@ test("an officer registers a laser in bursts; an overlapping burst is refused un
     await expect(page.getByRole("heading", { name: model })).toBeVisible();
     await expect(page.getByText("Pulsed: 0.01 mJ · 1 × 10⁻⁸ s · 10,000 Hz · bursts of 10 pulses at 1,000,000 Hz inside a burst")).toBeVisible();
     await expect(page.locator('section[aria-labelledby="class-heading"]')).toContainText("Pulses in bursts (10 at 1000000 Hz inside a burst, 1000 bursts per second)");
+    await expect(page.getByTestId("class-source")).toContainText("not yet checked against the standard's text — confirm with your laser safety officer");
+    await expect(page.locator('section[aria-labelledby="class-heading"]')).not.toContainText(/from memory|recalled|\.ts\b/);
     await page.screenshot({ path: `${shots}/register-burst-saved.png`, fullPage: true });
     // the edit form opens with the bursts filled in
     await expect(page.locator("#laser-pulses-per-burst")).toHaveValue("10");

@@ -64,6 +64,11 @@ export default async function LaserPage({ params }: { params: Promise<{ laserId:
             <li key={r}>{plainText(r)}</li>
           ))}
         </ul>
+        {laser.computed.source ? (
+          <p className="mt-2 text-xs text-muted" data-testid="class-source">
+            {plainText(laser.computed.source)}
+          </p>
+        ) : null}
         <div className="mt-3">
           <HazardNotes />
         </div>
