@@ -370,6 +370,10 @@ export const laserRegister = pgTable(
     pulseEnergyMj: doublePrecision("pulse_energy_mj"),
     pulseDurationS: doublePrecision("pulse_duration_s"),
     pulseRepetitionRateHz: doublePrecision("pulse_repetition_rate_hz"),
+    /** Trains in bursts only: pulses in each burst (pulseRepetitionRateHz stays the average pulses per second). */
+    pulsesPerBurst: integer("pulses_per_burst"),
+    /** Trains in bursts only: the pulse rate inside a burst. */
+    burstPulseRateHz: doublePrecision("burst_pulse_rate_hz"),
     /** Further emission lines with their own power (residual pump, other harmonics); null when none. */
     lines: jsonb("lines").$type<{ wavelengthNm: number; powerMw: number }[]>(),
     /** 1/e² diameter at the exit, as datasheets give it. */

@@ -49,7 +49,7 @@ export function useUpload(buildId: string) {
 
 /** Reads an uploaded screen photo against the prediction behind one aperture. */
 export function usePhotoReading(buildId: string) {
-  return useBuildMutation(buildId, (input: { uploadId: string; apertureId: string }) =>
+  return useBuildMutation(buildId, (input: { uploadId: string; apertureId: string; screenId?: string }) =>
     apiFetch<{ build: BuildView; reading: PhotoReadingView; created: boolean }>(`/api/builds/${buildId}/photo-reading`, { method: "POST", body: JSON.stringify(input) }),
   );
 }

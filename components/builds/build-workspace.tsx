@@ -140,7 +140,7 @@ export function BuildWorkspace({ buildId, images, eyewear = null }: { buildId: s
               {screenUploads.length ? (
                 <div className="flex min-w-0 flex-col gap-2 lg:col-span-2">
                   <h3 className="text-lg font-semibold">Photos of the screen behind {a.apertureId}</h3>
-                  <ScreenPhotos build={build} apertureId={a.apertureId} />
+                  <ScreenPhotos build={build} apertureId={a.apertureId} screenIds={a.screenIds} />
                 </div>
               ) : null}
             </article>

@@ -3,6 +3,7 @@
 // beside the prediction — the fitted zone count, centre, screen distance against the drawn one, scale, dark-ring radii,
 // confidence, the photo with the centre and rings marked, and its profile over the predicted one. A photo that could
 // not be read shows the sentence saying why.
+import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import type { BuildView, PhotoReadingView } from "@/lib/api/contracts/builds";
 import { capitalise, CENTRE_MARKS, CENTRE_WORDS, formatDateTime, formatFixed, formatNumber } from "@/lib/format";
@@ -50,7 +51,8 @@ export function PhotoReadingCard({ reading }: { reading: PhotoReadingView }) {
         {reading.mismatch ? <span className="text-danger">✕ Mismatch</span> : <span className="text-ok">✓ Matches</span>}
         <span className="text-sm text-muted">
           {" "}
-          · read from {reading.fileName} by {reading.readByName}, {formatDateTime(reading.createdAt)}
+          · read from {reading.fileName}
+          {r.pathId && r.screenId ? ` (the screen ${r.screenId}, beam ${r.pathId})` : ""} by {reading.readByName}, {formatDateTime(reading.createdAt)}
         </span>
       </p>
       <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
@@ -107,49 +109,70 @@ export function PhotoReadingCard({ reading }: { reading: PhotoReadingView }) {
 }
 
 /** Every screen photo of the build, each with its reading behind this aperture or the button to read it. */
-export function ScreenPhotos({ build, apertureId }: { build: BuildView; apertureId: string }) {
+export function ScreenPhotos({ build, apertureId, screenIds = [] }: { build: BuildView; apertureId: string; screenIds?: string[] }) {
   const read = usePhotoReading(build.id);
+  const [screenId, setScreenId] = useState(screenIds[0] ?? "");
   const photos = build.uploads.filter((u) => u.kind === "screen-photo");
   if (!photos.length) return null;
   return (
-    <ul className="flex flex-col gap-3">
-      {photos.map((u) => {
-        const reading = build.photoReadings.find((p) => p.uploadId === u.id && p.apertureId === apertureId);
-        const pending = read.isPending && read.variables?.uploadId === u.id;
-        const failed = read.error && read.variables?.uploadId === u.id ? read.error : null;
-        return (
-          <li key={u.id} className="flex flex-col gap-2" data-testid="screen-photo">
-            {reading?.result ? null : (
-              <div className="flex flex-wrap items-start gap-3 rounded-md border border-line p-2">
-                {u.contentType.startsWith("image/") ? (
-                  // eslint-disable-next-line @next/next/no-img-element
-                  <img src={u.url} alt={`${u.fileName}, uploaded by ${u.uploadedByName}`} className="max-h-40 max-w-56 rounded object-contain" />
-                ) : (
-                  <a href={u.url}>📄 {u.fileName}</a>
-                )}
-                <div className="flex flex-col gap-2">
-                  <p className="break-all text-xs text-muted">
-                    {u.fileName} · {Math.max(1, Math.round(u.sizeBytes / 1024))} kB · SHA-256 {u.sha256.slice(0, 16)}…
-                  </p>
-                  {!reading && build.may.record && u.contentType.startsWith("image/") ? (
-                    <div>
-                      <Button type="button" variant="quiet" disabled={read.isPending} onClick={() => read.mutate({ uploadId: u.id, apertureId })} aria-label={`Read the pattern in ${u.fileName} behind ${apertureId}`}>
-                        {pending ? "Reading the pattern…" : "Read the pattern"}
-                      </Button>
-                    </div>
-                  ) : null}
-                  {failed ? (
-                    <p role="alert" className="text-sm text-danger">
-                      {failed.message}
+    <div className="flex flex-col gap-3">
+      {screenIds.length > 1 ? (
+        <label className="flex flex-wrap items-center gap-2 text-sm">
+          <span>The light through {apertureId} reaches {screenIds.length} screens; the photo to read shows</span>
+          <select className="min-h-11 rounded-md border border-line bg-ink px-2 text-text" value={screenId} onChange={(e) => setScreenId(e.target.value)}>
+            {screenIds.map((id) => (
+              <option key={id} value={id}>
+                {id}
+              </option>
+            ))}
+          </select>
+        </label>
+      ) : null}
+      <ul className="flex flex-col gap-3">
+        {photos.map((u) => {
+          const reading = build.photoReadings.find((p) => p.uploadId === u.id && p.apertureId === apertureId);
+          const pending = read.isPending && read.variables?.uploadId === u.id;
+          const failed = read.error && read.variables?.uploadId === u.id ? read.error : null;
+          return (
+            <li key={u.id} className="flex flex-col gap-2" data-testid="screen-photo">
+              {reading?.result ? null : (
+                <div className="flex flex-wrap items-start gap-3 rounded-md border border-line p-2">
+                  {u.contentType.startsWith("image/") ? (
+                    // eslint-disable-next-line @next/next/no-img-element
+                    <img src={u.url} alt={`${u.fileName}, uploaded by ${u.uploadedByName}`} className="max-h-40 max-w-56 rounded object-contain" />
+                  ) : (
+                    <a href={u.url}>📄 {u.fileName}</a>
+                  )}
+                  <div className="flex flex-col gap-2">
+                    <p className="break-all text-xs text-muted">
+                      {u.fileName} · {Math.max(1, Math.round(u.sizeBytes / 1024))} kB · SHA-256 {u.sha256.slice(0, 16)}…
                     </p>
-                  ) : null}
+                    {!reading && build.may.record && u.contentType.startsWith("image/") ? (
+                      <div>
+                        <Button
+                          type="button"
+                          variant="quiet"
+                          disabled={read.isPending}
+                          onClick={() => read.mutate(screenIds.length ? { uploadId: u.id, apertureId, screenId } : { uploadId: u.id, apertureId })}
+                          aria-label={`Read the pattern in ${u.fileName} behind ${apertureId}${screenIds.length > 1 ? ` on ${screenId}` : ""}`}
+                        >
+                          {pending ? "Reading the pattern…" : "Read the pattern"}
+                        </Button>
+                      </div>
+                    ) : null}
+                    {failed ? (
+                      <p role="alert" className="text-sm text-danger">
+                        {failed.message}
+                      </p>
+                    ) : null}
+                  </div>
                 </div>
-              </div>
-            )}
-            {reading ? <PhotoReadingCard reading={reading} /> : null}
-          </li>
-        );
-      })}
-    </ul>
+              )}
+              {reading ? <PhotoReadingCard reading={reading} /> : null}
+            </li>
+          );
+        })}
+      </ul>
+    </div>
   );
 }

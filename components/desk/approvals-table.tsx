@@ -35,9 +35,48 @@ function validity(row: ApprovalRow, nowMs: number) {
   );
 }
 
+/** What the builds of the signed revision found: a mismatch is flagged in words with its count, not by colour alone. */
+function buildWords(row: ApprovalRow) {
+  if (row.builds === 0) return <span className="text-sm text-muted">Not built yet</span>;
+  const builds = `${row.builds} build${row.builds === 1 ? "" : "s"}`;
+  if (row.mismatches === 0) return <span className="text-sm text-muted">{builds}; nothing recorded differs from the prediction</span>;
+  const photo = row.photoMismatches === 0 ? "" : row.photoMismatches === row.mismatches ? (row.mismatches === 1 ? ", read from a screen photo" : ", all read from screen photos") : `, ${row.photoMismatches} read from a screen photo`;
+  return (
+    <span className="text-warn" data-testid="desk-mismatch">
+      <span aria-hidden="true">▲ </span>
+      {row.mismatches === 1 ? "1 observation differs" : `${row.mismatches} observations differ`} from the prediction
+      <span className="block text-sm">
+        {builds}
+        {photo}
+      </span>
+    </span>
+  );
+}
+
 /** The sign-offs table: sorting and paging are done by the server, the table only draws and asks. */
-export function ApprovalsTable({ rows, total, page, pageSize, pageCount, sort, dir, nowIso }: { rows: ApprovalRow[]; total: number; page: number; pageSize: number; pageCount: number; sort: DeskSort; dir: "asc" | "desc"; nowIso: string }) {
-  const { update, pending } = useDeskUrl();
+export function ApprovalsTable({
+  rows,
+  total,
+  mismatchTotal,
+  page,
+  pageSize,
+  pageCount,
+  sort,
+  dir,
+  nowIso,
+}: {
+  rows: ApprovalRow[];
+  total: number;
+  mismatchTotal: number;
+  page: number;
+  pageSize: number;
+  pageCount: number;
+  sort: DeskSort;
+  dir: "asc" | "desc";
+  nowIso: string;
+}) {
+  const { params, update, pending } = useDeskUrl();
+  const onlyMismatches = params.get("builds") === "mismatch";
   const nowMs = Date.parse(nowIso);
   const columns = [
     column.accessor("title", {
@@ -60,6 +99,7 @@ export function ApprovalsTable({ rows, total, page, pageSize, pageCount, sort, d
     column.accessor("decidedAt", { id: "decidedAt", header: "Signed", cell: (c) => <span className="whitespace-nowrap text-sm">{utc(c.getValue())}</span> }),
     column.accessor("validUntil", { id: "validUntil", header: "Valid until", cell: (c) => validity(c.row.original, nowMs) }),
     column.accessor("state", { id: "state", header: "State now", enableSorting: false, cell: (c) => <StateBadge state={c.getValue()} /> }),
+    column.accessor("mismatches", { id: "builds", header: "Builds", enableSorting: false, cell: (c) => buildWords(c.row.original) }),
     column.accessor("conditions", {
       id: "conditions",
       header: "Conditions",
@@ -101,6 +141,17 @@ export function ApprovalsTable({ rows, total, page, pageSize, pageCount, sort, d
       <p role="status" className="text-muted" data-testid="desk-count">
         {total === 0 ? "No sign-off matches these filters." : `Showing ${first}–${last} of ${total} sign-off${total === 1 ? "" : "s"}.`}
       </p>
+      {mismatchTotal > 0 && !onlyMismatches ? (
+        <p className="flex flex-wrap items-center gap-3 rounded-md border border-warn p-3 text-warn" data-testid="desk-mismatch-total">
+          <span>
+            <span aria-hidden="true">▲ </span>
+            {mismatchTotal === 1 ? "1 of these sign-offs has a build" : `${mismatchTotal} of these sign-offs have a build`} whose observation (typed, or read from a screen photo) differs from the prediction.
+          </span>
+          <Button type="button" variant="quiet" onClick={() => update({ builds: "mismatch" })} disabled={pending}>
+            Show only those
+          </Button>
+        </p>
+      ) : null}
       <div tabIndex={0} role="region" aria-label="Table; scrolls sideways on a narrow screen" className={`overflow-x-auto rounded-lg border border-line ${pending ? "opacity-60" : ""}`}>
         <table className="w-full text-left" data-testid="approvals-table">
           <caption className="sr-only">Sign-offs, {sort} {dir === "asc" ? "ascending" : "descending"}</caption>

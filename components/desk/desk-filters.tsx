@@ -10,7 +10,7 @@ const STATES = [
   { value: "expired", label: "Sign-off expired" },
   { value: "superseded", label: "Replaced by a newer sign-off" },
 ];
-const FILTER_KEYS = ["q", "lab", "class", "state", "officer", "from", "to", "expiring"] as const;
+const FILTER_KEYS = ["q", "lab", "class", "state", "officer", "from", "to", "expiring", "builds"] as const;
 
 const inputClass = "min-h-11 rounded-md border border-line bg-ink px-3 py-2 text-base text-text";
 
@@ -78,6 +78,13 @@ export function DeskFilters({ labs, officers }: { labs: Option[]; officers: Opti
                 {o.name}
               </option>
             ))}
+          </select>
+        </label>
+        <label className="flex flex-col gap-1 text-sm font-medium text-muted">
+          Builds
+          <select className={inputClass} value={v.builds} onChange={set("builds")}>
+            <option value="">Built or not</option>
+            <option value="mismatch">A build found a mismatch</option>
           </select>
         </label>
         <label className="flex flex-col gap-1 text-sm font-medium text-muted">

@@ -14,7 +14,7 @@ import { ApertureTable } from "./aperture-table";
 import { ScreenTable } from "./screen-table";
 import { CANVAS_HEIGHT } from "./canvas-constants";
 import { ChangesSinceReview } from "./changes-since-review";
-import { ConflictDialog } from "./conflict-dialog";
+import { EditorNotices } from "./editor-notices";
 import { ElementList } from "./element-list";
 import { SNAP_CHOICES, snapMm } from "./element-kinds";
 import { FinderPanel } from "./finder-panel";
@@ -263,28 +263,7 @@ function EditorBody({ benchId, labId, labName, authorName, initial, shelf = null
         </div>
       </header>
 
-      {!canEdit ? (
-        <p className="rounded-md border border-line bg-panel px-3 py-2 text-sm" data-testid="read-only-note">
-          <span aria-hidden="true">◇ </span>Read only: you can look at the drawing and the predictions, but only researchers of {labName} can change this bench.
-        </p>
-      ) : baseState !== "draft" ? (
-        <p className="rounded-md border border-warn/60 bg-panel px-3 py-2 text-sm">
-          Revision {save.base.revisionNumber} is no longer a draft, so it stays exactly as it is: your first change starts revision {save.base.revisionNumber + 1} as a new draft.
-        </p>
-      ) : null}
-
-      {save.state.kind === "conflict" ? (
-        <ConflictDialog
-          mine={doc}
-          current={save.state.current}
-          message={save.state.message}
-          onKeepMine={save.keepMine}
-          onTakeTheirs={() => {
-            const theirs = save.takeTheirs();
-            if (theirs && theirs.version === 1) dispatch({ type: "replace", doc: theirs });
-          }}
-        />
-      ) : null}
+      <EditorNotices doc={doc} save={save} canEdit={canEdit} labName={labName} what="the drawing" onTakeTheirs={(theirs) => dispatch({ type: "replace", doc: theirs as BenchDocument })} />
 
       <div className="flex flex-col gap-2 rounded-lg border border-line bg-panel p-2">
         <div className="flex flex-wrap items-center justify-between gap-2">

@@ -6,14 +6,15 @@ import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { useEffect, useMemo, useRef } from "react";
 import { benchQuery, draftQuery } from "@/lib/api/bench-queries";
 import { queryKeys } from "@/lib/api/client";
-import type { BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument, BenchDocument } from "@/lib/bench/schema";
 import { StateBadge } from "@/components/ui/state-badge";
 import { changesSinceRevision } from "./element-diff";
 import { lastSentRevision } from "./revision-pick";
 
 const SHOWN = 8;
 
-type Props = { benchId: string; doc: BenchDocument };
+/** `doc`: the working drawing, a rail or a table; compared with the last revision sent when that is of the same kind. */
+type Props = { benchId: string; doc: AnyBenchDocument };
 
 export function ChangesSinceReview({ benchId, doc }: Props) {
   const queryClient = useQueryClient();
@@ -31,7 +32,7 @@ export function ChangesSinceReview({ benchId, doc }: Props) {
   }, [queryClient, benchId, revisionNumber, state]);
 
   const sent = bench.data ? lastSentRevision(bench.data.revisions) : null;
-  const changes = useMemo(() => (sent && sent.document.version === 1 ? changesSinceRevision(sent.document, doc) : []), [sent, doc]);
+  const changes = useMemo(() => (sent && sent.document.version === doc.version ? changesSinceRevision(sent.document as BenchDocument, doc as BenchDocument) : []), [sent, doc]);
 
   return (
     <section aria-labelledby="since-review-heading" className="rounded-lg border border-line bg-panel p-4" data-testid="changes-since-review">
@@ -46,7 +47,7 @@ export function ChangesSinceReview({ benchId, doc }: Props) {
       </h2>
       {bench.error ? <p className="text-sm text-danger">✕ {bench.error.message}</p> : null}
       {!bench.data && !bench.error ? <p className="text-sm text-muted">Loading the revisions…</p> : null}
-      {bench.data && !sent ? <p className="text-sm text-muted">No revision of this bench has been sent for review yet, so everything on the rail is new to the reviewer.</p> : null}
+      {bench.data && !sent ? <p className="text-sm text-muted">No revision of this bench has been sent for review yet, so everything on the {doc.version === 2 ? "table" : "rail"} is new to the reviewer.</p> : null}
       {sent && changes.length === 0 ? <p className="text-sm text-muted">Nothing: the drawing is the same as revision {sent.number}.</p> : null}
       {changes.length > 0 ? (
         <>

@@ -3,19 +3,14 @@
 // every change with the same key, one after the other, replaces the last history step instead of stacking.
 import type { BenchDocument, BenchElement, ElementKind } from "@/lib/bench/schema";
 import { newElement, nextId, roundMm } from "./element-kinds";
+import { commit, historyReducer, initialHistory, type HistoryAction, type HistoryState } from "./history";
 
-export const HISTORY_LIMIT = 200;
+export { HISTORY_LIMIT } from "./history";
 /** How far a duplicate lands downstream of its original. */
 export const DUPLICATE_OFFSET_MM = 25;
 
-export type EditorState = {
-  doc: BenchDocument;
-  past: BenchDocument[];
-  future: BenchDocument[];
-  selection: string[];
-  /** The coalesce key of the last change; a change with the same key replaces it instead of stacking. */
-  lastCoalesce: string | null;
-};
+
+export type EditorState = HistoryState<BenchDocument>;
 
 /** Field values to set on an element; undefined removes an optional field (e.g. registerId for an ad hoc laser). */
 export type ElementPatch = Partial<Record<string, number | string | readonly { wavelengthNm: number; powerMw: number }[] | undefined>>;
@@ -38,24 +33,12 @@ export type EditorAction =
   | { type: "remove" }
   | { type: "duplicate" }
   | { type: "set-title"; title: string; coalesce?: string }
-  | { type: "replace"; doc: BenchDocument }
   | { type: "reset"; doc: BenchDocument }
-  | { type: "select"; ids: string[] }
-  | { type: "toggle-select"; id: string }
-  | { type: "undo" }
-  | { type: "redo" };
+  | HistoryAction<BenchDocument>;
 
-export const initialEditorState = (doc: BenchDocument): EditorState => ({ doc, past: [], future: [], selection: [], lastCoalesce: null });
-
-function commit(state: EditorState, doc: BenchDocument, coalesce: string | null = null, selection = state.selection): EditorState {
-  const merging = coalesce !== null && coalesce === state.lastCoalesce;
-  const past = merging ? state.past : [...state.past, state.doc].slice(-HISTORY_LIMIT);
-  return { doc, past, future: [], selection, lastCoalesce: coalesce };
-}
+export const initialEditorState = (doc: BenchDocument): EditorState => initialHistory(doc);
 
 const withElements = (doc: BenchDocument, elements: BenchElement[]): BenchDocument => ({ ...doc, elements });
-
-const keepExisting = (selection: string[], doc: BenchDocument) => selection.filter((id) => doc.elements.some((e) => e.id === id));
 
 export function editorReducer(state: EditorState, action: EditorAction): EditorState {
   const { doc } = state;
@@ -98,27 +81,9 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
     }
     case "set-title":
       return commit(state, { ...doc, title: action.title === "" ? undefined : action.title }, action.coalesce ?? null);
-    case "replace":
-      return commit(state, action.doc, null, keepExisting(state.selection, action.doc));
     case "reset":
       return initialEditorState(action.doc);
-    case "select":
-      return { ...state, selection: action.ids, lastCoalesce: null };
-    case "toggle-select":
-      return {
-        ...state,
-        selection: state.selection.includes(action.id) ? state.selection.filter((s) => s !== action.id) : [...state.selection, action.id],
-        lastCoalesce: null,
-      };
-    case "undo": {
-      const previous = state.past.at(-1);
-      if (!previous) return state;
-      return { doc: previous, past: state.past.slice(0, -1), future: [state.doc, ...state.future], selection: keepExisting(state.selection, previous), lastCoalesce: null };
-    }
-    case "redo": {
-      const next = state.future[0];
-      if (!next) return state;
-      return { doc: next, past: [...state.past, state.doc], future: state.future.slice(1), selection: keepExisting(state.selection, next), lastCoalesce: null };
-    }
+    default:
+      return historyReducer(state, action);
   }
 }

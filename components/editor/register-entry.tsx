@@ -75,8 +75,17 @@ export function RegisterEntryBox({ laser, labId, labName, canEdit, dispatch }: P
               <>
                 <dt className="text-muted">pulses</dt>
                 <dd>
+                  {data.pulseEnergyMj != null ? `${num(data.pulseEnergyMj)} mJ, ` : ""}
                   {data.pulseDurationS} s{data.pulseRepetitionRateHz !== null ? ` at ${data.pulseRepetitionRateHz} Hz` : ", single"}
                 </dd>
+                {data.pulsesPerBurst != null && data.burstPulseRateHz != null ? (
+                  <>
+                    <dt className="text-muted">bursts</dt>
+                    <dd>
+                      {num(data.pulsesPerBurst)} pulses at {num(data.burstPulseRateHz)} Hz inside a burst
+                    </dd>
+                  </>
+                ) : null}
               </>
             ) : null}
           </dl>

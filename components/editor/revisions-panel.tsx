@@ -7,7 +7,8 @@ import { useRouter } from "next/navigation";
 import { useQuery } from "@tanstack/react-query";
 import { useMemo, useState } from "react";
 import { benchQuery, useMakeRevision, type DraftView, type FrozenRevision } from "@/lib/api/bench-queries";
-import { benchDocumentSchema, type BenchDocument } from "@/lib/bench/schema";
+import type { AnyBenchDocument } from "@/lib/bench/schema";
+import { anyBenchDocumentSchema } from "@/lib/bench/schema-v2";
 import type { ReviewState } from "@/db/schema";
 import { StateBadge } from "@/components/ui/state-badge";
 import type { SaveState } from "./use-autosave";
@@ -15,7 +16,8 @@ import type { SaveState } from "./use-autosave";
 type Props = {
   benchId: string;
   canEdit: boolean;
-  doc: BenchDocument;
+  /** The working drawing, a rail or a table. */
+  doc: AnyBenchDocument;
   base: { revisionNumber: number; version: number; state: ReviewState };
   saveState: SaveState;
   /** The editor continues on the new working draft. */
@@ -42,7 +44,7 @@ export function RevisionsPanel({ benchId, canEdit, doc, base, saveState, onMade 
   const make = useMakeRevision(benchId);
   const [done, setDone] = useState<{ frozen: FrozenRevision; next: number } | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
-  const complete = useMemo(() => benchDocumentSchema.safeParse(doc).success, [doc]);
+  const complete = useMemo(() => anyBenchDocumentSchema.safeParse(doc).success, [doc]);
 
   const why =
     base.state !== "draft"

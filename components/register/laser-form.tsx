@@ -16,6 +16,8 @@ export type LaserFormValues = {
   pulseEnergyMj: number | null;
   pulseDurationS: number | null;
   pulseRepetitionRateHz: number | null;
+  pulsesPerBurst?: number | null;
+  burstPulseRateHz?: number | null;
   lines?: { wavelengthNm: number; powerMw: number }[] | null;
   beamDiameterMm: number;
   divergenceMrad: number;
@@ -69,6 +71,9 @@ export function LaserForm({ labs, people, initial, laserId, version }: { labs: O
     pulseEnergyMj: text(initial?.pulseEnergyMj),
     pulseDurationS: text(initial?.pulseDurationS),
     pulseRepetitionRateHz: text(initial?.pulseRepetitionRateHz),
+    bursts: Boolean(initial && (initial.pulsesPerBurst != null || initial.burstPulseRateHz != null)),
+    pulsesPerBurst: text(initial?.pulsesPerBurst),
+    burstPulseRateHz: text(initial?.burstPulseRateHz),
     beamDiameterMm: text(initial?.beamDiameterMm),
     divergenceMrad: text(initial?.divergenceMrad),
     model: initial?.model ?? "",
@@ -93,6 +98,8 @@ export function LaserForm({ labs, people, initial, laserId, version }: { labs: O
         pulseEnergyMj: v.pulsed ? numberOrNull(v.pulseEnergyMj) : null,
         pulseDurationS: v.pulsed ? numberOrNull(v.pulseDurationS) : null,
         pulseRepetitionRateHz: v.pulsed ? numberOrNull(v.pulseRepetitionRateHz) : null,
+        pulsesPerBurst: v.pulsed && v.bursts ? numberOrNull(v.pulsesPerBurst) : null,
+        burstPulseRateHz: v.pulsed && v.bursts ? numberOrNull(v.burstPulseRateHz) : null,
         beamDiameterMm: numberOrNull(v.beamDiameterMm),
         divergenceMrad: numberOrNull(v.divergenceMrad),
         model: v.model,
@@ -152,7 +159,27 @@ export function LaserForm({ labs, people, initial, laserId, version }: { labs: O
           <div className="grid gap-4 sm:grid-cols-3">
             <Field id="laser-pulse-energy" label="Pulse energy (mJ)" value={v.pulseEnergyMj} onChange={(e) => set("pulseEnergyMj")(e.target.value)} error={err("pulseEnergyMj")} inputMode="decimal" />
             <Field id="laser-pulse-duration" label="Pulse duration (s)" hint="e.g. 1e-8 for 10 ns" value={v.pulseDurationS} onChange={(e) => set("pulseDurationS")(e.target.value)} error={err("pulseDurationS")} inputMode="decimal" />
-            <Field id="laser-pulse-rate" label="Repetition rate (Hz)" value={v.pulseRepetitionRateHz} onChange={(e) => set("pulseRepetitionRateHz")(e.target.value)} error={err("pulseRepetitionRateHz")} inputMode="decimal" />
+            <Field
+              id="laser-pulse-rate"
+              label="Repetition rate (Hz)"
+              hint={v.bursts ? "Average pulses per second: pulses per burst × bursts per second" : "Empty for a single pulse"}
+              value={v.pulseRepetitionRateHz}
+              onChange={(e) => set("pulseRepetitionRateHz")(e.target.value)}
+              error={err("pulseRepetitionRateHz")}
+              inputMode="decimal"
+            />
+          </div>
+        ) : null}
+        {v.pulsed ? (
+          <label className="flex min-h-11 items-center gap-2">
+            <input type="checkbox" className="size-5" checked={v.bursts} onChange={(e) => set("bursts")(e.target.checked)} />
+            The pulses come in bursts
+          </label>
+        ) : null}
+        {v.pulsed && v.bursts ? (
+          <div className="grid gap-4 sm:grid-cols-3">
+            <Field id="laser-pulses-per-burst" label="Pulses per burst" hint="A whole number, 2 or more" value={v.pulsesPerBurst} onChange={(e) => set("pulsesPerBurst")(e.target.value)} error={err("pulsesPerBurst")} inputMode="numeric" />
+            <Field id="laser-burst-pulse-rate" label="Pulse rate inside a burst (Hz)" hint="e.g. 1e6 for pulses 1 µs apart" value={v.burstPulseRateHz} onChange={(e) => set("burstPulseRateHz")(e.target.value)} error={err("burstPulseRateHz")} inputMode="decimal" />
           </div>
         ) : null}
       </fieldset>

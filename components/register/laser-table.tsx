@@ -4,9 +4,10 @@ import type { LaserView } from "@/lib/server/register";
 import { ClassCheck } from "./class-check";
 import { LaserStatusBadge } from "./laser-status-badge";
 
-export function pulseText(l: Pick<LaserView, "pulseEnergyMj" | "pulseDurationS" | "pulseRepetitionRateHz">): string | null {
+export function pulseText(l: Pick<LaserView, "pulseEnergyMj" | "pulseDurationS" | "pulseRepetitionRateHz"> & Partial<Pick<LaserView, "pulsesPerBurst" | "burstPulseRateHz">>): string | null {
   if (l.pulseDurationS === null && l.pulseEnergyMj === null) return null;
   const parts = [l.pulseEnergyMj !== null ? `${fmt(l.pulseEnergyMj)} mJ` : null, l.pulseDurationS !== null ? `${fmt(l.pulseDurationS)} s` : null, l.pulseRepetitionRateHz !== null ? `${fmt(l.pulseRepetitionRateHz)} Hz` : null];
+  if (l.pulsesPerBurst != null && l.burstPulseRateHz != null) parts.push(`bursts of ${fmt(l.pulsesPerBurst)} pulses at ${fmt(l.burstPulseRateHz)} Hz inside a burst`);
   return `Pulsed: ${parts.filter(Boolean).join(" · ")}`;
 }
 

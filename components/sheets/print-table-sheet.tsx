@@ -18,6 +18,8 @@ const NICE_SCALES = [1, 2, 2.5, 5, 10, 20, 25, 50, 100];
 const PLAN_WIDTH_MM = 176;
 /** The plan's margin round the table, as TablePlan draws it with the hazard zone (a fraction of the longer side). */
 const PLAN_MARGIN = 0.14;
+/** Labels on the printed plan stand this high on paper (about 8 pt), whatever the plan's scale. */
+const PLAN_LABEL_MM = 2.6;
 
 /** The screen palette mapped to ink: the plan prints black on white, red kept for what is above the MPE. */
 const PRINT_COLOURS = {
@@ -56,11 +58,11 @@ export function PrintTableSheet({ sheet, paper, eyewear = null }: { sheet: Table
       <section>
         <h2>The table, at scale</h2>
         <div style={{ ...PRINT_COLOURS, width: `${drawnWidthMm / scale}mm` }} data-testid="sheet-table-plan">
-          <TablePlan doc={doc} analysis={analysis ?? EMPTY_TABLE_ANALYSIS} safety={safety} idPrefix="sheet-plan" legend={false} zones={safety ? { screenHazards: safety.screenHazards } : null} />
+          <TablePlan doc={doc} analysis={analysis ?? EMPTY_TABLE_ANALYSIS} safety={safety} idPrefix="sheet-plan" legend={false} zones={safety ? { screenHazards: safety.screenHazards } : null} labelMm={PLAN_LABEL_MM * scale} holeNumbers />
         </div>
         <p style={{ fontSize: "10.5pt", margin: "1mm 0 0" }}>
           Scale 1:{scale} when printed at 100 %. Table {doc.table.widthMm} × {doc.table.depthMm} mm seen from above, front edge at the bottom; holes every {doc.table.holePitchMm} mm, the first half a pitch in from
-          the front left corner (hole 1, 1). Red: beams above the MPE and the nominal hazard zone; dashed: beams that leave the table.
+          the front left corner (hole 1, 1); hole numbers along the front edge (columns) and the left edge (rows). Red: beams above the MPE and the nominal hazard zone; dashed: beams that leave the table.
         </p>
       </section>
 

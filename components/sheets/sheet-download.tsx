@@ -5,7 +5,7 @@ import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { apiFetch, queryKeys } from "@/lib/api/client";
-import type { SheetView } from "@/lib/server/build-sheets";
+import type { SheetView } from "@/lib/api/contracts/sheets";
 
 export function SheetDownload({ revisionId, compact = false }: { revisionId: string; compact?: boolean }) {
   const [paper, setPaper] = useState<"A4" | "Letter">("A4");

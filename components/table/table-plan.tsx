@@ -33,14 +33,29 @@ type Props = {
    * at the drawing's margin, with the distance written), and round each screen its diffuse-reflection hazard zone.
    */
   zones?: { screenHazards?: readonly { elementId: string; diffuseReflectionNhzM: number }[] } | null;
+  /**
+   * The height of labels in table millimetres. On screen the default (1/70 of the longer side) scales with the view;
+   * the build sheet passes a size that prints at a readable height whatever the scale.
+   */
+  labelMm?: number;
+  /** Number the holes along the front and left edges (every fifth, and the first), so a position can be counted on paper. */
+  holeNumbers?: boolean;
 };
 
-export function TablePlan({ doc, analysis, safety = null, idPrefix = "table-plan", legend = true, zones = null }: Props) {
+/** The hole numbers written along an edge: the first, every fifth, and the last when it is not too close to a fifth. */
+export function numberedHoles(count: number): number[] {
+  const out: number[] = [];
+  for (let n = 1; n <= count; n++) if (n === 1 || n % 5 === 0 || (n === count && n % 5 > 2)) out.push(n);
+  return out;
+}
+
+export function TablePlan({ doc, analysis, safety = null, idPrefix = "table-plan", legend = true, zones = null, labelMm, holeNumbers = false }: Props) {
   const plan = tablePlan(doc, analysis, safety);
   const { widthMm: w, depthMm: d } = plan;
   const size = Math.max(w, d);
   const margin = size * (zones ? 0.14 : 0.04);
-  const text = size / 70;
+  const text = labelMm ?? size / 70;
+  const holeX = (column: number) => plan.holes.offsetMm + (column - 1) * plan.holePitchMm;
   const beamWidth = size / 400;
   const flipY = (y: number) => d - y;
   const patternId = `${idPrefix}-holes`;
@@ -68,6 +83,26 @@ export function TablePlan({ doc, analysis, safety = null, idPrefix = "table-plan
         </defs>
         <rect x={0} y={0} width={w} height={d} fill="var(--color-raised)" stroke="var(--color-line)" strokeWidth={beamWidth} />
         <rect x={0} y={0} width={w} height={d} fill={`url(#${patternId})`} />
+        {holeNumbers ? (
+          <g data-testid="hole-numbers" fill="var(--color-muted)" fontSize={text * 0.8}>
+            {numberedHoles(plan.holes.columns).map((n) => (
+              <g key={`c${n}`}>
+                <line x1={holeX(n)} y1={d} x2={holeX(n)} y2={d + text * 0.5} stroke="var(--color-muted)" strokeWidth={beamWidth * 0.6} />
+                <text x={holeX(n)} y={d + text * 1.4} textAnchor="middle">
+                  {n}
+                </text>
+              </g>
+            ))}
+            {numberedHoles(plan.holes.rows).map((n) => (
+              <g key={`r${n}`}>
+                <line x1={0} y1={flipY(holeX(n))} x2={-text * 0.5} y2={flipY(holeX(n))} stroke="var(--color-muted)" strokeWidth={beamWidth * 0.6} />
+                <text x={-text * 0.7} y={flipY(holeX(n)) + text * 0.3} textAnchor="end">
+                  {n}
+                </text>
+              </g>
+            ))}
+          </g>
+        ) : null}
         {zones ? (
           <g data-testid="hazard-zone">
             {plan.openBeams

@@ -6,9 +6,9 @@ import type { BenchAnalysis, ScreenSearch } from "@/lib/optics";
 import type { BenchSafetyAssessment, TableSafetyAssessment } from "@/lib/safety";
 import type { TableAnalysis } from "@/lib/optics/table";
 import type { BenchDetail } from "@/lib/server/benches";
-import type { DraftView, FrozenRevision, RailDraftView } from "@/lib/server/drafts";
+import { createBenchInput, type DraftView, type FrozenRevision, type RailDraftView } from "@/lib/api/contracts/benches";
 import type { LaserView } from "@/lib/server/register";
-import { apiFetch, conflictCurrent, queryKeys, type ApiError } from "./client";
+import { apiFetch, checkBeforeSending, conflictCurrent, queryKeys, type ApiError } from "./client";
 
 export type { BenchDetail, DraftView, FrozenRevision, LaserView, RailDraftView };
 
@@ -136,7 +136,9 @@ export function useSaveDraft(benchId: string) {
 export function useCreateBench() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: { labId: string; title: string; table?: BenchDocumentV2["table"] }) => apiFetch<{ id: string }>("/api/benches", { method: "POST", body: json(input) }),
+    // checked against the route's own schema first: a missing title or lab is named at once, without a round trip
+    mutationFn: async (input: { labId: string; title: string; table?: BenchDocumentV2["table"] }) =>
+      apiFetch<{ id: string }>("/api/benches", { method: "POST", body: json(checkBeforeSending(createBenchInput, input)) }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: queryKeys.benches() }),
   });
 }

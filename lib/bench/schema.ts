@@ -230,9 +230,10 @@ export function checkLaserFields(
 /**
  * Bursts: both burst fields or neither, on a train (duration and rate); the pulses inside a burst may not overlap
  * (duration × rate inside < 1), the rate inside a burst is above the average rate, and one burst (n − 1 pulse gaps plus a
- * pulse) is shorter than the time from one burst to the next (n ÷ average rate).
+ * pulse) is shorter than the time from one burst to the next (n ÷ average rate). The laser register's form applies the same
+ * rules to its entries (lib/server/register.ts).
  */
-function checkBurst(laser: Partial<Pick<LaserElement, "pulseDurationS" | "pulseRepetitionRateHz" | "pulsesPerBurst" | "burstPulseRateHz">>, ctx: IssueSink, basePath: (string | number)[]): void {
+export function checkBurst(laser: Partial<Pick<LaserElement, "pulseDurationS" | "pulseRepetitionRateHz" | "pulsesPerBurst" | "burstPulseRateHz">>, ctx: IssueSink, basePath: (string | number)[]): void {
   const { pulsesPerBurst: n, burstPulseRateHz: fb, pulseDurationS: τ, pulseRepetitionRateHz: f } = laser;
   if (n === undefined && fb === undefined) return;
   if (n === undefined || fb === undefined) {

@@ -80,21 +80,26 @@ function relative(levels: number[], tone: ScreenPhotoReading["profile"]["tone"])
 
 /**
  * A reading set beside the prediction for one aperture: the values kept (rounded for storage), the profile predicted as
- * drawn at the same radii for the plot, and the mismatch sentences. The aperture must have a screen behind it.
+ * drawn at the same radii for the plot, and the mismatch sentences. The aperture must have a screen behind it. `names`:
+ * how the build names the aperture and screen when `doc` is a table's unfolded path (whose ids are the chain's), and the
+ * table's beam.
  */
 export function comparePhoto(
   doc: BenchDocument,
   aperture: AperturePrediction & { screenId: string; observationDistanceMm: number },
   reading: ScreenPhotoReading,
   photo: { widthPx: number; heightPx: number; orientation: number },
+  names: { apertureId: string; screenId: string; pathId: string | null } = { apertureId: aperture.apertureId, screenId: aperture.screenId, pathId: null },
 ): { result: PhotoReadingResult; reasons: string[]; prediction: PhotoPrediction } {
-  const prediction: PhotoPrediction = { apertureId: aperture.apertureId, centre: aperture.centre, drawnDistanceMm: aperture.observationDistanceMm, zoneCount: Math.abs(aperture.fresnelNumber) };
+  const prediction: PhotoPrediction = { apertureId: names.apertureId, centre: aperture.centre, drawnDistanceMm: aperture.observationDistanceMm, zoneCount: Math.abs(aperture.fresnelNumber) };
   const tolerance = photoDistanceTolerance(doc, aperture.apertureId, aperture.screenId, aperture.observationDistanceMm);
   const { profile, mmPerPixel } = reading;
   const predicted = screenProfile(doc, aperture.apertureId, { radiiMm: profile.radiusMm }).relativeIntensity;
   const result: PhotoReadingResult = {
     centre: reading.centre,
     centrePredicted: prediction.centre,
+    screenId: names.screenId,
+    ...(names.pathId ? { pathId: names.pathId } : {}),
     centrePx: { x: sig(reading.centrePx.x), y: sig(reading.centrePx.y) },
     imageWidthPx: photo.widthPx,
     imageHeightPx: photo.heightPx,

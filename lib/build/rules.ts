@@ -190,6 +190,8 @@ export type AperturePrediction = {
   /** The lit pattern's diameter: the larger of the aperture's shadow and the first dark ring of the far-field pattern. */
   spotDiameterMm: number | null;
   screenPowerMw: number | null;
+  /** On a table: every screen the light through the aperture reaches (a splitter behind it may send light to several). */
+  screenIds?: string[];
 };
 export type ScreenPrediction = { screenId: string; positionMm: number; beamDiameterMm: number; powerMw: number };
 export type Predictions = { apertures: AperturePrediction[]; screen: ScreenPrediction | null; problem: string | null };
@@ -256,6 +258,7 @@ function tablePredictions(doc: BenchDocumentV2): Predictions {
       transmittedFraction: a.transmittedFraction,
       spotDiameterMm: null,
       screenPowerMw: screen ? screen.incident.powerMw : null,
+      screenIds: [...new Set(analysis.apertures.flatMap((b) => (b.id === a.id && b.screenId !== null ? [b.screenId] : [])))],
     });
   }
   const lit = analysis.elements.filter((e) => e.kind === "screen" && e.incident.powerMw > 0).sort((a, b) => b.incident.powerMw - a.incident.powerMw)[0];

@@ -24,7 +24,7 @@ export type RadialProfile = {
 
 /** Thrown for a photo that cannot be read; the message is a plain sentence for the person who uploaded it. */
 export class PhotoReadError extends Error {
-  readonly code: "bad-image" | "uniform" | "no-pattern" | "no-edge" | "no-match" | "bad-context";
+  readonly code: "bad-image" | "uniform" | "no-pattern" | "room-light" | "no-edge" | "no-match" | "bad-context";
   constructor(code: PhotoReadError["code"], message: string) {
     super(message);
     this.name = "PhotoReadError";

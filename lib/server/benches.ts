@@ -3,12 +3,11 @@
 import "server-only";
 import { and, desc, eq, sql } from "drizzle-orm";
 import { z } from "zod";
-import { safeText } from "@/lib/validation/text";
 import type { Database } from "@/db";
 import { bench, benchRevision, lab, user, type ReviewState } from "@/db/schema";
 import { contentHash } from "@/lib/bench/canonical";
 import type { AnyBenchDocument } from "@/lib/bench/schema";
-import { tableSchema } from "@/lib/bench/schema-v2";
+import { createBenchInput } from "@/lib/api/contracts/benches";
 import { AppError, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
@@ -115,12 +114,6 @@ export async function getBench(db: Database, actor: Actor, benchId: string): Pro
   };
 }
 
-export const createBenchInput = z.object({
-  labId: z.uuid({ error: "Choose the lab the bench belongs to" }),
-  title: safeText({ error: "Give the bench a title" }).trim().min(1, "Give the bench a title").max(200, "The title must be at most 200 characters"),
-  /** Given: the bench is an optical table of this size (bench document version 2); absent: a straight rail (version 1). */
-  table: tableSchema.optional(),
-});
 
 /** A new bench with an empty first draft (the laser is added in the editor): a rail, or a table when its size is given. */
 export async function createBench(db: Database, actor: Actor, input: z.infer<typeof createBenchInput>): Promise<{ id: string }> {

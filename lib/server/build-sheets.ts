@@ -7,7 +7,7 @@ import QRCode from "qrcode";
 import { z } from "zod";
 import type { Database } from "@/db";
 import { getDb } from "@/db";
-import { buildSheet, laserRegister, type SafetyStandard, type SheetState } from "@/db/schema";
+import { buildSheet, laserRegister, type SafetyStandard } from "@/db/schema";
 import { rolesAllow } from "@/lib/auth/permissions";
 import type { BenchDocument, BenchDocumentV2, LaserElement } from "@/lib/bench/schema";
 import { env } from "@/lib/env";
@@ -25,24 +25,12 @@ import { kindTitle } from "@/lib/bench/kinds";
 import { assessRevision, assessTableRevision } from "@/lib/review/hazard";
 import { beamEnds, buildOrderV2, pathRows } from "@/lib/review/table-paths";
 import { notFoundAs } from "./scope";
+import type { SheetRequestInput, SheetView } from "@/lib/api/contracts/sheets";
 
-export const PAPERS = ["A4", "Letter"] as const;
 export const SHEET_TIMEOUT_MS = 90_000;
 /** Sheets rendered at once in this process; the browser pool bounds pages as well. */
 const PARALLEL_JOBS = 1;
 
-export type SheetView = {
-  id: string;
-  revisionId: string;
-  contentHash: string;
-  paper: Paper;
-  state: SheetState;
-  progressPercent: number;
-  error: string | null;
-  sizeBytes: number | null;
-  updatedAt: string;
-  downloadUrl: string | null;
-};
 
 function sheetView(row: typeof buildSheet.$inferSelect): SheetView {
   return {
@@ -59,9 +47,6 @@ function sheetView(row: typeof buildSheet.$inferSelect): SheetView {
   };
 }
 
-export const sheetRequestInput = z.object({
-  paper: z.enum(PAPERS, { error: "Paper must be A4 or Letter" }).default("A4"),
-});
 
 export function verifyUrl(hash: string): string {
   return `${env().APP_URL.replace(/\/$/, "")}/verify?hash=${hash}`;
@@ -150,7 +135,7 @@ function assertSheetAllowed(actor: Actor, r: SignedRevision, status: SignOffStat
 }
 
 /** Asks for the sheet of a revision on the given paper: the ready one when its content hash still matches, else a new job. */
-export async function requestSheet(db: Database, actor: Actor, revisionId: string, input: z.infer<typeof sheetRequestInput>, cookie: string): Promise<{ sheet: SheetView; reused: boolean }> {
+export async function requestSheet(db: Database, actor: Actor, revisionId: string, input: SheetRequestInput, cookie: string): Promise<{ sheet: SheetView; reused: boolean }> {
   authorize(actor, { bench: ["read"] });
   const r = await loadSignedRevision(db, actor, revisionId);
   assertSheetAllowed(actor, r, signOffStatus(r));

@@ -17,6 +17,9 @@ export type ApprovalState = (typeof APPROVAL_STATES)[number];
 export const DESK_SORTS = ["decidedAt", "validUntil", "title", "lab", "officer", "class"] as const;
 export type DeskSort = (typeof DESK_SORTS)[number];
 export const PAGE_SIZES = [10, 25, 50, 100] as const;
+/** "mismatch": only sign-offs with a build whose recorded observation (typed or read from a screen photo) differs from the prediction. */
+export const BUILD_FILTERS = ["mismatch"] as const;
+export type BuildFilter = (typeof BUILD_FILTERS)[number];
 
 const blankToUndefined = (v: unknown) => (v === "" || v === null ? undefined : v);
 const opt = <T extends z.ZodType>(schema: T) => z.preprocess(blankToUndefined, schema.optional());
@@ -35,6 +38,7 @@ export const deskQuery = z
     to: opt(z.iso.date({ error: "to must be a date (YYYY-MM-DD)" })),
     expiringDays: opt(z.coerce.number({ error: "expiring must be a number of days" }).int().min(0, "expiring must be 0 days or more").max(3650, "expiring must be at most 3650 days")),
     q: opt(safeText().trim().max(100, "The search must be at most 100 characters")),
+    builds: opt(z.enum(BUILD_FILTERS, { error: `builds must be ${BUILD_FILTERS.join(" or ")}` })),
   })
   .refine((v) => !v.from || !v.to || v.from <= v.to, { path: ["to"], message: "The end date must not be before the start date" });
 export type DeskQuery = z.infer<typeof deskQuery>;
@@ -59,6 +63,7 @@ export function deskQueryFromParams(params: URLSearchParams | Record<string, str
     to: get("to"),
     expiringDays: get("expiring"),
     q: get("q"),
+    builds: get("builds"),
   };
 }
 
@@ -104,14 +109,26 @@ export type ApprovalRow = {
   stepUpVerified: boolean;
   decidedAt: string;
   validUntil: string | null;
+  /** Builds of this revision, the observations recorded in them that differ from the prediction, and how many of those a screen photo's reading recorded. */
+  builds: number;
+  mismatches: number;
+  photoMismatches: number;
 };
 
-export type ApprovalsPage = { rows: ApprovalRow[]; total: number; page: number; pageSize: number; pageCount: number; query: DeskQuery };
+/** `mismatchTotal`: how many of the filtered sign-offs have a build with an observation that differs from the prediction. */
+export type ApprovalsPage = { rows: ApprovalRow[]; total: number; mismatchTotal: number; page: number; pageSize: number; pageCount: number; query: DeskQuery };
 
 /** The class the engine gave when the officer signed (kept in the signature's hazard summary). */
 export const hazardClassExpr = sql<string | null>`(${reviewDecision.hazardSummary} -> 'hazardClass' ->> 'value')`;
 
 const DAY_MS = 86_400_000;
+
+// Builds of the signed revision and their observations; build_record_revision_idx and build_observation_build_idx
+// keep these to index look-ups per row of a page.
+const buildsExpr = sql<number>`(select count(*)::int from build_record b where b.revision_id = ${reviewDecision.revisionId})`;
+const mismatchesExpr = sql<number>`(select count(*)::int from build_observation o join build_record b on b.id = o.build_id where b.revision_id = ${reviewDecision.revisionId} and o.mismatch)`;
+const photoMismatchesExpr = sql<number>`(select count(*)::int from build_observation o join build_record b on b.id = o.build_id where b.revision_id = ${reviewDecision.revisionId} and o.mismatch and exists (select 1 from photo_reading p where p.build_id = o.build_id and p.observation_id = o.id))`;
+const hasMismatchExpr = sql`exists (select 1 from build_observation o join build_record b on b.id = o.build_id where b.revision_id = ${reviewDecision.revisionId} and o.mismatch)`;
 
 function filters(scope: LabScope, q: DeskQuery, now: Date): SQL[] {
   const where: SQL[] = [eq(reviewDecision.outcome, "approved")];
@@ -128,6 +145,7 @@ function filters(scope: LabScope, q: DeskQuery, now: Date): SQL[] {
     where.push(eq(benchRevision.state, "approved"), gte(reviewDecision.validUntil, now), lt(reviewDecision.validUntil, new Date(now.getTime() + q.expiringDays * DAY_MS)));
   }
   if (q.q) where.push(ilike(bench.title, `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`));
+  if (q.builds === "mismatch") where.push(hasMismatchExpr);
   return where;
 }
 
@@ -166,6 +184,9 @@ const approvalColumns = {
   stepUpVerified: reviewDecision.stepUpVerified,
   decidedAt: reviewDecision.decidedAt,
   validUntil: reviewDecision.validUntil,
+  builds: buildsExpr,
+  mismatches: mismatchesExpr,
+  photoMismatches: photoMismatchesExpr,
 };
 
 function approvalsFrom(db: Database) {
@@ -235,6 +256,9 @@ export const APPROVAL_HEADER = [
   "bench_id",
   "revision_id",
   "decision_id",
+  "builds",
+  "observations_differing",
+  "of_which_read_from_a_photo",
 ];
 
 /** Rows in signing order (newest first), fetched in keyset batches. */
@@ -284,7 +308,7 @@ export function approvalsCsvStream(db: Database, scope: LabScope, q: DeskQuery, 
     for await (const batch of approvalBatches(db, scope, q, now, batchSize)) {
       yield batch
         .map((r) =>
-          csvLine([r.decidedAt, r.title, r.labName, r.number, r.contentHash, r.state, REVIEW_STATE_WORDS[r.state] ?? r.state, r.hazardClass, r.signerName, r.signerRole, r.meaning, r.conditions, r.validUntil, r.stepUpVerified ? "yes" : "no", r.benchId, r.revisionId, r.decisionId]),
+          csvLine([r.decidedAt, r.title, r.labName, r.number, r.contentHash, r.state, REVIEW_STATE_WORDS[r.state] ?? r.state, r.hazardClass, r.signerName, r.signerRole, r.meaning, r.conditions, r.validUntil, r.stepUpVerified ? "yes" : "no", r.benchId, r.revisionId, r.decisionId, r.builds, r.mismatches, r.photoMismatches]),
         )
         .join("");
     }

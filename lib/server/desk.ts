@@ -27,8 +27,12 @@ export * from "./desk-queries";
 // ── Approvals ─────────────────────────────────────────────────────────────────────────────────
 export async function listApprovals(db: Database, actor: Actor, input: DeskQuery, now = new Date()): Promise<ApprovalsPage> {
   authorize(actor, { audit: ["read"] });
-  const [rows, [{ total }]] = await Promise.all([approvalsPageQuery(db, actor, input, now), approvalsCountQuery(db, actor, input, now)]);
-  return { rows: rows.map(approvalView), total, page: input.page, pageSize: input.pageSize, pageCount: Math.max(1, Math.ceil(total / input.pageSize)), query: input };
+  const [rows, [{ total }], [{ total: mismatchTotal }]] = await Promise.all([
+    approvalsPageQuery(db, actor, input, now),
+    approvalsCountQuery(db, actor, input, now),
+    approvalsCountQuery(db, actor, { ...input, builds: "mismatch" }, now),
+  ]);
+  return { rows: rows.map(approvalView), total, mismatchTotal, page: input.page, pageSize: input.pageSize, pageCount: Math.max(1, Math.ceil(total / input.pageSize)), query: input };
 }
 
 /** The choices the filters offer: labs and everyone who has ever signed off. */

@@ -6,53 +6,16 @@ import "server-only";
 import { desc, eq } from "drizzle-orm";
 import { z } from "zod";
 import type { Database, DbOrTx } from "@/db";
-import { bench, benchRevision, type ReviewState } from "@/db/schema";
+import { bench, benchRevision } from "@/db/schema";
 import { rolesAllow } from "@/lib/auth/permissions";
 import { contentHash } from "@/lib/bench/canonical";
-import type { AnyBenchDocument, BenchDocument } from "@/lib/bench/schema";
 import { anyBenchDocumentSchema } from "@/lib/bench/schema-v2";
+import type { AnyBenchDocument } from "@/lib/bench/schema";
 import { AppError, notFound } from "@/lib/errors";
 import { recordAudit } from "./audit";
 import { authorize, authorizeLab, type Actor } from "./authorize";
 import { visibleOr404 } from "./scope";
-
-export type DraftView<D extends AnyBenchDocument = AnyBenchDocument> = {
-  benchId: string;
-  labId: string;
-  title: string;
-  /** The newest revision: the working draft, or the revision a save will start a new draft from. */
-  revisionId: string;
-  revisionNumber: number;
-  state: ReviewState;
-  /** Optimistic-concurrency counter of that revision; a save must name it. */
-  version: number;
-  contentHash: string;
-  /** Version 1 (a rail) or version 2 (a table); a stored version 1 document loads exactly as it was saved. */
-  document: D;
-  updatedAt: string;
-  /** True when the caller may save (bench: edit and a member of the bench's lab). */
-  canEdit: boolean;
-};
-
-export const saveDraftInput = z.object({
-  document: anyBenchDocumentSchema,
-  baseRevision: z.number({ error: "baseRevision must be the revision number the edit started from" }).int().positive(),
-  baseVersion: z.number({ error: "baseVersion must be the version the edit started from" }).int().positive(),
-});
-export type SaveDraftInput = z.infer<typeof saveDraftInput>;
-/** A draft known to hold a rail (version 1), as the rail editor works on it. */
-export type RailDraftView = DraftView<BenchDocument>;
-
-export const makeRevisionInput = z.object({
-  baseRevision: z.number({ error: "baseRevision must be the revision number the drawing is based on" }).int().positive(),
-  baseVersion: z.number({ error: "baseVersion must be the version the drawing is based on" }).int().positive(),
-});
-export type MakeRevisionInput = z.infer<typeof makeRevisionInput>;
-
-export type FrozenRevision = { revisionId: string; number: number; contentHash: string };
-export type MakeRevisionResult = { ok: true; draft: DraftView; frozen: FrozenRevision } | { ok: false; current: DraftView };
-
-export type SaveDraftResult = { ok: true; draft: DraftView; createdRevision: boolean } | { ok: false; current: DraftView };
+import type { DraftView, MakeRevisionInput, MakeRevisionResult, SaveDraftInput, SaveDraftResult } from "@/lib/api/contracts/benches";
 
 type BenchRow = { id: string; labId: string; title: string };
 

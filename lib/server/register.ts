@@ -1,6 +1,7 @@
 // The laser register: the institution's inventory of lasers, kept by the safety officers and read by
 // everyone in the labs. Computed classes come from lib/safety (IEC 60825-1:2014 class limits); labels are never changed.
 import { laserAveragePowerMw } from "@/lib/bench/laser-power";
+import { checkBurst } from "@/lib/bench/schema";
 import "server-only";
 import { and, asc, eq, sql } from "drizzle-orm";
 import { z } from "zod";
@@ -39,6 +40,15 @@ export const laserInput = z
     pulseEnergyMj: positive("Pulse energy", "mJ", 1e6).nullish().transform((v) => v ?? null),
     pulseDurationS: positive("Pulse duration", "s", 10).nullish().transform((v) => v ?? null),
     pulseRepetitionRateHz: positive("Repetition rate", "Hz", 1e12).nullish().transform((v) => v ?? null),
+    /** Trains in bursts only: pulses in each burst; pulseRepetitionRateHz stays the average (pulses per burst × bursts per second). */
+    pulsesPerBurst: num("Pulses per burst (pulsesPerBurst)")
+      .refine(Number.isInteger, "Pulses per burst (pulsesPerBurst) must be a whole number")
+      .refine((v) => v >= 2, "Pulses per burst (pulsesPerBurst) must be at least 2")
+      .refine((v) => v <= 1e9, "Pulses per burst (pulsesPerBurst) must be at most 1e9")
+      .nullish()
+      .transform((v) => v ?? null),
+    /** Trains in bursts only: the pulse rate inside a burst. */
+    burstPulseRateHz: positive("Pulse rate inside a burst (burstPulseRateHz)", "Hz", 1e15).nullish().transform((v) => v ?? null),
     beamDiameterMm: positive("Beam diameter", "mm", 1000),
     divergenceMrad: positive("Divergence", "mrad", 1000),
     lines: z
@@ -68,6 +78,17 @@ export const laserInput = z
     if (v.pulseDurationS !== null && v.pulseRepetitionRateHz !== null && v.pulseDurationS * v.pulseRepetitionRateHz >= 1) {
       ctx.addIssue({ code: "custom", path: ["pulseRepetitionRateHz"], message: "Pulse duration × repetition rate must be below 1; enter the laser as continuous-wave" });
     }
+    // Bursts: the bench document's own rules (both fields, on a train, no overlapping pulses, bursts apart), same sentences.
+    checkBurst(
+      {
+        pulseDurationS: v.pulseDurationS ?? undefined,
+        pulseRepetitionRateHz: v.pulseRepetitionRateHz ?? undefined,
+        pulsesPerBurst: v.pulsesPerBurst ?? undefined,
+        burstPulseRateHz: v.burstPulseRateHz ?? undefined,
+      },
+      ctx,
+      [],
+    );
   });
 export type LaserInput = z.infer<typeof laserInput>;
 
@@ -99,6 +120,9 @@ export type LaserView = {
   pulseEnergyMj: number | null;
   pulseDurationS: number | null;
   pulseRepetitionRateHz: number | null;
+  /** Trains in bursts only: pulses in each burst and the pulse rate inside a burst; null otherwise. */
+  pulsesPerBurst: number | null;
+  burstPulseRateHz: number | null;
   /** Further emission lines with their own power (residual pump, other harmonics); null when none. */
   lines: { wavelengthNm: number; powerMw: number }[] | null;
   beamDiameterMm: number;
@@ -119,6 +143,8 @@ export const STATUS_WORDS: Record<LaserStatus, string> = { "in-service": "In ser
 type LaserFacts = Pick<LaserView, "labelClass" | "wavelengthsNm" | "maxPowerMw" | "pulseDurationS" | "pulseRepetitionRateHz" | "beamDiameterMm" | "divergenceMrad"> & {
   lines?: LaserView["lines"];
   pulseEnergyMj?: number | null;
+  pulsesPerBurst?: number | null;
+  burstPulseRateHz?: number | null;
 };
 
 /**
@@ -137,6 +163,9 @@ export function computeClass(facts: LaserFacts): ComputedClass {
   const timing = {
     ...(facts.pulseDurationS !== null ? { pulseDurationS: facts.pulseDurationS } : {}),
     ...(facts.pulseDurationS !== null && facts.pulseRepetitionRateHz !== null ? { pulseRepetitionRateHz: facts.pulseRepetitionRateHz } : {}),
+    ...(facts.pulseDurationS !== null && facts.pulseRepetitionRateHz !== null && facts.pulsesPerBurst != null && facts.burstPulseRateHz != null
+      ? { pulsesPerBurst: facts.pulsesPerBurst, burstPulseRateHz: facts.burstPulseRateHz }
+      : {}),
   };
   try {
     for (const wavelengthNm of facts.wavelengthsNm) {
@@ -177,6 +206,8 @@ const columns = {
   pulseEnergyMj: laserRegister.pulseEnergyMj,
   pulseDurationS: laserRegister.pulseDurationS,
   pulseRepetitionRateHz: laserRegister.pulseRepetitionRateHz,
+  pulsesPerBurst: laserRegister.pulsesPerBurst,
+  burstPulseRateHz: laserRegister.burstPulseRateHz,
   lines: laserRegister.lines,
   beamDiameterMm: laserRegister.beamDiameterMm,
   divergenceMrad: laserRegister.divergenceMrad,
@@ -252,6 +283,8 @@ function values(input: LaserInput) {
     pulseEnergyMj: input.pulseEnergyMj,
     pulseDurationS: input.pulseDurationS,
     pulseRepetitionRateHz: input.pulseRepetitionRateHz,
+    pulsesPerBurst: input.pulsesPerBurst,
+    burstPulseRateHz: input.burstPulseRateHz,
     lines: input.lines,
     beamDiameterMm: input.beamDiameterMm,
     divergenceMrad: input.divergenceMrad,
@@ -384,7 +417,9 @@ export async function checkBenchAgainstRegister(db: DbOrTx, actor: Actor, docume
       pulseEnergyJ: laser.pulseEnergyJ,
       beamDiameterMm: laser.beamDiameterMm,
       divergenceMrad: entry.divergenceMrad,
-      ...(laser.pulseDurationS !== undefined ? { pulseDurationS: laser.pulseDurationS, pulseRepetitionRateHz: laser.pulseRepetitionRateHz } : {}),
+      ...(laser.pulseDurationS !== undefined
+        ? { pulseDurationS: laser.pulseDurationS, pulseRepetitionRateHz: laser.pulseRepetitionRateHz, pulsesPerBurst: laser.pulsesPerBurst, burstPulseRateHz: laser.burstPulseRateHz }
+        : {}),
     }).hazardClass;
   } catch {
     computedClass = null;

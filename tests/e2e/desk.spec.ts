@@ -27,13 +27,14 @@ async function signIn(page: Page, who: string, section: string) {
 test.beforeAll(async () => {
   pool = new pg.Pool({ connectionString: databaseUrl(), max: 1 });
   // A sign-off that ends in 12 days, signed by the demo officer on a bench of the demo researcher.
-  const { rows } = await pool.query<{ lab: string; author: string; officer: string; officer_name: string }>(
+  const { rows } = await pool.query<{ lab: string; author: string; officer: string; officer_name: string; technician: string }>(
     `select (select id from lab where name = 'Wrenfield Imaging Lab') as lab,
+            (select id from "user" where email = 'technician@northmere.example.edu') as technician,
             (select id from "user" where email = 'researcher@northmere.example.edu') as author,
             (select id from "user" where email = 'officer@northmere.example.edu') as officer,
             (select name from "user" where email = 'officer@northmere.example.edu') as officer_name`,
   );
-  const { lab, author, officer, officer_name } = rows[0];
+  const { lab, author, officer, officer_name, technician } = rows[0];
   const benchId = randomUUID();
   const revisionId = randomUUID();
   hash = randomUUID().replace(/-/g, "") + randomUUID().replace(/-/g, "");
@@ -54,6 +55,18 @@ test.beforeAll(async () => {
      values ($1, $2, 'approved', $3, $4, 'Laser safety officer', 'Approved for operation as drawn, with the conditions listed.', $5, $6, $7, '{"hazardClass":{"value":"3R"}}', true, $8)`,
     [revisionId, benchId, officer, officer_name, conditions, new Date(Date.now() + 12 * day), hash, new Date(Date.now() - 353 * day)],
   );
+  // A build of it whose screen photo, once read, showed the screen further back than drawn: a mismatch.
+  const build = await pool.query<{ id: string }>("insert into build_record (revision_id, bench_id, content_hash, technician_id) values ($1, $2, $3, $4) returning id", [revisionId, benchId, hash, technician]);
+  const buildId = build.rows[0].id;
+  const observation = await pool.query<{ id: string }>(
+    "insert into build_observation (build_id, aperture_id, centre_seen, centre_predicted, mismatch, reasons, recorded_by) values ($1, 'iris-1', 'bright', 'bright', true, $2, $3) returning id",
+    [buildId, JSON.stringify(["Screen distance: drawn 500 mm behind iris, the photo's pattern fits 640 mm (140 mm further; allowed ±15 mm)"]), technician],
+  );
+  const upload = await pool.query<{ id: string }>(
+    "insert into upload (build_id, kind, file_name, content_type, size_bytes, sha256, storage_key, uploaded_by) values ($1, 'screen-photo', 'screen.png', 'image/png', 1, 'x', 'uploads/none.png', $2) returning id",
+    [buildId, technician],
+  );
+  await pool.query("insert into photo_reading (build_id, upload_id, aperture_id, observation_id, result, prediction_engine, read_by) values ($1, $2, 'iris-1', $3, '{}', 'test', $4)", [buildId, upload.rows[0].id, observation.rows[0].id, technician]);
 });
 
 test.afterAll(async () => {
@@ -77,6 +90,15 @@ test("the auditor filters to sign-offs expiring soon, reads a trail and exports 
   await page.getByRole("button", { name: "Apply the filters" }).click();
   await expect(page.getByTestId("desk-count")).toHaveText("Showing 1–1 of 1 sign-off.");
   await page.screenshot({ path: "test-results/screenshots/desk-expiring.png", fullPage: true });
+  // The build's photo reading found a mismatch: the row says so in words, with the count, and the filter finds it.
+  await expect(table.getByTestId("desk-mismatch")).toContainText("1 observation differs from the prediction");
+  await expect(table.getByTestId("desk-mismatch")).toContainText("1 build, read from a screen photo");
+  await expect(page.getByTestId("desk-mismatch-total")).toContainText("1 of these sign-offs has a build whose observation (typed, or read from a screen photo) differs from the prediction.");
+  await page.getByTestId("desk-mismatch-total").getByRole("button", { name: "Show only those" }).click();
+  await expect(page).toHaveURL(/builds=mismatch/);
+  await expect(page.getByRole("combobox", { name: "Builds", exact: true })).toHaveValue("mismatch");
+  await expect(page.getByTestId("desk-count")).toHaveText("Showing 1–1 of 1 sign-off.");
+  await page.screenshot({ path: "test-results/screenshots/desk-mismatch.png", fullPage: true });
 
   const approvals = page.waitForEvent("download");
   await page.getByTestId("export-approvals").click();

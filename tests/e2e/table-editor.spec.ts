@@ -64,6 +64,9 @@ test("a researcher draws a folded, split bench on a table, blocks its open beams
   await expectPlace(page, 162.5, 462.5, 0);
   await (await field(page, "powerMw")).fill("20");
   await (await field(page, "powerMw")).press("Tab");
+  // the laser's own panels, as on the rail: its (absent) register link and its further lines
+  await expect(page.getByTestId("register-entry")).toHaveAttribute("data-linked", "false");
+  await expect(page.getByTestId("laser-lines").getByRole("button", { name: "Add a further line" })).toBeVisible();
 
   // A mirror clicked in lands on the beam, turned 135° so the beam folds to +y (away from the viewer).
   await page.getByTestId("table-palette-mirror").click();
@@ -154,6 +157,12 @@ test("a researcher draws a folded, split bench on a table, blocks its open beams
   await page.keyboard.press("Control+a");
   await expect(page.getByTestId("properties")).toContainText("5 elements selected: laser-1, mirror-1, splitter-1, block-1, block-2");
   await shot(page, "reloaded");
+
+  // The table keeps revisions as a rail does: make one, and the next change is listed against what was last sent.
+  await expect(page.getByTestId("changes-since-review")).toContainText("No revision of this bench has been sent for review yet, so everything on the table is new");
+  await page.getByTestId("make-revision").click();
+  await expect(page.getByTestId("revision-made")).toContainText("revision 2", { timeout: 30_000 });
+  await expect(page.getByTestId("compare-revisions")).toBeVisible();
 });
 
 test("bad input: an element typed off the table, two elements on one spot — each named in a clear message, nothing lost", async ({ page }) => {

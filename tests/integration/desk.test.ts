@@ -17,6 +17,7 @@ let pool: pg.Pool;
 let labId = "";
 const officers = { one: { id: "", name: `Ines Corran ${marker}` }, two: { id: "", name: `Pim Lowther ${marker}` } };
 const benchIds: Record<string, string> = {};
+const revisionIds: Record<string, string> = {};
 
 // Five sign-offs and one request for changes, with dates relative to now.
 type Spec = { key: string; title: string; cls: string; officer: "one" | "two"; decidedDays: number; validDays: number | null; state: string; outcome: string; conditions?: string };
@@ -32,7 +33,12 @@ const SPECS: Spec[] = [
 async function desk(query: string, who: DemoKey = "auditor") {
   const res = await call("GET", `/api/desk/approvals?lab=${labId}&${query}`, cookies[who]);
   expect(res.status, res.text).toBe(200);
-  return res.json as { rows: { title: string; hazardClass: string; signerName: string; state: string; validUntil: string; conditions: string | null }[]; total: number; pageCount: number };
+  return res.json as {
+    rows: { title: string; hazardClass: string; signerName: string; state: string; validUntil: string; conditions: string | null; builds: number; mismatches: number; photoMismatches: number }[];
+    total: number;
+    mismatchTotal: number;
+    pageCount: number;
+  };
 }
 const keys = (rows: { title: string }[]) => rows.map((r) => SPECS.find((s) => s.title === r.title)!.key).join("");
 
@@ -49,6 +55,7 @@ beforeAll(async () => {
     const benchId = randomUUID();
     const revisionId = randomUUID();
     benchIds[s.key] = benchId;
+    revisionIds[s.key] = revisionId;
     const hash = `${s.key.charCodeAt(0).toString(16)}${marker}`.padEnd(64, "0").slice(0, 64);
     const doc = { version: 1, title: s.title, elements: [{ id: "laser-1", kind: "laser", positionMm: 0, wavelengthNm: 632.8, powerMw: 1, beamDiameterMm: 0.8 }] };
     const created = new Date(now + (s.decidedDays - 5) * DAY);
@@ -74,7 +81,40 @@ beforeAll(async () => {
     );
     await pool.query("insert into review_comment (revision_id, bench_id, thread_id, author_id, author_name, author_role, body) values ($1, $2, gen_random_uuid(), $3, $4, 'Researcher', $5)", [revisionId, benchId, author.id, `Tove Marchbank ${marker}`, `Comment on ${s.key}`]);
   }
+  await recordBuilds((await createAccount(pool, { name: `Lio Brannagh ${marker}`, roles: ["technician"], labIds: [labId], password: "desk-test-password" })).id);
 });
+
+/**
+ * Builds of the signed revisions: A's build recorded a typed mismatch, a mismatch read from a screen photo and a
+ * matching observation; B's build matched; D has two builds, the second with a typed mismatch; C and E were never built.
+ */
+async function recordBuilds(technicianId: string) {
+  const build = async (key: string) => {
+    const { rows } = await pool.query<{ id: string }>("insert into build_record (revision_id, bench_id, content_hash, technician_id, state) values ($1, $2, 'x', $3, 'completed') returning id", [revisionIds[key], benchIds[key], technicianId]);
+    return rows[0].id;
+  };
+  const observe = async (buildId: string, mismatch: boolean) => {
+    const { rows } = await pool.query<{ id: string }>("insert into build_observation (build_id, aperture_id, centre_seen, centre_predicted, mismatch, reasons, recorded_by) values ($1, 'iris', 'dark', 'bright', $2, $3, $4) returning id", [
+      buildId,
+      mismatch,
+      JSON.stringify(mismatch ? ["Centre: predicted bright, seen dark"] : []),
+      technicianId,
+    ]);
+    return rows[0].id;
+  };
+  const a = await build("A");
+  await observe(a, true);
+  await observe(a, false);
+  const fromPhoto = await observe(a, true);
+  const { rows: up } = await pool.query<{ id: string }>(
+    "insert into upload (build_id, kind, file_name, content_type, size_bytes, sha256, storage_key, uploaded_by) values ($1, 'screen-photo', 'screen.png', 'image/png', 1, 'x', 'uploads/none.png', $2) returning id",
+    [a, technicianId],
+  );
+  await pool.query("insert into photo_reading (build_id, upload_id, aperture_id, observation_id, result, prediction_engine, read_by) values ($1, $2, 'iris', $3, '{}', 'test', $4)", [a, up[0].id, fromPhoto, technicianId]);
+  await observe(await build("B"), false);
+  await build("D");
+  await observe(await build("D"), true);
+}
 
 afterAll(async () => {
   await pool?.end();
@@ -105,6 +145,24 @@ describe("approvals list: filters, sorting, paging", () => {
     expect(keys((await desk("expiring=30")).rows)).toBe("DB");
     expect(keys((await desk("expiring=90")).rows)).toBe("DB"); // E ends within 90 days too, but it is superseded: no longer in force
     expect(keys((await desk(`class=3B&officer=${officers.two.id}&expiring=15`)).rows)).toBe("B");
+  });
+
+  it("flags each sign-off whose builds recorded an observation that differs from the prediction, with the counts, and filters to them", async () => {
+    const all = await desk("");
+    const byKey = Object.fromEntries(all.rows.map((r) => [SPECS.find((s) => s.title === r.title)!.key, r]));
+    expect(byKey.A).toMatchObject({ builds: 1, mismatches: 2, photoMismatches: 1 });
+    expect(byKey.B).toMatchObject({ builds: 1, mismatches: 0, photoMismatches: 0 });
+    expect(byKey.D).toMatchObject({ builds: 2, mismatches: 1, photoMismatches: 0 });
+    expect(byKey.C).toMatchObject({ builds: 0, mismatches: 0 });
+    expect(all.mismatchTotal).toBe(2);
+    const only = await desk("builds=mismatch");
+    expect(keys(only.rows)).toBe("DA");
+    expect(only.total).toBe(2);
+    expect(keys((await desk("builds=mismatch&class=3B")).rows)).toBe("D");
+    expect((await desk("class=2")).mismatchTotal).toBe(1); // A (E of class 2 was never built)
+    const bad = await call("GET", `/api/desk/approvals?lab=${labId}&builds=some`, cookies.auditor);
+    expect(bad.status).toBe(400);
+    expect((bad.json!.error as { fields: { path: string }[] }).fields[0].path).toBe("builds");
   });
 
   it("searches inside titles, case-insensitively, with LIKE characters taken literally", async () => {
@@ -171,10 +229,11 @@ describe("CSV exports", () => {
     expect(res.headers.get("content-disposition")).toMatch(/attachment; filename="sign-offs-\d{4}-\d{2}-\d{2}\.csv"/);
     const text = (await res.text()).replace(/^\uFEFF/, "");
     const lines = text.trimEnd().split("\r\n");
-    expect(lines[0]).toBe("signed_at_utc,bench,lab,revision,content_hash,state,state_words,hazard_class_at_signing,signed_by,signer_role,signature_meaning,conditions,valid_until_utc,password_reentered,bench_id,revision_id,decision_id");
+    expect(lines[0]).toBe("signed_at_utc,bench,lab,revision,content_hash,state,state_words,hazard_class_at_signing,signed_by,signer_role,signature_meaning,conditions,valid_until_utc,password_reentered,bench_id,revision_id,decision_id,builds,observations_differing,of_which_read_from_a_photo");
     expect(lines).toHaveLength(6);
     const order = lines.slice(1).map((l) => SPECS.find((s) => l.includes(s.title))!.key).join("");
     expect(order).toBe("DBAEC");
+    expect(lines.find((l) => l.includes(SPECS[0].title))!.endsWith(",1,2,1")).toBe(true); // A: one build, two observations differ, one read from a photo
     expect(text).toContain(`"Eyewear OD 2 at 633 nm, ""always"", on"`); // quotes doubled, commas quoted
     expect(text).toContain("'=1+1 keep the door shut"); // a leading = cannot run as a formula in a spreadsheet
     const { rows } = await pool.query("select detail from audit_event where action = 'desk-exported-approvals' and detail->'filters'->>'lab' = $1", [labId]);

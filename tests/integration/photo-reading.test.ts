@@ -127,6 +127,13 @@ describe("reading a screen photo against the prediction", () => {
     const trail = await call("GET", `/api/desk/benches/${benchId}/trail`, cookie.auditor);
     expect(trail.status, trail.text).toBe(200);
     expect(trail.text).toContain("build-photo-read");
+
+    // The sign-off desk flags the signed revision: one observation differs, read from a screen photo.
+    const desk = await call("GET", `/api/desk/approvals?q=${encodeURIComponent(title)}&builds=mismatch`, cookie.auditor);
+    expect(desk.status, desk.text).toBe(200);
+    const deskRows = (desk.json as { rows: { revisionId: string; builds: number; mismatches: number; photoMismatches: number }[] }).rows;
+    expect(deskRows.map((row) => row.revisionId)).toEqual([revisionId]);
+    expect(deskRows[0]).toMatchObject({ builds: 1, mismatches: 1, photoMismatches: 1 });
   });
 
   it("a blank photo is kept refused, with the sentence saying why, and records no observation", async () => {
@@ -139,6 +146,102 @@ describe("reading a screen photo against the prediction", () => {
     expect(reading.result).toBeNull();
     expect(reading.observationId).toBeNull();
     expect(reading.mismatch).toBeNull();
+  });
+});
+
+describe("a table's build: the photo is read against the path to the screen it shows", () => {
+  // A HeNe on a 3 mm iris 300 mm from the laser; a 50/50 splitter 200 mm further sends half up to screen-A (600 mm
+  // from the iris along the beam) and half on to screen-B (700 mm). Unfolded, each is the straight bench the renderer draws.
+  const tableBench = (screenDistanceMm: number): SyntheticBench => ({ wavelengthNm: 632.8, beamDiameterMm: 4, lenses: [], aperturePositionMm: 300, apertureDiameterMm: 3, screenDistanceMm });
+  const tableDoc = {
+    version: 2,
+    title: `Photo table ${run}`,
+    table: { widthMm: 1200, depthMm: 900, holePitchMm: 25 },
+    elements: [
+      { id: "hene", kind: "laser", xMm: 100, yMm: 100, angleDeg: 0, wavelengthNm: 632.8, powerMw: 1, beamDiameterMm: 4 },
+      { id: "iris", kind: "aperture", xMm: 400, yMm: 100, angleDeg: 180, diameterMm: 3 },
+      { id: "BS", kind: "beam-splitter", xMm: 600, yMm: 100, angleDeg: 135, reflectance: 0.5 },
+      { id: "screen-A", kind: "screen", xMm: 600, yMm: 500, angleDeg: 270 },
+      { id: "screen-B", kind: "screen", xMm: 1100, yMm: 100, angleDeg: 180 },
+    ],
+  };
+  let tableBuildId = "";
+  const tablePhoto = (screenDistanceMm: number, seed: number) => {
+    const b = tableBench(screenDistanceMm);
+    return png(renderPhoto(b, defaultPhoto({ widthPx: 720, heightPx: 540, centrePx: { x: 350.4, y: 280.2 }, mmPerPixel: truePattern(b).shadowRadiusMm / 160, blurPx: 1.2, noiseLevels: 2, seed })));
+  };
+  const uploadTo = async (name: string, bytes: Buffer) => {
+    const saved = buildId;
+    buildId = tableBuildId;
+    try {
+      return await upload(name, "image/png", bytes);
+    } finally {
+      buildId = saved;
+    }
+  };
+  const readTable = (body: unknown) => call("POST", `/api/builds/${tableBuildId}/photo-reading`, cookie.technician, body);
+
+  beforeAll(async () => {
+    const labId = await labIdByName(cookie.researcher, "Wrenfield Imaging Lab");
+    const b = await createDrawnBench(pool, cookie.researcher, labId, tableDoc as unknown as Parameters<typeof createDrawnBench>[3]);
+    expect((await call("POST", `/api/revisions/${b.revisionId}/submit`, cookie.researcher, { contentHash: b.contentHash })).status).toBe(200);
+    const decided = await call("POST", `/api/revisions/${b.revisionId}/decision`, cookie.officer, { outcome: "approve", contentHash: b.contentHash, password: DEMO_PASSWORD });
+    expect(decided.status, decided.text).toBe(201);
+    const started = await call("POST", "/api/builds", cookie.technician, { revisionId: b.revisionId });
+    expect(started.status, started.text).toBe(201);
+    tableBuildId = (started.json!.build as Json).id as string;
+    // The workspace is offered both screens behind the iris.
+    const { apertures } = (started.json!.build as Json).predictions as { apertures: { apertureId: string; screenIds?: string[] }[] };
+    expect(apertures.find((a) => a.apertureId === "iris")?.screenIds).toEqual(["screen-A", "screen-B"]);
+  });
+
+  it("asks which screen the photo shows when the light reaches two, naming both, and refuses a screen it does not reach", async () => {
+    const up = await uploadTo("which.png", tablePhoto(600, 11));
+    expect(up.status).toBe(201);
+    const res = await readTable({ uploadId: up.id, apertureId: "iris" });
+    expect(res.status, res.text).toBe(400);
+    expect(errorOf(res).message).toBe("The light through iris reaches 2 screens (screen-A, screen-B); say which one the photo shows.");
+    expect(errorOf(res).fields[0].path).toBe("screenId");
+    const wrong = await readTable({ uploadId: up.id, apertureId: "iris", screenId: "screen-Z" });
+    expect(wrong.status).toBe(400);
+    expect(errorOf(wrong).message).toMatch(/^The light through iris reaches screen-A and screen-B, not "screen-Z"/);
+    expect(errorOf(wrong).fields[0].path).toBe("screenId");
+  });
+
+  it("reads a photo of screen-A against that path's prediction: a match, recorded under the table's own names", async () => {
+    const up = await uploadTo("screen-a.png", tablePhoto(600, 12));
+    const res = await readTable({ uploadId: up.id, apertureId: "iris", screenId: "screen-A" });
+    expect(res.status, res.text).toBe(201);
+    const reading = res.json!.reading as Reading;
+    expect(reading.refusal).toBeNull();
+    const r = reading.result as { zoneCount: number; screenDistanceMm: number; drawnDistanceMm: number; screenId: string; pathId: string };
+    const n = truePattern(tableBench(600)).fresnelNumber;
+    expect(Math.abs(r.zoneCount - n)).toBeLessThanOrEqual(0.1 + 0.01 * n);
+    expect(r.drawnDistanceMm).toBe(600);
+    expect(Math.abs(r.screenDistanceMm - 600)).toBeLessThanOrEqual(0.03 * 600);
+    expect(r).toMatchObject({ screenId: "screen-A", pathId: "p1" });
+    expect(reading.mismatch).toBe(false);
+    const build = res.json!.build as { observations: Json[] };
+    const observation = build.observations.find((o) => o.id === reading.observationId)!;
+    expect(observation).toMatchObject({ apertureId: "iris", mismatch: false });
+    expect(String(observation.note)).toMatch(/behind iris \(drawn 600 mm\)/);
+    expect(String(observation.note)).not.toContain("⟨");
+  });
+
+  it("a photo of screen-B read as screen-A is a mismatch in the table's words: 700 mm against 600 drawn", async () => {
+    const up = await uploadTo("screen-b.png", tablePhoto(700, 13));
+    const res = await readTable({ uploadId: up.id, apertureId: "iris", screenId: "screen-A" });
+    expect(res.status, res.text).toBe(201);
+    const reading = res.json!.reading as Reading;
+    expect(reading.mismatch).toBe(true);
+    // 5.1 zones against 5.9: the centre turns from dark to bright as well.
+    expect(reading.reasons).toContain("Centre: predicted dark, the photo shows bright.");
+    expect(reading.reasons.join(" ")).toMatch(/Screen distance: drawn 600 mm behind iris, the photo's pattern fits (6[89]\d|7[01]\d) mm \([\d.]+ mm further; allowed ±\d+ mm\)/);
+    const again = await uploadTo("screen-b-again.png", tablePhoto(700, 14));
+    const asB = await readTable({ uploadId: again.id, apertureId: "iris", screenId: "screen-B" });
+    expect(asB.status, asB.text).toBe(201);
+    expect((asB.json!.reading as Reading).mismatch).toBe(false);
+    expect(((asB.json!.reading as Reading).result as { drawnDistanceMm: number }).drawnDistanceMm).toBe(700);
   });
 });
 

@@ -18,6 +18,14 @@ describe("the desk page's address with a filter it cannot read", () => {
     expect(query).toMatchObject({ state: "approved", from: "2026-05-01", to: undefined, lab: undefined, expiringDays: undefined });
   });
 
+  it("reads the builds filter and drops a value it does not know, by name", () => {
+    expect(deskQueryKeepingGoodFilters(deskQueryFromParams(new URLSearchParams({ builds: "mismatch" }))).query.builds).toBe("mismatch");
+    const { query, dropped } = deskQueryKeepingGoodFilters(deskQueryFromParams(new URLSearchParams({ builds: "some", state: "approved" })));
+    expect(dropped.map((d) => d.field)).toEqual(["builds"]);
+    expect(dropped[0].message).toMatch(/builds must be mismatch/);
+    expect(query).toMatchObject({ state: "approved", builds: undefined });
+  });
+
   it("drops nothing from a good address", () => {
     const { dropped, query } = deskQueryKeepingGoodFilters(deskQueryFromParams(new URLSearchParams({ state: "approved", page: "2" })));
     expect(dropped).toEqual([]);

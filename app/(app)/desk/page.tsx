@@ -61,7 +61,7 @@ export default async function DeskPage({ searchParams }: { searchParams: SearchP
         </p>
       ) : null}
       <DeskFilters key={JSON.stringify(query)} labs={options.labs} officers={options.officers} />
-      <ApprovalsTable rows={page.rows} total={page.total} page={page.page} pageSize={page.pageSize} pageCount={page.pageCount} sort={query.sort} dir={query.dir} nowIso={now.toISOString()} />
+      <ApprovalsTable rows={page.rows} total={page.total} mismatchTotal={page.mismatchTotal} page={page.page} pageSize={page.pageSize} pageCount={page.pageCount} sort={query.sort} dir={query.dir} nowIso={now.toISOString()} />
       {mayExport ? <p className="text-sm text-muted">The export holds every sign-off that matches the filters (not only this page), newest first; each export is recorded in the audit trail.</p> : null}
     </div>
   );

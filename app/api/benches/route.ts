@@ -1,6 +1,7 @@
 import { getDb } from "@/db";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
-import { createBench, createBenchInput, listBenches } from "@/lib/server/benches";
+import { createBenchInput } from "@/lib/api/contracts/benches";
+import { createBench, listBenches } from "@/lib/server/benches";
 
 export const GET = apiRoute({ bench: ["read"] }, async ({ actor }) => ({ benches: await listBenches(getDb(), actor) }));
 

@@ -12,7 +12,9 @@ import { ELEMENT_KIND_RECORDS } from "@/lib/bench/element-kinds";
 import { benchDocumentV2Schema, TABLE_ELEMENT_KINDS, type BenchDocumentV2, type TableElement, type TableElementKind } from "@/lib/bench/schema-v2";
 import { StateBadge } from "@/components/ui/state-badge";
 import { SubmitForReview } from "@/components/review/submit-for-review";
-import { ConflictDialog } from "../conflict-dialog";
+import { ChangesSinceReview } from "../changes-since-review";
+import { EditorNotices } from "../editor-notices";
+import { RevisionsPanel } from "../revisions-panel";
 import { ImportExport } from "../import-export";
 import { documentKey } from "../document-key";
 import { LaserPicker } from "../laser-picker";
@@ -24,7 +26,7 @@ import { MARGIN_PX, tableLeftPx, tableScale, type DrawnBeam, type Place } from "
 import { traceBeams } from "./table-engine";
 import { arrowDelta, HOLE_PITCHES, movedBy, placementFor, snapPlacement, turnBy, type BeamSegment, type SnapMode } from "./table-geometry";
 import { BeamFigures, TableElementList, TableProperties, TableSafety } from "./table-panels";
-import { initialTableState, tableReducer } from "./table-reducer";
+import { initialTableState, tableReducer, type TablePatch } from "./table-reducer";
 import { useTablePredictions } from "./use-table-predictions";
 
 const TableCanvas = dynamic(() => import("./table-canvas").then((m) => m.TableCanvas), {
@@ -103,7 +105,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
 
   const selected = useMemo(() => doc.elements.filter((e) => selection.includes(e.id)), [doc.elements, selection]);
 
-  const add = (kind: TableElementKind, at?: { xMm: number; yMm: number; angleDeg: number }, values?: Record<string, number | string | undefined>) => {
+  const add = (kind: TableElementKind, at?: { xMm: number; yMm: number; angleDeg: number }, values?: TablePatch) => {
     if (!canEdit) return;
     dispatch({ type: "add", kind, at: at ?? placementFor(kind, doc, traced), values });
     if (kind === "laser") setLaserChooserOpen(false);
@@ -193,28 +195,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
         </div>
       </header>
 
-      {!canEdit ? (
-        <p className="rounded-md border border-line bg-panel px-3 py-2 text-sm" data-testid="read-only-note">
-          <span aria-hidden="true">◇ </span>Read only: you can look at the table and the predictions, but only researchers of {labName} can change this bench.
-        </p>
-      ) : baseState !== "draft" ? (
-        <p className="rounded-md border border-warn/60 bg-panel px-3 py-2 text-sm">
-          Revision {save.base.revisionNumber} is no longer a draft, so it stays exactly as it is: your first change starts revision {save.base.revisionNumber + 1} as a new draft.
-        </p>
-      ) : null}
-
-      {save.state.kind === "conflict" ? (
-        <ConflictDialog
-          mine={doc}
-          current={save.state.current}
-          message={save.state.message}
-          onKeepMine={save.keepMine}
-          onTakeTheirs={() => {
-            const theirs = save.takeTheirs();
-            if (theirs && theirs.version === 2) dispatch({ type: "replace", doc: theirs });
-          }}
-        />
-      ) : null}
+      <EditorNotices doc={doc} save={save} canEdit={canEdit} labName={labName} what="the table" onTakeTheirs={(theirs) => dispatch({ type: "replace", doc: theirs as BenchDocumentV2 })} />
 
       <div className="flex flex-col gap-2 rounded-lg border border-line bg-panel p-2">
         <div className="flex flex-wrap items-center justify-between gap-2">
@@ -383,7 +364,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
       <div className="grid gap-4 lg:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
         <div className="flex flex-col gap-4">
           {selectedBeam ? <BeamFigures table={doc.table} pathId={selectedBeam} predictions={predictions.data} onClose={() => setSelectedBeam(null)} /> : null}
-          <TableProperties doc={doc} selected={selected} canEdit={canEdit} dispatch={dispatch} />
+          <TableProperties doc={doc} selected={selected} canEdit={canEdit} dispatch={dispatch} labId={initial.labId} labName={labName} />
           <TableElementList elements={doc.elements} selection={selection} flagged={flagged} dispatch={dispatch} />
           <SubmitForReview
             revisionId={save.base.revisionId}
@@ -394,6 +375,8 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
               save.adopt(fresh);
             }}
           />
+          <RevisionsPanel benchId={benchId} canEdit={canEdit} doc={doc} base={save.base} saveState={save.state} onMade={save.adopt} />
+          <ChangesSinceReview benchId={benchId} doc={doc} />
         </div>
         <div className={staleLook ? "opacity-80" : ""} data-testid="predictions" data-stale={staleLook} data-source={predictions.source ?? "none"} data-live-runs={predictions.liveRuns}>
           <TableSafety table={doc.table} predictions={predictions.data} stale={staleLook} onBeam={setSelectedBeam} />

@@ -7,7 +7,11 @@ import { ELEMENT_KIND_RECORDS, tableFieldsOf } from "@/lib/bench/element-kinds";
 import { benchDocumentV2Schema, type BenchDocumentV2, type TableElement, type TableGeometry } from "@/lib/bench/schema-v2";
 import { HazardNotes } from "@/components/ui/hazard-notes";
 import { plainText } from "@/lib/format";
+import type { LaserElement } from "@/lib/bench/schema";
+import type { EditorAction } from "../editor-reducer";
+import { LaserLines } from "../laser-lines";
 import { NumberField } from "../number-field";
+import { RegisterEntryBox } from "../register-entry";
 import { holeOf } from "./table-geometry";
 import { powerText } from "./table-canvas";
 import type { TablePredictions } from "./table-engine";
@@ -48,9 +52,9 @@ function checkTableField(doc: BenchDocumentV2, element: TableElement, key: strin
   };
 }
 
-type PropertiesProps = { doc: BenchDocumentV2; selected: TableElement[]; canEdit: boolean; dispatch: (a: TableAction) => void };
+type PropertiesProps = { doc: BenchDocumentV2; selected: TableElement[]; canEdit: boolean; dispatch: (a: TableAction) => void; labId: string; labName: string };
 
-export const TableProperties = memo(function TableProperties({ doc, selected, canEdit, dispatch }: PropertiesProps) {
+export const TableProperties = memo(function TableProperties({ doc, selected, canEdit, dispatch, labId, labName }: PropertiesProps) {
   if (selected.length === 0) {
     return (
       <section aria-labelledby="table-props-heading" className="rounded-lg border border-line bg-panel p-4">
@@ -80,6 +84,12 @@ export const TableProperties = memo(function TableProperties({ doc, selected, ca
     { key: "angleDeg", label: element.kind === "laser" ? "Beam direction" : "Face normal", unit: "°", step: 1, hint: "Counter-clockwise from +x (to the right)." },
   ];
   const fields = [...place, ...tableFieldsOf(element.kind)];
+  // A laser on the table carries the rail laser's fields (and a place instead of a rail position): the register link and
+  // the further lines are the rail editor's own panels, whose "update" action the table's reducer takes as it is.
+  const laser = element.kind === "laser" ? (element as unknown as LaserElement) : null;
+  const laserDispatch = (action: EditorAction) => {
+    if (action.type === "update") dispatch(action);
+  };
   return (
     <section aria-labelledby="table-props-heading" className="rounded-lg border border-line bg-panel p-4" data-testid="properties">
       <h2 id="table-props-heading" className="mb-1 text-lg font-semibold">
@@ -88,6 +98,11 @@ export const TableProperties = memo(function TableProperties({ doc, selected, ca
       <p className="mb-3 text-sm text-muted">
         {record.effect} {hole ? `On hole ${hole.column}, row ${hole.row}.` : "Between holes."}
       </p>
+      {laser ? (
+        <div className="mb-3">
+          <RegisterEntryBox laser={laser} labId={labId} labName={labName} canEdit={canEdit} dispatch={laserDispatch} />
+        </div>
+      ) : null}
       <div className="grid gap-3 sm:grid-cols-2">
         {fields.map((f) => (
           <NumberField
@@ -105,6 +120,7 @@ export const TableProperties = memo(function TableProperties({ doc, selected, ca
           />
         ))}
       </div>
+      {laser ? <LaserLines laser={laser} canEdit={canEdit} dispatch={laserDispatch} /> : null}
     </section>
   );
 });

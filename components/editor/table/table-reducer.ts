@@ -4,17 +4,13 @@
 import { ELEMENT_KIND_RECORDS } from "@/lib/bench/element-kinds";
 import type { BenchDocument } from "@/lib/bench/schema";
 import type { BenchDocumentV2, TableElement, TableElementKind, TableGeometry } from "@/lib/bench/schema-v2";
+import { commit, historyReducer, initialHistory, type HistoryAction, type HistoryState } from "../history";
 import { normalDeg, railOnTable, roundDeg, roundMm, type PointMm } from "./table-geometry";
 
-export const HISTORY_LIMIT = 200;
+export { HISTORY_LIMIT } from "../history";
 
-export type TableEditorState = {
-  doc: BenchDocumentV2;
-  past: BenchDocumentV2[];
-  future: BenchDocumentV2[];
-  selection: string[];
-  lastCoalesce: string | null;
-};
+
+export type TableEditorState = HistoryState<BenchDocumentV2>;
 
 /** Field values to set on an element; undefined removes an optional field. */
 export type TablePatch = Partial<Record<string, number | string | readonly { wavelengthNm: number; powerMw: number }[] | undefined>>;
@@ -26,13 +22,9 @@ export type TableAction =
   | { type: "remove" }
   | { type: "set-title"; title: string; coalesce?: string }
   | { type: "set-table"; table: Partial<TableGeometry>; coalesce?: string }
-  | { type: "replace"; doc: BenchDocumentV2 }
-  | { type: "select"; ids: string[] }
-  | { type: "toggle-select"; id: string }
-  | { type: "undo" }
-  | { type: "redo" };
+  | HistoryAction<BenchDocumentV2>;
 
-export const initialTableState = (doc: BenchDocumentV2): TableEditorState => ({ doc, past: [], future: [], selection: [], lastCoalesce: null });
+export const initialTableState = (doc: BenchDocumentV2): TableEditorState => initialHistory(doc);
 
 /** The next free id for a kind: its prefix and one more than the highest number in use ("mirror-3"). */
 export function nextTableId(kind: TableElementKind, elements: readonly { id: string }[]): string {
@@ -68,14 +60,6 @@ function applyPatch(element: TableElement, patch: TablePatch): TableElement {
   return next as TableElement;
 }
 
-function commit(state: TableEditorState, doc: BenchDocumentV2, coalesce: string | null = null, selection = state.selection): TableEditorState {
-  const merging = coalesce !== null && coalesce === state.lastCoalesce;
-  const past = merging ? state.past : [...state.past, state.doc].slice(-HISTORY_LIMIT);
-  return { doc, past, future: [], selection, lastCoalesce: coalesce };
-}
-
-const keepExisting = (selection: string[], doc: BenchDocumentV2) => selection.filter((id) => doc.elements.some((e) => e.id === id));
-
 export function tableReducer(state: TableEditorState, action: TableAction): TableEditorState {
   const { doc } = state;
   switch (action.type) {
@@ -102,26 +86,8 @@ export function tableReducer(state: TableEditorState, action: TableAction): Tabl
       return commit(state, { ...doc, title: action.title === "" ? undefined : action.title }, action.coalesce ?? null);
     case "set-table":
       return commit(state, { ...doc, table: { ...doc.table, ...action.table } }, action.coalesce ?? null);
-    case "replace":
-      return commit(state, action.doc, null, keepExisting(state.selection, action.doc));
-    case "select":
-      return { ...state, selection: action.ids, lastCoalesce: null };
-    case "toggle-select":
-      return {
-        ...state,
-        selection: state.selection.includes(action.id) ? state.selection.filter((s) => s !== action.id) : [...state.selection, action.id],
-        lastCoalesce: null,
-      };
-    case "undo": {
-      const previous = state.past.at(-1);
-      if (!previous) return state;
-      return { doc: previous, past: state.past.slice(0, -1), future: [state.doc, ...state.future], selection: keepExisting(state.selection, previous), lastCoalesce: null };
-    }
-    case "redo": {
-      const next = state.future[0];
-      if (!next) return state;
-      return { doc: next, past: [...state.past, state.doc], future: state.future.slice(1), selection: keepExisting(state.selection, next), lastCoalesce: null };
-    }
+    default:
+      return historyReducer(state, action);
   }
 }
 

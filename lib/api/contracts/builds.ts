@@ -121,6 +121,8 @@ export const uploadKindInput = z.enum(UPLOAD_KINDS, { error: `Say what the file 
 export const photoReadingInput = z.object({
   uploadId: z.uuid({ error: "Choose the uploaded photo of the screen to read" }),
   apertureId: safeText({ error: "Say which aperture's pattern the photo shows" }).min(1, "Say which aperture's pattern the photo shows").max(64, "The aperture's id is at most 64 characters"),
+  /** On a table whose aperture sends light to several screens: the screen the photo shows. */
+  screenId: safeText({ error: "Say which screen the photo shows" }).min(1, "Say which screen the photo shows").max(64, "The screen's id is at most 64 characters").optional(),
 });
 
 type Centre = "bright" | "dark" | "between";
@@ -129,6 +131,9 @@ type Centre = "bright" | "dark" | "between";
 export type PhotoReadingResult = {
   centre: Centre;
   centrePredicted: Centre;
+  /** The screen the photo shows (absent in readings kept before it was recorded) and, on a table, the beam the aperture stands on. */
+  screenId?: string;
+  pathId?: string;
   centrePx: { x: number; y: number };
   imageWidthPx: number;
   imageHeightPx: number;

@@ -5,6 +5,8 @@ import { describe, expect, it } from "vitest";
 import type { BenchDocument, LaserElement } from "@/lib/bench/schema";
 import { benchDocumentSchema } from "@/lib/bench/schema";
 import { editorReducer, initialEditorState } from "@/components/editor/editor-reducer";
+import { analyzeBench } from "@/lib/optics";
+import { assessBench } from "@/lib/safety";
 import { laserValuesFrom, listsWavelength, registerMismatches, type RegisterEntry } from "@/components/editor/register-check";
 
 const heNe: RegisterEntry = {
@@ -73,5 +75,68 @@ describe("what the drawing asks that the register does not list", () => {
     expect(registerMismatches(laserAt({ beamDiameterMm: 0.87 }), heNe)).toEqual([]);
     expect(registerMismatches(laserAt({ beamDiameterMm: 0.5 }), heNe).map((m) => m.code)).toEqual(["diameter-differs"]);
     expect(registerMismatches(laserAt({}), { ...heNe, status: "out-of-service" }).map((m) => m.code)).toEqual(["laser-not-in-service"]);
+  });
+});
+
+describe("a pulsed register entry on the bench", () => {
+  // An invented burst-mode fibre laser: 10 µJ pulses of 10 ns, 10 pulses per burst at 1 MHz inside the burst, 1 000 bursts
+  // per second, so 10 000 pulses per second on average and 100 mW average power (10 µJ × 10 kHz).
+  const burstLaser: RegisterEntry = {
+    ...heNe,
+    id: "5a3f2b9e-0000-4000-8000-000000000003",
+    model: "Northmere Photonics BF-2",
+    labelClass: "4",
+    wavelengthsNm: [1064],
+    maxPowerMw: 100,
+    beamDiameterMm: 2,
+    pulseEnergyMj: 0.01,
+    pulseDurationS: 1e-8,
+    pulseRepetitionRateHz: 1e4,
+    pulsesPerBurst: 10,
+    burstPulseRateHz: 1e6,
+  };
+  const onBench = (entry: RegisterEntry) => editorReducer(initialEditorState({ version: 1, elements: [] }), { type: "add", kind: "laser", positionMm: 0, values: laserValuesFrom(entry) }).doc;
+
+  it("a laser in bursts keeps its bursts, its average rate and its energy (energy × rate agrees with the maximum power)", () => {
+    const doc = onBench(burstLaser);
+    expect(doc.elements[0]).toEqual({ id: "laser-1", kind: "laser", positionMm: 0, registerId: burstLaser.id, wavelengthNm: 1064, powerMw: 100, beamDiameterMm: 2, pulseDurationS: 1e-8, pulseRepetitionRateHz: 1e4, pulseEnergyJ: 1e-5, pulsesPerBurst: 10, burstPulseRateHz: 1e6 });
+    // The bench document's own rules accept what the register accepted.
+    expect(benchDocumentSchema.safeParse(doc).success).toBe(true);
+    // And the hazard engine weighs it as bursts (the burst rule among its rules).
+    const a = assessBench(doc as BenchDocument, analyzeBench(doc as BenchDocument));
+    expect(a.laser.pulsedMpe?.rules.map((r) => r.rule)).toContain("burst");
+    expect(a.laser.notes.join(" ")).toMatch(/Pulses in bursts/);
+  });
+
+  it("re-picking a continuous laser clears the energy and the burst fields too", () => {
+    const doc: BenchDocument = { version: 1, elements: [laserAt({ ...laserValuesFrom(burstLaser) })] };
+    const laser = editorReducer(initialEditorState(doc), { type: "update", id: "laser-1", patch: laserValuesFrom(heNe) }).doc.elements[0] as Record<string, unknown>;
+    for (const key of ["pulseEnergyJ", "pulseDurationS", "pulseRepetitionRateHz", "pulsesPerBurst", "burstPulseRateHz"]) expect(key in laser, key).toBe(false);
+    expect(laser.powerMw).toBe(0.95);
+  });
+
+  it("a single pulse with an energy is entered by its energy, with no average power", () => {
+    const single: RegisterEntry = { ...burstLaser, pulseEnergyMj: 200, pulseRepetitionRateHz: null, pulsesPerBurst: null, burstPulseRateHz: null };
+    const laser = onBench(single).elements[0] as Record<string, unknown>;
+    expect(laser).toMatchObject({ pulseEnergyJ: 0.2, pulseDurationS: 1e-8 });
+    expect("powerMw" in laser).toBe(false);
+    expect(benchDocumentSchema.safeParse(onBench(single)).success).toBe(true);
+  });
+
+  it("energy × rate and maximum power that disagree: the reading with the larger energy per pulse is kept", () => {
+    // 50 µJ × 10 kHz = 500 mW, above the listed 100 mW: the energy and rate are kept (the editor then warns of the power).
+    const moreEnergy = onBench({ ...burstLaser, pulseEnergyMj: 0.05 }).elements[0] as Record<string, unknown>;
+    expect(moreEnergy).toMatchObject({ pulseEnergyJ: 5e-5, pulseRepetitionRateHz: 1e4 });
+    expect("powerMw" in moreEnergy).toBe(false);
+    // 1 µJ × 10 kHz = 10 mW, below 100 mW: the maximum power alone (10 µJ per pulse from 100 mW ÷ 10 kHz).
+    const lessEnergy = onBench({ ...burstLaser, pulseEnergyMj: 0.001 }).elements[0] as Record<string, unknown>;
+    expect(lessEnergy).toMatchObject({ powerMw: 100, pulseRepetitionRateHz: 1e4 });
+    expect("pulseEnergyJ" in lessEnergy).toBe(false);
+    for (const e of [0.05, 0.001]) expect(benchDocumentSchema.safeParse(onBench({ ...burstLaser, pulseEnergyMj: e })).success).toBe(true);
+  });
+
+  it("further lines listed in the register come along", () => {
+    const laser = onBench({ ...burstLaser, lines: [{ wavelengthNm: 808, powerMw: 5 }] }).elements[0] as Record<string, unknown>;
+    expect(laser.lines).toEqual([{ wavelengthNm: 808, powerMw: 5 }]);
   });
 });

@@ -175,6 +175,35 @@ describe("photos without a usable pattern are refused with a sentence", { timeou
     }
   });
 
+  it("refuses a dark photo lit only by uneven room light, saying that no ring pattern stands out of the room light", () => {
+    // The laser off (exposure 0): room light with a gradient across the photo, at several strengths and directions.
+    // Before, such photos were read as about 7.5 zones with quality 0.9, or refused as a disc running off the photo.
+    for (const [roomLight, roomLightGradient, noiseLevels, seed] of [
+      [0.02, 0.1, 2, 1],
+      [0.02, 0.3, 2, 2],
+      [0.05, 0.5, 3, 1],
+      [0.01, 0.05, 1, 3],
+      [0.1, 0.6, 2, 1],
+      [0.2, 0.8, 2, 2],
+    ]) {
+      const e = refusal(renderPhoto(heneBench(450), defaultPhoto({ exposure: 0, roomLight, roomLightGradient, noiseLevels, seed })));
+      expect(e.code, `room light ${roomLight}, gradient ${roomLightGradient}, seed ${seed}`).toBe("room-light");
+      expect(e.message).toMatch(/^No ring pattern stands out of the room light: /);
+      expect(e.message).not.toMatch(/runs off the photo|zones/);
+    }
+  });
+
+  it("refuses a faint pattern under room light stronger than it, rather than reading it wrongly", () => {
+    // Exposure 0.3 under room light 0.2 with a 0.3 gradient: the rings are there but the room light outweighs them
+    // (read before as 8.3 zones where the photo held 10.5).
+    const e = refusal(renderPhoto(heneBench(450), defaultPhoto({ exposure: 0.3, roomLight: 0.2, roomLightGradient: 0.3, mmPerPixel: 0.012 })));
+    expect(e.code).toBe("room-light");
+  });
+
+  it("still reads a clear pattern under the same room light", () => {
+    expectReading(heneBench(450), 450, defaultPhoto({ exposure: 1.3, roomLight: 0.1, roomLightGradient: 0.2, mmPerPixel: 0.012 }));
+  });
+
   it("refuses a photo whose lit disc runs off every side", () => {
     const e = refusal(renderPhoto(heneBench(450), defaultPhoto({ widthPx: 200, heightPx: 200, centrePx: { x: 100, y: 100 }, mmPerPixel: 0.006, seed: 9 })));
     expect(["no-edge", "no-match"]).toContain(e.code);

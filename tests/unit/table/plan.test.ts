@@ -7,7 +7,7 @@ import type { BenchDocumentV2 } from "@/lib/bench/schema-v2";
 import { analyzeBench } from "@/lib/optics";
 import { assessBench } from "@/lib/safety";
 import { tablePlan } from "@/components/table/table-plan-geometry";
-import { TablePlan } from "@/components/table/table-plan";
+import { numberedHoles, TablePlan } from "@/components/table/table-plan";
 
 const doc: BenchDocumentV2 = {
   version: 2,
@@ -56,5 +56,20 @@ describe("table plan", () => {
     expect(html).toContain("data-open-beam=");
     expect(html).toContain("leaves the table (circled)");
     expect(html).not.toMatch(/⟨/);
+  });
+
+  it("numbers the holes along the front and left edges on request: the first, every fifth, and a last one far from a fifth", () => {
+    expect(numberedHoles(24)).toEqual([1, 5, 10, 15, 20, 24]);
+    expect(numberedHoles(18)).toEqual([1, 5, 10, 15, 18]);
+    expect(numberedHoles(21)).toEqual([1, 5, 10, 15, 20]);
+    // the 600 × 450 mm table at 25 mm holes, the first half a pitch in: 24 columns, 18 rows
+    const html = renderToStaticMarkup(createElement(TablePlan, { doc, analysis, safety, holeNumbers: true, labelMm: 26 }));
+    const numbers = html.slice(html.indexOf('data-testid="hole-numbers"'));
+    const written = [...numbers.matchAll(/<text[^>]*>(\d+)<\/text>/g)].map((m) => Number(m[1]));
+    expect(written).toEqual([1, 5, 10, 15, 20, 24, 1, 5, 10, 15, 18]);
+    // column 24 stands at x = 12.5 + 23 × 25 = 587.5 mm; labels at the size asked for (and the numbers a little smaller)
+    expect(numbers).toContain('x="587.5"');
+    expect(html).toMatch(/font-size="26"/);
+    expect(renderToStaticMarkup(createElement(TablePlan, { doc, analysis, safety }))).not.toContain("hole-numbers");
   });
 });

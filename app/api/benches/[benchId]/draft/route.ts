@@ -1,7 +1,8 @@
 import { getDb } from "@/db";
 import { AppError } from "@/lib/errors";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
-import { getDraft, saveDraft, saveDraftInput } from "@/lib/server/drafts";
+import { saveDraftInput } from "@/lib/api/contracts/benches";
+import { getDraft, saveDraft } from "@/lib/server/drafts";
 
 export const GET = apiRoute<{ benchId: string }>({ bench: ["read"] }, async ({ actor, params }) => ({ draft: await getDraft(getDb(), actor, params.benchId) }));
 

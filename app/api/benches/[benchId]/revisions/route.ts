@@ -2,7 +2,8 @@ import { NextResponse } from "next/server";
 import { getDb } from "@/db";
 import { AppError } from "@/lib/errors";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
-import { makeRevision, makeRevisionInput } from "@/lib/server/drafts";
+import { makeRevisionInput } from "@/lib/api/contracts/benches";
+import { makeRevision } from "@/lib/server/drafts";
 
 /** Make a revision: freeze the working draft and start the next one; 409 with the server's draft when based on a stale one. */
 export const POST = apiRoute<{ benchId: string }>({ bench: ["edit"] }, async ({ request, actor, params }) => {

@@ -1,6 +1,7 @@
 import { getDb } from "@/db";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
-import { getSheetStatus, requestSheet, sheetRequestInput } from "@/lib/server/build-sheets";
+import { sheetRequestInput } from "@/lib/api/contracts/sheets";
+import { getSheetStatus, requestSheet } from "@/lib/server/build-sheets";
 
 // POST asks for the revision's build sheet (202 with the job, or the ready one reused); GET reports the job.
 export const POST = apiRoute<{ revisionId: string }>({ bench: ["read"] }, async ({ request, actor, params }) => {
