@@ -2,7 +2,9 @@ import type { BenchSafetyAssessment } from "@/lib/safety";
 import { eyewearWords, HAZARD_LABELS, nohdWords, plainText } from "@/lib/format";
 import { displayedCautions } from "@/components/ui/cautions";
 import { HazardNotes } from "@/components/ui/hazard-notes";
+import { regimeRows, type PulseFields } from "@/lib/format/pulse-regime";
 import { fmt } from "./format";
+import { PulseRegimeList } from "./pulse-regime";
 
 const WHERE_WORDS = { element: "at", focus: "at the focus after", "open-end-focus": "at the focus beyond the open end after" } as const;
 
@@ -18,12 +20,20 @@ function Figure({ label, value, source, strong, testId }: { label: string; value
   );
 }
 
-// The laser hazard assessment beside the drawing: class check, MPE, NOHD, governing OD and where, cautions.
-export function HazardPanel({ safety }: { safety: BenchSafetyAssessment }) {
+// The laser hazard assessment beside the drawing: class check, MPE, NOHD, governing OD and where, the pulse regime of
+// each line with the rule that governs its MPE (given the drawing's laser), cautions.
+export function HazardPanel({ safety, laser }: { safety: BenchSafetyAssessment; laser?: PulseFields }) {
   const g = safety.governing;
   const label = safety.laser.labelCheck;
   const eyewear = eyewearWords(g?.opticalDensityRequired ?? 0, safety.wavelengthNm);
   const cautions = displayedCautions(safety.cautions);
+  const regime = laser
+    ? regimeRows(
+        safety.laserId,
+        laser,
+        safety.lines.lines.map((l) => ({ wavelengthNm: l.wavelengthNm, main: l.main, powerMw: l.powerMw, rule: l.assessment.pulsedMpe?.governingRule ?? null })),
+      )
+    : [];
   return (
     <div className="flex flex-col gap-4" data-testid="hazard-panel">
       <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
@@ -38,6 +48,7 @@ export function HazardPanel({ safety }: { safety: BenchSafetyAssessment }) {
           testId="eyewear-od"
         />
       </dl>
+      <PulseRegimeList rows={regime} source={safety.laser.pulsedMpe?.source ?? null} />
       <p className={`rounded-md border px-3 py-2 text-sm ${label && !label.matches ? "border-danger" : "border-line"}`}>
         {label ? (
           label.matches ? (

@@ -5,6 +5,7 @@ import { displayedCautions } from "@/components/ui/cautions";
 import { HazardNotes } from "@/components/ui/hazard-notes";
 import { TablePlan } from "@/components/table/table-plan";
 import { fmt } from "./format";
+import { PulseRegimeList, tableRegime } from "./pulse-regime";
 
 // The review screen of a table (bench document version 2): the plan at a readable size with the nominal hazard zone,
 // the open beams named in red, where every beam ends, each laser's class and lines, and every path with its power,
@@ -71,6 +72,7 @@ export function BeamEndList({ rows }: { rows: PathRow[] }) {
 export function TableReview({ assessed, eyewear }: { assessed: Ok; eyewear?: React.ReactNode }) {
   const { doc, analysis, safety } = assessed;
   const rows = pathRows(doc, analysis, safety);
+  const regime = tableRegime(doc, safety);
   const cautions = displayedCautions(safety.cautions);
   const g = safety.governing;
   const governingWords = eyewearWords(g?.opticalDensityRequired ?? 0);
@@ -131,6 +133,7 @@ export function TableReview({ assessed, eyewear }: { assessed: Ok; eyewear?: Rea
               </tbody>
             </table>
           </div>
+          <PulseRegimeList rows={regime.rows} source={regime.source} showLaser={safety.lasers.length > 1} />
           <p className="rounded-md border border-line px-3 py-2 text-sm" data-testid="eyewear-od">
             <span className="font-medium">{HAZARD_LABELS.eyewear}: </span>
             {governingWords.wear}

@@ -7,6 +7,8 @@ import { PrintTableSheet } from "./print-table-sheet";
 import type { CoverageData } from "@/components/eyewear/coverage-list";
 import { PrintCoverage, PrintStandard } from "@/components/eyewear/print-coverage";
 import { ProfilePlot } from "./profile-plot";
+import { PrintPulseRegime } from "@/components/review/pulse-regime";
+import { regimeRows } from "@/lib/format/pulse-regime";
 import { ScaleDrawing } from "./scale-drawing";
 
 // The printed build sheet: black on white, big type for reading at the bench with gloves on, every figure
@@ -198,6 +200,7 @@ function RailSheet({ sheet, paper, eyewear = null }: { sheet: SheetContent; pape
   const wavelength = sheet.laser?.wavelengthNm;
   const eyewearText = eyewearWords(od, wavelength);
   const cautions = safety ? displayedCautions(safety.cautions) : [];
+  const laser = sheet.laser;
   return (
     <div className="sheet" data-print-ready="" data-paper={paper}>
       <style dangerouslySetInnerHTML={{ __html: SHEET_CSS }} />
@@ -406,6 +409,16 @@ function RailSheet({ sheet, paper, eyewear = null }: { sheet: SheetContent; pape
                 ) : null}
               </tbody>
             </table>
+            {laser ? (
+              <PrintPulseRegime
+                rows={regimeRows(
+                  safety.laserId,
+                  laser,
+                  safety.lines.lines.map((l) => ({ wavelengthNm: l.wavelengthNm, main: l.main, powerMw: l.powerMw, rule: l.assessment.pulsedMpe?.governingRule ?? null })),
+                )}
+                source={safety.laser.pulsedMpe?.source ?? null}
+              />
+            ) : null}
             <h3>Controls and cautions</h3>
             <ul className="cautions">
               {cautions.map((c) => (

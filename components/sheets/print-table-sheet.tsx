@@ -10,6 +10,20 @@ import { PrintCoverage, PrintStandard } from "@/components/eyewear/print-coverag
 import { TablePlan } from "@/components/table/table-plan";
 import { EMPTY_TABLE_ANALYSIS } from "@/lib/review/hazard";
 import { ApprovalBox, ScreenFigures, SHEET_CSS, SheetHead } from "./print-sheet";
+import { PrintPulseRegime, tableRegime } from "@/components/review/pulse-regime";
+
+/** Where the lines' MPE and NOHD come from, each once, in words (the clause and that it is not yet checked). */
+function SheetSources({ safety }: { safety: NonNullable<TableSheetContent["safety"]> }) {
+  const sources = [...new Set(safety.lasers.flatMap((l) => l.lines.flatMap((line) => [line.mpeSource, line.nohdSource])).filter((x) => x !== "not assessed"))];
+  if (sources.length === 0) return null;
+  return (
+    <ul className="scope" style={{ margin: "0 0 3mm" }} data-testid="sheet-sources">
+      {sources.map((x) => (
+        <li key={x}>{plainText(x)}</li>
+      ))}
+    </ul>
+  );
+}
 
 // The printed build sheet of a table (bench document version 2): the plan at a stated scale with every element's
 // hole and angle, the build order following the light, "every beam ends here", what the screens should show, the
@@ -233,6 +247,8 @@ export function PrintTableSheet({ sheet, paper, eyewear = null }: { sheet: Table
                 )}
               </tbody>
             </table>
+            <SheetSources safety={safety} />
+            <PrintPulseRegime {...tableRegime(doc, safety)} showLaser={safety.lasers.length > 1} />
             {sheet.registers.map((r) => (
               <p key={r.laserId} style={{ fontSize: "10.5pt", margin: "0 0 1mm" }}>
                 <strong>Laser register, {r.laserId}:</strong>{" "}

@@ -4,7 +4,7 @@
 import { apertureAveragedIrradianceWPerCm2 } from "./irradiance";
 import { defaultExposureS, eyeMpe, limitingAperture, type EyeMpe, type MpeSite } from "./mpe";
 import { pulsedEyeMpe, type PulsedMpe } from "./pulsed";
-import { type Figure, type StandardId, DEFAULT_MPE_STANDARD, UNCHECKED } from "./types";
+import { type Figure, type StandardId, DEFAULT_MPE_STANDARD, UNCHECKED, unchecked } from "./types";
 
 export type LaserEmission = {
   wavelengthNm: number;
@@ -66,7 +66,7 @@ function siteLimit(λ: number, site: MpeSite, exposureS: number, emission: Laser
       effectiveWPerCm2: continuous.irradianceWPerCm2,
       perPulseJPerCm2: null,
       limitingApertureMm: aperture.diameterMm,
-      mpe: { value: continuous.irradianceWPerCm2, unit: "W/cm²", source: `${continuous.source} — ${UNCHECKED}` },
+      mpe: { value: continuous.irradianceWPerCm2, unit: "W/cm²", source: unchecked(continuous.source) },
       limitingAperture: { value: aperture.diameterMm, unit: "mm", source: `${aperture.source} — ${UNCHECKED}` },
       continuous,
       pulsed: null,

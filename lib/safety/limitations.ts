@@ -16,7 +16,7 @@ export const LIMITATIONS: readonly Limitation[] = [
   { id: "skin-large-area", text: "The lower skin limits for beams larger than 100 cm² beyond 1400 nm are not applied." },
   {
     id: "pulsed-simplified",
-    text: "Pulsed lasers: the three repetitive-pulse rules are applied with C_P = N^−0.25 everywhere (the conservative reading; a note says where a 2014 edition relaxes it). Irregular trains and bursts are not modelled: enter a burst as a train with the burst's highest rate. Pulses overlapping (duration × rate ≥ 1) are refused.",
+    text: "Pulsed lasers: the three repetitive-pulse rules are applied with C_P = N^−0.25 everywhere (the conservative reading; a note says where a 2014 edition relaxes it). Regular bursts (a fixed number of evenly spaced pulses per burst) are assessed pulse by pulse and also with each burst as one pulse of its energy and length; irregular trains are not modelled: enter one as a train at its highest pulse rate. Pulses overlapping (duration × rate ≥ 1) are refused.",
   },
   { id: "class-conditions", text: "The class check uses the stated power, energy, diameter and divergence with the waist at the laser; it is no substitute for the manufacturer's classification, which rests on measurement under the standard's conditions. Class 1C is not assessed. Class 3B vs 4 uses the total emission (no aperture)." },
   { id: "atmosphere", text: "Atmospheric attenuation, and the beam passing through windows or viewports, are ignored (stricter)." },

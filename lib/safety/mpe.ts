@@ -12,7 +12,7 @@
 // - Sub-ns pulses outside 400–1400 nm (IEC): constant peak irradiance equal to the 1 ns value ÷ 1 ns.
 // Where two limits apply at once (dual limits, band edges) every applicable row is evaluated and the lowest governs.
 
-import { type StandardId, DEFAULT_MPE_STANDARD, SOURCE } from "./types";
+import { type StandardId, DEFAULT_MPE_STANDARD, SOURCE, unchecked } from "./types";
 
 export type MpeMechanism = "thermal" | "photochemical";
 
@@ -229,7 +229,7 @@ function finishEyeMpe(λ: number, t: number, terms: MpeTerm[], standard: Standar
       cB: λ >= 400 && λ <= 600 ? correctionCB(λ) : null,
       cC: retinal && λ >= 1050 ? correctionCC(λ) : null,
     },
-    source: `${table}: ${governing.row}; C_A, C_B, C_C per ${SOURCE.ansiTable6}`,
+    source: unchecked(`${table}: ${governing.row}; C_A, C_B, C_C per ${SOURCE.ansiTable6}`),
   };
 }
 

@@ -16,6 +16,7 @@ import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import { assessBeam, type BeamAssessment, type BeamInput } from "./beam";
 import { assessBench as assessRail, waistFrom, type BeamAtElement, type BenchSafetyOptions, type EnclosedPowerMw, type HazardPoint } from "./bench";
 import { selectCautions, type CautionSituation, type SelectedCaution } from "./cautions";
+import type { PulseRule } from "./pulsed";
 import { LIMITATIONS, type Limitation } from "./limitations";
 import { FINAL_SAY, type HazardClass } from "./types";
 
@@ -36,6 +37,8 @@ export type TableLineFigures = {
   hazardClass: HazardClass;
   mpeWPerCm2: number | null;
   perPulseJPerCm2: number | null;
+  /** The repetitive-pulse rule that governs this line's MPE (lib/safety/pulsed.ts); null for a continuous-wave line. */
+  pulseRule: PulseRule | null;
   /** NOHD of the free beam from the laser, m (sum-of-fractions share with lines of the same tissue group). */
   nohdM: number;
   /** Eyewear OD at the laser's exit (floored at 0). */
@@ -159,6 +162,7 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
           hazardClass: l.hazardClass,
           mpeWPerCm2: l.mpeWPerCm2,
           perPulseJPerCm2: l.perPulseJPerCm2,
+          pulseRule: l.assessment.pulsedMpe?.governingRule ?? null,
           nohdM: l.nohdM,
           opticalDensityRequired: l.opticalDensityRequired,
           mpeSource: l.assessment.figures.mpe.source,
@@ -177,7 +181,7 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
         laserId: laser.id,
         hazardClass: "4",
         lines: linesOf(laser).map((l) => ({
-          wavelengthNm: l.wavelengthNm, powerMw: l.powerMw, source: l.source, hazardClass: "4", mpeWPerCm2: null, perPulseJPerCm2: null,
+          wavelengthNm: l.wavelengthNm, powerMw: l.powerMw, source: l.source, hazardClass: "4", mpeWPerCm2: null, perPulseJPerCm2: null, pulseRule: null,
           nohdM: Number.POSITIVE_INFINITY, opticalDensityRequired: Number.POSITIVE_INFINITY, mpeSource: "not assessed", nohdSource: "not assessed",
         })),
         governing: null,

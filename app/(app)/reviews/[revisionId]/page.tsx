@@ -21,6 +21,7 @@ import { labStandard } from "@/lib/server/lab-standard";
 import { assessRevision, assessTableRevision } from "@/lib/review/hazard";
 import { TableReview } from "@/components/review/table-review";
 import { whereWords } from "@/lib/bench/diff";
+import type { LaserElement } from "@/lib/bench/schema";
 import { SIGN_OFF_MEANING } from "@/lib/review/transitions";
 import { getReview } from "@/lib/server/review-screen";
 
@@ -118,7 +119,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ revisio
           ) : !assessed ? null : assessed.ok ? (
             <>
               <Section id="hazard-heading" title="Laser hazard">
-                <HazardPanel safety={assessed.safety} />
+                <HazardPanel safety={assessed.safety} laser={doc.version === 1 ? doc.elements.find((e): e is LaserElement => e.kind === "laser") : undefined} />
               </Section>
               {eyewear ? (
                 <Section id="eyewear-heading" title="Eyewear for each line">
