@@ -419,36 +419,62 @@ function RailSheet({ sheet, paper, eyewear = null }: { sheet: SheetContent; pape
                 source={safety.laser.pulsedMpe?.source ?? null}
               />
             ) : null}
-            <h3>Controls and cautions</h3>
-            <ul className="cautions">
-              {cautions.map((c) => (
-                <li key={c.id}>
-                  <strong>{c.title}.</strong> {c.text} <span style={{ fontSize: "9.5pt" }}>({c.reference})</span>
-                </li>
-              ))}
-            </ul>
-            {safety.warnings.length ? (
-              <ul>
-                {safety.warnings.map((w, i) => (
-                  <li key={i}>{plainText(w.message)}</li>
-                ))}
-              </ul>
-            ) : null}
+            <PrintCautions cautions={cautions} warnings={safety.warnings} />
           </>
         ) : (
-          <p className="warn">The hazard figures cannot be computed for this drawing: {sheet.problem}. Ask the laser safety officer before switching on.</p>
+          <NotComputed problem={sheet.problem} />
         )}
-        <h3>What these hazard figures do not cover</h3>
-        <ul className="scope">
-          <li>{ONE_OVER_E_NOTE}</li>
-          {LIMITATIONS.map((l) => (
-            <li key={l.id}>{limitationText(l)}</li>
-          ))}
-        </ul>
-        <p className="warn">{FINAL_SAY}</p>
+        <PrintScope />
       </section>
 
       <ApprovalBox sheet={sheet} />
     </div>
+  );
+}
+
+// ── The safety page's closing parts, the same on a rail's sheet and a table's ───────────────────
+
+/** The controls and cautions to follow, then the engines' warnings, in plain words. */
+export function PrintCautions({ cautions, warnings }: { cautions: ReturnType<typeof displayedCautions>; warnings: readonly { message: string }[] }) {
+  return (
+    <>
+      <h3>Controls and cautions</h3>
+      <ul className="cautions">
+        {cautions.map((c) => (
+          <li key={c.id}>
+            <strong>{c.title}.</strong> {c.text} <span style={{ fontSize: "9.5pt" }}>({c.reference})</span>
+          </li>
+        ))}
+      </ul>
+      {warnings.length ? (
+        <ul>
+          {warnings.map((w, i) => (
+            <li key={i}>{plainText(w.message)}</li>
+          ))}
+        </ul>
+      ) : null}
+    </>
+  );
+}
+
+/** In place of the figures when the engines could not compute them. */
+export function NotComputed({ problem }: { problem: string | null | undefined }) {
+  return <p className="warn">The hazard figures cannot be computed for this drawing: {problem}. Ask the laser safety officer before switching on.</p>;
+}
+
+/** What the hazard figures do not cover, that their values are not yet checked against the standard's text, and who decides. */
+export function PrintScope() {
+  return (
+    <>
+      <h3>What these hazard figures do not cover</h3>
+      <ul className="scope">
+        <li>{ONE_OVER_E_NOTE}</li>
+        {LIMITATIONS.map((l) => (
+          <li key={l.id}>{limitationText(l)}</li>
+        ))}
+        <li>Not yet checked against the standard&apos;s text — confirm with your laser safety officer.</li>
+      </ul>
+      <p className="warn">{FINAL_SAY}</p>
+    </>
   );
 }
