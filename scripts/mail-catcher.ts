@@ -13,7 +13,8 @@ const httpPort = Number(process.env.CATCHER_HTTP_PORT ?? 1080);
 const storeDir = process.env.CATCHER_DIR ?? path.resolve(import.meta.dirname, "../.data/mail");
 mkdirSync(storeDir, { recursive: true });
 
-type Caught = { id: string; receivedAt: string; from: string; to: string[]; subject: string; text: string; html: string };
+// messageId: the Message-ID header as sent (the outbox row's own, lib/mail/worker.ts), "" when there was none.
+type Caught = { id: string; receivedAt: string; from: string; to: string[]; subject: string; messageId: string; text: string; html: string };
 
 function list(): Caught[] {
   return readdirSync(storeDir)
@@ -38,6 +39,7 @@ const smtp = new SMTPServer({
           from: session.envelope.mailFrom ? session.envelope.mailFrom.address : "",
           to,
           subject: mail.subject ?? "",
+          messageId: mail.messageId ?? "",
           text: mail.text ?? "",
           html: typeof mail.html === "string" ? mail.html : "",
         };

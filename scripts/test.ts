@@ -7,21 +7,23 @@ import path from "node:path";
 import { buildIfStale } from "./lib/build";
 import { stopCluster } from "./lib/postgres";
 import { localIdentityProvider, NEXT, provision, TSX } from "./lib/provision";
-import { log, ROOT, startChild, stopChildren, superviseChild, waitForHttp } from "./lib/system";
+import { allowedPort, log, ROOT, startChild, stopChildren, superviseChild, waitForHttp } from "./lib/system";
 
 // BW_TEST_PORT_OFFSET (default 0) moves every port below by the same amount, so two checkouts can
 // run their tests side by side (e.g. 1000: app on 4100, PostgreSQL on 6434). CI leaves it unset.
 const offset = Number(process.env.BW_TEST_PORT_OFFSET ?? 0) || 0;
-const ports = { app: 3100 + offset, postgres: 5434 + offset, smtp: 2526 + offset, catcherWeb: 1081 + offset };
+/** A port moved by the offset; a port that fetch and chromium refuse (e.g. 4190 = 3190 + 1000) moves on to the next allowed one. */
+const at = (port: number) => allowedPort(port + offset);
+const ports = { app: at(3100), postgres: at(5434), smtp: at(2526), catcherWeb: at(1081) };
 // A second app server and a second mail worker on the same PostgreSQL, as an institution runs it
 // behind a proxy; tests/integration/two-servers.test.ts talks to both.
-const SECOND_APP_PORT = 3101 + offset;
+const SECOND_APP_PORT = at(3101);
 // The stand-in for the institution's OpenID Connect provider (scripts/identity-provider.ts).
-const IDENTITY_PROVIDER_PORT = 3190 + offset;
+const IDENTITY_PROVIDER_PORT = at(3190);
 // Both app servers keep uploads and sheets in one S3-compatible store (scripts/s3-fake.ts, s3rver).
-const S3_FAKE_PORT = 3193 + offset;
+const S3_FAKE_PORT = at(3193);
 // tests/integration/security-limits.test.ts starts its own server here, with the proxy setting off.
-const UNTRUSTING_PORT = 3199 + offset;
+const UNTRUSTING_PORT = at(3199);
 const dataDir = path.join(ROOT, ".data/test");
 const resultsDir = path.join(ROOT, "test-results");
 

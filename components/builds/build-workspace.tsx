@@ -95,6 +95,11 @@ export function BuildWorkspace({ buildId, images, eyewear = null }: { buildId: s
                 <h3 className="text-lg font-semibold">
                   Predicted behind {a.apertureId} <span className="text-muted">(⌀ {a.diameterMm} mm{a.screenId ? `, on ${a.screenId}` : ""})</span>
                 </h3>
+                {a.screenIds && a.screenIds.length > 1 ? (
+                  <p className="text-sm text-muted" data-testid={`other-screens-${a.apertureId}`}>
+                    These figures are for {a.screenId}; the light through {a.apertureId} also reaches {a.screenIds.filter((id) => id !== a.screenId).join(" and ")}. A photo of that screen is read against its own beam: choose the screen beside the photos.
+                  </p>
+                ) : null}
                 <p className="text-2xl font-semibold">{centreLabel(a.centre)}</p>
                 <dl className="grid grid-cols-2 gap-2 text-sm">
                   <dt className="text-muted">Half-period zones</dt>

@@ -117,11 +117,20 @@ function Body({ e }: { e: Shown }) {
             {e.revisionNumber ? ` · revision ${e.revisionNumber}` : ""}
             {e.by ? ` · ${e.by}` : ""}
           </p>
-          {eventDetail(e.action, e.detail) ? <p className="text-sm text-muted" data-testid="trail-event-detail">{eventDetail(e.action, e.detail)}</p> : null}
+          {eventDetail(e.action, e.detail) ? (
+            <p className={`text-sm ${isMismatch(e.action, e.detail) ? "text-danger" : "text-muted"}`} data-testid="trail-event-detail">
+              {eventDetail(e.action, e.detail)}
+            </p>
+          ) : null}
           {e.contentHash ? <p className="break-all font-mono text-xs text-muted">{e.contentHash}</p> : null}
         </>
       );
   }
+}
+
+/** An observation (typed or read from a screen photo) that differs from the prediction: its line stands out in the trail. */
+function isMismatch(action: string, detail: unknown): boolean {
+  return action === "build-observation-recorded" && typeof detail === "object" && detail !== null && (detail as { mismatch?: unknown }).mismatch === true;
 }
 
 /** What a checklist line or an observation recorded, in words (the audit row's detail). */
@@ -148,7 +157,7 @@ export function eventDetail(action: string, detail: unknown): string | null {
   if (action === "build-photo-read") {
     const file = typeof d.fileName === "string" ? `“${d.fileName}”` : "the photo";
     if (typeof d.refusal === "string" && d.refusal) return `${file} behind ${String(d.apertureId ?? "—")} could not be read: ${d.refusal}`;
-    const parts = [`${file} behind ${String(d.apertureId ?? "—")}`];
+    const parts = [`${file} behind ${String(d.apertureId ?? "—")}${typeof d.pathId === "string" && typeof d.screenId === "string" ? ` on ${d.screenId} (beam ${d.pathId})` : ""}`];
     if (typeof d.zoneCount === "number") parts.push(`${formatNumber(d.zoneCount)} half-period zones (predicted ${formatNumber(d.predictedZoneCount as number)})`);
     if (d.centreSeen) parts.push(centreWords(String(d.centreSeen)));
     if (typeof d.screenDistanceMm === "number") parts.push(`screen about ${formatNumber(d.screenDistanceMm, { digits: 4 })} mm behind the aperture (drawn ${formatNumber(d.drawnDistanceMm as number, { digits: 4 })} mm)`);

@@ -23,7 +23,8 @@ body { font-size: 12.5pt; line-height: 1.35; -webkit-print-color-adjust: exact; 
 .sheet { max-width: 186mm; margin: 0 auto; color: #000; }
 .sheet a { color: #000; }
 .sheet h1 { font-size: 22pt; font-weight: 800; margin: 0; line-height: 1.15; }
-.sheet h2 { font-size: 16pt; font-weight: 800; margin: 0 0 3mm; border-bottom: 0.6mm solid #000; padding-bottom: 1mm; }
+.sheet h2 { font-size: 16pt; font-weight: 800; margin: 0 0 3mm; border-bottom: 0.6mm solid #000; padding-bottom: 1mm; break-after: avoid; }
+.sheet h3 { break-after: avoid; }
 .sheet h3 { font-size: 13.5pt; font-weight: 700; margin: 3mm 0 1.5mm; }
 .sheet section { margin-bottom: 6mm; }
 .sheet .page { break-before: page; }
@@ -296,8 +297,8 @@ function RailSheet({ sheet, paper, eyewear = null }: { sheet: SheetContent; pape
         </table>
       </section>
 
-      {/* ── Predictions ─────────────────────────────────────────────────────────────────── */}
-      <section className="page">
+      {/* ── Predictions (flow on after the checklist: a forced page break here left a page nearly empty) ── */}
+      <section>
         <h2>What you should see</h2>
         {sheet.problem ? <p className="warn">The predictions cannot be computed for this drawing: {sheet.problem}</p> : null}
         {sheet.screen && !sheet.apertures.some((a) => a.screenId === sheet.screen?.screenId) ? (
@@ -419,36 +420,62 @@ function RailSheet({ sheet, paper, eyewear = null }: { sheet: SheetContent; pape
                 source={safety.laser.pulsedMpe?.source ?? null}
               />
             ) : null}
-            <h3>Controls and cautions</h3>
-            <ul className="cautions">
-              {cautions.map((c) => (
-                <li key={c.id}>
-                  <strong>{c.title}.</strong> {c.text} <span style={{ fontSize: "9.5pt" }}>({c.reference})</span>
-                </li>
-              ))}
-            </ul>
-            {safety.warnings.length ? (
-              <ul>
-                {safety.warnings.map((w, i) => (
-                  <li key={i}>{plainText(w.message)}</li>
-                ))}
-              </ul>
-            ) : null}
+            <PrintCautions cautions={cautions} warnings={safety.warnings} />
           </>
         ) : (
-          <p className="warn">The hazard figures cannot be computed for this drawing: {sheet.problem}. Ask the laser safety officer before switching on.</p>
+          <NotComputed problem={sheet.problem} />
         )}
-        <h3>What these hazard figures do not cover</h3>
-        <ul className="scope">
-          <li>{ONE_OVER_E_NOTE}</li>
-          {LIMITATIONS.map((l) => (
-            <li key={l.id}>{limitationText(l)}</li>
-          ))}
-        </ul>
-        <p className="warn">{FINAL_SAY}</p>
+        <PrintScope />
       </section>
 
       <ApprovalBox sheet={sheet} />
     </div>
+  );
+}
+
+// ── The safety page's closing parts, the same on a rail's sheet and a table's ───────────────────
+
+/** The controls and cautions to follow, then the engines' warnings, in plain words. */
+export function PrintCautions({ cautions, warnings }: { cautions: ReturnType<typeof displayedCautions>; warnings: readonly { message: string }[] }) {
+  return (
+    <>
+      <h3>Controls and cautions</h3>
+      <ul className="cautions">
+        {cautions.map((c) => (
+          <li key={c.id}>
+            <strong>{c.title}.</strong> {c.text} <span style={{ fontSize: "9.5pt" }}>({c.reference})</span>
+          </li>
+        ))}
+      </ul>
+      {warnings.length ? (
+        <ul>
+          {warnings.map((w, i) => (
+            <li key={i}>{plainText(w.message)}</li>
+          ))}
+        </ul>
+      ) : null}
+    </>
+  );
+}
+
+/** In place of the figures when the engines could not compute them. */
+export function NotComputed({ problem }: { problem: string | null | undefined }) {
+  return <p className="warn">The hazard figures cannot be computed for this drawing: {problem}. Ask the laser safety officer before switching on.</p>;
+}
+
+/** What the hazard figures do not cover, that their values are not yet checked against the standard's text, and who decides. */
+export function PrintScope() {
+  return (
+    <>
+      <h3>What these hazard figures do not cover</h3>
+      <ul className="scope">
+        <li>{ONE_OVER_E_NOTE}</li>
+        {LIMITATIONS.map((l) => (
+          <li key={l.id}>{limitationText(l)}</li>
+        ))}
+        <li>Not yet checked against the standard&apos;s text — confirm with your laser safety officer.</li>
+      </ul>
+      <p className="warn">{FINAL_SAY}</p>
+    </>
   );
 }

@@ -1,15 +1,14 @@
 import type { CSSProperties } from "react";
 import { fmt } from "@/components/review/format";
 import { displayedCautions } from "@/components/ui/cautions";
-import { capitalise, eyewearWords, HAZARD_LABELS, limitationText, nohdWords, ONE_OVER_E_NOTE, plainText } from "@/lib/format";
-import { FINAL_SAY, LIMITATIONS } from "@/lib/safety";
+import { capitalise, eyewearWords, HAZARD_LABELS, nohdWords, plainText } from "@/lib/format";
 import type { TableSheetContent } from "@/lib/build/sheet";
 import { directionWords, edgeWords, kindLabel, kindNoun, tableElementSettings } from "@/lib/review/table-paths";
 import type { CoverageData } from "@/components/eyewear/coverage-list";
 import { PrintCoverage, PrintStandard } from "@/components/eyewear/print-coverage";
 import { TablePlan } from "@/components/table/table-plan";
 import { EMPTY_TABLE_ANALYSIS } from "@/lib/review/hazard";
-import { ApprovalBox, ScreenFigures, SHEET_CSS, SheetHead } from "./print-sheet";
+import { ApprovalBox, NotComputed, PrintCautions, PrintScope, ScreenFigures, SHEET_CSS, SheetHead } from "./print-sheet";
 import { PrintPulseRegime, tableLineSources, tableRegime } from "@/components/review/pulse-regime";
 
 /** Where the lines' MPE and NOHD come from, each once, in words (the clause and that it is not yet checked). */
@@ -175,7 +174,7 @@ export function PrintTableSheet({ sheet, paper, eyewear = null }: { sheet: Table
         </table>
       </section>
 
-      <section className="page">
+      <section>
         <h2>What you should see</h2>
         {analysis?.screens.length ? <ScreenFigures screens={analysis.screens} /> : <p>No screen is reached, so no pattern is predicted.</p>}
         {analysis?.apertures.length ? (
@@ -286,34 +285,12 @@ export function PrintTableSheet({ sheet, paper, eyewear = null }: { sheet: Table
                 ))}
               </tbody>
             </table>
-            <h3>Controls and cautions</h3>
-            <ul className="cautions">
-              {cautions.map((c) => (
-                <li key={c.id}>
-                  <strong>{c.title}.</strong> {c.text} <span style={{ fontSize: "9.5pt" }}>({c.reference})</span>
-                </li>
-              ))}
-            </ul>
-            {safety.warnings.length ? (
-              <ul>
-                {safety.warnings.map((w, i) => (
-                  <li key={i}>{plainText(w.message)}</li>
-                ))}
-              </ul>
-            ) : null}
+            <PrintCautions cautions={cautions} warnings={safety.warnings} />
           </>
         ) : (
-          <p className="warn">The hazard figures cannot be computed for this drawing: {sheet.problem}. Ask the laser safety officer before switching on.</p>
+          <NotComputed problem={sheet.problem} />
         )}
-        <h3>What these hazard figures do not cover</h3>
-        <ul className="scope">
-          <li>{ONE_OVER_E_NOTE}</li>
-          {LIMITATIONS.map((l) => (
-            <li key={l.id}>{limitationText(l)}</li>
-          ))}
-          <li>Not yet checked against the standard&apos;s text — confirm with your laser safety officer.</li>
-        </ul>
-        <p className="warn">{FINAL_SAY}</p>
+        <PrintScope />
       </section>
 
       <ApprovalBox sheet={sheet} />

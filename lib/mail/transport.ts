@@ -3,7 +3,8 @@
 import nodemailer, { type Transporter } from "nodemailer";
 import type { Env } from "@/lib/env";
 
-export type MailTransport = { send(message: { from: string; to: string; subject: string; text: string; html: string }): Promise<void> };
+/** messageId: the Message-ID header, "<…@…>"; nodemailer makes a random one when it is absent. */
+export type MailTransport = { send(message: { from: string; to: string; subject: string; text: string; html: string; messageId?: string }): Promise<void> };
 
 export function smtpTransport(e: Pick<Env, "SMTP_HOST" | "SMTP_PORT" | "SMTP_SECURE" | "SMTP_USER" | "SMTP_PASSWORD">): MailTransport {
   const transporter: Transporter = nodemailer.createTransport({

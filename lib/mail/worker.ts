@@ -1,11 +1,19 @@
 // Sends due outbox rows. A round first CLAIMS rows in a short transaction (FOR UPDATE SKIP LOCKED,
-// then a lease: next_attempt_at moves LEASE_S ahead, so no other worker takes them), then sends over
-// SMTP with no transaction or row lock held, then marks each row sent, or pending with a backoff, or
-// failed after MAX_ATTEMPTS. The mark is retried while the database is away (a restart, a failover)
-// for up to MARK_RETRY_MS, so a message sent just before PostgreSQL went down is recorded as sent
-// when it is back, not sent again when its lease ends. A worker that dies between the SMTP reply
-// and the mark still leaves the row to be sent again after the lease: delivery is at least once,
-// and exactly once unless a worker dies (or the database stays away longer than MARK_RETRY_MS) there.
+// then a lease: next_attempt_at moves LEASE_S ahead, so no other worker takes them, and the claim
+// counts as an attempt), then sends over SMTP with no transaction or row lock held, then marks each
+// row sent, or pending with a backoff, or failed after MAX_ATTEMPTS. The mark is retried while the
+// database is away (a restart, a failover) for up to MARK_RETRY_MS, so a message sent just before
+// PostgreSQL went down is recorded as sent when it is back, not sent again when its lease ends.
+//
+// Delivery is AT LEAST ONCE. A worker that dies between the SMTP server's reply and the mark leaves
+// the row claimed: no worker — a restarted one included — takes it before the lease ends, then it is
+// sent again. What limits the harm:
+// - every message carries a Message-ID made from its outbox row's id (`outboxMessageId`), the same
+//   on every attempt, so a receiving system or mail client that de-duplicates by Message-ID shows
+//   the repeat once, and anyone can tell a repeat from a second message;
+// - a claim counts as an attempt, so a message whose sending keeps killing its worker is tried at
+//   most MAX_ATTEMPTS times and then marked failed (the readiness route counts those), instead of
+//   going out again every LEASE_S for ever.
 import { sql } from "drizzle-orm";
 import type { Database } from "@/db";
 import type { MailTransport } from "./transport";
@@ -20,15 +28,36 @@ export function backoffSeconds(attempts: number): number {
   return Math.min(3600, BASE_DELAY_S * 2 ** Math.max(0, attempts - 1));
 }
 
+/** attempts: this claim included. */
 type OutboxRow = { id: string; to_address: string; subject: string; text_body: string; html_body: string; attempts: number };
 
-/** Claims up to `limit` due rows for this worker (a lease of LEASE_S seconds). */
+/**
+ * The Message-ID of an outbox row, the same on every attempt: `<outbox.ROW-ID@DOMAIN>`, the domain
+ * taken from the sender's address (RFC 5322 §3.6.4 asks for a unique left part and a domain).
+ */
+export function outboxMessageId(rowId: string, from: string): string {
+  const address = from.match(/<([^>]+)>/)?.[1] ?? from;
+  const domain = address.includes("@") ? address.slice(address.lastIndexOf("@") + 1).trim() : "";
+  return `<outbox.${rowId}@${/^[A-Za-z0-9.-]+$/.test(domain) ? domain : "benchwarden.invalid"}>`;
+}
+
+/** Sentence kept on a row whose claims all ended without an outcome recorded. */
+export const LOST_CLAIMS_ERROR = `Claimed ${MAX_ATTEMPTS} times without an outcome recorded (the worker stopped while sending); it may have been delivered.`;
+
+/**
+ * Claims up to `limit` due rows for this worker: a lease of LEASE_S seconds, and one attempt
+ * counted. A due row that already had MAX_ATTEMPTS claims (each ended by its worker dying before the
+ * mark) is not sent again but marked failed.
+ */
 export async function claimDueMail(db: Database, limit: number): Promise<OutboxRow[]> {
+  await db.execute(sql`
+    update mail_outbox set state = 'failed', last_error = ${LOST_CLAIMS_ERROR}
+    where state = 'pending' and next_attempt_at <= now() and attempts >= ${MAX_ATTEMPTS}`);
   const claimed = await db.execute<OutboxRow>(sql`
-    update mail_outbox set next_attempt_at = now() + make_interval(secs => ${LEASE_S})
+    update mail_outbox set next_attempt_at = now() + make_interval(secs => ${LEASE_S}), attempts = attempts + 1
     where id in (
       select id from mail_outbox
-      where state = 'pending' and next_attempt_at <= now()
+      where state = 'pending' and next_attempt_at <= now() and attempts < ${MAX_ATTEMPTS}
       order by created_at limit ${limit} for update skip locked)
     returning id, to_address, subject, text_body, html_body, attempts`);
   return claimed.rows;
@@ -63,15 +92,15 @@ export async function sendDueMail(db: Database, transport: MailTransport, from: 
     // recording the outcome is retried, never counted as a failed send.
     let failure: unknown = null;
     try {
-      await transport.send({ from, to: row.to_address, subject: row.subject, text: row.text_body, html: row.html_body });
+      await transport.send({ from, to: row.to_address, subject: row.subject, text: row.text_body, html: row.html_body, messageId: outboxMessageId(row.id, from) });
     } catch (error) {
       failure = error;
     }
     if (failure === null) {
-      await untilWritten(() => db.execute(sql`update mail_outbox set state = 'sent', sent_at = now(), attempts = attempts + 1, last_error = null where id = ${row.id}`), markRetryMs);
+      await untilWritten(() => db.execute(sql`update mail_outbox set state = 'sent', sent_at = now(), last_error = null where id = ${row.id}`), markRetryMs);
       sent++;
     } else {
-      const attempts = row.attempts + 1;
+      const attempts = row.attempts;
       const reason = failure instanceof Error ? failure.message : String(failure);
       const finalState = attempts >= MAX_ATTEMPTS ? "failed" : "pending";
       await untilWritten(

@@ -1,6 +1,6 @@
 // A table's build in chromium: the light through the iris reaches two screens (a splitter behind it), so the technician
 // says which one the photo shows; the photo, rendered by the tests' own renderer with the screen 700 mm from the iris
-// along the beam, is read against that beam's path and matches. Screenshot: test-results/screenshots/table-photo-reading.png.
+// along the beam, is read against that beam's path and matches; the trail names the screen. Screenshot: test-results/screenshots/table-photo-reading.png.
 import { expect as baseExpect, test, type Page } from "@playwright/test";
 import pg from "pg";
 import { PNG } from "pngjs";
@@ -13,6 +13,7 @@ const expect = baseExpect.configure({ timeout: 30_000 });
 const shots = "test-results/screenshots";
 const title = `E2E table photo ${Date.now().toString(36)}`;
 let buildId = "";
+let benchId = "";
 
 // Unfolded, the path to screen-B is this straight bench: the iris 300 mm from the laser, the screen 700 mm behind it.
 const toScreenB: SyntheticBench = { wavelengthNm: 632.8, beamDiameterMm: 4, lenses: [], aperturePositionMm: 300, apertureDiameterMm: 3, screenDistanceMm: 700 };
@@ -37,6 +38,7 @@ test.beforeAll(async () => {
     const technician = await signIn(DEMO.technician);
     const labId = await labIdByName(researcher.cookie, "Wrenfield Imaging Lab");
     const b = await createDrawnBench(pool, researcher.cookie, labId, tableDoc as unknown as BenchDocument);
+    benchId = b.benchId;
     await call("POST", `/api/revisions/${b.revisionId}/submit`, researcher.cookie, { contentHash: b.contentHash });
     const decided = await call("POST", `/api/revisions/${b.revisionId}/decision`, officer.cookie, { outcome: "approve", contentHash: b.contentHash, password: DEMO_PASSWORD });
     if (decided.status !== 201) throw new Error(`not approved: ${decided.text}`);
@@ -71,6 +73,7 @@ test("the technician says which screen of the table the photo shows and it is re
   await upload.getByRole("button", { name: "Upload", exact: true }).click();
   await expect(upload.getByText("Kept, with its SHA-256 fingerprint")).toBeVisible();
 
+  await expect(card.getByTestId("other-screens-iris")).toHaveText("These figures are for screen-A; the light through iris also reaches screen-B. A photo of that screen is read against its own beam: choose the screen beside the photos.");
   const which = card.getByRole("combobox", { name: /The light through iris reaches 2 screens; the photo to read shows/ });
   await expect(which).toHaveValue("screen-A");
   await which.selectOption("screen-B");
@@ -81,4 +84,8 @@ test("the technician says which screen of the table the photo shows and it is re
   await expect(reading.getByTestId("photo-distance")).toContainText("drawn 700 mm");
   await expect(card.getByTestId("observation").filter({ hasText: 'Read from the screen photo "screen-b.png"' })).toContainText("✓ Matches");
   await card.screenshot({ path: `${shots}/table-photo-reading.png` });
+
+  // The bench's trail names the screen and the beam the photo was read against.
+  await page.goto(`/benches/${benchId}/trail`);
+  await expect(page.getByTestId("trail-timeline")).toContainText("“screen-b.png” behind iris on screen-B (beam p1)");
 });

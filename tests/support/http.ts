@@ -53,7 +53,7 @@ export async function call(method: string, path: string, cookie?: string, body?:
   return { status: res.status, json: json as Record<string, unknown> | null, text };
 }
 
-export type CaughtMail = { id: string; to: string[]; subject: string; text: string; html: string; receivedAt: string };
+export type CaughtMail = { id: string; to: string[]; subject: string; messageId: string; text: string; html: string; receivedAt: string };
 
 /** Waits until the mail catcher holds a message for `to` matching `subject`. */
 export async function waitForMail(to: string, subject: RegExp, timeoutMs = 15_000): Promise<CaughtMail> {
