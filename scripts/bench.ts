@@ -6,7 +6,7 @@ import autocannon from "autocannon";
 import { buildIfStale } from "./lib/build";
 import { stopCluster } from "./lib/postgres";
 import { NEXT, provision } from "./lib/provision";
-import { log, ROOT, startChild, stopChildren, waitForHttp } from "./lib/system";
+import { allowedPort, log, ROOT, startChild, stopChildren, waitForHttp } from "./lib/system";
 
 type Figure = { name: string; value: number; unit: string; target: string };
 
@@ -25,9 +25,10 @@ function peakMemoryKb(pid: number | undefined): number {
 const offset = Number(process.env.BW_TEST_PORT_OFFSET ?? 0) || 0;
 
 async function httpFigures(): Promise<Figure[]> {
-  const ports = { app: 3300 + offset, postgres: 5435 + offset, smtp: 2527 + offset, catcherWeb: 1082 + offset };
+  const at = (port: number) => allowedPort(port + offset);
+  const ports = { app: at(3300), postgres: at(5435), smtp: at(2527), catcherWeb: at(1082) };
   // The second app server of the two-servers-versus-one figures (scripts/bench-servers.ts).
-  const secondAppPort = 3301 + offset;
+  const secondAppPort = at(3301);
   const dataDir = path.join(ROOT, ".data/bench");
   rmSync(dataDir, { recursive: true, force: true });
   const { cluster, env, ownerUrl } = await provision({ dataDir, ports, dbName: "benchwarden_bench", seed: true, rateLimitMax: 1000 });

@@ -1,7 +1,7 @@
 import type { BenchDetail } from "@/lib/server/benches";
 import type { SafetyStandard } from "@/db/schema";
 import { RevisionDiff } from "@/components/review/revision-diff";
-import { StateBadge } from "@/components/ui/state-badge";
+import { CompareHeads } from "./compare-heads";
 import { CompareDrawing } from "./compare-drawing";
 import { TableCompare } from "./table-compare";
 import { revisionMarks, type Mark } from "./revision-marks";
@@ -68,21 +68,7 @@ function RailCompare({ from, to }: { from: RailRevision; to: RailRevision }) {
         .join(", ") + ".";
   return (
     <div className="flex flex-col gap-4" data-testid="revision-compare" data-from={from.number} data-to={to.number}>
-      <div className="grid gap-2 sm:grid-cols-2">
-        {[from, to].map((r, i) => (
-          <div key={r.id} className="rounded-lg border border-line bg-panel px-3 py-2 text-sm">
-            <div className="flex flex-wrap items-center gap-2">
-              <span className="font-semibold">
-                {i === 0 ? "From" : "To"}: revision {r.number}
-              </span>
-              <StateBadge state={r.state} />
-            </div>
-            <p className="mt-1 break-all font-mono text-xs text-muted" title="Content hash (SHA-256 of the canonical bench document)">
-              {r.contentHash}
-            </p>
-          </div>
-        ))}
-      </div>
+      <CompareHeads from={from} to={to} />
       <p className="text-base" data-testid="compare-summary">
         {summary}
       </p>

@@ -3,7 +3,7 @@ import type { SafetyStandard } from "@/db/schema";
 import { diffBenches, whereWords } from "@/lib/bench/diff";
 import { assessTableRevision, EMPTY_TABLE_ANALYSIS } from "@/lib/review/hazard";
 import { RevisionDiff } from "@/components/review/revision-diff";
-import { StateBadge } from "@/components/ui/state-badge";
+import { CompareHeads } from "./compare-heads";
 import { TablePlan } from "@/components/table/table-plan";
 
 // Two revisions where at least one is an optical table (bench document version 2): both plans one above the other at
@@ -48,21 +48,7 @@ export function TableCompare({ from, to, standard }: { from: Revision; to: Revis
   });
   return (
     <div className="flex flex-col gap-4" data-testid="revision-compare" data-from={from.number} data-to={to.number}>
-      <div className="grid gap-2 sm:grid-cols-2">
-        {[from, to].map((r, i) => (
-          <div key={r.id} className="rounded-lg border border-line bg-panel px-3 py-2 text-sm">
-            <div className="flex flex-wrap items-center gap-2">
-              <span className="font-semibold">
-                {i === 0 ? "From" : "To"}: revision {r.number}
-              </span>
-              <StateBadge state={r.state} />
-            </div>
-            <p className="mt-1 break-all font-mono text-xs text-muted" title="Content hash (SHA-256 of the canonical bench document)">
-              {r.contentHash}
-            </p>
-          </div>
-        ))}
-      </div>
+      <CompareHeads from={from} to={to} />
       <p className="text-base" data-testid="compare-summary">
         {diff.identical
           ? from.contentHash === to.contentHash

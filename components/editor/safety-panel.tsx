@@ -4,14 +4,13 @@
 import type { BenchSafetyAssessment } from "@/lib/safety";
 import { eyewearWords, formatNumber, HAZARD_LABELS, nohdWords, plainText } from "@/lib/format";
 import { HazardNotes } from "@/components/ui/hazard-notes";
-import { displayedCautions } from "@/components/ui/cautions";
+import { CautionList } from "@/components/ui/caution-list";
 import { EditorCoverage, type LabShelfData } from "@/components/eyewear/editor-coverage";
 
 export function SafetyPanel({ safety, shelf = null }: { safety: BenchSafetyAssessment | undefined; shelf?: LabShelfData | null }) {
   if (!safety) return null;
   const od = safety.governing;
   const eyewear = eyewearWords(od?.opticalDensityRequired ?? 0, safety.wavelengthNm);
-  const cautions = displayedCautions(safety.cautions);
   return (
     <section aria-labelledby="safety-heading" className="rounded-lg border border-warn/60 bg-panel p-4" data-testid="safety">
       <h2 id="safety-heading" className="mb-2 text-lg font-semibold">Laser safety (advice)</h2>
@@ -43,18 +42,9 @@ export function SafetyPanel({ safety, shelf = null }: { safety: BenchSafetyAsses
         </div>
       </dl>
       {shelf ? <EditorCoverage shelf={shelf} safety={safety} /> : null}
-      {cautions.length ? (
-        <details className="mt-3">
-          <summary className="cursor-pointer text-sm font-medium">Cautions ({cautions.length})</summary>
-          <ul className="mt-2 flex flex-col gap-2 text-sm">
-            {cautions.map((c) => (
-              <li key={c.id}>
-                <span className="font-medium">{c.title}.</span> {c.text} <span className="text-xs text-muted">({c.reference})</span>
-              </li>
-            ))}
-          </ul>
-        </details>
-      ) : null}
+      <div className="mt-3">
+        <CautionList cautions={safety.cautions} />
+      </div>
       <div className="mt-3">
         <HazardNotes />
       </div>

@@ -1,6 +1,6 @@
 import type { BenchSafetyAssessment } from "@/lib/safety";
 import { eyewearWords, HAZARD_LABELS, nohdWords, plainText } from "@/lib/format";
-import { displayedCautions } from "@/components/ui/cautions";
+import { CautionList } from "@/components/ui/caution-list";
 import { HazardNotes } from "@/components/ui/hazard-notes";
 import { regimeRows, type PulseFields } from "@/lib/format/pulse-regime";
 import { fmt } from "./format";
@@ -26,7 +26,6 @@ export function HazardPanel({ safety, laser }: { safety: BenchSafetyAssessment; 
   const g = safety.governing;
   const label = safety.laser.labelCheck;
   const eyewear = eyewearWords(g?.opticalDensityRequired ?? 0, safety.wavelengthNm);
-  const cautions = displayedCautions(safety.cautions);
   const regime = laser
     ? regimeRows(
         safety.laserId,
@@ -87,19 +86,7 @@ export function HazardPanel({ safety, laser }: { safety: BenchSafetyAssessment; 
           ))}
         </ul>
       ) : null}
-      <details className="rounded-lg border border-line bg-panel p-3" open>
-        <summary className="cursor-pointer font-medium">Cautions ({cautions.length})</summary>
-        <ul className="mt-2 flex flex-col gap-2 text-sm">
-          {cautions.map((c) => (
-            <li key={c.id}>
-              <p className="font-medium">{c.title}</p>
-              <p className="text-muted">
-                {c.text} <span className="text-xs">({c.reference})</span>
-              </p>
-            </li>
-          ))}
-        </ul>
-      </details>
+      <CautionList cautions={safety.cautions} boxed />
       <HazardNotes />
     </div>
   );

@@ -1,7 +1,7 @@
 import type { TableAssessment } from "@/lib/review/hazard";
 import { beamEnds, directionWords, edgeWords, kindLabel, kindNoun, pathRows, type PathRow } from "@/lib/review/table-paths";
 import { centreWords, eyewearWords, HAZARD_LABELS, nohdWords, plainText } from "@/lib/format";
-import { displayedCautions } from "@/components/ui/cautions";
+import { CautionList } from "@/components/ui/caution-list";
 import { HazardNotes } from "@/components/ui/hazard-notes";
 import { TablePlan } from "@/components/table/table-plan";
 import { fmt } from "./format";
@@ -73,7 +73,6 @@ export function TableReview({ assessed, eyewear }: { assessed: Ok; eyewear?: Rea
   const { doc, analysis, safety } = assessed;
   const rows = pathRows(doc, analysis, safety);
   const regime = tableRegime(doc, safety);
-  const cautions = displayedCautions(safety.cautions);
   const g = safety.governing;
   const governingWords = eyewearWords(g?.opticalDensityRequired ?? 0);
   return (
@@ -227,19 +226,7 @@ export function TableReview({ assessed, eyewear }: { assessed: Ok; eyewear?: Rea
         </Section>
       ) : null}
 
-      <details className="rounded-lg border border-line bg-panel p-3" open>
-        <summary className="cursor-pointer font-medium">Cautions ({cautions.length})</summary>
-        <ul className="mt-2 flex flex-col gap-2 text-sm">
-          {cautions.map((c) => (
-            <li key={c.id}>
-              <p className="font-medium">{c.title}</p>
-              <p className="text-muted">
-                {c.text} <span className="text-xs">({c.reference})</span>
-              </p>
-            </li>
-          ))}
-        </ul>
-      </details>
+      <CautionList cautions={safety.cautions} boxed />
       <p className="text-sm text-muted">Not yet checked against the standard&apos;s text — confirm with your laser safety officer.</p>
       <HazardNotes />
     </div>

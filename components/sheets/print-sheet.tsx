@@ -23,7 +23,8 @@ body { font-size: 12.5pt; line-height: 1.35; -webkit-print-color-adjust: exact; 
 .sheet { max-width: 186mm; margin: 0 auto; color: #000; }
 .sheet a { color: #000; }
 .sheet h1 { font-size: 22pt; font-weight: 800; margin: 0; line-height: 1.15; }
-.sheet h2 { font-size: 16pt; font-weight: 800; margin: 0 0 3mm; border-bottom: 0.6mm solid #000; padding-bottom: 1mm; }
+.sheet h2 { font-size: 16pt; font-weight: 800; margin: 0 0 3mm; border-bottom: 0.6mm solid #000; padding-bottom: 1mm; break-after: avoid; }
+.sheet h3 { break-after: avoid; }
 .sheet h3 { font-size: 13.5pt; font-weight: 700; margin: 3mm 0 1.5mm; }
 .sheet section { margin-bottom: 6mm; }
 .sheet .page { break-before: page; }
@@ -296,8 +297,8 @@ function RailSheet({ sheet, paper, eyewear = null }: { sheet: SheetContent; pape
         </table>
       </section>
 
-      {/* ── Predictions ─────────────────────────────────────────────────────────────────── */}
-      <section className="page">
+      {/* ── Predictions (flow on after the checklist: a forced page break here left a page nearly empty) ── */}
+      <section>
         <h2>What you should see</h2>
         {sheet.problem ? <p className="warn">The predictions cannot be computed for this drawing: {sheet.problem}</p> : null}
         {sheet.screen && !sheet.apertures.some((a) => a.screenId === sheet.screen?.screenId) ? (

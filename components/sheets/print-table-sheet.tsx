@@ -174,7 +174,7 @@ export function PrintTableSheet({ sheet, paper, eyewear = null }: { sheet: Table
         </table>
       </section>
 
-      <section className="page">
+      <section>
         <h2>What you should see</h2>
         {analysis?.screens.length ? <ScreenFigures screens={analysis.screens} /> : <p>No screen is reached, so no pattern is predicted.</p>}
         {analysis?.apertures.length ? (

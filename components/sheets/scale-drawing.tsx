@@ -139,8 +139,12 @@ export function ScaleDrawing({ doc }: { doc: BenchDocument }) {
           <text x={SIDE_MM + barPaper} y={barTop + 6.5} fontSize={3.2} textAnchor="middle" fill={TEXT}>
             {barMm} mm
           </text>
-          <text x={SIDE_MM + barPaper + 14} y={barTop + 2.2} fontSize={3.6} fontWeight={700} fill={TEXT}>
-            Scale 1:{scale} along the rail (printed at 100 %); heights not to scale
+          {/* two short lines, so the sentence stays inside the drawing whatever the bar's length */}
+          <text x={SIDE_MM + barPaper + 12} y={barTop + 1.6} fontSize={3.6} fontWeight={700} fill={TEXT} data-testid="scale-words">
+            <tspan x={SIDE_MM + barPaper + 12}>Scale 1:{scale} along the rail (printed at 100 %);</tspan>
+            <tspan x={SIDE_MM + barPaper + 12} dy={4.6}>
+              heights not to scale
+            </tspan>
           </text>
         </g>
       </svg>

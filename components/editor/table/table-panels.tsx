@@ -5,6 +5,7 @@
 import { memo } from "react";
 import { ELEMENT_KIND_RECORDS, tableFieldsOf } from "@/lib/bench/element-kinds";
 import { benchDocumentV2Schema, type BenchDocumentV2, type TableElement, type TableGeometry } from "@/lib/bench/schema-v2";
+import { CautionList } from "@/components/ui/caution-list";
 import { HazardNotes } from "@/components/ui/hazard-notes";
 import { plainText } from "@/lib/format";
 import type { LaserElement } from "@/lib/bench/schema";
@@ -314,18 +315,7 @@ export const TableSafety = memo(function TableSafety({ table, predictions, stale
           ) : null}
         </div>
       ) : null}
-      {(safety?.cautions ?? []).length > 0 ? (
-        <details className="text-sm">
-          <summary className="cursor-pointer font-medium">Cautions ({safety!.cautions.length})</summary>
-          <ul className="mt-1 list-disc pl-5 text-muted">
-            {safety!.cautions.map((c) => (
-              <li key={c.id}>
-                <span className="font-medium text-text">{c.title}.</span> {plainText(c.text)}
-              </li>
-            ))}
-          </ul>
-        </details>
-      ) : null}
+      <CautionList cautions={safety?.cautions ?? []} />
       <HazardNotes />
     </section>
   );
