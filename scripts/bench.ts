@@ -113,8 +113,32 @@ async function httpFigures(): Promise<Figure[]> {
   }
 }
 
+/** Only the sign-off desk's figures: a throwaway database with the scale data, no app server. */
+async function deskFigures(): Promise<Figure[]> {
+  const ports = { app: 3300 + offset, postgres: 5435 + offset, smtp: 2527 + offset, catcherWeb: 1082 + offset };
+  const dataDir = path.join(ROOT, ".data/bench-desk");
+  rmSync(dataDir, { recursive: true, force: true });
+  const { cluster, env, ownerUrl } = await provision({ dataDir, ports, dbName: "benchwarden_bench", seed: false, rateLimitMax: 1000 });
+  try {
+    const { seedScale } = await import("./seed-scale");
+    const { runDeskBench } = await import("./bench-desk");
+    await seedScale(ownerUrl);
+    return await runDeskBench(env.DATABASE_URL!);
+  } finally {
+    stopCluster(cluster);
+    rmSync(dataDir, { recursive: true, force: true });
+  }
+}
+
 async function main() {
   const figures: Figure[] = [];
+  // --desk-only: only the sign-off desk's figures on the scale data: npm run bench -- --desk-only
+  if (process.argv.includes("--desk-only")) {
+    figures.push(...(await deskFigures()));
+    log("benchmark figures");
+    for (const f of figures) process.stdout.write(`  ${f.name}: ${Number(f.value.toPrecision(4))} ${f.unit}   (target ${f.target})\n`);
+    return;
+  }
   // --queue-only: only the queue figures (e-mails per second, sheets per minute): npm run bench -- --queue-only
   // --servers-only: only two app servers versus one on the scale data: npm run bench -- --servers-only
   if (process.argv.includes("--queue-only") || process.argv.includes("--servers-only")) {

@@ -6,7 +6,7 @@
 import { createHash, randomUUID } from "node:crypto";
 import pg from "pg";
 
-export type ScaleCounts = { labs: number; people: number; benches: number; revisions: number; decisions: number; approvals: number; comments: number; auditEvents: number; trailRows: number };
+export type ScaleCounts = { labs: number; people: number; benches: number; revisions: number; decisions: number; approvals: number; comments: number; auditEvents: number; trailRows: number; builds: number; mismatchedObservations: number };
 
 const LAB_NAMES = [
   "Ultrafast Spectroscopy Lab",
@@ -202,6 +202,23 @@ export async function seedScale(databaseUrl: string, options: { benches?: number
       A.bench.push(R.bench[r.i]); A.revision.push(r.id); A.hash.push(R.hash[r.i]); A.actor.push(pick(researchers).id); A.role.push("technician"); A.action.push(pick(actions)); A.detail.push("{}"); A.at.push(new Date(R.at[r.i].getTime() + DAY_MS * (5 + random() * 30)));
     }
 
+    // Builds of about a third of the sign-offs, one to three observations each, about one in ten differing from the
+    // prediction (the desk flags those and filters to them). Drawn after everything above, so the rest stays as before.
+    const K = { id: [] as string[], revision: [] as string[], bench: [] as string[], hash: [] as string[], by: [] as string[], at: [] as Date[] };
+    const O = { build: [] as string[], mismatch: [] as boolean[], reasons: [] as string[], by: [] as string[], at: [] as Date[] };
+    for (let d = 0; d < D.id.length; d++) {
+      if (D.outcome[d] !== "approved" || random() >= 0.33) continue;
+      const id = randomUUID();
+      const technician = pick(researchers).id;
+      const at = new Date(D.at[d].getTime() + DAY_MS * (2 + random() * 30));
+      K.id.push(id); K.revision.push(D.revision[d]); K.bench.push(D.bench[d]); K.hash.push(D.hash[d]); K.by.push(technician); K.at.push(at);
+      const observations = 1 + Math.floor(random() * 3);
+      for (let o = 0; o < observations; o++) {
+        const mismatch = random() < 0.1;
+        O.build.push(id); O.mismatch.push(mismatch); O.reasons.push(JSON.stringify(mismatch ? ["Centre: predicted bright, seen dark."] : [])); O.by.push(technician); O.at.push(new Date(at.getTime() + (o + 1) * 3600_000));
+      }
+    }
+
     await insertColumns(client, "bench", { id: { type: "uuid", values: B.id }, lab_id: { type: "uuid", values: B.lab }, title: { type: "text", values: B.title }, author_id: { type: "text", values: B.author }, created_at: { type: "timestamptz", values: B.at }, updated_at: { type: "timestamptz", values: B.at } });
     await insertColumns(
       client,
@@ -257,6 +274,26 @@ export async function seedScale(databaseUrl: string, options: { benches?: number
       detail: { type: "jsonb", values: A.detail },
       at: { type: "timestamptz", values: A.at },
     });
+    await insertColumns(client, "build_record", {
+      id: { type: "uuid", values: K.id },
+      revision_id: { type: "uuid", values: K.revision },
+      bench_id: { type: "uuid", values: K.bench },
+      content_hash: { type: "text", values: K.hash },
+      technician_id: { type: "text", values: K.by },
+      state: { type: "text", values: K.id.map(() => "completed") },
+      created_at: { type: "timestamptz", values: K.at },
+      updated_at: { type: "timestamptz", values: K.at },
+    });
+    await insertColumns(client, "build_observation", {
+      build_id: { type: "uuid", values: O.build },
+      aperture_id: { type: "text", values: O.build.map(() => "iris-1") },
+      centre_seen: { type: "text", values: O.mismatch.map((m) => (m ? "dark" : "bright")) },
+      centre_predicted: { type: "text", values: O.build.map(() => "bright") },
+      mismatch: { type: "boolean", values: O.mismatch },
+      reasons: { type: "jsonb", values: O.reasons },
+      recorded_by: { type: "text", values: O.by },
+      created_at: { type: "timestamptz", values: O.at },
+    });
     await client.query("commit");
     // As autovacuum would have by now: statistics and the visibility map (index-only scans rely on it).
     await client.query("vacuum analyze");
@@ -270,6 +307,8 @@ export async function seedScale(databaseUrl: string, options: { benches?: number
       comments: C.id.length,
       auditEvents: A.bench.length,
       trailRows: R.id.length + D.id.length + C.id.length + A.bench.length,
+      builds: K.id.length,
+      mismatchedObservations: O.mismatch.filter(Boolean).length,
     };
   } catch (error) {
     await client.query("rollback").catch(() => undefined);

@@ -123,11 +123,8 @@ export const hazardClassExpr = sql<string | null>`(${reviewDecision.hazardSummar
 
 const DAY_MS = 86_400_000;
 
-// Builds of the signed revision and their observations; build_record_revision_idx and build_observation_build_idx
-// keep these to index look-ups per row of a page.
-const buildsExpr = sql<number>`(select count(*)::int from build_record b where b.revision_id = ${reviewDecision.revisionId})`;
-const mismatchesExpr = sql<number>`(select count(*)::int from build_observation o join build_record b on b.id = o.build_id where b.revision_id = ${reviewDecision.revisionId} and o.mismatch)`;
-const photoMismatchesExpr = sql<number>`(select count(*)::int from build_observation o join build_record b on b.id = o.build_id where b.revision_id = ${reviewDecision.revisionId} and o.mismatch and exists (select 1 from photo_reading p where p.build_id = o.build_id and p.observation_id = o.id))`;
+// Whether a build of the signed revision recorded an observation that differs from the prediction (the filter and the
+// count above the list); build_record_revision_idx and build_observation_build_idx keep it to index look-ups.
 const hasMismatchExpr = sql`exists (select 1 from build_observation o join build_record b on b.id = o.build_id where b.revision_id = ${reviewDecision.revisionId} and o.mismatch)`;
 
 function filters(scope: LabScope, q: DeskQuery, now: Date): SQL[] {
@@ -184,9 +181,16 @@ const approvalColumns = {
   stepUpVerified: reviewDecision.stepUpVerified,
   decidedAt: reviewDecision.decidedAt,
   validUntil: reviewDecision.validUntil,
-  builds: buildsExpr,
-  mismatches: mismatchesExpr,
-  photoMismatches: photoMismatchesExpr,
+};
+
+/**
+ * Each row's builds as columns, for the CSV's keyset batches (no OFFSET, so each subquery runs once per row returned; a
+ * page instead asks buildCountsOf once for its rows, since an OFFSET would run these for every row it skips).
+ */
+const buildCountColumns = {
+  builds: sql<number>`(select count(*)::int from build_record b where b.revision_id = ${reviewDecision.revisionId})`,
+  mismatches: sql<number>`(select count(*)::int from build_observation o join build_record b on b.id = o.build_id where b.revision_id = ${reviewDecision.revisionId} and o.mismatch)`,
+  photoMismatches: sql<number>`(select count(*)::int from build_observation o join build_record b on b.id = o.build_id join photo_reading p on p.build_id = o.build_id and p.observation_id = o.id where b.revision_id = ${reviewDecision.revisionId} and o.mismatch)`,
 };
 
 function approvalsFrom(db: Database) {
@@ -198,11 +202,47 @@ function approvalsFrom(db: Database) {
     .innerJoin(lab, eq(lab.id, bench.labId));
 }
 
+function approvalsWithBuildsFrom(db: Database) {
+  return db
+    .select({ ...approvalColumns, ...buildCountColumns })
+    .from(reviewDecision)
+    .innerJoin(benchRevision, eq(benchRevision.id, reviewDecision.revisionId))
+    .innerJoin(bench, eq(bench.id, reviewDecision.benchId))
+    .innerJoin(lab, eq(lab.id, bench.labId));
+}
+
 type RawApproval = Awaited<ReturnType<ReturnType<typeof approvalsFrom>["execute"]>>[number];
 
-export function approvalView(r: RawApproval): ApprovalRow {
+export type BuildCounts = { builds: number; mismatches: number; photoMismatches: number };
+const NO_BUILDS: BuildCounts = { builds: 0, mismatches: 0, photoMismatches: 0 };
+
+/**
+ * For the rows of one page or batch: each revision's builds, the observations in them that differ from the prediction,
+ * and how many of those a screen photo's reading recorded. One grouped query over the page's revisions (not a
+ * subquery per row, which an OFFSET would also run for every row it skips).
+ */
+export async function buildCountsOf(db: Database, revisionIds: string[]): Promise<Map<string, BuildCounts>> {
+  const counts = new Map<string, BuildCounts>();
+  if (revisionIds.length === 0) return counts;
+  const { rows } = await db.execute<{ revision_id: string; builds: number; mismatches: number; photo_mismatches: number }>(sql`
+    select b.revision_id,
+           count(distinct b.id)::int as builds,
+           (count(distinct o.id) filter (where o.mismatch))::int as mismatches,
+           (count(distinct o.id) filter (where o.mismatch and p.id is not null))::int as photo_mismatches
+      from build_record b
+      left join build_observation o on o.build_id = b.id
+      left join photo_reading p on p.build_id = o.build_id and p.observation_id = o.id
+     where b.revision_id = any(${sql.param(revisionIds)}::uuid[])
+     group by b.revision_id`);
+  for (const r of rows) counts.set(r.revision_id, { builds: r.builds, mismatches: r.mismatches, photoMismatches: r.photo_mismatches });
+  return counts;
+}
+
+/** A row for the desk: with its builds from `counts` (a page) or from its own columns (a CSV batch). */
+export function approvalView(r: RawApproval & Partial<BuildCounts>, counts?: Map<string, BuildCounts>): ApprovalRow {
   return {
     ...r,
+    ...(counts?.get(r.revisionId) ?? (r.builds === undefined ? NO_BUILDS : { builds: r.builds, mismatches: r.mismatches ?? 0, photoMismatches: r.photoMismatches ?? 0 })),
     state: r.state as ApprovalState,
     hazardClass: (HAZARD_CLASSES as readonly string[]).includes(r.hazardClass ?? "") ? (r.hazardClass as HazardClass) : null,
     decidedAt: r.decidedAt.toISOString(),
@@ -270,12 +310,12 @@ export async function* approvalBatches(db: Database, scope: LabScope, q: DeskQue
       const a: { decidedAt: Date; id: string } = after;
       where.push(or(lt(reviewDecision.decidedAt, a.decidedAt), and(eq(reviewDecision.decidedAt, a.decidedAt), lt(reviewDecision.id, a.id)))!);
     }
-    const rows = await approvalsFrom(db)
+    const rows = await approvalsWithBuildsFrom(db)
       .where(and(...where))
       .orderBy(desc(reviewDecision.decidedAt), desc(reviewDecision.id))
       .limit(batchSize);
     if (rows.length === 0) return;
-    yield rows.map(approvalView);
+    yield rows.map((r) => approvalView(r));
     const last = rows[rows.length - 1];
     after = { decidedAt: last.decidedAt, id: last.decisionId };
     if (rows.length < batchSize) return;

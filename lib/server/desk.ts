@@ -14,6 +14,7 @@ import {
   approvalsCsvStream,
   approvalsPageQuery,
   approvalView,
+  buildCountsOf,
   csvLine,
   deskQuery,
   streamOf,
@@ -32,7 +33,8 @@ export async function listApprovals(db: Database, actor: Actor, input: DeskQuery
     approvalsCountQuery(db, actor, input, now),
     approvalsCountQuery(db, actor, { ...input, builds: "mismatch" }, now),
   ]);
-  return { rows: rows.map(approvalView), total, mismatchTotal, page: input.page, pageSize: input.pageSize, pageCount: Math.max(1, Math.ceil(total / input.pageSize)), query: input };
+  const counts = await buildCountsOf(db, rows.map((r) => r.revisionId));
+  return { rows: rows.map((r) => approvalView(r, counts)), total, mismatchTotal, page: input.page, pageSize: input.pageSize, pageCount: Math.max(1, Math.ceil(total / input.pageSize)), query: input };
 }
 
 /** The choices the filters offer: labs and everyone who has ever signed off. */
