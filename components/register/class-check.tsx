@@ -1,5 +1,5 @@
 import { plainText } from "@/lib/format";
-import type { ComputedClass } from "@/lib/server/register";
+import type { ComputedClass } from "@/lib/api/contracts/register";
 
 /** The label class beside the engine's estimate; a mismatch is a warning in words and a shape, never a correction. */
 export function ClassCheck({ labelClass, computed, long = false }: { labelClass: string; computed: ComputedClass; long?: boolean }) {

@@ -4,7 +4,8 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
-import { apiFetch, ApiError, fieldError } from "@/lib/api/client";
+import { apiFetch, ApiError, checkBeforeSending, fieldError } from "@/lib/api/client";
+import { laserInput, laserUpdateInput } from "@/lib/api/contracts/register";
 import { HAZARD_CLASSES } from "@/lib/safety/types";
 
 type Option = { id: string; name: string };
@@ -110,6 +111,8 @@ export function LaserForm({ labs, people, initial, laserId, version }: { labs: O
         lines: lines.map((l) => ({ wavelengthNm: numberOrNull(l.wavelengthNm), powerMw: numberOrNull(l.powerMw) })),
         ...(laserId ? { version } : {}),
       };
+      // checked against the routes' own schema first: each mistake is named under its field without a round trip
+      checkBeforeSending(laserId ? laserUpdateInput : laserInput, body);
       return apiFetch<{ id: string }>(laserId ? `/api/lasers/${laserId}` : "/api/lasers", { method: laserId ? "PUT" : "POST", body: JSON.stringify(body) });
     },
     onSuccess: (saved) => {

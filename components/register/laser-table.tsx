@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { fmt } from "@/components/review/format";
-import type { LaserView } from "@/lib/server/register";
+import type { LaserView } from "@/lib/api/contracts/register";
 import { ClassCheck } from "./class-check";
 import { LaserStatusBadge } from "./laser-status-badge";
 

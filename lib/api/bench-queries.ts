@@ -7,7 +7,7 @@ import type { BenchSafetyAssessment, TableSafetyAssessment } from "@/lib/safety"
 import type { TableAnalysis } from "@/lib/optics/table";
 import type { BenchDetail } from "@/lib/server/benches";
 import { createBenchInput, type DraftView, type FrozenRevision, type RailDraftView } from "@/lib/api/contracts/benches";
-import type { LaserView } from "@/lib/server/register";
+import type { LaserView } from "@/lib/api/contracts/register";
 import { apiFetch, checkBeforeSending, conflictCurrent, queryKeys, type ApiError } from "./client";
 
 export type { BenchDetail, DraftView, FrozenRevision, LaserView, RailDraftView };

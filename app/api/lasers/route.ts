@@ -1,6 +1,7 @@
 import { getDb } from "@/db";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
-import { createLaser, laserInput, laserListQuery, listLasers } from "@/lib/server/register";
+import { laserInput } from "@/lib/api/contracts/register";
+import { createLaser, laserListQuery, listLasers } from "@/lib/server/register";
 
 /** The register, or one lab's lasers (?labId=) for the editor's laser picker; ?status=in-service narrows it. */
 export const GET = apiRoute({ register: ["read"] }, async ({ request, actor }) => {

@@ -1,6 +1,7 @@
 import { getDb } from "@/db";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
-import { getLaser, laserUpdateInput, updateLaser } from "@/lib/server/register";
+import { laserUpdateInput } from "@/lib/api/contracts/register";
+import { getLaser, updateLaser } from "@/lib/server/register";
 
 export const GET = apiRoute<{ laserId: string }>({ register: ["read"] }, async ({ actor, params }) => getLaser(getDb(), actor, params.laserId));
 
