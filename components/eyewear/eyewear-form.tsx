@@ -4,7 +4,8 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
-import { apiFetch, ApiError, fieldError } from "@/lib/api/client";
+import { apiFetch, ApiError, checkBeforeSending, fieldError } from "@/lib/api/client";
+import { eyewearInput, eyewearUpdateInput } from "@/lib/api/contracts/eyewear";
 
 export type EyewearFormItem = {
   id: string;
@@ -44,6 +45,8 @@ export function EyewearForm({ labId, item, onDone }: { labId: string; item?: Eye
         bands: bands.map((b) => ({ fromNm: numberOrNull(b.fromNm), toNm: numberOrNull(b.toNm), opticalDensity: numberOrNull(b.opticalDensity), en207ScaleNumber: numberOrNull(b.en207ScaleNumber) })),
         ...(item ? { version: item.version } : {}),
       };
+      // checked against the routes' own schema first: each mistake is named under its field without a round trip
+      checkBeforeSending(item ? eyewearUpdateInput : eyewearInput, body);
       return apiFetch<{ id: string }>(item ? `/api/eyewear/${item.id}` : "/api/eyewear", { method: item ? "PUT" : "POST", body: JSON.stringify(body) });
     },
     onSuccess: () => {

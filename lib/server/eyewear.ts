@@ -3,61 +3,24 @@
 import "server-only";
 import { and, asc, eq, inArray, sql, type SQL } from "drizzle-orm";
 import { z } from "zod";
-import { safeText } from "@/lib/validation/text";
 import type { Database, DbOrTx } from "@/db";
 import { eyewearBand, eyewearItem, lab, SAFETY_STANDARDS, type SafetyStandard } from "@/db/schema";
 import { AppError, notFound } from "@/lib/errors";
-import { eyewearBandsSchema, eyewearCoverage, eyewearNameSchema, lineNeeds, type EyewearCoverage, type EyewearItem, type HazardAnswerLines } from "@/lib/safety/eyewear";
+import { eyewearCoverage, lineNeeds, type EyewearCoverage, type EyewearItem, type HazardAnswerLines } from "@/lib/safety/eyewear";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
 import { labStandard } from "./lab-standard";
 import { assessAnyRevision } from "@/lib/review/hazard";
 import { inScope, scopeHolds } from "./scope";
+import type { EyewearBandView, EyewearInput, EyewearUpdateInput, EyewearView } from "@/lib/api/contracts/eyewear";
 import { loadRevision } from "./reviews";
 
-// ── Inputs ────────────────────────────────────────────────────────────────────────────────────
-export const eyewearInput = z.object({
-  labId: z.uuid({ error: "Lab (labId): choose the lab that keeps the eyewear" }),
-  name: eyewearNameSchema,
-  quantity: z
-    .number({ error: "Quantity (quantity) must be a whole number" })
-    .int("Quantity (quantity) must be a whole number")
-    .min(1, "Quantity (quantity) must be at least 1")
-    .max(1000, "Quantity (quantity) must be at most 1000")
-    .default(1),
-  note: safeText({ error: "Note (note) must be text" })
-    .trim()
-    .max(500, "Note (note) must be at most 500 characters")
-    .nullish()
-    .transform((v) => (v ? v : null)),
-  bands: eyewearBandsSchema,
-});
-export type EyewearInput = z.infer<typeof eyewearInput>;
-
-export const eyewearUpdateInput = eyewearInput.extend({
-  version: z.number({ error: "Version (version): send the version you edited" }).int("Version (version) must be a whole number").min(1, "Version (version) must be at least 1"),
-});
-export type EyewearUpdateInput = z.infer<typeof eyewearUpdateInput>;
-
+// ── Inputs (the item's form and views: lib/api/contracts/eyewear.ts) ────────────────────────────────────────────────────────────────────────────────────
 export const eyewearListQuery = z.object({ labId: z.uuid({ error: "labId must be a lab id" }).optional() });
 
 export const labStandardInput = z.object({
   standard: z.enum(SAFETY_STANDARDS, { error: `Standard (standard) must be one of: ${SAFETY_STANDARDS.join(", ")}` }),
 });
-
-// ── Views ─────────────────────────────────────────────────────────────────────────────────────
-export type EyewearBandView = { fromNm: number; toNm: number; opticalDensity: number; en207ScaleNumber: number | null };
-export type EyewearView = {
-  id: string;
-  labId: string;
-  labName: string;
-  name: string;
-  quantity: number;
-  note: string | null;
-  bands: EyewearBandView[];
-  version: number;
-  updatedAt: string;
-};
 
 async function loadItems(db: DbOrTx, where: SQL | undefined): Promise<EyewearView[]> {
   const rows = await db

@@ -1,6 +1,7 @@
 import { getDb } from "@/db";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
-import { createEyewear, eyewearInput, eyewearListQuery, listEyewear } from "@/lib/server/eyewear";
+import { eyewearInput } from "@/lib/api/contracts/eyewear";
+import { createEyewear, eyewearListQuery, listEyewear } from "@/lib/server/eyewear";
 
 /** The eyewear of the labs the caller may see, or one lab's (?labId=). */
 export const GET = apiRoute({ eyewear: ["read"] }, async ({ request, actor }) => {

@@ -1,6 +1,7 @@
 import { getDb } from "@/db";
 import { apiRoute, parseWith, readJson } from "@/lib/server/api";
-import { deleteEyewear, eyewearUpdateInput, getEyewear, updateEyewear } from "@/lib/server/eyewear";
+import { eyewearUpdateInput } from "@/lib/api/contracts/eyewear";
+import { deleteEyewear, getEyewear, updateEyewear } from "@/lib/server/eyewear";
 
 export const GET = apiRoute<{ itemId: string }>({ eyewear: ["read"] }, async ({ actor, params }) => getEyewear(getDb(), actor, params.itemId));
 
