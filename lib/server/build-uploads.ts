@@ -13,7 +13,8 @@ import { authorize, type Actor } from "./authorize";
 import { safeFileName, assertUploadSize, sniffFileType } from "@/lib/build/rules";
 import type { BuildView, UploadView } from "@/lib/api/contracts/builds";
 
-import { aboutRevision, assertRecordable, buildView, loadBuild } from "./builds";
+import { aboutRevision, assertRecordable, loadBuild } from "./builds";
+import { buildView } from "./build-views";
 
 export async function addUpload(
   db: Database,

@@ -19,7 +19,8 @@ import { OPTICS_ENGINE_VERSION } from "@/lib/optics/version";
 import { storage } from "@/lib/storage";
 import { recordAudit } from "./audit";
 import { authorize, type Actor } from "./authorize";
-import { aboutRevision, assertRecordable, buildView, loadBuild, mailMismatchToAuthor, photoReadingViews } from "./builds";
+import { aboutRevision, assertRecordable, loadBuild, mailMismatchToAuthor } from "./builds";
+import { buildView, photoReadingViews } from "./build-views";
 import { decodePhoto, PhotoDecodeError, type DecodedPhoto } from "./photo-decode";
 
 /**
