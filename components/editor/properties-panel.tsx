@@ -8,6 +8,7 @@ import { KIND_INFO } from "./element-kinds";
 import { LaserLines } from "./laser-lines";
 import { NumberField } from "./number-field";
 import { RegisterEntryBox } from "./register-entry";
+import { LaserRegimeLine } from "@/components/review/pulse-regime";
 import type { EditorAction } from "./editor-reducer";
 
 type Props = {
@@ -69,6 +70,7 @@ export function PropertiesPanel({ selected, canEdit, dispatch, warnings, labId, 
           />
         ))}
       </div>
+      {element.kind === "laser" ? <LaserRegimeLine laser={element} /> : null}
       {element.kind === "laser" ? <LaserLines laser={element} canEdit={canEdit} dispatch={dispatch} /> : null}
       {warnings.length > 0 ? (
         <ul className="mt-3 flex flex-col gap-1 text-sm text-warn" aria-label={`Warnings about ${element.id}`}>

@@ -2,7 +2,8 @@
 import { fmt } from "@/components/review/format";
 import type { BenchDocumentV2, LaserV2Element } from "@/lib/bench/schema-v2";
 import { plainText } from "@/lib/format";
-import { regimeRows, type RegimeRow } from "@/lib/format/pulse-regime";
+import { laserAveragePowerMw } from "@/lib/bench/laser-power";
+import { pulseRegimeWords, regimeRows, type PulseFields, type RegimeRow } from "@/lib/format/pulse-regime";
 import type { TableSafetyAssessment } from "@/lib/safety";
 
 /** A table's rows: every laser on it, each of its lines with the rule the engine names, and the pulsed MPE's source. */
@@ -69,5 +70,16 @@ export function PrintPulseRegime({ rows, source, showLaser = false }: { rows: re
       </table>
       {source ? <p style={{ margin: "0 0 3mm", fontSize: "9.5pt" }}>{plainText(source)}</p> : null}
     </>
+  );
+}
+
+/** The editor's line under a laser's fields: its regime and figures as typed (the rule comes with the review screen's figures). */
+export function LaserRegimeLine({ laser }: { laser: PulseFields & { powerMw?: number } }) {
+  const words = pulseRegimeWords(laser, { main: true, powerMw: laserAveragePowerMw(laser) ?? laser.powerMw ?? 0 }, null);
+  return (
+    <p className="mt-2 text-sm" data-testid="laser-regime">
+      <span className="text-muted">Pulse regime: </span>
+      <span className="font-medium">{words.title}</span> — {words.figures}
+    </p>
   );
 }

@@ -13,6 +13,7 @@ import type { EditorAction } from "../editor-reducer";
 import { LaserLines } from "../laser-lines";
 import { NumberField } from "../number-field";
 import { RegisterEntryBox } from "../register-entry";
+import { LaserRegimeLine } from "@/components/review/pulse-regime";
 import { holeOf } from "./table-geometry";
 import { powerText } from "./table-canvas";
 import type { TablePredictions } from "./table-engine";
@@ -121,6 +122,7 @@ export const TableProperties = memo(function TableProperties({ doc, selected, ca
           />
         ))}
       </div>
+      {laser ? <LaserRegimeLine laser={laser} /> : null}
       {laser ? <LaserLines laser={laser} canEdit={canEdit} dispatch={laserDispatch} /> : null}
     </section>
   );
