@@ -9,12 +9,12 @@ import { draftQuery, inServiceLasersQuery, type RailDraftView } from "@/lib/api/
 import { ELEMENT_KINDS, type BenchDocument, type ElementKind } from "@/lib/bench/schema";
 import type { AnyBenchDocument, BenchDocumentV2 } from "@/lib/bench/schema-v2";
 import { railToTable } from "./table/table-reducer";
-import { StateBadge } from "@/components/ui/state-badge";
 import { ApertureTable } from "./aperture-table";
 import { ScreenTable } from "./screen-table";
 import { CANVAS_HEIGHT } from "./canvas-constants";
 import { ChangesSinceReview } from "./changes-since-review";
 import { EditorNotices } from "./editor-notices";
+import { EditorTitle } from "./editor-title";
 import { ElementList } from "./element-list";
 import { SNAP_CHOICES, snapMm } from "./element-kinds";
 import { FinderPanel } from "./finder-panel";
@@ -222,25 +222,7 @@ function EditorBody({ benchId, labId, labName, authorName, initial, shelf = null
   return (
     <div onKeyDown={onKeyDown} className="flex flex-col gap-4" data-testid="bench-editor">
       <header className="flex flex-wrap items-start justify-between gap-3">
-        <div className="min-w-0 flex-1">
-          <p className="text-sm text-muted">
-            {labName} · by {authorName} · revision {save.base.revisionNumber} <StateBadge state={baseState} />
-          </p>
-          {canEdit ? (
-            <label className="mt-1 block">
-              <span className="sr-only">Bench title</span>
-              <input
-                value={doc.title ?? ""}
-                onChange={(e) => dispatch({ type: "set-title", title: e.target.value, coalesce: "title" })}
-                placeholder="Untitled bench"
-                maxLength={200}
-                className="w-full rounded-md border border-transparent bg-transparent px-1 text-2xl font-semibold hover:border-line focus:border-line"
-              />
-            </label>
-          ) : (
-            <h1 className="text-2xl font-semibold">{doc.title ?? "Untitled bench"}</h1>
-          )}
-        </div>
+        <EditorTitle labName={labName} authorName={authorName} revisionNumber={save.base.revisionNumber} state={baseState} title={doc.title} canEdit={canEdit} onTitle={(title) => dispatch({ type: "set-title", title, coalesce: "title" })} />
         <div className="flex items-start gap-3">
           {canEdit ? (
             <button

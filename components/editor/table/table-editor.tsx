@@ -10,10 +10,10 @@ import { useCallback, useEffect, useMemo, useReducer, useRef, useState, type Dra
 import { draftQuery, type DraftView } from "@/lib/api/bench-queries";
 import { ELEMENT_KIND_RECORDS } from "@/lib/bench/element-kinds";
 import { benchDocumentV2Schema, TABLE_ELEMENT_KINDS, type BenchDocumentV2, type TableElement, type TableElementKind } from "@/lib/bench/schema-v2";
-import { StateBadge } from "@/components/ui/state-badge";
 import { SubmitForReview } from "@/components/review/submit-for-review";
 import { ChangesSinceReview } from "../changes-since-review";
 import { EditorNotices } from "../editor-notices";
+import { EditorTitle } from "../editor-title";
 import { RevisionsPanel } from "../revisions-panel";
 import { ImportExport } from "../import-export";
 import { documentKey } from "../document-key";
@@ -170,25 +170,7 @@ export function TableEditor({ benchId, labName, authorName, initial, start }: Pr
   return (
     <div onKeyDown={onKeyDown} className="flex flex-col gap-4" data-testid="table-editor">
       <header className="flex flex-wrap items-start justify-between gap-3">
-        <div className="min-w-0 flex-1">
-          <p className="text-sm text-muted">
-            {labName} · by {authorName} · revision {save.base.revisionNumber} <StateBadge state={baseState} /> · on an optical table
-          </p>
-          {canEdit ? (
-            <label className="mt-1 block">
-              <span className="sr-only">Bench title</span>
-              <input
-                value={doc.title ?? ""}
-                onChange={(e) => dispatch({ type: "set-title", title: e.target.value, coalesce: "title" })}
-                placeholder="Untitled bench"
-                maxLength={200}
-                className="w-full rounded-md border border-transparent bg-transparent px-1 text-2xl font-semibold hover:border-line focus:border-line"
-              />
-            </label>
-          ) : (
-            <h1 className="text-2xl font-semibold">{doc.title ?? "Untitled bench"}</h1>
-          )}
-        </div>
+        <EditorTitle labName={labName} authorName={authorName} revisionNumber={save.base.revisionNumber} state={baseState} onWhat="on an optical table" title={doc.title} canEdit={canEdit} onTitle={(title) => dispatch({ type: "set-title", title, coalesce: "title" })} />
         <div className="flex items-start gap-3">
           <ImportExport doc={doc} canEdit={canEdit} onImport={(d: BenchDocumentV2) => dispatch({ type: "replace", doc: d })} benchId={benchId} base={save.base} />
           <SaveStatus state={save.state} />
