@@ -351,16 +351,7 @@ function RailSheet({ sheet, paper, eyewear = null }: { sheet: SheetContent; pape
           </div>
         ))}
         {analysis?.screens.length ? <ScreenFigures screens={analysis.screens} /> : null}
-        {analysis?.warnings.length ? (
-          <div className="box">
-            <h3 style={{ marginTop: 0 }}>Notes on the predictions</h3>
-            <ul>
-              {analysis.warnings.map((w, i) => (
-                <li key={i}>{plainText(w.message)}</li>
-              ))}
-            </ul>
-          </div>
-        ) : null}
+        <PrintNotes title="Notes on the predictions" warnings={analysis?.warnings ?? []} />
       </section>
 
       {/* ── Safety and approval ─────────────────────────────────────────────────────────── */}
@@ -477,5 +468,20 @@ export function PrintScope() {
       </ul>
       <p className="warn">{FINAL_SAY}</p>
     </>
+  );
+}
+
+/** The engines' warnings beside the predictions, in plain words, boxed; nothing when there are none. */
+export function PrintNotes({ title, warnings }: { title: string; warnings: readonly { message: string }[] }) {
+  if (warnings.length === 0) return null;
+  return (
+    <div className="box">
+      <h3 style={{ marginTop: 0 }}>{title}</h3>
+      <ul>
+        {warnings.map((w, i) => (
+          <li key={i}>{plainText(w.message)}</li>
+        ))}
+      </ul>
+    </div>
   );
 }

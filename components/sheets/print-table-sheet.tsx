@@ -8,7 +8,7 @@ import type { CoverageData } from "@/components/eyewear/coverage-list";
 import { PrintCoverage, PrintStandard } from "@/components/eyewear/print-coverage";
 import { TablePlan } from "@/components/table/table-plan";
 import { EMPTY_TABLE_ANALYSIS } from "@/lib/review/hazard";
-import { ApprovalBox, NotComputed, PrintCautions, PrintScope, ScreenFigures, SHEET_CSS, SheetHead } from "./print-sheet";
+import { ApprovalBox, NotComputed, PrintCautions, PrintNotes, PrintScope, ScreenFigures, SHEET_CSS, SheetHead } from "./print-sheet";
 import { PrintPulseRegime, tableLineSources, tableRegime } from "@/components/review/pulse-regime";
 
 /** Where the lines' MPE and NOHD come from, each once, in words (the clause and that it is not yet checked). */
@@ -203,16 +203,7 @@ export function PrintTableSheet({ sheet, paper, eyewear = null }: { sheet: Table
             </tbody>
           </table>
         ) : null}
-        {analysis?.warnings.length ? (
-          <div className="box">
-            <h3 style={{ marginTop: 0 }}>Notes on the beams</h3>
-            <ul>
-              {analysis.warnings.map((w, i) => (
-                <li key={i}>{plainText(w.message)}</li>
-              ))}
-            </ul>
-          </div>
-        ) : null}
+        <PrintNotes title="Notes on the beams" warnings={analysis?.warnings ?? []} />
       </section>
 
       <section className="page">
