@@ -370,7 +370,11 @@ const focalShift = (shiftMm: number): string =>
 const named = (e: { id: string; kind: string }): string => `${kindNoun(e.kind)} "${e.id}"`;
 
 /** What a caller may share between analyses: the field chain's cache of common beginnings (see FieldChain). */
-export type AnalyzeOptions = { chainCache?: ChainPrefixCache };
+export type AnalyzeOptions = {
+  chainCache?: ChainPrefixCache;
+  /** false: leave the drawing envelope out (the table's leaves, which draw from their paths instead). */
+  envelope?: boolean;
+};
 
 /** Pure and synchronous; never throws for a document the schema accepts. */
 export function analyzeBench(doc: BenchDocument, options: AnalyzeOptions = {}): BenchAnalysis {
@@ -683,7 +687,7 @@ export function analyzeBench(doc: BenchDocument, options: AnalyzeOptions = {}): 
     apertures,
     screens,
     waists: waistsOf(trace),
-    envelope: envelopeOf(trace),
+    envelope: options.envelope === false ? [] : envelopeOf(trace),
     warnings,
   };
 }

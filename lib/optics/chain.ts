@@ -5,7 +5,7 @@
 // along one unfolded axis (positionMm increasing), so a table path can be fed in as well as a straight bench.
 //
 // Method. The first element that clips the Gaussian (an aperture, or a lens/filter whose clearApertureMm is given,
-// with R²/w² < 20) is a "clip plane": its field is the coherent Gaussian (real 1/e² radius W and wavefront radius of
+// with R²/w² < 8) is a "clip plane": its field is the coherent Gaussian (real 1/e² radius W and wavefront radius of
 // the embedded Gaussian, true λ) cut off at R. Between clip planes every lens and stretch of free space is one ABCD
 // matrix, and the field at the next plane is Collins' integral
 //   u'(r) = (2π/(iλB)) e^{iπDr²/(λB)} ∫₀^X u(ρ) e^{iπAρ²/(λB)} J₀(2πρr/(λB)) ρ dρ,
@@ -24,20 +24,33 @@
 // holds of the order of 1e-3 of the power the upstream edge diffracts); (2) when a hop would cost more than
 // MAX_HOP_WORK node pairs (Fresnel numbers in the tens of thousands, or B → 0: a plane imaged onto the next), the
 // field there is taken in the geometric limit — the Gaussian cut at the projected shadow of the previous edge, exact
-// for B = 0 — and the plane's method says so. Paraxial scalar theory throughout, like the rest of the engine.
+// for B = 0 — and the plane's method says so; (3) an edge that cuts at most e^{−16} of the Gaussian (R²/w² ≥ 8) is no
+// clip plane: the centre figures downstream move by at most 7e-4 of themselves, and the power probes add its loss
+// back as an upper bound (powerInsideMw). Power inside a circle comes from the Lommel integral over node pairs
+// (powerInsideCircle), not from the field on a target grid. Paraxial scalar theory throughout, like the rest of the engine.
 import type { BenchElement } from "@/lib/bench/schema";
 import { type AbcdMatrix, type BeamParameter, IDENTITY, applyAbcd, beamRadiusM, compose, curvaturePerM, freeSpace, propagateQ, lensQ, qFromBeam, thinLens, wavefrontRadiusM } from "./gaussian";
-import { besselJ0, fastJ0, prepareFastJ0 } from "./bessel";
+import { besselJ0, besselJ1, fastJ0, prepareFastJ0 } from "./bessel";
 import { gaussLegendre } from "./quadrature";
 
 const M_PER_MM = 1e-3;
 const GL_ORDER = 16;
 const CYCLES_PER_PANEL = 4;
-/** R²/w² at or above this clips below e^{−40}: not a clip plane (and the Gaussian's reach, √40·w). */
-const GAUSSIAN_CLIP_LIMIT = 20;
+/**
+ * R²/w² at or above this cuts at most e^{−16} ≈ 1.1e-7 of the Gaussian's power: not a clip plane. The centre intensity
+ * it would change by at most 2e^{−8} ≈ 7e-4 of itself; the power it removes is kept (the chain's skipped edges) and
+ * the power probes add it back as a rigorous bound, so the safety figures stay on the cautious side.
+ */
+const GAUSSIAN_CLIP_LIMIT = 8;
+/** The Gaussian's reach on a plane: beyond √40·w it holds e^{−80} of the power. */
 const GAUSSIAN_REACH = Math.sqrt(40);
 /** Diffraction spread allowed beyond the geometric image when deciding that a later aperture does not clip (× λ/X). */
 const TAIL_SPREAD = 100;
+/**
+ * The same spread for a power probe's "a circle wider than the field holds all of it": a smaller margin only makes the
+ * figure a little larger than the field's (never smaller); tests/unit/optics/chain.test.ts measures the excess.
+ */
+const PROBE_TAIL_SPREAD = 10;
 /** Node pairs (source nodes × target points) one hop may cost before the geometric limit is used. */
 export const MAX_HOP_WORK = 2e6;
 /** Nodes one plane may hold (memory bound). */
@@ -137,7 +150,11 @@ type PrefixState = {
   results: ChainElementResult[];
   coherentQ: BeamParameter[];
   kept: ChainElement[];
+  skipped: SkippedEdge[];
 };
+
+/** An edge before the first clip plane that cuts too little to be one (R²/w² ≥ GAUSSIAN_CLIP_LIMIT). */
+type SkippedEdge = { index: number; positionMm: number; /** Share of the power arriving there that it removes, e^{−2R²/w²}. */ lostShare: number };
 
 type PrefixNode = { state: PrefixState | null; next: Map<string, PrefixNode> };
 
@@ -145,11 +162,12 @@ type PrefixNode = { state: PrefixState | null; next: Map<string, PrefixNode> };
 export class ChainPrefixCache {
   private readonly roots = new Map<string, PrefixNode>();
   private readonly keys = new WeakMap<object, string>();
-  /** The key of an element: its JSON (elements are plain data), remembered per object. */
+  /** The key of an element: every field the chain reads of it, remembered per object. */
   keyOf(e: ChainElement): string {
     let k = this.keys.get(e);
     if (k === undefined) {
-      k = JSON.stringify(e);
+      const f = e as { focalLengthMm?: number; diameterMm?: number; clearApertureMm?: number; opticalDensity?: number };
+      k = `${e.kind}|${e.id}|${e.positionMm}|${f.focalLengthMm}|${f.diameterMm}|${f.clearApertureMm}|${f.opticalDensity}`;
       this.keys.set(e, k);
     }
     return k;
@@ -202,6 +220,7 @@ export class FieldChain {
   /** Coherent q (true λ) just before element i, and the beam position. */
   private readonly coherentQ: BeamParameter[];
   private readonly firstPlaneQ: BeamParameter | null;
+  private readonly skipped: SkippedEdge[];
 
   constructor(start: ChainStart, elements: readonly ChainElement[], wavelengthM: number, m2: number, options: ChainOptions = {}) {
     this.start = start;
@@ -224,6 +243,7 @@ export class FieldChain {
     let firstPlaneQ: BeamParameter | null = null;
     let sinceLast: AbcdMatrix = IDENTITY; // from the last clip plane to here
     let kept: ChainElement[] = [];
+    let skipped: SkippedEdge[] = [];
     // go on from the longest cached beginning (a stop ends a chain, so a cached state never follows one)
     const cache = options.prefixCache;
     let node: PrefixNode | null = null;
@@ -244,6 +264,7 @@ export class FieldChain {
         results = best.results.slice();
         coherentQ = best.coherentQ.slice();
         kept = best.kept.slice();
+        skipped = best.skipped.slice();
       }
     }
     for (let i = from; i < elements.length; i++) {
@@ -265,7 +286,10 @@ export class FieldChain {
         const prev = states.length === 0 ? null : states[states.length - 1];
         if (prev === null) {
           const a = (radius * radius) / (wReal * wReal);
-          if (a < GAUSSIAN_CLIP_LIMIT) {
+          if (a >= GAUSSIAN_CLIP_LIMIT) {
+            const lostShare = Math.exp(-2 * a);
+            if (lostShare > 0) skipped.push({ index: i, positionMm: e.positionMm, lostShare });
+          } else {
             qc = qHere;
             firstPlaneQ = qHere;
             referencePowerMw = powerMw;
@@ -310,7 +334,7 @@ export class FieldChain {
         let child = node.next.get(key);
         if (!child) node.next.set(key, (child = { state: null, next: new Map() }));
         if (child.state === null) {
-          child.state = { q, last, powerMw, referencePowerMw, qc, firstPlaneQ, sinceLast, states: states.slice(), results: results.slice(), coherentQ: coherentQ.slice(), kept: kept.slice() };
+          child.state = { q, last, powerMw, referencePowerMw, qc, firstPlaneQ, sinceLast, states: states.slice(), results: results.slice(), coherentQ: coherentQ.slice(), kept: kept.slice(), skipped: skipped.slice() };
         }
         node = child;
       }
@@ -323,6 +347,12 @@ export class FieldChain {
     this.referencePowerMw = referencePowerMw;
     this.coherentQ = coherentQ;
     this.firstPlaneQ = firstPlaneQ;
+    this.skipped = skipped;
+  }
+
+  /** True when the field differs from the plain Gaussian anywhere: a clip plane, or an edge that cuts too little to be one. */
+  get clipsAnything(): boolean {
+    return this.states.length > 0 || this.skipped.length > 0;
   }
 
   /** The next clip plane behind `prev`, or null when the element's edge lies outside the field (see header, limit 1). */
@@ -331,9 +361,7 @@ export class FieldChain {
     const w = beamRadiusM(qc, lambda);
     const kappa = curvaturePerM(qc);
     const shadow = prev.reachM * Math.abs(matrix.a + matrix.b * prev.gaussianCurvaturePerM);
-    const spread = (3 * lambda) / (Math.PI * prev.gaussianRadiusM) + (TAIL_SPREAD * lambda) / prev.reachM;
-    const extent = shadow + Math.abs(matrix.b) * spread;
-    if (!(radius < extent)) return null;
+    if (!(radius < this.extentM(prev, matrix))) return null;
     const base = {
       elementId: e.id, index, positionMm: e.positionMm, radiusM: radius, gaussianRadiusM: w, gaussianCurvaturePerM: kappa,
       powerInRel: prev.powerOutRel,
@@ -536,36 +564,48 @@ export class FieldChain {
 
   /**
    * Power (mW) inside a centred circle of radius radiusM at a position on the axis, from the propagated field; null
-   * where no clip plane lies upstream (the plain Gaussian holds there) or the position is outside the chain.
-   * `beforeIndex`: count only the planes before that element (the light arriving at it).
+   * where nothing upstream clips (the plain Gaussian holds there) or the position is outside the chain.
+   * `beforeIndex`: count only the edges before that element (the light arriving at it).
+   *
+   * Two shortcuts, both never below the field's own figure: a circle wider than the field's extent (the geometric
+   * image of the last plane's edge plus its diffraction spread, the test nextPlane uses) holds all the power; and the
+   * edges that cut too little to be planes (GAUSSIAN_CLIP_LIMIT) are added back by the triangle inequality on the
+   * circle — the true field is the one computed without them minus what each blocked, and a blocked part, carried on
+   * by the same lossless system and cut further by later edges, holds at most the power lost there:
+   * √P_true ≤ √P_computed + Σ √lost.
    */
   powerInsideMw(positionMm: number, radiusM: number, beforeIndex?: number, options: { boundWithin?: number } = {}): number | null {
+    if (!(radiusM > 0)) return null;
+    const upstream = (index: number, pos: number) => (beforeIndex !== undefined ? index < beforeIndex : pos < positionMm);
     let plane: PlaneState | null = null;
-    for (const p of this.states) {
-      if (beforeIndex !== undefined ? p.index < beforeIndex : p.positionMm < positionMm) plane = p;
-    }
-    if (plane === null || !(radiusM > 0)) return null;
+    for (const p of this.states) if (upstream(p.index, p.positionMm)) plane = p;
+    const edges = this.skipped.filter((s) => upstream(s.index, s.positionMm));
+    if (plane === null && edges.length === 0) return null;
     const end = this.stopIndex === null ? Infinity : this.elements[this.stopIndex].positionMm;
     if (positionMm > end) return null;
+    if (plane === null) return this.skippedEdgesBoundMw(positionMm, radiusM, beforeIndex, edges);
+    // the skipped edges' losses relative to the power arriving at the first plane (÷ what all of them left: never less)
+    const keptShare = edges.reduce((k, s) => k - s.lostShare, 1);
+    const rootSkipped = edges.reduce((sum, s) => sum + Math.sqrt(s.lostShare / keptShare), 0);
+    const widen = (rel: number) => (rootSkipped > 0 ? (Math.sqrt(rel) + rootSkipped) ** 2 : rel);
     // filters between the first plane and the position
     let filters = 1;
     for (let i = 0; i < this.elements.length; i++) {
       const e = this.elements[i];
-      const before = beforeIndex !== undefined ? i < beforeIndex : e.positionMm < positionMm;
-      if (!before) break;
+      if (!upstream(i, e.positionMm)) break;
       if (e.kind === "filter" && this.firstPlaneQ !== null && i >= this.states[0].index) filters *= Math.pow(10, -e.opticalDensity);
     }
     const scaleMw = this.referencePowerMw * filters;
-    const total = plane.powerOutRel;
+    const total = widen(plane.powerOutRel);
+    const matrix = this.matrixFrom(plane, beforeIndex ?? this.elements.length, beforeIndex === undefined ? positionMm : undefined);
+    if (radiusM >= this.extentM(plane, matrix, PROBE_TAIL_SPREAD)) return total * scaleMw;
     if (options.boundWithin !== undefined) {
-      // An upper bound without the field: the field here is the unclipped Gaussian minus what each edge blocked, carried
-      // on by the same lossless paraxial system, and each blocked part holds the power lost at its edge. By the triangle
-      // inequality on the circle, √P_in ≤ √P_in(Gaussian) + Σ √(lost). Used when it is within `boundWithin` of the
-      // Gaussian's own figure (edges that cut almost nothing); never below the true value, so never less cautious.
+      // An upper bound without the field (the same inequality with the unclipped Gaussian and every edge's loss). Used
+      // when it is within `boundWithin` of the Gaussian's own figure (edges that cut almost nothing).
       const first = this.states[0];
-      let rootLost = 0;
+      let rootLost = rootSkipped;
       for (const p of this.states) {
-        if (beforeIndex !== undefined ? p.index >= beforeIndex : p.positionMm >= positionMm) break;
+        if (!upstream(p.index, p.positionMm)) break;
         rootLost += Math.sqrt(Math.max(0, p.powerInRel - p.powerOutRel));
       }
       const toHere = this.matrixFrom(first, beforeIndex ?? this.elements.length, beforeIndex === undefined ? positionMm : undefined);
@@ -578,15 +618,10 @@ export class FieldChain {
         return Math.min(bound, total) * scaleMw;
       }
     }
-    const matrix = this.matrixFrom(plane, beforeIndex ?? this.elements.length, beforeIndex === undefined ? positionMm : undefined);
-    const panels = this.panelsFor(plane, matrix, radiusM, "power", null);
-    const source = Number.isFinite(panels) ? this.sourceNodesFor(plane, matrix, radiusM, options.boundWithin !== undefined) : null;
+    const source = Math.abs(matrix.b) > 0 ? this.sourceNodesFor(plane, matrix, radiusM) : null;
     let rel: number;
-    if (source !== null && source.rho.length * panels * GL_ORDER <= this.maxHopWork) {
-      const nodes = quadratureNodes(radiusM, panels);
-      const out = hop(source, matrix, this.wavelengthM, nodes.rho, this.exactBessel);
-      rel = 0;
-      for (let k = 0; k < nodes.rho.length; k++) rel += 2 * Math.PI * nodes.wr[k] * (out.re[k] * out.re[k] + out.im[k] * out.im[k]);
+    if (source !== null && (source.rho.length * source.rho.length) / 2 <= this.maxHopWork) {
+      rel = powerInsideCircle(source, matrix, this.wavelengthM, radiusM);
     } else {
       // geometric limit: the Gaussian inside the projected edge, scaled to the plane's power
       const q = applyAbcd(matrix, this.planeQ(plane));
@@ -594,9 +629,44 @@ export class FieldChain {
       const shadow = plane.cutM * Math.abs(matrix.a + matrix.b * plane.gaussianCurvaturePerM);
       const inShadow = -Math.expm1((-2 * shadow * shadow) / (w * w));
       const r = Math.min(radiusM, shadow);
-      rel = inShadow > 0 ? (total * -Math.expm1((-2 * r * r) / (w * w))) / inShadow : total;
+      rel = inShadow > 0 ? (plane.powerOutRel * -Math.expm1((-2 * r * r) / (w * w))) / inShadow : plane.powerOutRel;
     }
-    return Math.min(rel, total) * scaleMw;
+    return Math.min(widen(rel), total) * scaleMw;
+  }
+
+  /**
+   * With only skipped edges upstream: the unclipped Gaussian's power inside the circle, widened by their losses
+   * (powerInsideMw's inequality); the power carried there is the Gaussian's less those losses, so it is scaled back up.
+   */
+  private skippedEdgesBoundMw(positionMm: number, radiusM: number, beforeIndex: number | undefined, edges: readonly SkippedEdge[]): number | null {
+    let q: BeamParameter;
+    let carriedMw: number;
+    if (beforeIndex !== undefined) {
+      if (beforeIndex >= this.results.length) return null;
+      q = this.coherentQ[beforeIndex];
+      carriedMw = this.results[beforeIndex].incidentPowerMw;
+    } else {
+      let j = -1;
+      for (let i = 0; i < this.results.length && this.elements[i].positionMm < positionMm; i++) j = i;
+      if (j < 0) return null;
+      const e = this.elements[j];
+      q = e.kind === "lens" ? lensQ(this.coherentQ[j], e.focalLengthMm * M_PER_MM) : this.coherentQ[j];
+      q = propagateQ(q, (positionMm - e.positionMm) * M_PER_MM);
+      carriedMw = this.results[j].outgoingPowerMw;
+    }
+    const w = beamRadiusM(q, this.wavelengthM);
+    const inside = -Math.expm1((-2 * radiusM * radiusM) / (w * w));
+    const keptShare = edges.reduce((k, s) => k * (1 - s.lostShare), 1);
+    const rootLost = edges.reduce((sum, s) => sum + Math.sqrt(s.lostShare), 0);
+    return (carriedMw / keptShare) * Math.min(1, (Math.sqrt(inside) + rootLost) ** 2);
+  }
+
+  /** How far from the axis the field of a plane reaches after `matrix`: the geometric image of its edge plus its diffraction spread (header, limit 1). */
+  private extentM(plane: PlaneState, matrix: AbcdMatrix, tailSpread = TAIL_SPREAD): number {
+    const lambda = this.wavelengthM;
+    const shadow = plane.reachM * Math.abs(matrix.a + matrix.b * plane.gaussianCurvaturePerM);
+    const spread = (3 * lambda) / (Math.PI * plane.gaussianRadiusM) + (tailSpread * lambda) / plane.reachM;
+    return shadow + Math.abs(matrix.b) * spread;
   }
 
   private planeQ(plane: PlaneState): BeamParameter {
@@ -610,6 +680,57 @@ function publicPlane(p: PlaneState): ClipPlane {
     elementId: p.elementId, index: p.index, positionMm: p.positionMm, radiusM: p.radiusM, method: p.method,
     gaussianRadiusM: p.gaussianRadiusM, gaussianCurvaturePerM: p.gaussianCurvaturePerM, powerInRel: p.powerInRel, powerOutRel: p.powerOutRel,
   };
+}
+
+/**
+ * Power inside the circle r ≤ a of the field Collins' integral gives from prepared source nodes (as `hop` takes them),
+ * without the field itself: 2π∫₀^a |u'(r)|² r dr = 2π(2π/λB)² Σₙ Σₘ gₙ gₘ* ∫₀^a J₀(αₙr) J₀(αₘr) r dr, αₙ = 2πρₙ/(λ|B|),
+ * and the inner integral in closed form (Lommel; Watson, Treatise on the Theory of Bessel Functions, 2nd ed., §5.11):
+ *   a[αₙ J₁(αₙa) J₀(αₘa) − αₘ J₀(αₙa) J₁(αₘa)] / (αₙ² − αₘ²),  and (a²/2)[J₀(αₙa)² + J₁(αₙa)²] when n = m.
+ * Two Bessel values per node instead of one per node pair and target point, and no target grid: the sum is over node
+ * pairs only (a Hermitian form, so half of them). The same sampling rule as a hop out to r = a.
+ */
+export function powerInsideCircle(source: NodeField, matrix: AbcdMatrix, wavelengthM: number, radiusM: number): number {
+  const n = source.rho.length;
+  const beta = (2 * Math.PI) / (wavelengthM * Math.abs(matrix.b));
+  const a = radiusM;
+  const x = new Float64Array(n);
+  const pA = new Float64Array(n); // Re g · J₀(αa)
+  const pB = new Float64Array(n); // Im g · J₀(αa)
+  const pC = new Float64Array(n); // Re g · α J₁(αa)
+  const pD = new Float64Array(n); // Im g · α J₁(αa)
+  let diagonal = 0;
+  for (let k = 0; k < n; k++) {
+    const alpha = beta * source.rho[k];
+    const j0 = besselJ0(alpha * a);
+    const j1 = besselJ1(alpha * a);
+    const gr = source.re[k];
+    const gi = source.im[k];
+    x[k] = alpha * alpha;
+    pA[k] = gr * j0;
+    pB[k] = gi * j0;
+    pC[k] = gr * alpha * j1;
+    pD[k] = gi * alpha * j1;
+    diagonal += (gr * gr + gi * gi) * ((a * a) / 2) * (j0 * j0 + j1 * j1);
+  }
+  // Σ_{n<m} Re(gₙ gₘ*) a (sₙuₘ − uₙsₘ)/(xₙ − xₘ), with u = J₀(αa), s = αJ₁(αa)
+  let off = 0;
+  for (let i = 0; i < n; i++) {
+    const xi = x[i];
+    let sA = 0;
+    let sB = 0;
+    let sC = 0;
+    let sD = 0;
+    for (let m = i + 1; m < n; m++) {
+      const d = 1 / (xi - x[m]);
+      sA += pA[m] * d;
+      sB += pB[m] * d;
+      sC += pC[m] * d;
+      sD += pD[m] * d;
+    }
+    off += pC[i] * sA + pD[i] * sB - pA[i] * sC - pB[i] * sD;
+  }
+  return 2 * Math.PI * beta * beta * (diagonal + 2 * a * off);
 }
 
 /** Collins' integral from prepared source nodes to radii r: (2π/(iλB))·e^{iπDr²/(λB)}·Σ g_n J₀(2πρ_n r/(λB)). */

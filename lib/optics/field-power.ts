@@ -21,7 +21,7 @@ export type FieldPowerProbe = (positionMm: number, radiusMm: number, elementId?:
 export function fieldPowerProbe(doc: BenchDocument, options: AnalyzeOptions & { boundWithin?: number } = {}): FieldPowerProbe | undefined {
   // with the cache analyzeBench used for the same document, the chain is not built a second time
   const build = buildChain(traceBench(doc), options.chainCache ? { prefixCache: options.chainCache } : {});
-  if (build === null || build.chain.planes.length === 0) return undefined;
+  if (build === null || !build.chain.clipsAnything) return undefined;
   const { chain, indexOf } = build;
   const cache = new Map<string, number | null>();
   return (positionMm, radiusMm, elementId) => {

@@ -126,7 +126,7 @@ export function analyzeTable(doc: BenchDocumentV2, options: AnalyzeOptions = {})
   const leaves = trace.paths.filter((p) => !("continuesAs" in p.end) || p.end.continuesAs.length === 0);
   for (const leaf of leaves) {
     const chain = unfoldPath(doc, byId, pathsById, leaf.id, cache);
-    const rail = analyzeRail(chain.doc, { chainCache });
+    const rail = analyzeRail(chain.doc, { chainCache, envelope: false });
     const fresh = new Set<string>(); // (path, element) pairs first met in this leaf
     const originOf = (cid: string): ChainOrigin | undefined => chain.origin.get(cid);
 

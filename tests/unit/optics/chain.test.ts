@@ -240,6 +240,47 @@ describe("a clipping iris in front of a powerful beam: safety E from the field",
   });
 });
 
+describe("edges that cut almost nothing, and pupils wider than the field (the power probe's shortcuts)", () => {
+  const lambda = 632.8e-9;
+  it("an iris cutting e⁻¹⁸ of the beam is no clip plane, yet the probe never falls below the field's own power (and stays within 0.1 %)", () => {
+    // w = 2 mm at the iris (z_R ≈ 20 m), R = 3w: R²/w² = 9, beyond the clip limit of 8
+    const doc: BenchDocument = {
+      version: 1,
+      elements: [laser({ beamDiameterMm: 4 }), { id: "iris", kind: "aperture", positionMm: 100, diameterMm: 12 }, { id: "block", kind: "beam-block", positionMm: 1500 }],
+    };
+    const probe = fieldPowerProbe(doc);
+    expect(probe).toBeDefined(); // the edge's loss is carried even though it is no plane
+    const g = gaussianAt(2e-3, lambda, 0.1);
+    const u1 = clippedGaussian(g.w, g.R, 6e-3, lambda, 1200);
+    const pupil = simpsonGrid(1e-3, 200);
+    const atBlock = fresnel2d(u1, 1.4, lambda, pupil.r);
+    let insideRel = 0;
+    for (let k = 0; k < pupil.r.length; k++) insideRel += pupil.w[k] * (atBlock.re[k] ** 2 + atBlock.im[k] ** 2);
+    const ratio = probe!(1500, 1, "block")! / (5 * insideRel);
+    expect(ratio).toBeGreaterThanOrEqual(1 - 1e-6); // the independent quadrature's own error
+    expect(ratio).toBeLessThan(1.001);
+  }, 60_000);
+  it("a pupil wider than the clipped field's extent takes all the power behind the iris: never less than the field's figure, at most 1 % more", () => {
+    const doc: BenchDocument = {
+      version: 1,
+      elements: [laser({ wavelengthNm: 532, powerMw: 2000, beamDiameterMm: 20 }), { id: "iris", kind: "aperture", positionMm: 100, diameterMm: 5 }, { id: "block", kind: "beam-block", positionMm: 300 }],
+    };
+    const analysis = analyzeBench(doc);
+    const transmittedMw = analysis.elements.find((e) => e.id === "iris")!.outgoingPowerMw;
+    const probe = fieldPowerProbe(doc)!;
+    const g = gaussianAt(10e-3, 532e-9, 0.1);
+    const u1 = clippedGaussian(g.w, g.R, 2.5e-3, 532e-9, 600);
+    const pupil = simpsonGrid(3.5e-3, 700);
+    const atBlock = fresnel2d(u1, 0.2, 532e-9, pupil.r);
+    let insideRel = 0;
+    for (let k = 0; k < pupil.r.length; k++) insideRel += pupil.w[k] * (atBlock.re[k] ** 2 + atBlock.im[k] ** 2);
+    const inside = probe(300, 3.5, "block")!;
+    expect(inside).toBeCloseTo(transmittedMw, 9); // the shortcut: everything behind the iris
+    expect(inside / (2000 * insideRel)).toBeGreaterThanOrEqual(1 - 1e-6);
+    expect(inside / (2000 * insideRel)).toBeLessThan(1.01);
+  }, 60_000);
+});
+
 describe("chain properties", () => {
   const base: BenchElement[] = [
     laser(),
