@@ -374,6 +374,11 @@ export type AnalyzeOptions = {
   chainCache?: ChainPrefixCache;
   /** false: leave the drawing envelope out (the table's leaves, which draw from their paths instead). */
   envelope?: boolean;
+  /**
+   * The table's leaves share what lies upstream of their split: true for an aperture (with the screen its light
+   * reaches) or a lens the caller already has from an earlier leaf leaves its analysis and its own warnings out.
+   */
+  known?: { aperture(id: string, screenId: string | null): boolean; element(id: string): boolean };
 };
 
 /** Pure and synchronous; never throws for a document the schema accepts. */
@@ -453,6 +458,7 @@ export function analyzeBench(doc: BenchDocument, options: AnalyzeOptions = {}): 
   entries.forEach((entry, index) => {
     const e = entry.element;
     if (e.kind !== "aperture" || entry.status !== "lit" || entry.incident === null) return;
+    if (options.known?.aperture(e.id, screen?.id ?? null)) return;
     const q = entry.incident.q;
     const radiusM = (e.diameterMm / 2) * M_PER_MM;
     const system =
@@ -594,6 +600,7 @@ export function analyzeBench(doc: BenchDocument, options: AnalyzeOptions = {}): 
   for (const entry of entries) {
     const e = entry.element;
     if (e.kind !== "lens" || entry.status !== "lit" || entry.incident === null || entry.outgoing === null) continue;
+    if (options.known?.element(e.id)) continue;
     const qIn = entry.incident.q;
     const radiusInM = beamRadiusM(qIn, trace.effectiveWavelengthM);
     const waist = waistOf(entry.outgoing.q, trace.effectiveWavelengthM);

@@ -126,9 +126,20 @@ export function analyzeTable(doc: BenchDocumentV2, options: AnalyzeOptions = {})
   const leaves = trace.paths.filter((p) => !("continuesAs" in p.end) || p.end.continuesAs.length === 0);
   for (const leaf of leaves) {
     const chain = unfoldPath(doc, byId, pathsById, leaf.id, cache);
-    const rail = analyzeRail(chain.doc, { chainCache, envelope: false });
-    const fresh = new Set<string>(); // (path, element) pairs first met in this leaf
     const originOf = (cid: string): ChainOrigin | undefined => chain.origin.get(cid);
+    const known = {
+      aperture: (cid: string, screenCid: string | null): boolean => {
+        const o = originOf(cid);
+        const screenId = screenCid === null ? null : (originOf(screenCid)?.elementId ?? null);
+        return o !== undefined && o.elementId !== null && apertures.has(`${o.pathId}|${o.elementId}|${screenId ?? ""}`);
+      },
+      element: (cid: string): boolean => {
+        const o = originOf(cid);
+        return o !== undefined && o.elementId !== null && entries.has(`${o.pathId}|${o.elementId}`);
+      },
+    };
+    const rail = analyzeRail(chain.doc, { chainCache, envelope: false, known });
+    const fresh = new Set<string>(); // (path, element) pairs first met in this leaf
 
     for (const entry of rail.elements) {
       const o = originOf(entry.id);

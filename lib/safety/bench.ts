@@ -42,7 +42,18 @@ export type BeamAtElement = {
  */
 export type EnclosedPowerMw = (positionMm: number, radiusMm: number, elementId?: string) => number | null;
 
-export type BenchBeam = { elements: readonly BeamAtElement[]; enclosedPowerMw?: EnclosedPowerMw };
+export type BenchBeam = {
+  elements: readonly BeamAtElement[];
+  enclosedPowerMw?: EnclosedPowerMw;
+  /**
+   * Points the caller already holds (the table's leaves share every element upstream of their split, and the light
+   * arriving there is the same in each): true leaves that element's point, or that focus, out of `points` (and a lens's
+   * hazard distance with it). The bench's own answer never sets it.
+   */
+  skipPoint?: (elementId: string, where: HazardPoint["where"]) => boolean;
+  /** The laser's own figures by laser id, filled on first use: leaves of one table (same options) share them. */
+  laserFigures?: Map<string, LaserFigures>;
+};
 
 /** Options as the API accepts them (field paths with plain messages). */
 export const benchSafetyOptionsSchema = z.object({
@@ -186,9 +197,8 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
   const λ = laser.wavelengthNm;
   const m2 = laser.m2 ?? 1;
   const w0 = laser.beamDiameterMm / 2;
-  const divergenceFor = (wavelengthNm: number) => ((2 * m2 * wavelengthNm * 1e-6) / (Math.PI * w0)) * 1000;
   // Far-field 1/e² full-angle divergence of the laser: θ = 2M²λ/(π w0).
-  const divergenceMrad = divergenceFor(λ);
+  const divergenceFor = (wavelengthNm: number) => ((2 * m2 * wavelengthNm * 1e-6) / (Math.PI * w0)) * 1000;
   const byId = new Map(doc.elements.map((e) => [e.id, e]));
   let standard: StandardId = options.standard ?? DEFAULT_MPE_STANDARD;
 
@@ -200,73 +210,13 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
   const diffuseViewing: DiffuseViewing[] = [];
   const skinHazards: SkinHazard[] = [];
 
-  // The document schema refuses these; a document stored before the rules existed is resolved toward the stricter
-  // reading, and the user is told.
-  let pulseDurationS = laser.pulseDurationS;
-  let pulseRepetitionRateHz = pulseDurationS === undefined ? undefined : laser.pulseRepetitionRateHz;
-  let pulseEnergyJ = pulseDurationS === undefined ? undefined : laser.pulseEnergyJ;
-  let powerMw = laser.powerMw;
-  if (pulseDurationS !== undefined && pulseRepetitionRateHz !== undefined && pulseDurationS * pulseRepetitionRateHz >= 1) {
-    warnings.push({ code: "pulses-overlap", elementId: laser.id, message: "Pulse duration × repetition rate is 1 or more: the pulses would overlap. The laser is assessed as continuous-wave at its average power; correct the pulse figures." });
-    powerMw = laserBeamPowerMw(laser);
-    pulseDurationS = undefined;
-    pulseRepetitionRateHz = undefined;
-    pulseEnergyJ = undefined;
-  }
-  // Bursts (the document schema checks them; a stored document that breaks the rules is assessed as the even train,
-  // with every pulse counted, and the user is told).
-  let burst = pulseRepetitionRateHz !== undefined && laser.pulsesPerBurst !== undefined && laser.burstPulseRateHz !== undefined ? { pulsesPerBurst: laser.pulsesPerBurst, burstPulseRateHz: laser.burstPulseRateHz } : undefined;
-  if (burst && pulseDurationS !== undefined && pulseRepetitionRateHz !== undefined) {
-    const lengthS = (burst.pulsesPerBurst - 1) / burst.burstPulseRateHz + pulseDurationS;
-    if (burst.burstPulseRateHz <= pulseRepetitionRateHz || pulseDurationS * burst.burstPulseRateHz >= 1 || lengthS >= burst.pulsesPerBurst / pulseRepetitionRateHz) {
-      warnings.push({ code: "burst-not-modelled", elementId: laser.id, message: "The burst figures are inconsistent (pulses or bursts would overlap), so the bursts could not be modelled: the laser is assessed as an even train at its average pulse rate. Correct the burst figures and ask your laser safety officer." });
-      burst = undefined;
-    }
-  }
-  if (pulseEnergyJ !== undefined && powerMw !== undefined) {
-    // Both given and (per the document schema) consistent: the energy is the figure the pulse rules use.
-    if (pulseRepetitionRateHz === undefined) powerMw = undefined;
-  }
-  if (pulseDurationS !== undefined && pulseDurationS < MIN_EXPOSURE_S) {
-    warnings.push({ code: "pulse-too-short", elementId: laser.id, message: "Pulses shorter than 10⁻¹³ s are beyond every standard's tables; they are assessed as 10⁻¹³ s pulses. Ask your laser safety officer." });
-    pulseDurationS = MIN_EXPOSURE_S;
-  }
-  const gap = coverageProblem(λ, pulseDurationS, standard);
-  if (gap) {
-    warnings.push({ code: "pulse-not-covered", elementId: laser.id, message: `${gap}. The figures below use IEC 60825-1:2014.` });
-    standard = "IEC 60825-1:2014";
-  }
-  const mainInput: BeamInput = {
-    wavelengthNm: λ,
-    powerMw,
-    pulseEnergyJ,
-    beamDiameterMm: laser.beamDiameterMm,
-    divergenceMrad,
-    exposureS: options.exposureS,
-    pulseDurationS,
-    pulseRepetitionRateHz,
-    ...(burst ?? {}),
-    labelClass: options.labelClass,
-    standard,
-  };
-  const laserAssessment = assessBeamUnchecked(mainInput, { standard, skipCautions: true });
-  const mainBeamPowerMw = laserAssessment.odReference.beamPowerMw;
-  // Further lines: the optics engine carries the main line's power; a line's power is a fixed share of it, corrected
-  // for filters whose OD differs at the line's wavelength from the single OD the optics engine applied.
-  const further = (laser.lines ?? []).map((l) => {
-    let input = lineInput(mainInput, l);
-    input = { ...input, divergenceMrad: divergenceFor(l.wavelengthNm) };
-    if (coverageProblem(l.wavelengthNm, pulseDurationS, standard)) input = { ...input, standard: "IEC 60825-1:2014" };
-    return assessBeamUnchecked(input, { standard: input.standard, lean: true });
-  });
-  const lineList: Line[] = [laserAssessment, ...further].map((a) => ({
-    wavelengthNm: a.wavelengthNm,
-    share: mainBeamPowerMw > 0 ? a.odReference.beamPowerMw / mainBeamPowerMw : 0,
-    limit: a.odReference.limit,
-    assessment: a,
-  }));
-  const linesAssessment = combineLines([laserAssessment, ...further], standard);
-  const allocation = linesAssessment.lines.map((l) => Math.log10(l.linesInGroup));
+  // the laser's own figures: the same for every leaf of a table, so a caller may hand in the ones it already has
+  const cached = beam.laserFigures?.get(laser.id);
+  const own = cached ?? laserFigures(laser, options, divergenceFor);
+  if (!cached) beam.laserFigures?.set(laser.id, own);
+  const { pulseDurationS, pulseRepetitionRateHz, laserAssessment, further, lineList, linesAssessment, allocation } = own;
+  standard = own.standard;
+  for (const w of own.warnings) warnings.push({ ...w });
 
   // Filter correction per line, accumulated along the beam (in beam order).
   const filterFactor = lineList.map(() => 1);
@@ -298,6 +248,7 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
   const elements = beam.elements;
   let lastLit: { element: BeamAtElement; state: BeamState } | null = null;
   let stopped = false;
+  const skipped = new Set<string>();
   for (let i = 0; i < elements.length; i++) {
     const e = elements[i];
     const state = lit(e);
@@ -321,12 +272,18 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
       // The tolerance keeps the laser's own waist (at the laser) from counting as a focus in the gap.
       if (back > 1e-6 && back < gapMm - 1e-6 * Math.max(1, gapMm)) {
         const prev = elements[i - 1];
-        points.push(point(prev.id, prev.kind, "focus", e.positionMm - back, { ...state, radiusMm: waist.radiusMm }, factors));
+        if (!beam.skipPoint?.(prev.id, "focus")) points.push(point(prev.id, prev.kind, "focus", e.positionMm - back, { ...state, radiusMm: waist.radiusMm }, factors));
         situations.add("focusing-optics");
       }
     }
-    points.push(point(e.id, e.kind, "element", e.positionMm, state, factors));
     lastLit = { element: e, state };
+    if (beam.skipPoint?.(e.id, "element")) {
+      skipped.add(e.id);
+      if (!STOPS.has(e.kind)) continue;
+      stopped = true;
+      break;
+    }
+    points.push(point(e.id, e.kind, "element", e.positionMm, state, factors));
 
     if (docElement?.kind === "lens") {
       if (docElement.focalLengthMm > 0) situations.add("focusing-optics");
@@ -406,6 +363,7 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
   }
   // Elements after a stop receive no light (the optics engine should agree; if not, the stop wins here).
   const listed = new Set(points.filter((p) => p.where === "element").map((p) => p.elementId));
+  for (const id of skipped) listed.add(id);
   for (const e of elements) if (!listed.has(e.id)) points.push(dark(e, 0));
 
   let governing: HazardPoint | null = null;
@@ -506,6 +464,94 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
     limitations: LIMITATIONS,
     finalSay: FINAL_SAY,
   };
+}
+
+/** What assessBench works out of the laser alone: its pulse figures as assessed, its lines, their limits and shares. */
+export type LaserFigures = {
+  warnings: BenchSafetyAssessment["warnings"];
+  standard: StandardId;
+  pulseDurationS: number | undefined;
+  pulseRepetitionRateHz: number | undefined;
+  laserAssessment: BeamAssessment;
+  further: BeamAssessment[];
+  lineList: Line[];
+  linesAssessment: LaserLinesAssessment;
+  allocation: number[];
+};
+
+function laserFigures(laser: LaserElement, options: BenchSafetyOptions, divergenceFor: (wavelengthNm: number) => number): LaserFigures {
+  const λ = laser.wavelengthNm;
+  const divergenceMrad = divergenceFor(λ);
+  let standard: StandardId = options.standard ?? DEFAULT_MPE_STANDARD;
+  const laserWarnings: BenchSafetyAssessment["warnings"] = [];
+  // The document schema refuses these; a document stored before the rules existed is resolved toward the stricter
+  // reading, and the user is told.
+  let pulseDurationS = laser.pulseDurationS;
+  let pulseRepetitionRateHz = pulseDurationS === undefined ? undefined : laser.pulseRepetitionRateHz;
+  let pulseEnergyJ = pulseDurationS === undefined ? undefined : laser.pulseEnergyJ;
+  let powerMw = laser.powerMw;
+  if (pulseDurationS !== undefined && pulseRepetitionRateHz !== undefined && pulseDurationS * pulseRepetitionRateHz >= 1) {
+    laserWarnings.push({ code: "pulses-overlap", elementId: laser.id, message: "Pulse duration × repetition rate is 1 or more: the pulses would overlap. The laser is assessed as continuous-wave at its average power; correct the pulse figures." });
+    powerMw = laserBeamPowerMw(laser);
+    pulseDurationS = undefined;
+    pulseRepetitionRateHz = undefined;
+    pulseEnergyJ = undefined;
+  }
+  // Bursts (the document schema checks them; a stored document that breaks the rules is assessed as the even train,
+  // with every pulse counted, and the user is told).
+  let burst = pulseRepetitionRateHz !== undefined && laser.pulsesPerBurst !== undefined && laser.burstPulseRateHz !== undefined ? { pulsesPerBurst: laser.pulsesPerBurst, burstPulseRateHz: laser.burstPulseRateHz } : undefined;
+  if (burst && pulseDurationS !== undefined && pulseRepetitionRateHz !== undefined) {
+    const lengthS = (burst.pulsesPerBurst - 1) / burst.burstPulseRateHz + pulseDurationS;
+    if (burst.burstPulseRateHz <= pulseRepetitionRateHz || pulseDurationS * burst.burstPulseRateHz >= 1 || lengthS >= burst.pulsesPerBurst / pulseRepetitionRateHz) {
+      laserWarnings.push({ code: "burst-not-modelled", elementId: laser.id, message: "The burst figures are inconsistent (pulses or bursts would overlap), so the bursts could not be modelled: the laser is assessed as an even train at its average pulse rate. Correct the burst figures and ask your laser safety officer." });
+      burst = undefined;
+    }
+  }
+  if (pulseEnergyJ !== undefined && powerMw !== undefined) {
+    // Both given and (per the document schema) consistent: the energy is the figure the pulse rules use.
+    if (pulseRepetitionRateHz === undefined) powerMw = undefined;
+  }
+  if (pulseDurationS !== undefined && pulseDurationS < MIN_EXPOSURE_S) {
+    laserWarnings.push({ code: "pulse-too-short", elementId: laser.id, message: "Pulses shorter than 10⁻¹³ s are beyond every standard's tables; they are assessed as 10⁻¹³ s pulses. Ask your laser safety officer." });
+    pulseDurationS = MIN_EXPOSURE_S;
+  }
+  const gap = coverageProblem(λ, pulseDurationS, standard);
+  if (gap) {
+    laserWarnings.push({ code: "pulse-not-covered", elementId: laser.id, message: `${gap}. The figures below use IEC 60825-1:2014.` });
+    standard = "IEC 60825-1:2014";
+  }
+  const mainInput: BeamInput = {
+    wavelengthNm: λ,
+    powerMw,
+    pulseEnergyJ,
+    beamDiameterMm: laser.beamDiameterMm,
+    divergenceMrad,
+    exposureS: options.exposureS,
+    pulseDurationS,
+    pulseRepetitionRateHz,
+    ...(burst ?? {}),
+    labelClass: options.labelClass,
+    standard,
+  };
+  const laserAssessment = assessBeamUnchecked(mainInput, { standard, skipCautions: true });
+  const mainBeamPowerMw = laserAssessment.odReference.beamPowerMw;
+  // Further lines: the optics engine carries the main line's power; a line's power is a fixed share of it, corrected
+  // for filters whose OD differs at the line's wavelength from the single OD the optics engine applied.
+  const further = (laser.lines ?? []).map((l) => {
+    let input = lineInput(mainInput, l);
+    input = { ...input, divergenceMrad: divergenceFor(l.wavelengthNm) };
+    if (coverageProblem(l.wavelengthNm, pulseDurationS, standard)) input = { ...input, standard: "IEC 60825-1:2014" };
+    return assessBeamUnchecked(input, { standard: input.standard, lean: true });
+  });
+  const lineList: Line[] = [laserAssessment, ...further].map((a) => ({
+    wavelengthNm: a.wavelengthNm,
+    share: mainBeamPowerMw > 0 ? a.odReference.beamPowerMw / mainBeamPowerMw : 0,
+    limit: a.odReference.limit,
+    assessment: a,
+  }));
+  const linesAssessment = combineLines([laserAssessment, ...further], standard);
+  const allocation = linesAssessment.lines.map((l) => Math.log10(l.linesInGroup));
+  return { warnings: laserWarnings, standard, pulseDurationS, pulseRepetitionRateHz, laserAssessment, further, lineList, linesAssessment, allocation };
 }
 
 /** OD per line and overall at one point; plain loops (this runs for every element, focus and line). */

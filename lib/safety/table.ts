@@ -11,10 +11,10 @@
 // edge, further lines are taken to carry all their power inside the limiting aperture: the cautious reading.
 import type { BenchDocumentV2, LaserV2Element, TableElement } from "@/lib/bench/schema-v2";
 import type { TableAnalysis } from "@/lib/optics/table";
-import { railLaser, unfoldPath } from "@/lib/optics/table-unfold";
+import { railLaser, unfoldPath, type UnfoldCache } from "@/lib/optics/table-unfold";
 import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import { assessBeam, type BeamAssessment, type BeamInput } from "./beam";
-import { assessBench as assessRail, waistFrom, type BeamAtElement, type BenchSafetyOptions, type EnclosedPowerMw, type HazardPoint } from "./bench";
+import { assessBench as assessRail, waistFrom, type BeamAtElement, type LaserFigures, type BenchSafetyOptions, type EnclosedPowerMw, type HazardPoint } from "./bench";
 import { selectCautions, type CautionSituation, type SelectedCaution } from "./cautions";
 import type { PulseRule } from "./pulsed";
 import { LIMITATIONS, type Limitation } from "./limitations";
@@ -198,9 +198,11 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
   const lensHazards = new Map<string, TableSafetyAssessment["lensHazards"][number]>();
   const screenHazards = new Map<string, TableSafetyAssessment["screenHazards"][number]>();
   const leaves = beam.paths.filter((p) => !("continuesAs" in p.end) || p.end.continuesAs.length === 0);
+  const unfoldCache: UnfoldCache = new Map(); // each path's piece of the unfolded benches, made once for all leaves
   const fieldless = new Set<string>(); // lasers whose clipped light was taken as all inside the limiting aperture
+  const laserFigures = new Map<string, LaserFigures>(); // each laser's own figures, worked out once for all its leaves
   for (const leaf of leaves) {
-    const chain = unfoldPath(doc, byId, pathsById, leaf.id);
+    const chain = unfoldPath(doc, byId, pathsById, leaf.id, unfoldCache);
     const elements: BeamAtElement[] = chain.doc.elements.map((e) => {
       const o = chain.origin.get(e.id);
       let incident: BeamAtElement["incident"] = null;
@@ -212,7 +214,12 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
     try {
       // behind a clipping aperture, E from the propagated field (the bench document contract revision 2), as on the rail
       const enclosedPowerMw = beam.fieldPower ? beam.fieldPower(leaf.id) : allInsideBehindClip(chain.doc, () => fieldless.add(leaf.laserId));
-      rail = assessRail(chain.doc, { elements, ...(enclosedPowerMw ? { enclosedPowerMw } : {}) }, { ...options, labelClass: undefined });
+      // a point an earlier leaf gave (the same path and element, so the same light) is not worked out again
+      const skipPoint = (chainElementId: string, where: HazardPoint["where"]): boolean => {
+        const o = chain.origin.get(chainElementId);
+        return o !== undefined && o.role !== "edge" && o.elementId !== null && points.has(`${o.pathId}|${o.elementId}|${where}`);
+      };
+      rail = assessRail(chain.doc, { elements, skipPoint, laserFigures, ...(enclosedPowerMw ? { enclosedPowerMw } : {}) }, { ...options, labelClass: undefined });
     } catch (error) {
       warnings.push({
         code: "path-not-assessed",
@@ -241,7 +248,12 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
       if (elementId === null) continue;
       const key = `${o.pathId}|${elementId}|${p.where}`; // at most one focus per gap, one point per element
       if (points.has(key)) continue;
-      points.set(key, { ...p, elementId, kind, pathId: o.pathId, laserId: leaf.laserId });
+      points.set(key, {
+        elementId, kind, where: p.where, positionMm: p.positionMm, powerMw: p.powerMw, radiusMm: p.radiusMm,
+        peakIrradianceWPerCm2: p.peakIrradianceWPerCm2, averagedIrradianceWPerCm2: p.averagedIrradianceWPerCm2,
+        opticalDensityRaw: p.opticalDensityRaw, opticalDensityRequired: p.opticalDensityRequired,
+        ...(p.lines === undefined ? {} : { lines: p.lines }), pathId: o.pathId, laserId: leaf.laserId,
+      });
       if (p.where !== "element") situations?.add("focusing-optics");
     }
     for (const h of rail.lensHazards) {

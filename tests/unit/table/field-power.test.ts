@@ -123,4 +123,57 @@ describe("shared beginnings of field chains", () => {
       expect(JSON.stringify(sharedRuns[i])).toBe(JSON.stringify(alone));
     });
   });
+
+  it("what an earlier leaf already gave is not worked out again, and every figure is the one its leaf gives in full", () => {
+    // a clipping iris before a split, screens on both arms, a block behind a lens on one: each leaf run in full is the reference
+    const elements: TableElement[] = [
+      { id: "laser", kind: "laser", xMm: 50, yMm: 300, angleDeg: 0, wavelengthNm: 532, powerMw: 500, beamDiameterMm: 2 },
+      { id: "iris", kind: "aperture", xMm: 200, yMm: 300, angleDeg: 180, diameterMm: 2.2 },
+      { id: "lens", kind: "lens", xMm: 300, yMm: 300, angleDeg: 180, focalLengthMm: 150 },
+      { id: "bs", kind: "beam-splitter", xMm: 500, yMm: 300, angleDeg: 135, reflectance: 0.4 },
+      { id: "iris2", kind: "aperture", xMm: 800, yMm: 300, angleDeg: 180, diameterMm: 3 },
+      { id: "screen", kind: "screen", xMm: 1100, yMm: 300, angleDeg: 180 },
+      { id: "screen2", kind: "screen", xMm: 500, yMm: 800, angleDeg: 270 },
+    ];
+    const doc: BenchDocumentV2 = { version: 2, table: { widthMm: 1200, depthMm: 900, holePitchMm: 25 }, elements };
+    const analysis = analyzeBench(doc);
+    const safety = assessBench(doc, analysis);
+    const byId = new Map(doc.elements.map((e) => [e.id, e]));
+    const paths = new Map(analysis.paths.map((p) => [p.id, p]));
+    const leaves = analysis.paths.filter((p) => !("continuesAs" in p.end) || p.end.continuesAs.length === 0);
+    const seenApertures = new Set<string>();
+    const seenPoints = new Set<string>();
+    let checkedApertures = 0;
+    let checkedPoints = 0;
+    for (const leaf of leaves) {
+      const chain = unfoldPath(doc, byId, paths, leaf.id);
+      const full = analyzeRail(chain.doc);
+      for (const a of full.apertures) {
+        const o = chain.origin.get(a.id)!;
+        const screenId = a.screenId === null ? null : chain.origin.get(a.screenId)!.elementId;
+        const key = `${o.pathId}|${o.elementId}|${screenId}`;
+        if (seenApertures.has(key)) continue;
+        seenApertures.add(key);
+        const mine = analysis.apertures.find((x) => x.pathId === o.pathId && x.id === o.elementId && x.screenId === screenId)!;
+        expect(mine.centreIntensityRatio).toBe(a.centreIntensityRatio);
+        expect(mine.transmittedFraction).toBe(a.transmittedFraction);
+        expect(mine.fresnelNumber).toBe(a.fresnelNumber);
+        checkedApertures++;
+      }
+      const railSafety = assessBench(chain.doc, { elements: full.elements, enclosedPowerMw: fieldPowerProbe(chain.doc) });
+      for (const p of railSafety.points) {
+        const o = chain.origin.get(p.elementId)!;
+        if (o.role === "edge" || o.role === "laser" || p.where !== "element") continue;
+        const key = `${o.pathId}|${o.elementId}`;
+        if (seenPoints.has(key)) continue;
+        seenPoints.add(key);
+        const mine = safety.points.find((x) => x.pathId === o.pathId && x.elementId === o.elementId && x.where === "element")!;
+        expect(mine.opticalDensityRaw).toBeCloseTo(p.opticalDensityRaw!, 12);
+        expect(mine.averagedIrradianceWPerCm2).toBeCloseTo(p.averagedIrradianceWPerCm2, 12);
+        checkedPoints++;
+      }
+    }
+    expect(checkedApertures).toBe(3); // the iris once per screen its light reaches, iris2 once
+    expect(checkedPoints).toBeGreaterThanOrEqual(6);
+  });
 });
