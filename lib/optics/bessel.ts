@@ -6,7 +6,8 @@
 //   8 < |x| < 25   Miller backward recurrence from order ⌈x + 12 x^⅓ + 20⌉ (start error < 1e-16);
 //   |x| ≥ 25       Hankel asymptotic series P, Q summed until the terms fall below 1e-17 (smallest term ≈ e^{−2x}).
 // The tabulated J0 (fastJ0) is a cubic Hermite interpolant on a grid of step 1/16 using J0 and J0' = −J1:
-// error ≤ h⁴/384 · max|J0⁗| ≤ 1.5e-8 absolute, and it falls as x^{−½}; beyond x = 8192 it calls besselJ0.
+// error ≤ h⁴/384 · max|J0⁗| ≤ 1.5e-8 absolute, and it falls as x^{−½}; beyond x = 8192 it calls besselJ0. fastJ1 is the
+// same with J1 and J1' = J0 − J1/x (A&S 9.1.28), the same bound; beyond the table it calls besselJ1.
 
 const TWO_OVER_PI = 2 / Math.PI;
 const SQRT_HALF = Math.SQRT1_2;
@@ -194,4 +195,38 @@ export function fastJ0(x: number): number {
   const t2 = t * t;
   const t3 = t2 * t;
   return (2 * t3 - 3 * t2 + 1) * y0 + (t3 - 2 * t2 + t) * d0 + (-2 * t3 + 3 * t2) * y1 + (t3 - t2) * d1;
+}
+
+// ---- tabulated J1, the same way ----
+
+let table1 = new Float64Array(0);
+let table1Count = 0;
+
+/** Prepare fastJ1 for arguments up to xMax (call once before a loop). */
+export function prepareFastJ1(xMax: number): void {
+  const needed = Math.min(Math.ceil(Math.min(xMax, TABLE_MAX_X) * TABLE_INV_STEP) + 2, TABLE_MAX_X * TABLE_INV_STEP + 2);
+  if (needed <= table1Count) return;
+  const count = Math.min(Math.max(needed, table1Count * 2, 4096), TABLE_MAX_X * TABLE_INV_STEP + 2);
+  const next = new Float64Array(2 * count);
+  next.set(table1);
+  for (let i = table1Count; i < count; i++) {
+    const x = i * TABLE_STEP;
+    const j1 = besselJ1(x);
+    next[2 * i] = j1;
+    next[2 * i + 1] = TABLE_STEP * (x === 0 ? 0.5 : besselJ0(x) - j1 / x);
+  }
+  table1 = next;
+  table1Count = count;
+}
+
+/** J_1(x) for x ≥ 0 from the Hermite table (≤ 1.5e-8 absolute); call prepareFastJ1 first. */
+export function fastJ1(x: number): number {
+  const u = x * TABLE_INV_STEP;
+  const i = Math.floor(u);
+  if (i + 1 >= table1Count) return besselJ1(x);
+  const t = u - i;
+  const k = 2 * i;
+  const t2 = t * t;
+  const t3 = t2 * t;
+  return (2 * t3 - 3 * t2 + 1) * table1[k] + (t3 - 2 * t2 + t) * table1[k + 1] + (-2 * t3 + 3 * t2) * table1[k + 2] + (t3 - t2) * table1[k + 3];
 }

@@ -30,7 +30,7 @@
 // (powerInsideCircle), not from the field on a target grid. Paraxial scalar theory throughout, like the rest of the engine.
 import type { BenchElement } from "@/lib/bench/schema";
 import { type AbcdMatrix, type BeamParameter, IDENTITY, applyAbcd, beamRadiusM, compose, curvaturePerM, freeSpace, propagateQ, lensQ, qFromBeam, thinLens, wavefrontRadiusM } from "./gaussian";
-import { besselJ0, besselJ1, fastJ0, prepareFastJ0 } from "./bessel";
+import { besselJ0, besselJ1, fastJ0, fastJ1, prepareFastJ0, prepareFastJ1 } from "./bessel";
 import { gaussLegendre } from "./quadrature";
 
 const M_PER_MM = 1e-3;
@@ -621,7 +621,7 @@ export class FieldChain {
     const source = Math.abs(matrix.b) > 0 ? this.sourceNodesFor(plane, matrix, radiusM) : null;
     let rel: number;
     if (source !== null && (source.rho.length * source.rho.length) / 2 <= this.maxHopWork) {
-      rel = powerInsideCircle(source, matrix, this.wavelengthM, radiusM);
+      rel = powerInsideCircle(source, matrix, this.wavelengthM, radiusM, this.exactBessel);
     } else {
       // geometric limit: the Gaussian inside the projected edge, scaled to the plane's power
       const q = applyAbcd(matrix, this.planeQ(plane));
@@ -688,12 +688,19 @@ function publicPlane(p: PlaneState): ClipPlane {
  * and the inner integral in closed form (Lommel; Watson, Treatise on the Theory of Bessel Functions, 2nd ed., §5.11):
  *   a[αₙ J₁(αₙa) J₀(αₘa) − αₘ J₀(αₙa) J₁(αₘa)] / (αₙ² − αₘ²),  and (a²/2)[J₀(αₙa)² + J₁(αₙa)²] when n = m.
  * Two Bessel values per node instead of one per node pair and target point, and no target grid: the sum is over node
- * pairs only (a Hermitian form, so half of them). The same sampling rule as a hop out to r = a.
+ * pairs only (a Hermitian form, so half of them). The same sampling rule as a hop out to r = a; the tabulated J₀ and J₁
+ * (≤ 1.5e-8) unless exactBessel.
  */
-export function powerInsideCircle(source: NodeField, matrix: AbcdMatrix, wavelengthM: number, radiusM: number): number {
+export function powerInsideCircle(source: NodeField, matrix: AbcdMatrix, wavelengthM: number, radiusM: number, exactBessel = false): number {
   const n = source.rho.length;
   const beta = (2 * Math.PI) / (wavelengthM * Math.abs(matrix.b));
   const a = radiusM;
+  const j0 = exactBessel ? besselJ0 : fastJ0;
+  const j1 = exactBessel ? besselJ1 : fastJ1;
+  if (!exactBessel && n > 0) {
+    prepareFastJ0(beta * source.rho[n - 1] * a);
+    prepareFastJ1(beta * source.rho[n - 1] * a);
+  }
   const x = new Float64Array(n);
   const pA = new Float64Array(n); // Re g · J₀(αa)
   const pB = new Float64Array(n); // Im g · J₀(αa)
@@ -702,16 +709,16 @@ export function powerInsideCircle(source: NodeField, matrix: AbcdMatrix, wavelen
   let diagonal = 0;
   for (let k = 0; k < n; k++) {
     const alpha = beta * source.rho[k];
-    const j0 = besselJ0(alpha * a);
-    const j1 = besselJ1(alpha * a);
+    const u = j0(alpha * a);
+    const v = j1(alpha * a);
     const gr = source.re[k];
     const gi = source.im[k];
     x[k] = alpha * alpha;
-    pA[k] = gr * j0;
-    pB[k] = gi * j0;
-    pC[k] = gr * alpha * j1;
-    pD[k] = gi * alpha * j1;
-    diagonal += (gr * gr + gi * gi) * ((a * a) / 2) * (j0 * j0 + j1 * j1);
+    pA[k] = gr * u;
+    pB[k] = gi * u;
+    pC[k] = gr * alpha * v;
+    pD[k] = gi * alpha * v;
+    diagonal += (gr * gr + gi * gi) * ((a * a) / 2) * (u * u + v * v);
   }
   // Σ_{n<m} Re(gₙ gₘ*) a (sₙuₘ − uₙsₘ)/(xₙ − xₘ), with u = J₀(αa), s = αJ₁(αa)
   let off = 0;

@@ -2,7 +2,7 @@
 import { describe, it, expect } from "vitest";
 import j0ref from "@stdlib/math-base-special-besselj0";
 import j1ref from "@stdlib/math-base-special-besselj1";
-import { besselJ0, besselJ1, besselJnArray, fastJ0, prepareFastJ0 } from "@/lib/optics/bessel";
+import { besselJ0, besselJ1, besselJnArray, fastJ0, fastJ1, prepareFastJ0, prepareFastJ1 } from "@/lib/optics/bessel";
 
 function grid(): number[] {
   const xs: number[] = [];
@@ -29,6 +29,15 @@ describe("J0 and J1 against @stdlib/math-base-special-besselj0/j1 (reference pac
     for (let i = 0; i < 200000; i++) {
       const x = i * 0.0451;
       worst = Math.max(worst, Math.abs(fastJ0(x) - j0ref(x)));
+    }
+    expect(worst).toBeLessThan(2e-8);
+  });
+  it("tabulated J1 (Hermite, J1' = J0 − J1/x) stays within 2e-8 of the reference, beyond the table too", () => {
+    prepareFastJ1(9000);
+    let worst = 0;
+    for (let i = 0; i < 200000; i++) {
+      const x = i * 0.0451;
+      worst = Math.max(worst, Math.abs(fastJ1(x) - j1ref(x)));
     }
     expect(worst).toBeLessThan(2e-8);
   });
