@@ -379,6 +379,8 @@ export type AnalyzeOptions = {
    * reaches) or a lens the caller already has from an earlier leaf leaves its analysis and its own warnings out.
    */
   known?: { aperture(id: string, screenId: string | null): boolean; element(id: string): boolean };
+  /** Hands out the field chain this analysis built (null when nothing can clip), for a power probe on the same bench. */
+  onChain?: (build: ChainBuild | null) => void;
 };
 
 /** Pure and synchronous; never throws for a document the schema accepts. */
@@ -451,6 +453,7 @@ export function analyzeBench(doc: BenchDocument, options: AnalyzeOptions = {}): 
   }
 
   const chainBuild = buildChain(trace, options.chainCache ? { prefixCache: options.chainCache } : {});
+  options.onChain?.(chainBuild);
 
   // apertures
   const apertures: ApertureAnalysis[] = [];

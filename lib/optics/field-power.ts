@@ -1,7 +1,7 @@
 // The propagated field's power inside a centred circle, for the safety engine's irradiance behind a clipping aperture.
 // Source: the field chain (chain.ts: Collins, JOSA 60, 1168 (1970)); the bench document contract revision 2 (E from the propagated field).
 import type { BenchDocument } from "@/lib/bench/schema";
-import { buildChain, type AnalyzeOptions } from "./analyze";
+import { buildChain, type AnalyzeOptions, type ChainBuild } from "./analyze";
 import { traceBench } from "./propagate";
 
 const M_PER_MM = 1e-3;
@@ -20,7 +20,11 @@ export type FieldPowerProbe = (positionMm: number, radiusMm: number, elementId?:
  */
 export function fieldPowerProbe(doc: BenchDocument, options: AnalyzeOptions & { boundWithin?: number } = {}): FieldPowerProbe | undefined {
   // with the cache analyzeBench used for the same document, the chain is not built a second time
-  const build = buildChain(traceBench(doc), options.chainCache ? { prefixCache: options.chainCache } : {});
+  return probeOfChain(buildChain(traceBench(doc), options.chainCache ? { prefixCache: options.chainCache } : {}), options);
+}
+
+/** The same probe from a chain already built (analyzeBench hands its own out through AnalyzeOptions.onChain). */
+export function probeOfChain(build: ChainBuild | null, options: { boundWithin?: number } = {}): FieldPowerProbe | undefined {
   if (build === null || !build.chain.clipsAnything) return undefined;
   const { chain, indexOf } = build;
   const cache = new Map<string, number | null>();

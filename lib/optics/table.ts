@@ -7,9 +7,9 @@
 // screen on any branch, one entry without a screen. Rail warnings that are artefacts of the unfolding are dropped.
 import { laserBeamPowerMw } from "@/lib/bench/laser-power";
 import type { BenchDocumentV2, TableElement } from "@/lib/bench/schema-v2";
-import { analyzeBench as analyzeRail, type AnalyzeOptions, type ApertureAnalysis, type IncidentBeam } from "./analyze";
+import { analyzeBench as analyzeRail, type AnalyzeOptions, type ApertureAnalysis, type ChainBuild, type IncidentBeam } from "./analyze";
 import { ChainPrefixCache } from "./chain";
-import { fieldPowerProbe, type FieldPowerProbe } from "./field-power";
+import { fieldPowerProbe, probeOfChain, type FieldPowerProbe } from "./field-power";
 import { MAX_GENERATIONS, MAX_PATHS, MIN_SHARE_OF_LASER, traceTable, type PathRole, type TableHit, type TablePathEnd, type TablePoint, type TableWarning } from "./table-trace";
 import { unfoldPath, type ChainOrigin, type UnfoldCache } from "./table-unfold";
 
@@ -122,6 +122,7 @@ export function analyzeTable(doc: BenchDocumentV2, options: AnalyzeOptions = {})
   const hits = new Map<string, TableHit>();
   for (const p of trace.paths) for (const h of p.hits) hits.set(`${p.id}|${h.elementId}`, h);
   const cache: UnfoldCache = new Map();
+  const builds = new Map<string, ChainBuild | null>(); // each leaf's field chain, for its power probe
 
   const leaves = trace.paths.filter((p) => !("continuesAs" in p.end) || p.end.continuesAs.length === 0);
   for (const leaf of leaves) {
@@ -138,7 +139,7 @@ export function analyzeTable(doc: BenchDocumentV2, options: AnalyzeOptions = {})
         return o !== undefined && o.elementId !== null && entries.has(`${o.pathId}|${o.elementId}`);
       },
     };
-    const rail = analyzeRail(chain.doc, { chainCache, envelope: false, known });
+    const rail = analyzeRail(chain.doc, { chainCache, envelope: false, known, onChain: (build) => builds.set(leaf.id, build) });
     const fresh = new Set<string>(); // (path, element) pairs first met in this leaf
 
     for (const entry of rail.elements) {
@@ -297,7 +298,9 @@ export function analyzeTable(doc: BenchDocumentV2, options: AnalyzeOptions = {})
   const byElement = new Map<string, number | null>();
   const fieldPower: TableFieldPower = (leafPathId) => {
     if (!probes.has(leafPathId)) {
-      const probe = pathsById.has(leafPathId) ? fieldPowerProbe(unfoldPath(doc, byId, pathsById, leafPathId, cache).doc, { chainCache, boundWithin: FIELD_BOUND_WITHIN }) : undefined;
+      const built = builds.get(leafPathId);
+      const options = { chainCache, boundWithin: FIELD_BOUND_WITHIN };
+      const probe = built !== undefined ? probeOfChain(built, options) : pathsById.has(leafPathId) ? fieldPowerProbe(unfoldPath(doc, byId, pathsById, leafPathId, cache).doc, options) : undefined;
       probes.set(
         leafPathId,
         probe &&

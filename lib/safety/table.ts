@@ -198,17 +198,24 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
   const lensHazards = new Map<string, TableSafetyAssessment["lensHazards"][number]>();
   const screenHazards = new Map<string, TableSafetyAssessment["screenHazards"][number]>();
   const leaves = beam.paths.filter((p) => !("continuesAs" in p.end) || p.end.continuesAs.length === 0);
-  const unfoldCache: UnfoldCache = new Map(); // each path's piece of the unfolded benches, made once for all leaves
+  const unfoldCache: UnfoldCache = new Map();
+  const beamAt = new Map<string, BeamAtElement>(); // chain element id → the light arriving there
+  const pointKey = (pathId: string, elementId: string, where: string): string => `${pathId}|${elementId}|${where}`; // each path's piece of the unfolded benches, made once for all leaves
   const fieldless = new Set<string>(); // lasers whose clipped light was taken as all inside the limiting aperture
   const laserFigures = new Map<string, LaserFigures>(); // each laser's own figures, worked out once for all its leaves
   for (const leaf of leaves) {
     const chain = unfoldPath(doc, byId, pathsById, leaf.id, unfoldCache);
     const elements: BeamAtElement[] = chain.doc.elements.map((e) => {
-      const o = chain.origin.get(e.id);
-      let incident: BeamAtElement["incident"] = null;
-      if (o?.role === "edge") incident = pathsById.get(o.pathId)?.arrival ?? null;
-      else if (o?.elementId) incident = entryOf.get(`${o.pathId}|${o.elementId}`)?.incident ?? null;
-      return { id: e.id, kind: e.kind, positionMm: e.positionMm, incident };
+      // a chain id names one element on one path, so its light is the same in every leaf (only a turn's OD differs)
+      let at = beamAt.get(e.id);
+      if (at === undefined || at.kind !== e.kind || at.positionMm !== e.positionMm) {
+        const o = chain.origin.get(e.id);
+        let incident: BeamAtElement["incident"] = null;
+        if (o?.role === "edge") incident = pathsById.get(o.pathId)?.arrival ?? null;
+        else if (o?.elementId) incident = entryOf.get(`${o.pathId}|${o.elementId}`)?.incident ?? null;
+        beamAt.set(e.id, (at = { id: e.id, kind: e.kind, positionMm: e.positionMm, incident }));
+      }
+      return at;
     });
     let rail: ReturnType<typeof assessRail>;
     try {
@@ -217,7 +224,7 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
       // a point an earlier leaf gave (the same path and element, so the same light) is not worked out again
       const skipPoint = (chainElementId: string, where: HazardPoint["where"]): boolean => {
         const o = chain.origin.get(chainElementId);
-        return o !== undefined && o.role !== "edge" && o.elementId !== null && points.has(`${o.pathId}|${o.elementId}|${where}`);
+        return o !== undefined && o.role !== "edge" && o.elementId !== null && points.has(pointKey(o.pathId, o.elementId, where));
       };
       rail = assessRail(chain.doc, { elements, skipPoint, laserFigures, ...(enclosedPowerMw ? { enclosedPowerMw } : {}) }, { ...options, labelClass: undefined });
     } catch (error) {
@@ -246,7 +253,7 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
         kind = byId.get(o.elementId as string)?.kind ?? p.kind;
       }
       if (elementId === null) continue;
-      const key = `${o.pathId}|${elementId}|${p.where}`; // at most one focus per gap, one point per element
+      const key = pointKey(o.pathId, elementId, p.where); // at most one focus per gap, one point per element
       if (points.has(key)) continue;
       points.set(key, {
         elementId, kind, where: p.where, positionMm: p.positionMm, powerMw: p.powerMw, radiusMm: p.radiusMm,
