@@ -7,6 +7,8 @@ import { describe, expect, it } from "vitest";
 import type { BenchDocument, BenchElement } from "@/lib/bench/schema";
 import { analyzeBench, fieldPowerProbe, findScreenPositions, screenProfile } from "@/lib/optics";
 import { assessBench } from "@/lib/safety";
+import { buildChain } from "@/lib/optics/analyze";
+import { traceBench } from "@/lib/optics/propagate";
 
 type Field = { r: Float64Array; re: Float64Array; im: Float64Array };
 
@@ -279,6 +281,27 @@ describe("edges that cut almost nothing, and pupils wider than the field (the po
     expect(inside / (2000 * insideRel)).toBeGreaterThanOrEqual(1 - 1e-6);
     expect(inside / (2000 * insideRel)).toBeLessThan(1.01);
   }, 60_000);
+});
+
+describe("the power in a circle's sampling (5 cycles a panel)", () => {
+  it("moves by at most 1e-6 of itself against 3× the panels, with lenses either side of a clipping iris", () => {
+    const setups: [number, number, number | null][] = [[5, 1500, null], [6, 400, null], [6, 500, 300], [8, 300, -200], [4, 2500, 500]];
+    for (const [diameterMm, blockMm, focalMm] of setups) {
+      const doc: BenchDocument = {
+        version: 1,
+        elements: [
+          laser({ wavelengthNm: 532, powerMw: 2000, beamDiameterMm: 20 }),
+          { id: "iris", kind: "aperture", positionMm: 100, diameterMm },
+          ...(focalMm === null ? [] : [{ id: "lens", kind: "lens" as const, positionMm: 200, focalLengthMm: focalMm }]),
+          { id: "block", kind: "beam-block", positionMm: blockMm },
+        ],
+      };
+      const at = (refinement: number) => buildChain(traceBench(doc), { refinement })!.chain.powerInsideMw(blockMm, 3.5e-3, focalMm === null ? 2 : 3)!;
+      const reference = at(3);
+      expect(reference).toBeGreaterThan(0);
+      expect(Math.abs(at(1) / reference - 1)).toBeLessThan(1e-6);
+    }
+  });
 });
 
 describe("chain properties", () => {
