@@ -31,6 +31,7 @@
 import type { BenchElement } from "@/lib/bench/schema";
 import { type AbcdMatrix, type BeamParameter, IDENTITY, applyAbcd, beamRadiusM, compose, curvaturePerM, freeSpace, propagateQ, lensQ, qFromBeam, thinLens, wavefrontRadiusM } from "./gaussian";
 import { besselJ0, besselJ1, fastJ0, fastJ1, prepareFastJ0, prepareFastJ1 } from "./bessel";
+import { cauchySums } from "./cauchy-sum";
 import { gaussLegendre } from "./quadrature";
 
 const M_PER_MM = 1e-3;
@@ -57,6 +58,8 @@ const TAIL_SPREAD = 100;
  * figure a little larger than the field's (never smaller); tests/unit/optics/chain.test.ts measures the excess.
  */
 const PROBE_TAIL_SPREAD = 10;
+/** From this many nodes on, the power in a circle sums its node pairs by the fast multipole method (measured crossover ≈ 200). */
+const FAST_CAUCHY_FROM = 200;
 /** Node pairs (source nodes × target points) one hop may cost before the geometric limit is used. */
 export const MAX_HOP_WORK = 2e6;
 /** Nodes one plane may hold (memory bound). */
@@ -726,7 +729,16 @@ export function powerInsideCircle(source: NodeField, matrix: AbcdMatrix, wavelen
     pD[k] = gi * alpha * v;
     diagonal += (gr * gr + gi * gi) * ((a * a) / 2) * (u * u + v * v);
   }
-  // Σ_{n<m} Re(gₙ gₘ*) a (sₙuₘ − uₙsₘ)/(xₙ − xₘ), with u = J₀(αa), s = αJ₁(αa)
+  // Σ_{n<m} Re(gₙ gₘ*) a (sₙuₘ − uₙsₘ)/(xₙ − xₘ), with u = J₀(αa), s = αJ₁(αa): symmetric in (n, m), so half the
+  // sum over n ≠ m, which the fast multipole method gives in O(N) for large N (lib/optics/cauchy-sum.ts)
+  if (n >= FAST_CAUCHY_FROM) {
+    const sums = [new Float64Array(n), new Float64Array(n), new Float64Array(n), new Float64Array(n)];
+    cauchySums(x, [pA, pB, pC, pD], sums);
+    const [sA, sB, sC, sD] = sums;
+    let all = 0;
+    for (let i = 0; i < n; i++) all += pC[i] * sA[i] + pD[i] * sB[i] - pA[i] * sC[i] - pB[i] * sD[i];
+    return 2 * Math.PI * beta * beta * (diagonal + a * all);
+  }
   let off = 0;
   for (let i = 0; i < n; i++) {
     const xi = x[i];

@@ -1,0 +1,179 @@
+// The fast multipole Cauchy sums against the direct double sum over m ≠ n (written out here, the independent method), on
+// the clustered Gauss–Legendre panel points the field chain produces and on random, uniform and awkward point sets.
+// Every case asserts |fast − direct| ≤ 1e-9 · Σ_{m≠n} |w_m/(x_n − x_m)| at every point and for every weight vector.
+import { describe, expect, it } from "vitest";
+import { cauchySums } from "@/lib/optics/cauchy-sum";
+import { gaussLegendre } from "@/lib/optics/quadrature";
+
+const BOUND = 1e-9;
+const GL = gaussLegendre(16);
+
+/** A small seeded generator (mulberry32), so every run sees the same points and weights. */
+function generator(seed: number): () => number {
+  let s = seed >>> 0;
+  return () => {
+    s = (s + 0x6d2b79f5) >>> 0;
+    let t = s;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+function shuffle(x: Float64Array, random: () => number): Float64Array {
+  for (let i = x.length - 1; i > 0; i--) {
+    const j = Math.floor(random() * (i + 1));
+    [x[i], x[j]] = [x[j], x[i]];
+  }
+  return x;
+}
+
+/** x = (c·ρ)² for ρ at the 16 Gauss–Legendre nodes of each of `panels` equal panels on [0, X], in shuffled order. */
+function panelPoints(panels: number, xMax: number, c: number, random: () => number): Float64Array {
+  const x = new Float64Array(16 * panels);
+  const h = xMax / panels;
+  for (let p = 0; p < panels; p++) {
+    for (let j = 0; j < 16; j++) x[16 * p + j] = (c * ((p + 0.5) * h + 0.5 * h * GL.x[j])) ** 2;
+  }
+  return shuffle(x, random);
+}
+
+function randomWeights(count: number, n: number, random: () => number): Float64Array[] {
+  return Array.from({ length: count }, () => Float64Array.from({ length: n }, () => 2 * random() - 1));
+}
+
+/** The direct sums and the sums of the magnitudes of their terms. */
+function directSums(x: Float64Array, weights: Float64Array[]): { sums: Float64Array[]; magnitudes: Float64Array[] } {
+  const n = x.length;
+  const sums = weights.map(() => new Float64Array(n));
+  const magnitudes = weights.map(() => new Float64Array(n));
+  for (let k = 0; k < weights.length; k++) {
+    const w = weights[k];
+    for (let i = 0; i < n; i++) {
+      let s = 0;
+      let m = 0;
+      for (let j = 0; j < n; j++) {
+        if (j === i) continue;
+        const term = w[j] / (x[i] - x[j]);
+        s += term;
+        m += Math.abs(term);
+      }
+      sums[k][i] = s;
+      magnitudes[k][i] = m;
+    }
+  }
+  return { sums, magnitudes };
+}
+
+/** The largest |fast − direct| / Σ|w_m/(x_n − x_m)| over every output (0 where both are exactly 0). */
+function worstRatio(x: Float64Array, weights: Float64Array[]): number {
+  const out = weights.map(() => new Float64Array(x.length).fill(Number.NaN));
+  cauchySums(x, weights, out);
+  const { sums, magnitudes } = directSums(x, weights);
+  let worst = 0;
+  for (let k = 0; k < weights.length; k++) {
+    for (let i = 0; i < x.length; i++) {
+      const error = Math.abs(out[k][i] - sums[k][i]);
+      const ratio = error === 0 ? 0 : error / magnitudes[k][i];
+      worst = Number.isNaN(ratio) || ratio > worst ? ratio : worst;
+    }
+  }
+  return worst;
+}
+
+describe("cauchySums on Gauss–Legendre panel points x = (cρ)² (the field chain's nodes)", () => {
+  for (const panels of [2, 30, 100, 400]) {
+    it(`${16 * panels} points, four weight vectors: within 1e-9 of the magnitude sum`, () => {
+      const random = generator(panels);
+      const x = panelPoints(panels, 1.5e-3, 2.1e3, random);
+      expect(worstRatio(x, randomWeights(4, x.length, random))).toBeLessThan(BOUND);
+    });
+  }
+
+  it("weights on a few points only, so the far pairs (the expansions) carry the sums", () => {
+    const random = generator(7);
+    const x = panelPoints(100, 1, 1, random);
+    const sparse = (every: number): Float64Array => Float64Array.from({ length: x.length }, (_, i) => (i % every === 3 ? 2 * random() - 1 : 0));
+    const single = new Float64Array(x.length);
+    single[11] = 1;
+    expect(worstRatio(x, [sparse(37), sparse(211), sparse(997), single])).toBeLessThan(BOUND);
+  });
+
+  it("a zero weight vector among others gives exact zeros", () => {
+    const random = generator(8);
+    const x = panelPoints(30, 1, 1, random);
+    const weights = randomWeights(4, x.length, random);
+    weights[2] = new Float64Array(x.length);
+    const out = weights.map(() => new Float64Array(x.length).fill(1));
+    cauchySums(x, weights, out);
+    expect(out[2].every((v) => v === 0)).toBe(true);
+    expect(worstRatio(x, weights)).toBeLessThan(BOUND);
+  });
+});
+
+describe("cauchySums on other point sets", () => {
+  it("random points in [−3, 7]", () => {
+    const random = generator(11);
+    const x = Float64Array.from({ length: 3000 }, () => 10 * random() - 3);
+    expect(worstRatio(x, randomWeights(4, x.length, random))).toBeLessThan(BOUND);
+  });
+
+  it("equally spaced points", () => {
+    const random = generator(12);
+    const x = shuffle(Float64Array.from({ length: 2048 }, (_, i) => 5 + 0.01 * i), random);
+    expect(worstRatio(x, randomWeights(4, x.length, random))).toBeLessThan(BOUND);
+  });
+
+  it("two far clusters (near −3 and near 10⁶, each 10⁻³ wide)", () => {
+    const random = generator(13);
+    const x = Float64Array.from({ length: 2000 }, (_, i) => (i % 2 === 0 ? -3 : 1e6) + 1e-3 * random());
+    expect(worstRatio(x, randomWeights(4, x.length, random))).toBeLessThan(BOUND);
+  });
+
+  it("repeated tiny gaps: pairs x and x·(1 + 10⁻⁹)", () => {
+    const random = generator(14);
+    const x = shuffle(Float64Array.from({ length: 2000 }, (_, i) => (1 + Math.floor(i / 2)) * (i % 2 === 0 ? 1 : 1 + 1e-9)), random);
+    expect(worstRatio(x, randomWeights(4, x.length, random))).toBeLessThan(BOUND);
+  });
+
+  it("one, two and five weight vectors (the vectors go in fours)", () => {
+    const random = generator(15);
+    const x = panelPoints(40, 1, 1, random);
+    for (const count of [1, 2, 5]) expect(worstRatio(x, randomWeights(count, x.length, random))).toBeLessThan(BOUND);
+  });
+
+  it("N = 1 gives zero, N = 2 the single terms", () => {
+    const one = [new Float64Array([7])];
+    cauchySums(new Float64Array([3]), [new Float64Array([2])], one);
+    expect(one[0][0]).toBe(0);
+    const two = [new Float64Array(2)];
+    cauchySums(new Float64Array([0.5, 2]), [new Float64Array([3, -4])], two);
+    expect(Math.abs(two[0][0] - -4 / (0.5 - 2))).toBeLessThanOrEqual(BOUND * Math.abs(-4 / (0.5 - 2)));
+    expect(Math.abs(two[0][1] - 3 / (2 - 0.5))).toBeLessThanOrEqual(BOUND * Math.abs(3 / (2 - 0.5)));
+  });
+});
+
+describe("cauchySums contract", () => {
+  it("is deterministic bit for bit, and out may be the weight vectors themselves", () => {
+    const random = generator(21);
+    const x = panelPoints(60, 1, 1, random);
+    const weights = randomWeights(4, x.length, random);
+    const first = weights.map(() => new Float64Array(x.length));
+    const second = weights.map(() => new Float64Array(x.length));
+    cauchySums(x, weights, first);
+    cauchySums(x, weights, second);
+    const inPlace = weights.map((w) => w.slice());
+    cauchySums(x, inPlace, inPlace);
+    for (let k = 0; k < 4; k++) {
+      expect(second[k]).toEqual(first[k]);
+      expect(inPlace[k]).toEqual(first[k]);
+    }
+  });
+
+  it("rejects non-finite points and mismatched vectors", () => {
+    const w = [new Float64Array(3)];
+    expect(() => cauchySums(new Float64Array([1, Number.NaN, 2]), w, [new Float64Array(3)])).toThrow(RangeError);
+    expect(() => cauchySums(new Float64Array([1, 2, 3]), w, [new Float64Array(2)])).toThrow(RangeError);
+    expect(() => cauchySums(new Float64Array([1, 2, 3]), w, [])).toThrow(RangeError);
+  });
+});
