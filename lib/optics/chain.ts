@@ -732,12 +732,13 @@ export function powerInsideCircle(source: NodeField, matrix: AbcdMatrix, wavelen
   // Σ_{n<m} Re(gₙ gₘ*) a (sₙuₘ − uₙsₘ)/(xₙ − xₘ), with u = J₀(αa), s = αJ₁(αa): symmetric in (n, m), so half the
   // sum over n ≠ m, which the fast multipole method gives in O(N) for large N (lib/optics/cauchy-sum.ts)
   if (n >= FAST_CAUCHY_FROM) {
-    const sums = [new Float64Array(n), new Float64Array(n), new Float64Array(n), new Float64Array(n)];
-    cauchySums(x, [pA, pB, pC, pD], sums);
-    const [sA, sB, sC, sD] = sums;
+    // the terms −uₙsₘ are the sₙuₘ terms with n and m swapped (the kernel is odd): Σ_{n≠m} = 2 Σₙ sₙ Σ_{m≠n} uₘ/(xₙ − xₘ)
+    const sums = [new Float64Array(n), new Float64Array(n)];
+    cauchySums(x, [pA, pB], sums);
+    const [sA, sB] = sums;
     let all = 0;
-    for (let i = 0; i < n; i++) all += pC[i] * sA[i] + pD[i] * sB[i] - pA[i] * sC[i] - pB[i] * sD[i];
-    return 2 * Math.PI * beta * beta * (diagonal + a * all);
+    for (let i = 0; i < n; i++) all += pC[i] * sA[i] + pD[i] * sB[i];
+    return 2 * Math.PI * beta * beta * (diagonal + 2 * a * all);
   }
   let off = 0;
   for (let i = 0; i < n; i++) {
