@@ -431,19 +431,33 @@ export class FieldChain {
   }
 
   /** The plane's field on its own nodes, prepared (kernel phase and measure folded in) for a hop of `matrix` out to rOut. Null if unaffordable. */
-  private sourceNodesFor(plane: PlaneState, matrix: AbcdMatrix, rOutM: number, roundUp = false, cyclesPerPanel = CYCLES_PER_PANEL): NodeField | null {
-    const needed = this.panelsFor(plane, matrix, plane.reachM, "hop", rOutM, cyclesPerPanel);
-    // rounded up to a power of two (finer, never coarser), so many probes share one set of nodes on the plane
-    const panels = roundUp && Number.isFinite(needed) ? 2 ** Math.ceil(Math.log2(needed)) : needed;
+  private sourceNodesFor(plane: PlaneState, matrix: AbcdMatrix, rOutM: number, cyclesPerPanel = CYCLES_PER_PANEL): NodeField | null {
+    const panels = this.panelsFor(plane, matrix, plane.reachM, "hop", rOutM, cyclesPerPanel);
     if (!Number.isFinite(panels) || !(Math.abs(matrix.b) > 0)) return null;
     const count = panels * GL_ORDER;
     if (count > MAX_PLANE_NODES * this.refinement) return null;
     if (plane.from !== null && plane.from.source.rho.length * count > this.maxHopWork) return null;
-    const nodes = this.fieldOn(plane, panels);
-    const field = nodes;
     const lambda = this.wavelengthM;
     const re = new Float64Array(count);
     const im = new Float64Array(count);
+    if (plane.from === null) {
+      // a Gaussian cut at cutM: its own wavefront and the kernel's in one phase factor
+      const nodes = quadratureNodes(plane.reachM, panels);
+      const w = plane.gaussianRadiusM;
+      const amp = plane.amplitudeScale * Math.sqrt(2 / (Math.PI * w * w));
+      const chirp = plane.gaussianCurvaturePerM / lambda + matrix.a / (lambda * matrix.b);
+      for (let k = 0; k < count; k++) {
+        const r = nodes.rho[k];
+        if (r > plane.cutM) continue;
+        const m = amp * Math.exp(-(r * r) / (w * w)) * nodes.wr[k];
+        const [c, s] = cisPi(chirp * r * r);
+        re[k] = m * c;
+        im[k] = m * s;
+      }
+      return { rho: nodes.rho, wr: nodes.wr, re, im };
+    }
+    const nodes = this.fieldOn(plane, panels);
+    const field = nodes;
     for (let k = 0; k < count; k++) {
       const [c, s] = cisPi((matrix.a * nodes.rho[k] * nodes.rho[k]) / (lambda * matrix.b));
       const fr = field.re[k] * nodes.wr[k];
@@ -453,6 +467,7 @@ export class FieldChain {
     }
     return { rho: nodes.rho, wr: nodes.wr, re, im };
   }
+
 
   /**
    * The plane's field on its own `panels`-panel quadrature nodes over [0, reach], computed once per plane and panel
@@ -627,7 +642,7 @@ export class FieldChain {
         return Math.min(bound, total) * scaleMw;
       }
     }
-    const source = Math.abs(matrix.b) > 0 ? this.sourceNodesFor(plane, matrix, radiusM, false, POWER_CYCLES_PER_PANEL) : null;
+    const source = Math.abs(matrix.b) > 0 ? this.sourceNodesFor(plane, matrix, radiusM, POWER_CYCLES_PER_PANEL) : null;
     let rel: number;
     if (source !== null && (source.rho.length * source.rho.length) / 2 <= this.maxHopWork) {
       rel = powerInsideCircle(source, matrix, this.wavelengthM, radiusM, this.exactBessel);
