@@ -14,9 +14,14 @@
 // interpolating 1/(x − y) at p × p Chebyshev nodes of the pair (the black-box FMM in the Chebyshev basis); otherwise it
 // splits the wider box, and two leaves (or two boxes with few points) are summed directly, one division serving both
 // directions. The expansions shift down exactly and are evaluated at the points. Weight vectors go four at a time,
-// interleaved, so that every division, node and matrix entry serves four products. Below DIRECT_BELOW points the
-// direct double loop is used (the measured cross-over). Measured on the field chain's clustered nodes with four vectors:
-// 8.7× faster than the plain direct double loop at N = 1000, 17× at 2000, 59× at 8000.
+// interleaved, so that every division, node and matrix entry serves four products; one or two vectors (or the last one
+// or two of more) go two at a time, through inner loops written for two lanes whose matrix, moment and evaluation loops
+// take four rows (coefficients, points) where the four-lane ones take two, so that each value loaded still serves eight
+// products. Per lane both sets do the same operations in the same order: a vector's sums do not depend on the vectors
+// beside it, bit for bit. Below DIRECT_BELOW points
+// the direct double loop is used (the measured cross-over). Measured on the field chain's clustered nodes with four
+// vectors: 8.7× faster than the plain direct double loop at N = 1000, 17× at 2000, 59× at 8000; one or two vectors take
+// 0.6 of the time of four (not 0.5: the divisions of the direct sums, the tree and the walk do not depend on the lanes).
 //
 // Error. Through an expansion the kernel K = 1/(x − y) is interpolated in y at the source box's nodes, then in x at the
 // target box's: K − I_x I_y K = (K − I_x K) + I_x(K − I_y K). For this kernel the error of interpolation in y is exactly
@@ -39,7 +44,7 @@ const SEPARATION = 3;
 const DIRECT_PAIRS = 128;
 /** Below this many points the whole sum is the direct double loop. */
 const DIRECT_BELOW = 200;
-/** Weight vectors are handled four at a time, interleaved (a missing fourth is zeros). */
+/** Weight vectors are handled four at a time, interleaved (a missing one is zeros); a group of one or two takes two lanes. */
 const LANES = 4;
 /** Half-widths below this are not halved (they would leave the normal range of doubles). */
 const SMALLEST_HALF = 2 ** -1000;
@@ -71,15 +76,17 @@ export function cauchySums(points: Float64Array, weights: readonly Float64Array[
   const order = new Int32Array(n);
   for (let i = 0; i < n; i++) order[i] = i;
   const tree = n < DIRECT_BELOW ? null : buildTree(xs, order);
-  const w: Float64Array[] = [];
-  const o: Float64Array[] = [];
+  const groups: Group[] = [];
   for (let first = 0; first < weights.length; first += LANES) {
-    w.push(interleave(weights, first, order));
-    o.push(new Float64Array(LANES * n));
+    const kernels = weights.length - first <= 2 ? TWO : FOUR;
+    groups.push({ kernels, w: interleave(weights, first, kernels.lanes, order), o: new Float64Array(kernels.lanes * n) });
   }
-  if (tree === null) for (let g = 0; g < w.length; g++) directSelf(xs, w[g], o[g], 0, n);
-  else multipole(tree, xs, w, o);
-  for (let k = 0; k < out.length; k++) deinterleave(o[Math.floor(k / LANES)], k % LANES, order, out[k]);
+  if (tree === null) for (const g of groups) directSelf(g.kernels, xs, g.w, g.o, 0, n);
+  else multipole(tree, xs, groups);
+  for (let k = 0; k < out.length; k++) {
+    const g = groups[Math.floor(k / LANES)];
+    deinterleave(g.o, g.kernels.lanes, k % LANES, order, out[k]);
+  }
 }
 
 function checkShapes(points: Float64Array, weights: readonly Float64Array[], out: readonly Float64Array[]): void {
@@ -90,47 +97,77 @@ function checkShapes(points: Float64Array, weights: readonly Float64Array[], out
   for (let i = 0; i < n; i++) if (!Number.isFinite(points[i])) throw new RangeError("cauchySums: points must be finite");
 }
 
-/** Weight vectors first … first + 3, reordered like the points and interleaved point by point. */
-function interleave(weights: readonly Float64Array[], first: number, order: Int32Array): Float64Array {
+/** Weight vectors first … first + lanes − 1 (those that exist), reordered like the points and interleaved point by point. */
+function interleave(weights: readonly Float64Array[], first: number, lanes: number, order: Int32Array): Float64Array {
   const n = order.length;
-  const w = new Float64Array(LANES * n);
-  for (let lane = 0; lane < LANES && first + lane < weights.length; lane++) {
+  const w = new Float64Array(lanes * n);
+  for (let lane = 0; lane < lanes && first + lane < weights.length; lane++) {
     const v = weights[first + lane];
-    for (let i = 0; i < n; i++) w[LANES * i + lane] = v[order[i]];
+    for (let i = 0; i < n; i++) w[lanes * i + lane] = v[order[i]];
   }
   return w;
 }
 
-function deinterleave(o: Float64Array, lane: number, order: Int32Array, out: Float64Array): void {
-  for (let i = 0; i < order.length; i++) out[order[i]] = o[LANES * i + lane];
+function deinterleave(o: Float64Array, lanes: number, lane: number, order: Int32Array, out: Float64Array): void {
+  for (let i = 0; i < order.length; i++) out[order[i]] = o[lanes * i + lane];
 }
 
-// ——— direct sums (one division serves the pair in both directions) ———
+// ——— the inner loops, one set per lane count ———
+
+/** Which entries of a p × p matrix may be nonzero: all, k ≤ l (the up-shift) or k ≥ l (the down-shift). */
+const FULL = 0;
+const LOWER = 1;
+const UPPER = 2;
+
+/**
+ * Everything that depends on how many weight vectors are interleaved (L, the lanes). Each set is written out with its
+ * accumulators unrolled, so that they stay in registers (a loop over the lanes, accumulating in an array, measured 3.3×
+ * slower for two lanes). Both sets do, lane by lane, the same operations in the same order (the two-lane matrix loop
+ * also takes a few more of a band's zero entries, which add exactly nothing), so a vector's sums are the same bit for bit
+ * in a group of four or of two.
+ * The loops copy ORDER into a local p: V8 reloads and rechecks a module-level constant at every use inside a loop.
+ */
+type Kernels = {
+  lanes: number;
+  /** Point i with the points of [start, end) (i outside it), both directions. */
+  directRow: (xs: Float64Array, w: Float64Array, o: Float64Array, i: number, start: number, end: number) => void;
+  /** Points i and i + 1 with the points of [start, end), both directions: each point j is loaded and stored once for two. */
+  directRows: (xs: Float64Array, w: Float64Array, o: Float64Array, i: number, start: number, end: number) => void;
+  /** dst[to + L·l + lane] += scale · Σ_k m[l·p + k] · src[from + L·k + lane], every row l and lane, over the matrix's band. */
+  multiplyAdd: (m: Float64Array, band: number, src: Float64Array, from: number, dst: Float64Array, to: number, scale: number) => void;
+  /** moments[at + L·l + lane] = Σ_i w[L·i + lane] · rows[i·p + l] over the points i of [start, end). */
+  moments: (w: Float64Array, rows: Float64Array, start: number, end: number, moments: Float64Array, at: number) => void;
+  /** o[L·i + lane] += Σ_l local[at + L·l + lane] · rows[i·p + l] at the points i of [start, end). */
+  evaluate: (local: Float64Array, at: number, rows: Float64Array, start: number, end: number, o: Float64Array) => void;
+};
 
 /** All pairs inside the range [start, end). */
-function directSelf(xs: Float64Array, w: Float64Array, o: Float64Array, start: number, end: number): void {
+function directSelf(k: Kernels, xs: Float64Array, w: Float64Array, o: Float64Array, start: number, end: number): void {
   for (let i = start; i + 1 < end; i += 2) {
-    directRow(xs, w, o, i, i + 1, i + 2);
-    directRows(xs, w, o, i, i + 2, end);
+    k.directRow(xs, w, o, i, i + 1, i + 2);
+    k.directRows(xs, w, o, i, i + 2, end);
   }
 }
 
 /** Every point of [startA, endA) with every point of [startB, endB). */
-function directPair(xs: Float64Array, w: Float64Array, o: Float64Array, startA: number, endA: number, startB: number, endB: number): void {
+function directPair(k: Kernels, xs: Float64Array, w: Float64Array, o: Float64Array, startA: number, endA: number, startB: number, endB: number): void {
   let i = startA;
-  for (; i + 1 < endA; i += 2) directRows(xs, w, o, i, startB, endB);
-  if (i < endA) directRow(xs, w, o, i, startB, endB);
+  for (; i + 1 < endA; i += 2) k.directRows(xs, w, o, i, startB, endB);
+  if (i < endA) k.directRow(xs, w, o, i, startB, endB);
 }
 
-/** Point i with the points of [start, end) (i outside it), both directions. */
-function directRow(xs: Float64Array, w: Float64Array, o: Float64Array, i: number, start: number, end: number): void {
+// four lanes: two rows (points, coefficients) at a time, so that each value loaded serves eight products
+
+const FOUR: Kernels = { lanes: 4, directRow: directRow4, directRows: directRows4, multiplyAdd: multiplyAdd4, moments: moments4, evaluate: evaluate4 };
+
+function directRow4(xs: Float64Array, w: Float64Array, o: Float64Array, i: number, start: number, end: number): void {
   const xi = xs[i];
-  const i4 = LANES * i;
+  const i4 = 4 * i;
   const v0 = w[i4], v1 = w[i4 + 1], v2 = w[i4 + 2], v3 = w[i4 + 3];
   let a0 = 0, a1 = 0, a2 = 0, a3 = 0;
   for (let j = start; j < end; j++) {
     const d = 1 / (xi - xs[j]);
-    const j4 = LANES * j;
+    const j4 = 4 * j;
     a0 += w[j4] * d;
     a1 += w[j4 + 1] * d;
     a2 += w[j4 + 2] * d;
@@ -140,14 +177,13 @@ function directRow(xs: Float64Array, w: Float64Array, o: Float64Array, i: number
     o[j4 + 2] -= v2 * d;
     o[j4 + 3] -= v3 * d;
   }
-  addLanes(o, i4, a0, a1, a2, a3);
+  add4(o, i4, a0, a1, a2, a3);
 }
 
-/** Points i and i + 1 with the points of [start, end), both directions: each point j is loaded and stored once for two. */
-function directRows(xs: Float64Array, w: Float64Array, o: Float64Array, i: number, start: number, end: number): void {
+function directRows4(xs: Float64Array, w: Float64Array, o: Float64Array, i: number, start: number, end: number): void {
   const xi = xs[i];
   const xk = xs[i + 1];
-  const i4 = LANES * i;
+  const i4 = 4 * i;
   const v0 = w[i4], v1 = w[i4 + 1], v2 = w[i4 + 2], v3 = w[i4 + 3];
   const u0 = w[i4 + 4], u1 = w[i4 + 5], u2 = w[i4 + 6], u3 = w[i4 + 7];
   let a0 = 0, a1 = 0, a2 = 0, a3 = 0, b0 = 0, b1 = 0, b2 = 0, b3 = 0;
@@ -155,7 +191,7 @@ function directRows(xs: Float64Array, w: Float64Array, o: Float64Array, i: numbe
     const x = xs[j];
     const d = 1 / (xi - x);
     const e = 1 / (xk - x);
-    const j4 = LANES * j;
+    const j4 = 4 * j;
     const w0 = w[j4], w1 = w[j4 + 1], w2 = w[j4 + 2], w3 = w[j4 + 3];
     a0 += w0 * d;
     a1 += w1 * d;
@@ -170,15 +206,240 @@ function directRows(xs: Float64Array, w: Float64Array, o: Float64Array, i: numbe
     o[j4 + 2] -= v2 * d + u2 * e;
     o[j4 + 3] -= v3 * d + u3 * e;
   }
-  addLanes(o, i4, a0, a1, a2, a3);
-  addLanes(o, i4 + LANES, b0, b1, b2, b3);
+  add4(o, i4, a0, a1, a2, a3);
+  add4(o, i4 + 4, b0, b1, b2, b3);
 }
 
-function addLanes(o: Float64Array, at: number, s0: number, s1: number, s2: number, s3: number): void {
+/** Two rows at a time (ORDER is even). */
+function multiplyAdd4(m: Float64Array, band: number, src: Float64Array, from: number, dst: Float64Array, to: number, scale: number): void {
+  const p = ORDER;
+  for (let l = 0; l < p; l += 2) {
+    const first = band === UPPER ? l : 0;
+    const last = band === LOWER ? l + 2 : p;
+    const rowE = l * p, rowF = rowE + p;
+    let s0 = 0, s1 = 0, s2 = 0, s3 = 0, r0 = 0, r1 = 0, r2 = 0, r3 = 0;
+    for (let k = first; k < last; k++) {
+      const e = m[rowE + k];
+      const f = m[rowF + k];
+      const at = from + 4 * k;
+      const c0 = src[at], c1 = src[at + 1], c2 = src[at + 2], c3 = src[at + 3];
+      s0 += e * c0;
+      s1 += e * c1;
+      s2 += e * c2;
+      s3 += e * c3;
+      r0 += f * c0;
+      r1 += f * c1;
+      r2 += f * c2;
+      r3 += f * c3;
+    }
+    const at = to + 4 * l;
+    add4(dst, at, scale * s0, scale * s1, scale * s2, scale * s3);
+    add4(dst, at + 4, scale * r0, scale * r1, scale * r2, scale * r3);
+  }
+}
+
+/** Two l at a time. */
+function moments4(w: Float64Array, rows: Float64Array, start: number, end: number, moments: Float64Array, at: number): void {
+  const p = ORDER;
+  for (let l = 0; l < p; l += 2) {
+    let s0 = 0, s1 = 0, s2 = 0, s3 = 0, r0 = 0, r1 = 0, r2 = 0, r3 = 0;
+    for (let i = start, row = start * p + l; i < end; i++, row += p) {
+      const e = rows[row];
+      const f = rows[row + 1];
+      const i4 = 4 * i;
+      const w0 = w[i4], w1 = w[i4 + 1], w2 = w[i4 + 2], w3 = w[i4 + 3];
+      s0 += w0 * e;
+      s1 += w1 * e;
+      s2 += w2 * e;
+      s3 += w3 * e;
+      r0 += w0 * f;
+      r1 += w1 * f;
+      r2 += w2 * f;
+      r3 += w3 * f;
+    }
+    set4(moments, at + 4 * l, s0, s1, s2, s3);
+    set4(moments, at + 4 * l + 4, r0, r1, r2, r3);
+  }
+}
+
+/** Two points at a time. */
+function evaluate4(local: Float64Array, at: number, rows: Float64Array, start: number, end: number, o: Float64Array): void {
+  const p = ORDER;
+  for (let i = start; i < end; i += 2) {
+    const j = Math.min(i + 1, end - 1); // an odd last point is taken twice and kept once
+    const rowI = i * p, rowJ = j * p;
+    let s0 = 0, s1 = 0, s2 = 0, s3 = 0, r0 = 0, r1 = 0, r2 = 0, r3 = 0;
+    for (let l = 0; l < p; l++) {
+      const e = rows[rowI + l];
+      const f = rows[rowJ + l];
+      const from = at + 4 * l;
+      const c0 = local[from], c1 = local[from + 1], c2 = local[from + 2], c3 = local[from + 3];
+      s0 += c0 * e;
+      s1 += c1 * e;
+      s2 += c2 * e;
+      s3 += c3 * e;
+      r0 += c0 * f;
+      r1 += c1 * f;
+      r2 += c2 * f;
+      r3 += c3 * f;
+    }
+    add4(o, 4 * i, s0, s1, s2, s3);
+    if (j > i) add4(o, 4 * j, r0, r1, r2, r3);
+  }
+}
+
+function add4(o: Float64Array, at: number, s0: number, s1: number, s2: number, s3: number): void {
   o[at] += s0;
   o[at + 1] += s1;
   o[at + 2] += s2;
   o[at + 3] += s3;
+}
+
+// two lanes (one or two weight vectors): the direct sums still take two rows at a time (their divisions, which do not
+// depend on the lanes, bound them), the rest four rows, so that each value loaded serves eight products as above
+
+const TWO: Kernels = { lanes: 2, directRow: directRow2, directRows: directRows2, multiplyAdd: multiplyAdd2, moments: moments2, evaluate: evaluate2 };
+
+function directRow2(xs: Float64Array, w: Float64Array, o: Float64Array, i: number, start: number, end: number): void {
+  const xi = xs[i];
+  const i2 = 2 * i;
+  const v0 = w[i2], v1 = w[i2 + 1];
+  let a0 = 0, a1 = 0;
+  for (let j = start; j < end; j++) {
+    const d = 1 / (xi - xs[j]);
+    const j2 = 2 * j;
+    a0 += w[j2] * d;
+    a1 += w[j2 + 1] * d;
+    o[j2] -= v0 * d;
+    o[j2 + 1] -= v1 * d;
+  }
+  o[i2] += a0;
+  o[i2 + 1] += a1;
+}
+
+function directRows2(xs: Float64Array, w: Float64Array, o: Float64Array, i: number, start: number, end: number): void {
+  const xi = xs[i];
+  const xk = xs[i + 1];
+  const i2 = 2 * i;
+  const v0 = w[i2], v1 = w[i2 + 1];
+  const u0 = w[i2 + 2], u1 = w[i2 + 3];
+  let a0 = 0, a1 = 0, b0 = 0, b1 = 0;
+  for (let j = start; j < end; j++) {
+    const x = xs[j];
+    const d = 1 / (xi - x);
+    const e = 1 / (xk - x);
+    const j2 = 2 * j;
+    const w0 = w[j2], w1 = w[j2 + 1];
+    a0 += w0 * d;
+    a1 += w1 * d;
+    b0 += w0 * e;
+    b1 += w1 * e;
+    o[j2] -= v0 * d + u0 * e;
+    o[j2 + 1] -= v1 * d + u1 * e;
+  }
+  o[i2] += a0;
+  o[i2 + 1] += a1;
+  o[i2 + 2] += b0;
+  o[i2 + 3] += b1;
+}
+
+/** Four rows at a time: l, l + 1, g, g + 1 (g = l + 2; in the last group g = l, computed again and not stored). */
+function multiplyAdd2(m: Float64Array, band: number, src: Float64Array, from: number, dst: Float64Array, to: number, scale: number): void {
+  const p = ORDER;
+  for (let l = 0; l < p; l += 4) {
+    const g = Math.min(l + 2, p - 2);
+    const first = band === UPPER ? l : 0;
+    const last = band === LOWER ? g + 2 : p;
+    const rowE = l * p, rowF = rowE + p, rowY = g * p, rowZ = rowY + p;
+    let s0 = 0, s1 = 0, r0 = 0, r1 = 0, t0 = 0, t1 = 0, q0 = 0, q1 = 0;
+    for (let k = first; k < last; k++) {
+      const e = m[rowE + k];
+      const f = m[rowF + k];
+      const y = m[rowY + k];
+      const z = m[rowZ + k];
+      const at = from + 2 * k;
+      const c0 = src[at], c1 = src[at + 1];
+      s0 += e * c0;
+      s1 += e * c1;
+      r0 += f * c0;
+      r1 += f * c1;
+      t0 += y * c0;
+      t1 += y * c1;
+      q0 += z * c0;
+      q1 += z * c1;
+    }
+    add4(dst, to + 2 * l, scale * s0, scale * s1, scale * r0, scale * r1);
+    if (g > l) add4(dst, to + 2 * g, scale * t0, scale * t1, scale * q0, scale * q1);
+  }
+}
+
+/** Four l at a time: l, l + 1, g, g + 1 (g = l + 2; in the last group g = l, computed and stored again). */
+function moments2(w: Float64Array, rows: Float64Array, start: number, end: number, moments: Float64Array, at: number): void {
+  const p = ORDER;
+  for (let l = 0; l < p; l += 4) {
+    const g = Math.min(l + 2, p - 2);
+    let s0 = 0, s1 = 0, r0 = 0, r1 = 0, t0 = 0, t1 = 0, q0 = 0, q1 = 0;
+    for (let i = start, row = start * p; i < end; i++, row += p) {
+      const e = rows[row + l];
+      const f = rows[row + l + 1];
+      const y = rows[row + g];
+      const z = rows[row + g + 1];
+      const w0 = w[2 * i], w1 = w[2 * i + 1];
+      s0 += w0 * e;
+      s1 += w1 * e;
+      r0 += w0 * f;
+      r1 += w1 * f;
+      t0 += w0 * y;
+      t1 += w1 * y;
+      q0 += w0 * z;
+      q1 += w1 * z;
+    }
+    set4(moments, at + 2 * l, s0, s1, r0, r1);
+    set4(moments, at + 2 * g, t0, t1, q0, q1);
+  }
+}
+
+/** Four points at a time (the last group repeats its last point as needed, each kept once). */
+function evaluate2(local: Float64Array, at: number, rows: Float64Array, start: number, end: number, o: Float64Array): void {
+  const p = ORDER;
+  for (let i = start; i < end; i += 4) {
+    const j = Math.min(i + 1, end - 1);
+    const k = Math.min(i + 2, end - 1);
+    const h = Math.min(i + 3, end - 1);
+    const rowI = i * p, rowJ = j * p, rowK = k * p, rowH = h * p;
+    let s0 = 0, s1 = 0, r0 = 0, r1 = 0, t0 = 0, t1 = 0, q0 = 0, q1 = 0;
+    for (let l = 0; l < p; l++) {
+      const e = rows[rowI + l];
+      const f = rows[rowJ + l];
+      const y = rows[rowK + l];
+      const z = rows[rowH + l];
+      const c0 = local[at + 2 * l], c1 = local[at + 2 * l + 1];
+      s0 += c0 * e;
+      s1 += c1 * e;
+      r0 += c0 * f;
+      r1 += c1 * f;
+      t0 += c0 * y;
+      t1 += c1 * y;
+      q0 += c0 * z;
+      q1 += c1 * z;
+    }
+    add2(o, 2 * i, s0, s1);
+    if (j > i) add2(o, 2 * j, r0, r1);
+    if (k > j) add2(o, 2 * k, t0, t1);
+    if (h > k) add2(o, 2 * h, q0, q1);
+  }
+}
+
+function add2(o: Float64Array, at: number, s0: number, s1: number): void {
+  o[at] += s0;
+  o[at + 1] += s1;
+}
+
+function set4(o: Float64Array, at: number, s0: number, s1: number, s2: number, s3: number): void {
+  o[at] = s0;
+  o[at + 1] = s1;
+  o[at + 2] = s2;
+  o[at + 3] = s3;
 }
 
 // ——— the tree ———
@@ -292,13 +553,14 @@ function isLeaf(t: Tree, b: number): boolean {
 /** An M2L operator at unit source half-width and its transpose (the reverse direction, with a minus sign). */
 type Interaction = { forward: Float64Array; reverse: Float64Array };
 
-type Work = {
+/** One group of up to four weight vectors: its inner loops, interleaved weights and sums. */
+type Group = { kernels: Kernels; w: Float64Array; o: Float64Array };
+
+type Work = Group & {
   xs: Float64Array;
   tree: Tree;
-  /** One group of four weight vectors: interleaved weights and sums, moments and local coefficients. */
-  w: Float64Array;
-  o: Float64Array;
-  /** Box b, coefficient l, lane at (b·p + l)·4 + lane. */
+  /** Box b's coefficients, (b·p + l)·L + lane for coefficient l (L lanes); stride = p·L. */
+  stride: number;
   moments: Float64Array;
   local: Float64Array;
   /** 1 once a box's local expansion holds something. */
@@ -307,11 +569,13 @@ type Work = {
   rows: Float64Array;
 };
 
-function multipole(tree: Tree, xs: Float64Array, w: Float64Array[], o: Float64Array[]): void {
+function multipole(tree: Tree, xs: Float64Array, groups: Group[]): void {
   const rows = new Float64Array(xs.length * ORDER);
-  const size = tree.size * ORDER * LANES;
-  for (let g = 0; g < w.length; g++) {
-    const work: Work = { xs, tree, w: w[g], o: o[g], moments: new Float64Array(size), local: new Float64Array(size), live: new Uint8Array(tree.size), rows };
+  for (const g of groups) {
+    const stride = ORDER * g.kernels.lanes;
+    const size = tree.size * stride;
+    const { kernels, w, o } = g; // field by field, not {...g}: a spread object's shape made every work.x load megamorphic
+    const work: Work = { kernels, w, o, xs, tree, stride, moments: new Float64Array(size), local: new Float64Array(size), live: new Uint8Array(tree.size), rows };
     for (let b = tree.size - 1; b >= 0; b--) upward(work, b);
     walkSelf(work, 0);
     for (let b = 0; b < tree.size; b++) downward(work, b);
@@ -320,10 +584,11 @@ function multipole(tree: Tree, xs: Float64Array, w: Float64Array[], o: Float64Ar
 
 /** T_0 … T_{p−1} at u into rows[at …] and at v into rows[bt …]; the two recurrences run side by side. */
 function chebyshevRows(u: number, v: number, rows: Float64Array, at: number, bt: number): void {
+  const p = ORDER;
   let tu = 1, tv = 1, su = u, sv = v;
   rows[at] = 1;
   rows[bt] = 1;
-  for (let k = 1; k < ORDER; k++) {
+  for (let k = 1; k < p; k++) {
     rows[at + k] = su;
     rows[bt + k] = sv;
     const nu = 2 * u * su - tu;
@@ -335,58 +600,18 @@ function chebyshevRows(u: number, v: number, rows: Float64Array, at: number, bt:
   }
 }
 
-/** Which entries of a p × p matrix may be nonzero: all, k ≤ l (the up-shift) or k ≥ l (the down-shift). */
-const FULL = 0;
-const LOWER = 1;
-const UPPER = 2;
-
-/**
- * dst[to + 4l + lane] += scale · Σ_k m[l·p + k] · src[from + 4k + lane], every row l and lane, over the matrix's band;
- * two rows at a time (ORDER is even) so that each source coefficient loaded serves eight products.
- */
-function multiplyAdd(m: Float64Array, band: number, src: Float64Array, from: number, dst: Float64Array, to: number, scale: number): void {
-  for (let l = 0; l < ORDER; l += 2) {
-    const first = band === UPPER ? l : 0;
-    const last = band === LOWER ? l + 2 : ORDER;
-    let s0 = 0, s1 = 0, s2 = 0, s3 = 0, r0 = 0, r1 = 0, r2 = 0, r3 = 0;
-    for (let k = first; k < last; k++) {
-      const e = m[l * ORDER + k];
-      const f = m[(l + 1) * ORDER + k];
-      const at = from + k * LANES;
-      const c0 = src[at], c1 = src[at + 1], c2 = src[at + 2], c3 = src[at + 3];
-      s0 += e * c0;
-      s1 += e * c1;
-      s2 += e * c2;
-      s3 += e * c3;
-      r0 += f * c0;
-      r1 += f * c1;
-      r2 += f * c2;
-      r3 += f * c3;
-    }
-    const at = to + l * LANES;
-    dst[at] += scale * s0;
-    dst[at + 1] += scale * s1;
-    dst[at + 2] += scale * s2;
-    dst[at + 3] += scale * s3;
-    dst[at + 4] += scale * r0;
-    dst[at + 5] += scale * r1;
-    dst[at + 6] += scale * r2;
-    dst[at + 7] += scale * r3;
-  }
-}
-
 /** A box's moments: from its points (a leaf) or shifted up from its children. */
 function upward(work: Work, b: number): void {
   const t = work.tree;
-  const to = b * ORDER * LANES;
+  const { stride, moments } = work;
   if (isLeaf(t, b)) pointsToMoments(work, b);
-  if (t.left[b] >= 0) multiplyAdd(SHIFT_LEFT, LOWER, work.moments, t.left[b] * ORDER * LANES, work.moments, to, 1);
-  if (t.right[b] >= 0) multiplyAdd(SHIFT_RIGHT, LOWER, work.moments, t.right[b] * ORDER * LANES, work.moments, to, 1);
+  if (t.left[b] >= 0) work.kernels.multiplyAdd(SHIFT_LEFT, LOWER, moments, t.left[b] * stride, moments, b * stride, 1);
+  if (t.right[b] >= 0) work.kernels.multiplyAdd(SHIFT_RIGHT, LOWER, moments, t.right[b] * stride, moments, b * stride, 1);
 }
 
-/** μ_l = Σ_i w_i T_l(u_i) over the leaf's points, two l at a time; the T_l(u_i) are kept for localToPoints. */
+/** μ_l = Σ_i w_i T_l(u_i) over the leaf's points; the T_l(u_i) are kept for localToPoints. */
 function pointsToMoments(work: Work, b: number): void {
-  const { xs, w, tree, rows, moments } = work;
+  const { xs, tree, rows } = work;
   const c = tree.centre[b];
   const a = tree.half[b];
   const start = tree.start[b];
@@ -395,73 +620,21 @@ function pointsToMoments(work: Work, b: number): void {
     const j = Math.min(i + 1, end - 1);
     chebyshevRows((xs[i] - c) / a, (xs[j] - c) / a, rows, i * ORDER, j * ORDER);
   }
-  for (let l = 0; l < ORDER; l += 2) {
-    let s0 = 0, s1 = 0, s2 = 0, s3 = 0, r0 = 0, r1 = 0, r2 = 0, r3 = 0;
-    for (let i = start; i < end; i++) {
-      const e = rows[i * ORDER + l];
-      const f = rows[i * ORDER + l + 1];
-      const i4 = LANES * i;
-      const w0 = w[i4], w1 = w[i4 + 1], w2 = w[i4 + 2], w3 = w[i4 + 3];
-      s0 += w0 * e;
-      s1 += w1 * e;
-      s2 += w2 * e;
-      s3 += w3 * e;
-      r0 += w0 * f;
-      r1 += w1 * f;
-      r2 += w2 * f;
-      r3 += w3 * f;
-    }
-    const at = (b * ORDER + l) * LANES;
-    moments[at] = s0;
-    moments[at + 1] = s1;
-    moments[at + 2] = s2;
-    moments[at + 3] = s3;
-    moments[at + 4] = r0;
-    moments[at + 5] = r1;
-    moments[at + 6] = r2;
-    moments[at + 7] = r3;
-  }
+  work.kernels.moments(work.w, rows, start, end, work.moments, b * work.stride);
 }
 
 /** A box's local expansion: shifted down to its children, or evaluated at its points (a leaf). */
 function downward(work: Work, b: number): void {
   if (work.live[b] === 0) return;
   const t = work.tree;
-  if (isLeaf(t, b)) localToPoints(work, b);
+  if (isLeaf(t, b)) work.kernels.evaluate(work.local, b * work.stride, work.rows, t.start[b], t.end[b], work.o);
   if (t.left[b] >= 0) shiftDown(work, b, t.left[b], SHIFT_LEFT_T);
   if (t.right[b] >= 0) shiftDown(work, b, t.right[b], SHIFT_RIGHT_T);
 }
 
 function shiftDown(work: Work, parent: number, child: number, shiftT: Float64Array): void {
-  multiplyAdd(shiftT, UPPER, work.local, parent * ORDER * LANES, work.local, child * ORDER * LANES, 1);
+  work.kernels.multiplyAdd(shiftT, UPPER, work.local, parent * work.stride, work.local, child * work.stride, 1);
   work.live[child] = 1;
-}
-
-/** Σ_l a_l T_l(u) at the leaf's points, two points at a time. */
-function localToPoints(work: Work, b: number): void {
-  const { o, tree, rows, local } = work;
-  const base = b * ORDER * LANES;
-  const end = tree.end[b];
-  for (let i = tree.start[b]; i < end; i += 2) {
-    const j = Math.min(i + 1, end - 1); // an odd last point is taken twice and kept once
-    let s0 = 0, s1 = 0, s2 = 0, s3 = 0, r0 = 0, r1 = 0, r2 = 0, r3 = 0;
-    for (let l = 0; l < ORDER; l++) {
-      const e = rows[i * ORDER + l];
-      const f = rows[j * ORDER + l];
-      const at = base + l * LANES;
-      const c0 = local[at], c1 = local[at + 1], c2 = local[at + 2], c3 = local[at + 3];
-      s0 += c0 * e;
-      s1 += c1 * e;
-      s2 += c2 * e;
-      s3 += c3 * e;
-      r0 += c0 * f;
-      r1 += c1 * f;
-      r2 += c2 * f;
-      r3 += c3 * f;
-    }
-    addLanes(o, LANES * i, s0, s1, s2, s3);
-    if (j > i) addLanes(o, LANES * j, r0, r1, r2, r3);
-  }
 }
 
 // ——— the mutual walk ———
@@ -469,7 +642,7 @@ function localToPoints(work: Work, b: number): void {
 function walkSelf(work: Work, b: number): void {
   const t = work.tree;
   if (isLeaf(t, b)) {
-    directSelf(work.xs, work.w, work.o, t.start[b], t.end[b]);
+    directSelf(work.kernels, work.xs, work.w, work.o, t.start[b], t.end[b]);
     return;
   }
   if (t.left[b] >= 0) walkSelf(work, t.left[b]);
@@ -482,9 +655,9 @@ function walkPair(work: Work, a: number, b: number): void {
   const t = work.tree;
   const leafA = isLeaf(t, a);
   const leafB = isLeaf(t, b);
-  if ((t.end[a] - t.start[a]) * (t.end[b] - t.start[b]) <= DIRECT_PAIRS) directPair(work.xs, work.w, work.o, t.start[a], t.end[a], t.start[b], t.end[b]);
+  if ((t.end[a] - t.start[a]) * (t.end[b] - t.start[b]) <= DIRECT_PAIRS) directPair(work.kernels, work.xs, work.w, work.o, t.start[a], t.end[a], t.start[b], t.end[b]);
   else if (separated(t, a, b)) interact(work, a, b);
-  else if (leafA && leafB) directPair(work.xs, work.w, work.o, t.start[a], t.end[a], t.start[b], t.end[b]);
+  else if (leafA && leafB) directPair(work.kernels, work.xs, work.w, work.o, t.start[a], t.end[a], t.start[b], t.end[b]);
   else {
     const splitA = !leafA && (leafB || t.half[a] >= t.half[b]);
     const splitB = !leafB && (leafA || t.half[b] >= t.half[a]);
@@ -517,10 +690,10 @@ function interact(work: Work, a: number, b: number): void {
   const hb = t.half[b];
   const m = operator(t.half[a] / hb, (t.centre[a] - t.centre[b]) / hb);
   const scale = 1 / hb;
-  const atA = a * ORDER * LANES;
-  const atB = b * ORDER * LANES;
-  multiplyAdd(m.forward, FULL, work.moments, atB, work.local, atA, scale);
-  multiplyAdd(m.reverse, FULL, work.moments, atA, work.local, atB, -scale);
+  const atA = a * work.stride;
+  const atB = b * work.stride;
+  work.kernels.multiplyAdd(m.forward, FULL, work.moments, atB, work.local, atA, scale);
+  work.kernels.multiplyAdd(m.reverse, FULL, work.moments, atA, work.local, atB, -scale);
   work.live[a] = 1;
   work.live[b] = 1;
 }

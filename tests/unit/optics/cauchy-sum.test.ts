@@ -1,6 +1,7 @@
 // The fast multipole Cauchy sums against the direct double sum over m ≠ n (written out here, the independent method), on
 // the clustered Gauss–Legendre panel points the field chain produces and on random, uniform and awkward point sets.
-// Every case asserts |fast − direct| ≤ 1e-9 · Σ_{m≠n} |w_m/(x_n − x_m)| at every point and for every weight vector.
+// Every case asserts |fast − direct| ≤ 1e-9 · Σ_{m≠n} |w_m/(x_n − x_m)| at every point and for every weight vector; one
+// or two vectors (two lanes) are checked the same way, and against the same vectors padded to four lanes with zeros.
 import { describe, expect, it } from "vitest";
 import { cauchySums } from "@/lib/optics/cauchy-sum";
 import { gaussLegendre } from "@/lib/optics/quadrature";
@@ -150,6 +151,55 @@ describe("cauchySums on other point sets", () => {
     cauchySums(new Float64Array([0.5, 2]), [new Float64Array([3, -4])], two);
     expect(Math.abs(two[0][0] - -4 / (0.5 - 2))).toBeLessThanOrEqual(BOUND * Math.abs(-4 / (0.5 - 2)));
     expect(Math.abs(two[0][1] - 3 / (2 - 0.5))).toBeLessThanOrEqual(BOUND * Math.abs(3 / (2 - 0.5)));
+  });
+});
+
+describe("cauchySums with one or two weight vectors (the two-lane inner loops)", () => {
+  const pointSets: { name: string; points: (n: number, random: () => number) => Float64Array }[] = [
+    { name: "Gauss–Legendre panel points", points: (n, random) => panelPoints(n / 16, 1.5e-3, 2.1e3, random) },
+    { name: "random points in [−3, 7]", points: (n, random) => Float64Array.from({ length: n }, () => 10 * random() - 3) },
+  ];
+  for (const [s, { name, points }] of pointSets.entries()) {
+    for (const n of [480, 1600]) {
+      it(`${name}, N = ${n}: two vectors, and one, within 1e-9 of the magnitude sum`, () => {
+        const random = generator(31 + 10 * s + n);
+        const x = points(n, random);
+        const [a, b] = randomWeights(2, n, random);
+        expect(worstRatio(x, [a, b])).toBeLessThan(BOUND);
+        expect(worstRatio(x, [b])).toBeLessThan(BOUND);
+      });
+    }
+  }
+
+  it("two vectors with weights on a few points only (the expansions carry the sums)", () => {
+    const random = generator(41);
+    const x = panelPoints(100, 1, 1, random);
+    const sparse = (every: number): Float64Array => Float64Array.from({ length: x.length }, (_, i) => (i % every === 5 ? 2 * random() - 1 : 0));
+    expect(worstRatio(x, [sparse(53), sparse(401)])).toBeLessThan(BOUND);
+  });
+
+  it("two vectors, and one, give what they give with zero vectors beside them (four lanes), to 1e-12 of the magnitude sum", () => {
+    for (const n of [150, 480, 1600]) {
+      const random = generator(50 + n);
+      const x = panelPoints(n / 16, 1.5e-3, 2.1e3, random);
+      const [a, b] = randomWeights(2, n, random);
+      const zero = new Float64Array(n);
+      const sums = (weights: Float64Array[]): Float64Array[] => {
+        const out = weights.map(() => new Float64Array(n));
+        cauchySums(x, weights, out);
+        return out;
+      };
+      const two = sums([a, b]);
+      const one = sums([a]);
+      const padded = sums([a, b, zero, zero]);
+      const { magnitudes } = directSums(x, [a, b]);
+      let worst = 0;
+      for (let i = 0; i < n; i++) {
+        worst = Math.max(worst, Math.abs(two[0][i] - padded[0][i]) / magnitudes[0][i], Math.abs(two[1][i] - padded[1][i]) / magnitudes[1][i]);
+        worst = Math.max(worst, Math.abs(one[0][i] - padded[0][i]) / magnitudes[0][i]);
+      }
+      expect(worst).toBeLessThanOrEqual(1e-12);
+    }
   });
 });
 
