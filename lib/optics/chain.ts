@@ -450,9 +450,10 @@ export class FieldChain {
         const r = nodes.rho[k];
         if (r > plane.cutM) continue;
         const m = amp * Math.exp(-(r * r) / (w * w)) * nodes.wr[k];
-        const [c, s] = cisPi(chirp * r * r);
-        re[k] = m * c;
-        im[k] = m * s;
+        const x = chirp * r * r;
+        const phase = Math.PI * (x - 2 * Math.floor(x / 2)); // cisPi, inlined in this hot loop
+        re[k] = m * Math.cos(phase);
+        im[k] = m * Math.sin(phase);
       }
       return { rho: nodes.rho, wr: nodes.wr, re, im };
     }
