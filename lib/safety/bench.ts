@@ -53,6 +53,8 @@ export type BenchBeam = {
   skipPoint?: (elementId: string, where: HazardPoint["where"]) => boolean;
   /** The laser's own figures by laser id, filled on first use: leaves of one table (same options) share them. */
   laserFigures?: Map<string, LaserFigures>;
+  /** true: the caller chooses the cautions over the whole table (a leaf's own list is left empty). */
+  ownCautions?: boolean;
 };
 
 /** Options as the API accepts them (field paths with plain messages). */
@@ -417,12 +419,14 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
     warnings.push({ code: "label-class-mismatch", elementId: laser.id, message: shownLaser.labelCheck.warning });
   }
 
-  const cautions = selectCautions({
-    hazardClass: linesAssessment.hazardClass,
-    wavelengthNm: λ,
-    situations: [...situations],
-    opticalDensityRequired: governing?.opticalDensityRequired ?? 0,
-  });
+  const cautions = beam.ownCautions
+    ? []
+    : selectCautions({
+        hazardClass: linesAssessment.hazardClass,
+        wavelengthNm: λ,
+        situations: [...situations],
+        opticalDensityRequired: governing?.opticalDensityRequired ?? 0,
+      });
 
   const lasers: BenchSafetyAssessment["lasers"] = [
     {

@@ -226,7 +226,7 @@ export function assessTable(doc: BenchDocumentV2, beam: TableBeam, options: Benc
         const o = chain.origin.get(chainElementId);
         return o !== undefined && o.role !== "edge" && o.elementId !== null && points.has(pointKey(o.pathId, o.elementId, where));
       };
-      rail = assessRail(chain.doc, { elements, skipPoint, laserFigures, ...(enclosedPowerMw ? { enclosedPowerMw } : {}) }, { ...options, labelClass: undefined });
+      rail = assessRail(chain.doc, { elements, skipPoint, laserFigures, ownCautions: true, ...(enclosedPowerMw ? { enclosedPowerMw } : {}) }, { ...options, labelClass: undefined });
     } catch (error) {
       warnings.push({
         code: "path-not-assessed",
