@@ -3,18 +3,12 @@
 // burst, bursts per second, the rate inside a burst, energy per pulse), and which repetitive-pulse rule governs the
 // line's MPE (the hazard engine names it: lib/safety/pulsed.ts). Presentation only; no published formula.
 import { laserAveragePowerMw, laserPulseEnergyJ } from "@/lib/bench/laser-power";
+import { PULSE_RULE_WORDS, type PulseRule } from "@/lib/safety/pulsed";
 import { formatNumber } from "./number";
 
-/** The governing rule names of lib/safety/pulsed.ts (PulseRule). */
-export type PulseRuleName = "single-pulse" | "average-power" | "pulse-train" | "burst";
-
-/** What the governing rule means, in words (rules 1–3 as the repetitive-pulse clauses number them, and the burst rule). */
-export const PULSE_RULE_WORDS: Record<PulseRuleName, string> = {
-  "single-pulse": "rule 1, any single pulse against the MPE for its duration",
-  "average-power": "rule 2, the average power over the exposure",
-  "pulse-train": "rule 3, each pulse of the train with C_P = N^−0.25",
-  burst: "the burst rule, each burst taken as one pulse of its energy and length",
-};
+/** The governing rule names of lib/safety/pulsed.ts. */
+export type PulseRuleName = PulseRule;
+export { PULSE_RULE_WORDS };
 
 export type PulseRegimeKind = "continuous" | "single-pulse" | "train" | "burst";
 

@@ -3,7 +3,7 @@
 
 import { apertureAveragedIrradianceWPerCm2 } from "./irradiance";
 import { defaultExposureS, eyeMpe, limitingAperture, type EyeMpe, type MpeSite } from "./mpe";
-import { pulsedEyeMpe, type PulsedMpe } from "./pulsed";
+import { PULSE_RULE_WORDS, pulsedEyeMpe, type PulsedMpe } from "./pulsed";
 import { type Figure, type StandardId, DEFAULT_MPE_STANDARD, UNCHECKED, unchecked } from "./types";
 
 export type LaserEmission = {
@@ -87,9 +87,9 @@ function siteLimit(λ: number, site: MpeSite, exposureS: number, emission: Laser
       ? {
           value: pulsed.effectiveIrradianceWPerCm2,
           unit: "W/cm²",
-          source: `${pulsed.source}; governing rule: ${pulsed.governingRule}; per-pulse MPE × repetition rate, an average irradiance`,
+          source: `${pulsed.source}; governed by ${PULSE_RULE_WORDS[pulsed.governingRule]}; per-pulse MPE × repetition rate, an average irradiance`,
         }
-      : { value: pulsed.perPulseJPerCm2, unit: "J/cm²", source: `${pulsed.source}; governing rule: ${pulsed.governingRule}; radiant exposure of the single pulse` },
+      : { value: pulsed.perPulseJPerCm2, unit: "J/cm²", source: `${pulsed.source}; governed by ${PULSE_RULE_WORDS[pulsed.governingRule]}; radiant exposure of the single pulse` },
     limitingAperture: { value: aperture.diameterMm, unit: "mm", source: `${aperture.source}, for the pulse duration — ${UNCHECKED}` },
     continuous: null,
     pulsed,

@@ -10,6 +10,14 @@ import { type StandardId, DEFAULT_MPE_STANDARD, SOURCE, UNCHECKED } from "./type
 
 export type PulseRule = "single-pulse" | "average-power" | "pulse-train" | "burst";
 
+/** What the governing rule means, in words (rules 1–3 as the repetitive-pulse clauses number them, and the burst rule). */
+export const PULSE_RULE_WORDS: Record<PulseRule, string> = {
+  "single-pulse": "rule 1, any single pulse against the MPE for its duration",
+  "average-power": "rule 2, the average power over the exposure",
+  "pulse-train": "rule 3, each pulse of the train with C_P = N^−0.25",
+  burst: "the burst rule, each burst taken as one pulse of its energy and length",
+};
+
 /**
  * Pulses in bursts: `pulsesPerBurst` pulses at `pulseRateHz` inside each burst. The train's pulseRepetitionRateHz stays
  * the average number of pulses per second (pulses per burst × bursts per second), so energy × rate is the average power.

@@ -87,7 +87,7 @@ describe("assessBeam: the bench document contract", () => {
     expect(r.pulsedMpe?.governingRule).toBe("pulse-train");
     // 2e-7 J/cm² × 1000 Hz = 2e-4 W/cm² (pulsed.test.ts)
     expect(r.mpeWPerCm2).toBeCloseTo(2e-4, 12);
-    expect(r.figures.mpe.source).toMatch(/governing rule: pulse-train/);
+    expect(r.figures.mpe.source).toMatch(/governed by rule 3, each pulse of the train/);
     expect(r.cautions.map((c) => c.id)).toContain("pulsed");
   });
 
