@@ -6,6 +6,7 @@ import { PNG } from "pngjs";
 import type { BenchDocument } from "@/lib/bench/schema";
 import { screenProfile } from "@/lib/optics";
 import { withScreenAt } from "@/lib/optics/photo-fit";
+import { seededRandom } from "@/lib/seeded-random";
 
 export type DemoPhotoOptions = {
   /** Where the screen really stands behind the aperture (mm); the rest of the bench as drawn. */
@@ -22,18 +23,6 @@ export type DemoPhotoOptions = {
   /** A photo with the laser off or the cap on: room light and noise only. */
   dark?: boolean;
 };
-
-/** A small deterministic generator (mulberry32) so the demo photos are the same on every installation. */
-function random(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Separable Gaussian blur of a float image, in place. */
 function blur(img: Float32Array, w: number, h: number, sigma: number): void {
@@ -86,7 +75,7 @@ export function renderDemoPhoto(doc: BenchDocument, apertureId: string, screenId
     }
     blur(linear, w, h, o.blurPx);
   }
-  const next = random(o.seed);
+  const next = seededRandom(o.seed);
   const normal = () => Math.sqrt(-2 * Math.log(1 - next())) * Math.cos(2 * Math.PI * next());
   const colour = [1, 0.22, 0.14];
   const data = new Uint8Array(w * h * 4);

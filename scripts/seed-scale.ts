@@ -5,6 +5,7 @@
 //   DATABASE_URL=postgres://… npx tsx scripts/seed-scale.ts [--benches 10000] [--trail 100000]
 import { createHash, randomUUID } from "node:crypto";
 import pg from "pg";
+import { seededRandom } from "@/lib/seeded-random";
 
 export type ScaleCounts = { labs: number; people: number; benches: number; revisions: number; decisions: number; approvals: number; comments: number; auditEvents: number; trailRows: number; builds: number; mismatchedObservations: number };
 
@@ -46,18 +47,6 @@ const COMMENT_BODIES = [
 
 const DAY_MS = 86_400_000;
 
-/** A small deterministic generator (mulberry32), so two runs give the same spread. */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 type Columns = Record<string, { type: string; values: unknown[] }>;
 
 /** INSERT … SELECT * FROM unnest($1::t1[], $2::t2[], …) in chunks. */
@@ -74,7 +63,7 @@ async function insertColumns(client: pg.PoolClient, table: string, cols: Columns
 export async function seedScale(databaseUrl: string, options: { benches?: number; trailRows?: number; seed?: number; now?: Date } = {}): Promise<ScaleCounts> {
   const benchCount = options.benches ?? 10_000;
   const trailTarget = options.trailRows ?? 100_000;
-  const random = rng(options.seed ?? 20260);
+  const random = seededRandom(options.seed ?? 20260);
   const pick = <T>(list: readonly T[]) => list[Math.floor(random() * list.length)];
   const now = options.now ?? new Date();
   const pool = new pg.Pool({ connectionString: databaseUrl, max: 1 });

@@ -5,21 +5,10 @@
 import { describe, expect, it } from "vitest";
 import { cauchySums } from "@/lib/optics/cauchy-sum";
 import { gaussLegendre } from "@/lib/optics/quadrature";
+import { seededRandom } from "@/lib/seeded-random";
 
 const BOUND = 1e-9;
 const GL = gaussLegendre(16);
-
-/** A small seeded generator (mulberry32), so every run sees the same points and weights. */
-function generator(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 function shuffle(x: Float64Array, random: () => number): Float64Array {
   for (let i = x.length - 1; i > 0; i--) {
@@ -85,14 +74,14 @@ function worstRatio(x: Float64Array, weights: Float64Array[]): number {
 describe("cauchySums on Gauss–Legendre panel points x = (cρ)² (the field chain's nodes)", () => {
   for (const panels of [2, 30, 100, 400]) {
     it(`${16 * panels} points, four weight vectors: within 1e-9 of the magnitude sum`, () => {
-      const random = generator(panels);
+      const random = seededRandom(panels);
       const x = panelPoints(panels, 1.5e-3, 2.1e3, random);
       expect(worstRatio(x, randomWeights(4, x.length, random))).toBeLessThan(BOUND);
     });
   }
 
   it("weights on a few points only, so the far pairs (the expansions) carry the sums", () => {
-    const random = generator(7);
+    const random = seededRandom(7);
     const x = panelPoints(100, 1, 1, random);
     const sparse = (every: number): Float64Array => Float64Array.from({ length: x.length }, (_, i) => (i % every === 3 ? 2 * random() - 1 : 0));
     const single = new Float64Array(x.length);
@@ -101,7 +90,7 @@ describe("cauchySums on Gauss–Legendre panel points x = (cρ)² (the field cha
   });
 
   it("a zero weight vector among others gives exact zeros", () => {
-    const random = generator(8);
+    const random = seededRandom(8);
     const x = panelPoints(30, 1, 1, random);
     const weights = randomWeights(4, x.length, random);
     weights[2] = new Float64Array(x.length);
@@ -114,31 +103,31 @@ describe("cauchySums on Gauss–Legendre panel points x = (cρ)² (the field cha
 
 describe("cauchySums on other point sets", () => {
   it("random points in [−3, 7]", () => {
-    const random = generator(11);
+    const random = seededRandom(11);
     const x = Float64Array.from({ length: 3000 }, () => 10 * random() - 3);
     expect(worstRatio(x, randomWeights(4, x.length, random))).toBeLessThan(BOUND);
   });
 
   it("equally spaced points", () => {
-    const random = generator(12);
+    const random = seededRandom(12);
     const x = shuffle(Float64Array.from({ length: 2048 }, (_, i) => 5 + 0.01 * i), random);
     expect(worstRatio(x, randomWeights(4, x.length, random))).toBeLessThan(BOUND);
   });
 
   it("two far clusters (near −3 and near 10⁶, each 10⁻³ wide)", () => {
-    const random = generator(13);
+    const random = seededRandom(13);
     const x = Float64Array.from({ length: 2000 }, (_, i) => (i % 2 === 0 ? -3 : 1e6) + 1e-3 * random());
     expect(worstRatio(x, randomWeights(4, x.length, random))).toBeLessThan(BOUND);
   });
 
   it("repeated tiny gaps: pairs x and x·(1 + 10⁻⁹)", () => {
-    const random = generator(14);
+    const random = seededRandom(14);
     const x = shuffle(Float64Array.from({ length: 2000 }, (_, i) => (1 + Math.floor(i / 2)) * (i % 2 === 0 ? 1 : 1 + 1e-9)), random);
     expect(worstRatio(x, randomWeights(4, x.length, random))).toBeLessThan(BOUND);
   });
 
   it("one, two and five weight vectors (the vectors go in fours)", () => {
-    const random = generator(15);
+    const random = seededRandom(15);
     const x = panelPoints(40, 1, 1, random);
     for (const count of [1, 2, 5]) expect(worstRatio(x, randomWeights(count, x.length, random))).toBeLessThan(BOUND);
   });
@@ -162,7 +151,7 @@ describe("cauchySums with one or two weight vectors (the two-lane inner loops)",
   for (const [s, { name, points }] of pointSets.entries()) {
     for (const n of [480, 1600]) {
       it(`${name}, N = ${n}: two vectors, and one, within 1e-9 of the magnitude sum`, () => {
-        const random = generator(31 + 10 * s + n);
+        const random = seededRandom(31 + 10 * s + n);
         const x = points(n, random);
         const [a, b] = randomWeights(2, n, random);
         expect(worstRatio(x, [a, b])).toBeLessThan(BOUND);
@@ -172,7 +161,7 @@ describe("cauchySums with one or two weight vectors (the two-lane inner loops)",
   }
 
   it("two vectors with weights on a few points only (the expansions carry the sums)", () => {
-    const random = generator(41);
+    const random = seededRandom(41);
     const x = panelPoints(100, 1, 1, random);
     const sparse = (every: number): Float64Array => Float64Array.from({ length: x.length }, (_, i) => (i % every === 5 ? 2 * random() - 1 : 0));
     expect(worstRatio(x, [sparse(53), sparse(401)])).toBeLessThan(BOUND);
@@ -180,7 +169,7 @@ describe("cauchySums with one or two weight vectors (the two-lane inner loops)",
 
   it("two vectors, and one, give what they give with zero vectors beside them (four lanes), to 1e-12 of the magnitude sum", () => {
     for (const n of [150, 480, 1600]) {
-      const random = generator(50 + n);
+      const random = seededRandom(50 + n);
       const x = panelPoints(n / 16, 1.5e-3, 2.1e3, random);
       const [a, b] = randomWeights(2, n, random);
       const zero = new Float64Array(n);
@@ -205,7 +194,7 @@ describe("cauchySums with one or two weight vectors (the two-lane inner loops)",
 
 describe("cauchySums contract", () => {
   it("is deterministic bit for bit, and out may be the weight vectors themselves", () => {
-    const random = generator(21);
+    const random = seededRandom(21);
     const x = panelPoints(60, 1, 1, random);
     const weights = randomWeights(4, x.length, random);
     const first = weights.map(() => new Float64Array(x.length));

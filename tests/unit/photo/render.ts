@@ -12,6 +12,7 @@
 // an aperture of radius R, a free-space distance b before the screen: u = 2πN + 2i·R²/w², N = (R²/λ)(1/ρ_c + 1/b),
 // v = 2π r R/(λ b), and the intensity relative to the unobstructed on-axis intensity is |2β F|² with β = −iu/2.
 import type { BenchDocument, BenchElement } from "@/lib/bench/schema";
+import { seededRandom } from "@/lib/seeded-random";
 
 type Complex = { re: number; im: number };
 const cmul = (a: Complex, b: Complex): Complex => ({ re: a.re * b.re - a.im * b.im, im: a.re * b.im + a.im * b.re });
@@ -155,16 +156,9 @@ export function benchDocument(b: SyntheticBench, drawnScreenDistanceMm: number):
   return { version: 1, title: "synthetic photo bench", elements };
 }
 
-/** Small deterministic generator (mulberry32) so photos repeat from a seed. */
+/** Deterministic numbers (lib/seeded-random.ts) so photos repeat from a seed, and normal deviates from them. */
 export function randomSource(seed: number): { next: () => number; normal: () => number } {
-  let s = seed >>> 0;
-  const next = () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  const next = seededRandom(seed);
   const normal = () => {
     const u = Math.max(next(), 1e-12);
     return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * next());
