@@ -58,8 +58,6 @@ const TAIL_SPREAD = 100;
  * figure a little larger than the field's (never smaller); tests/unit/optics/chain.test.ts measures the excess.
  */
 const PROBE_TAIL_SPREAD = 10;
-/** From this many nodes on, the power in a circle sums its node pairs by the fast multipole method (measured crossover ≈ 200). */
-const FAST_CAUCHY_FROM = 200;
 /** Node pairs (source nodes × target points) one hop may cost before the geometric limit is used. */
 export const MAX_HOP_WORK = 2e6;
 /** Nodes one plane may hold (memory bound). */
@@ -469,7 +467,6 @@ export class FieldChain {
     return { rho: nodes.rho, wr: nodes.wr, re, im };
   }
 
-
   /**
    * The plane's field on its own `panels`-panel quadrature nodes over [0, reach], computed once per plane and panel
    * count (the same numbers every time; a plane is asked for the same nodes by its power, its next hop and the
@@ -745,34 +742,15 @@ export function powerInsideCircle(source: NodeField, matrix: AbcdMatrix, wavelen
     pD[k] = gi * alpha * v;
     diagonal += (gr * gr + gi * gi) * ((a * a) / 2) * (u * u + v * v);
   }
-  // Σ_{n<m} Re(gₙ gₘ*) a (sₙuₘ − uₙsₘ)/(xₙ − xₘ), with u = J₀(αa), s = αJ₁(αa): symmetric in (n, m), so half the
-  // sum over n ≠ m, which the fast multipole method gives in O(N) for large N (lib/optics/cauchy-sum.ts)
-  if (n >= FAST_CAUCHY_FROM) {
-    // the terms −uₙsₘ are the sₙuₘ terms with n and m swapped (the kernel is odd): Σ_{n≠m} = 2 Σₙ sₙ Σ_{m≠n} uₘ/(xₙ − xₘ)
-    const sums = [new Float64Array(n), new Float64Array(n)];
-    cauchySums(x, [pA, pB], sums);
-    const [sA, sB] = sums;
-    let all = 0;
-    for (let i = 0; i < n; i++) all += pC[i] * sA[i] + pD[i] * sB[i];
-    return 2 * Math.PI * beta * beta * (diagonal + 2 * a * all);
-  }
-  let off = 0;
-  for (let i = 0; i < n; i++) {
-    const xi = x[i];
-    let sA = 0;
-    let sB = 0;
-    let sC = 0;
-    let sD = 0;
-    for (let m = i + 1; m < n; m++) {
-      const d = 1 / (xi - x[m]);
-      sA += pA[m] * d;
-      sB += pB[m] * d;
-      sC += pC[m] * d;
-      sD += pD[m] * d;
-    }
-    off += pC[i] * sA + pD[i] * sB - pA[i] * sC - pB[i] * sD;
-  }
-  return 2 * Math.PI * beta * beta * (diagonal + 2 * a * off);
+  // Σ_{n<m} Re(gₙ gₘ*) a (sₙuₘ − uₙsₘ)/(xₙ − xₘ), with u = J₀(αa), s = αJ₁(αa), is half the sum over n ≠ m; there the
+  // −uₙsₘ terms are the sₙuₘ terms with n and m swapped (the kernel is odd), so it is Σₙ sₙ Σ_{m≠n} uₘ/(xₙ − xₘ): two
+  // Cauchy sums, by the fast multipole method (lib/optics/cauchy-sum.ts; the direct loop below 200 nodes)
+  const sums = [new Float64Array(n), new Float64Array(n)];
+  cauchySums(x, [pA, pB], sums);
+  const [sA, sB] = sums;
+  let pairs = 0; // the sum over n < m
+  for (let i = 0; i < n; i++) pairs += pC[i] * sA[i] + pD[i] * sB[i];
+  return 2 * Math.PI * beta * beta * (diagonal + 2 * a * pairs);
 }
 
 /** Collins' integral from prepared source nodes to radii r: (2π/(iλB))·e^{iπDr²/(λB)}·Σ g_n J₀(2πρ_n r/(λB)). */
