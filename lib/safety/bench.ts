@@ -202,7 +202,6 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
   // Far-field 1/e² full-angle divergence of the laser: θ = 2M²λ/(π w0).
   const divergenceFor = (wavelengthNm: number) => ((2 * m2 * wavelengthNm * 1e-6) / (Math.PI * w0)) * 1000;
   const byId = new Map(doc.elements.map((e) => [e.id, e]));
-  let standard: StandardId = options.standard ?? DEFAULT_MPE_STANDARD;
 
   const situations = new Set<CautionSituation>();
   const warnings: BenchSafetyAssessment["warnings"] = [];
@@ -216,8 +215,7 @@ export function assessBench(doc: BenchDocument, beam: BenchBeam, options: BenchS
   const cached = beam.laserFigures?.get(laser.id);
   const own = cached ?? laserFigures(laser, options, divergenceFor);
   if (!cached) beam.laserFigures?.set(laser.id, own);
-  const { pulseDurationS, pulseRepetitionRateHz, laserAssessment, further, lineList, linesAssessment, allocation } = own;
-  standard = own.standard;
+  const { standard, pulseDurationS, pulseRepetitionRateHz, laserAssessment, further, lineList, linesAssessment, allocation } = own;
   for (const w of own.warnings) warnings.push({ ...w });
 
   // Filter correction per line, accumulated along the beam (in beam order).
